@@ -1,0 +1,72 @@
+// Builds the Express app (exported apart from listen, so tests use it without a port).
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import cookieParser from 'cookie-parser';
+import { pinoHttp } from 'pino-http';
+import path from 'node:path';
+import fs from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import type { AppContext } from './context';
+import { authenticate, csrfGuard } from './auth/sessions';
+import { authRouter } from './auth/router';
+import { projectsRouter } from './projects/router';
+import { buildsRouter } from './builds/router';
+import { adminRouter } from './admin/router';
+import { homeRouter } from './home/router';
+import { curvesRouter } from './curves/router';
+import { errorMiddleware } from './lib/error-middleware';
+import { AppError } from './lib/errors';
+import { openApiDocument } from './openapi';
+import { extraRouters } from './routers';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+export function createApp(ctx: AppContext, options: { serveClient?: boolean } = {}): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'default-src': ["'self'"],
+          'script-src': ["'self'"],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'", 'data:'],
+          'connect-src': ["'self'"],
+          'worker-src': ["'self'", 'blob:'],
+          'upgrade-insecure-requests': null,
+        },
+      },
+    }),
+  );
+  if (ctx.env.LOG_LEVEL !== 'silent') app.use(pinoHttp({ logger: ctx.logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  app.use(cookieParser());
+  app.use(express.json({ limit: '2mb' }));
+
+  const api = express.Router();
+  api.use(authenticate(ctx));
+  api.use(csrfGuard());
+  api.get('/openapi.json', (_req, res) => res.json(openApiDocument()));
+  api.get('/health', (_req, res) => res.json({ ok: true }));
+  api.use(authRouter(ctx));
+  api.use(homeRouter(ctx));
+  api.use(projectsRouter(ctx));
+  api.use(buildsRouter(ctx));
+  api.use(curvesRouter(ctx));
+  api.use(adminRouter(ctx));
+  for (const extra of extraRouters) api.use(extra(ctx));
+  api.use((req, _res, next) => next(new AppError(404, 'not-found', `No API route ${req.method} /api${req.path}.`)));
+  app.use('/api', api);
+
+  if (options.serveClient !== false) {
+    const dist = path.join(root, 'dist');
+    if (fs.existsSync(path.join(dist, 'index.html'))) {
+      app.use(express.static(dist, { index: false, maxAge: '1h' }));
+      app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
+    }
+  }
+  app.use(errorMiddleware(ctx.logger));
+  return app;
+}

@@ -1,0 +1,99 @@
+// Who may do what in a project. Every route asks here; the client only hides what this refuses.
+import { and, eq } from 'drizzle-orm';
+import type { Db } from '../db';
+import { memberships, projects } from '../db/schema';
+import type { AuthUser } from '../context';
+import type { ProjectRole } from '../../shared/schemas/project';
+import { forbidden, notFound, unauthorized } from '../lib/errors';
+
+export type ProjectAction =
+  | 'read'
+  | 'editSettings'
+  | 'invite'
+  | 'editFactors'
+  | 'createBuild'
+  | 'deleteBuild'
+  | 'fit'
+  | 'plan'
+  | 'review'
+  | 'comment'
+  | 'manageProfiles';
+
+/** The role matrix, in one place: which per-project roles may do each action (admins may do all). */
+export const ROLE_MATRIX: Record<ProjectAction, readonly ProjectRole[]> = {
+  read: ['pi', 'researcher', 'partner', 'viewer'],
+  editSettings: ['pi'],
+  invite: ['pi'],
+  editFactors: ['pi', 'researcher'],
+  createBuild: ['pi', 'researcher', 'partner'],
+  deleteBuild: ['pi', 'researcher'],
+  fit: ['pi', 'researcher'],
+  plan: ['pi', 'researcher'],
+  review: ['pi'],
+  comment: ['pi', 'researcher', 'partner'],
+  manageProfiles: ['pi', 'researcher', 'partner'],
+};
+
+export interface ProjectAccess {
+  projectId: number;
+  role: ProjectRole | 'admin';
+  user: AuthUser;
+}
+
+export function requireUser(user: AuthUser | undefined): AuthUser {
+  if (!user) throw unauthorized();
+  return user;
+}
+
+export function projectRole(db: Db, user: AuthUser, projectId: number): ProjectRole | null {
+  const row = db
+    .select({ role: memberships.role })
+    .from(memberships)
+    .where(and(eq(memberships.projectId, projectId), eq(memberships.userId, user.id)))
+    .get();
+  return row?.role ?? null;
+}
+
+/**
+ * Resolve the user's access to a project and check one action.
+ * A project the user cannot see answers 404 (not 403), so partners cannot probe for projects.
+ */
+export function requireProject(db: Db, user: AuthUser | undefined, projectId: number, action: ProjectAction): ProjectAccess {
+  const who = requireUser(user);
+  const project = db.select({ id: projects.id }).from(projects).where(eq(projects.id, projectId)).get();
+  if (!project) throw notFound(`Project ${projectId}`);
+  if (who.isAdmin) return { projectId, role: 'admin', user: who };
+  const role = projectRole(db, who, projectId);
+  if (!role) throw notFound(`Project ${projectId}`);
+  if (!ROLE_MATRIX[action].includes(role)) throw forbidden(`Your role (${role}) in this project does not allow: ${describe(action)}.`);
+  return { projectId, role, user: who };
+}
+
+export function can(access: { role: ProjectRole | 'admin' }, action: ProjectAction): boolean {
+  return access.role === 'admin' || ROLE_MATRIX[action].includes(access.role);
+}
+
+/** Partners may only touch builds of their own lab. */
+export function requireBuildWrite(access: ProjectAccess, build: { labId: number | null }): void {
+  if (access.role === 'viewer') throw forbidden('Viewers cannot change builds.');
+  if (access.role === 'partner' && (access.user.labId == null || build.labId !== access.user.labId)) {
+    throw forbidden('Partners may only change builds of their own lab.');
+  }
+}
+
+function describe(action: ProjectAction): string {
+  const words: Record<ProjectAction, string> = {
+    read: 'read the project',
+    editSettings: 'change project settings',
+    invite: 'invite people',
+    editFactors: 'change factors or responses',
+    createBuild: 'create builds',
+    deleteBuild: 'delete builds',
+    fit: 'fit surfaces',
+    plan: 'plan designs',
+    review: 'give review verdicts',
+    comment: 'comment',
+    manageProfiles: 'manage import profiles',
+  };
+  return words[action];
+}

@@ -1,0 +1,58 @@
+// HTTP for builds: list and create per project, read and update one.
+import { Router } from 'express';
+import { z } from 'zod';
+import type { AppContext } from '../context';
+import { buildCreateSchema, buildUpdateSchema, BUILD_STATUSES } from '../../shared/schemas/build';
+import { idParam, parseInput } from '../lib/validate';
+import { requireProject } from '../auth/access';
+import * as service from './service';
+import { curvesForBuild } from '../curves/service';
+import { can } from '../auth/access';
+
+const listQuery = z.object({
+  status: z.enum(BUILD_STATUSES).optional(),
+  limit: z.coerce.number().int().min(1).max(100000).optional(),
+  offset: z.coerce.number().int().min(0).optional(),
+});
+
+export function buildsRouter(ctx: AppContext): Router {
+  const router = Router();
+  const { db } = ctx;
+
+  router.get('/projects/:id/builds', (req, res) => {
+    const access = requireProject(db, req.user, idParam(req.params.id), 'read');
+    const query = parseInput(listQuery, req.query, 'query');
+    res.json({ builds: service.listBuilds(ctx, access, query) });
+  });
+
+  router.post('/projects/:id/builds', (req, res) => {
+    const access = requireProject(db, req.user, idParam(req.params.id), 'createBuild');
+    const body = parseInput(buildCreateSchema, req.body);
+    res.status(201).json({ build: service.createBuild(ctx, access, body) });
+  });
+
+  router.get('/builds/:id', (req, res) => {
+    const { row, access } = service.accessBuild(ctx, req.user, idParam(req.params.id));
+    const build = service.getBuildItem(ctx, row.id);
+    const partnerOwn = access.role !== 'partner' || (access.user.labId != null && row.labId === access.user.labId);
+    res.json({
+      build,
+      lineage: service.lineage(ctx, row),
+      curves: curvesForBuild(ctx, row.id),
+      permissions: {
+        edit: can(access, 'createBuild') && partnerOwn,
+        upload: can(access, 'createBuild') && partnerOwn,
+        review: can(access, 'review'),
+        comment: can(access, 'comment'),
+      },
+    });
+  });
+
+  router.patch('/builds/:id', (req, res) => {
+    const { row, access } = service.accessBuild(ctx, req.user, idParam(req.params.id), 'createBuild');
+    const body = parseInput(buildUpdateSchema, req.body);
+    res.json({ build: service.updateBuild(ctx, access, row, body) });
+  });
+
+  return router;
+}

@@ -1,0 +1,33 @@
+// What every router and service needs: the database, the settings, the mailer, the logger.
+import type { Db } from './db';
+import type { Env } from './env';
+import type { Mailer } from './lib/mail';
+import type { Logger } from 'pino';
+
+export interface AppContext {
+  db: Db;
+  env: Env;
+  mailer: Mailer;
+  logger: Logger;
+}
+
+export interface AuthUser {
+  id: number;
+  email: string;
+  name: string;
+  isAdmin: boolean;
+  labId: number | null;
+  labKind: 'home' | 'partner' | null;
+}
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Request {
+      user?: AuthUser;
+      authVia?: 'cookie' | 'token';
+      sessionId?: number;
+      csrfToken?: string;
+    }
+  }
+}

@@ -1,0 +1,107 @@
+// Turns an uploaded file on disk into a ParsedTable: sniff the content (never trust the
+// extension), stream text through the chunked parser, or read a spreadsheet's chosen sheet.
+import fs from 'node:fs';
+import { createHash } from 'node:crypto';
+import ExcelJS from 'exceljs';
+import { createDelimitedParser, sniffBytes } from '../../shared/curves';
+import { CurveFileError } from '../../shared/curves/types';
+import type { ParsedTable } from '../../shared/curves';
+
+export interface ReadResult {
+  table: ParsedTable;
+  sha256: string;
+  contentType: string;
+  sheets?: string[];
+  sheet?: string;
+}
+
+async function readHead(path: string, bytes: number): Promise<Uint8Array> {
+  const handle = await fs.promises.open(path, 'r');
+  try {
+    const buffer = Buffer.alloc(bytes);
+    const { bytesRead } = await handle.read(buffer, 0, bytes, 0);
+    return buffer.subarray(0, bytesRead);
+  } finally {
+    await handle.close();
+  }
+}
+
+function looksUtf8(head: Uint8Array): boolean {
+  try {
+    new TextDecoder('utf-8', { fatal: true }).decode(head, { stream: true });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export async function hashFile(path: string): Promise<string> {
+  const hash = createHash('sha256');
+  for await (const chunk of fs.createReadStream(path)) hash.update(chunk as Buffer);
+  return hash.digest('hex');
+}
+
+export async function readUpload(path: string, options: { sheet?: string; maxRows: number }): Promise<ReadResult> {
+  const head = await readHead(path, 65536);
+  const kind = sniffBytes(head);
+  if (kind === 'empty') throw new CurveFileError('empty', 'The file is empty.');
+  if (kind === 'binary') throw new CurveFileError('binary', 'The file is binary, not a text table or an .xlsx workbook; export the data as CSV, TSV, TXT or XLSX.');
+  if (kind === 'xls') throw new CurveFileError('old-excel', 'This is an old .xls workbook; save it as .xlsx or CSV and upload again.');
+  if (kind === 'xlsx') return readWorkbook(path, options);
+
+  const hash = createHash('sha256');
+  const decoder = new TextDecoder(looksUtf8(head) ? 'utf-8' : 'windows-1252');
+  const parser = createDelimitedParser({ maxRows: options.maxRows });
+  for await (const chunk of fs.createReadStream(path, { highWaterMark: 1 << 20 })) {
+    hash.update(chunk as Buffer);
+    parser.push(decoder.decode(chunk as Buffer, { stream: true }));
+  }
+  parser.push(decoder.decode());
+  return { table: parser.finish(), sha256: hash.digest('hex'), contentType: 'text/plain' };
+}
+
+function cellText(value: ExcelJS.CellValue): string {
+  if (value == null) return '';
+  if (typeof value === 'number') return String(value);
+  if (typeof value === 'string') return value;
+  if (typeof value === 'boolean') return value ? 'TRUE' : 'FALSE';
+  if (value instanceof Date) return value.toISOString();
+  if (typeof value === 'object') {
+    if ('result' in value) return cellText((value as { result: ExcelJS.CellValue }).result);
+    if ('richText' in value) return (value as ExcelJS.CellRichTextValue).richText.map((r) => r.text).join('');
+    if ('text' in value) return String((value as { text: unknown }).text);
+    if ('error' in value) return '';
+  }
+  return String(value);
+}
+
+async function readWorkbook(path: string, options: { sheet?: string; maxRows: number }): Promise<ReadResult> {
+  const workbook = new ExcelJS.Workbook();
+  try {
+    await workbook.xlsx.readFile(path);
+  } catch {
+    throw new CurveFileError('bad-xlsx', 'The file looks like an .xlsx workbook but could not be read; open and save it again, or export CSV.');
+  }
+  const sheets = workbook.worksheets.map((w) => w.name);
+  const sheet = options.sheet ? workbook.getWorksheet(options.sheet) : workbook.worksheets.find((w) => w.actualRowCount > 0);
+  if (!sheet) {
+    if (options.sheet) throw new CurveFileError('no-sheet', `The workbook has no sheet named "${options.sheet}"; it has: ${sheets.join(', ')}.`);
+    throw new CurveFileError('empty', 'The workbook has no sheet with data.');
+  }
+  const lines: string[] = [];
+  sheet.eachRow({ includeEmpty: true }, (row) => {
+    const values = row.values as ExcelJS.CellValue[];
+    const cells: string[] = [];
+    for (let c = 1; c < values.length; c++) cells.push(cellText(values[c]).replace(/[\t\r\n]+/g, ' '));
+    lines.push(cells.join('\t'));
+  });
+  const parser = createDelimitedParser({ maxRows: options.maxRows });
+  parser.push(lines.join('\n'));
+  return {
+    table: parser.finish(),
+    sha256: await hashFile(path),
+    contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    sheets,
+    sheet: sheet.name,
+  };
+}

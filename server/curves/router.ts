@@ -1,0 +1,176 @@
+// HTTP for curves: multipart upload (streamed to disk by multer), preview, points, raw bytes,
+// and import profiles.
+import { Router, type Request, type Response, type NextFunction } from 'express';
+import multer from 'multer';
+import fs from 'node:fs';
+import path from 'node:path';
+import { z } from 'zod';
+import { and, eq } from 'drizzle-orm';
+import type { AppContext } from '../context';
+import { curves, files, importProfiles } from '../db/schema';
+import { idParam, parseInput } from '../lib/validate';
+import { AppError, forbidden, notFound } from '../lib/errors';
+import { requireBuildWrite, requireProject, can } from '../auth/access';
+import { accessBuild } from '../builds/service';
+import { curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView } from './service';
+import { audit } from '../lib/audit';
+
+const unitSpec = z.object({ column: z.number().int().min(0), unit: z.string() });
+const mappingSchema = z.object({
+  current: unitSpec.extend({ unit: z.enum(['A/cm2', 'mA/cm2', 'A', 'mA']) }).optional(),
+  voltage: unitSpec.extend({ unit: z.enum(['V', 'mV']) }),
+  hfr: unitSpec.extend({ unit: z.enum(['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm']) }).optional(),
+  time: unitSpec.extend({ unit: z.enum(['s', 'min', 'h', 'timestamp']) }).optional(),
+  temperature: unitSpec.extend({ unit: z.enum(['C', 'K']) }).optional(),
+});
+
+const jsonText = <T extends z.ZodType>(schema: T) =>
+  z.string().transform((text, ctx) => {
+    try {
+      return JSON.parse(text) as unknown;
+    } catch {
+      ctx.addIssue({ code: 'custom', message: 'must be JSON' });
+      return z.NEVER;
+    }
+  }).pipe(schema);
+
+export const uploadFieldsSchema = z.object({
+  kind: z.enum(['polarization', 'durability', 'hold']).optional(),
+  areaCm2: z.coerce.number().positive('must be above 0 cm²').max(1000).optional(),
+  profileId: z.coerce.number().int().positive().optional(),
+  mapping: jsonText(mappingSchema).optional(),
+  sheet: z.string().max(100).optional(),
+  label: z.string().max(120).optional(),
+  saveProfileAs: z.string().trim().min(1).max(80).optional(),
+});
+
+const pointsQuery = z.object({
+  maxPoints: z.coerce.number().int().min(10).max(100000).optional(),
+  fromHours: z.coerce.number().optional(),
+  toHours: z.coerce.number().optional(),
+});
+
+const curvePatchSchema = z.object({
+  label: z.string().trim().max(120).optional(),
+  breakInHours: z.number().min(0).optional(),
+  windows: z.array(z.object({ fromHours: z.number().min(0), toHours: z.number().min(0) })).max(20).optional(),
+  lossFraction: z.number().gt(0).lt(1).optional(),
+});
+
+const profileSchema = z.object({
+  name: z.string().trim().min(1).max(80),
+  labId: z.number().int().positive().nullish(),
+  kind: z.enum(['polarization', 'durability', 'hold']).default('polarization'),
+  mapping: z.record(z.enum(['current', 'voltage', 'hfr', 'time', 'temperature']), z.object({ header: z.string().min(1), unit: z.string().min(1) })),
+});
+
+export function curvesRouter(ctx: AppContext): Router {
+  const router = Router();
+  const { db, env } = ctx;
+  const tmpDir = path.join(env.uploadsDir, 'tmp');
+  fs.mkdirSync(tmpDir, { recursive: true });
+  const upload = multer({ dest: tmpDir, limits: { fileSize: env.UPLOAD_MAX_BYTES, files: 1, fields: 20 } });
+
+  const receiveFile = (req: Request, res: Response, next: NextFunction) => {
+    upload.single('file')(req, res, (error: unknown) => {
+      if (error instanceof multer.MulterError) {
+        if (error.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too-large', `The file is larger than the upload limit of ${Math.round(env.UPLOAD_MAX_BYTES / 1048576)} MB.`));
+        return next(new AppError(400, 'bad-upload', `Upload refused: ${error.message} (field "${error.field ?? 'file'}"). Send one file in the multipart field "file".`));
+      }
+      next(error);
+    });
+  };
+
+  async function handleUpload(req: Request, res: Response, previewOnly: boolean) {
+    const file = req.file;
+    try {
+      const { row, access } = accessBuild(ctx, req.user, idParam(req.params.id), 'createBuild');
+      requireBuildWrite(access, row);
+      if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
+      const fields = parseInput(uploadFieldsSchema, req.body ?? {}, 'upload fields');
+      const result = await ingestUpload(ctx, access, row, { tmpPath: file.path, originalName: Buffer.from(file.originalname, 'latin1').toString('utf8'), size: file.size }, { ...fields, previewOnly });
+      res.status(previewOnly ? 200 : 201).json(result);
+    } finally {
+      if (file) fs.rmSync(file.path, { force: true });
+    }
+  }
+
+  router.post('/builds/:id/curves', receiveFile, (req, res) => handleUpload(req, res, false));
+  router.post('/builds/:id/curves/preview', receiveFile, (req, res) => handleUpload(req, res, true));
+
+  router.get('/curves/:id', (req, res) => {
+    const row = loadCurve(ctx, idParam(req.params.id));
+    accessBuild(ctx, req.user, row.buildId);
+    const query = parseInput(pointsQuery, req.query, 'query');
+    res.json({ curve: curveView(row), points: curvePoints(row, query) });
+  });
+
+  router.patch('/curves/:id', (req, res) => {
+    const row = loadCurve(ctx, idParam(req.params.id));
+    const { row: build, access } = accessBuild(ctx, req.user, row.buildId, 'createBuild');
+    requireBuildWrite(access, build);
+    const body = parseInput(curvePatchSchema, req.body);
+    const { label, ...options } = body;
+    let curve = curveView(row);
+    if (Object.keys(options).length) curve = updateCurveOptions(ctx, access, row, options);
+    if (label !== undefined) {
+      ctx.db.update(curves).set({ label }).where(eq(curves.id, row.id)).run();
+      curve = { ...curve, label };
+    }
+    res.json({ curve });
+  });
+
+  router.delete('/curves/:id', (req, res) => {
+    const row = loadCurve(ctx, idParam(req.params.id));
+    const { access } = accessBuild(ctx, req.user, row.buildId, 'deleteBuild');
+    deleteCurve(ctx, access, row);
+    res.json({ ok: true });
+  });
+
+  router.get('/files/:id/raw', (req, res) => {
+    const id = idParam(req.params.id);
+    const file = db.select().from(files).where(eq(files.id, id)).get();
+    if (!file || file.projectId == null) throw notFound(`File ${id}`);
+    requireProject(db, req.user, file.projectId, 'read');
+    const stored = path.join(env.uploadsDir, file.sha256.slice(0, 2), file.sha256);
+    if (!fs.existsSync(stored)) throw notFound(`Stored bytes of file ${id}`);
+    res.setHeader('Content-Type', 'application/octet-stream');
+    res.setHeader('Content-Disposition', `attachment; filename="${file.originalName.replace(/[^\w.\- ]+/g, '_')}"`);
+    res.setHeader('X-Content-SHA256', file.sha256);
+    fs.createReadStream(stored).pipe(res);
+  });
+
+  router.get('/projects/:id/import-profiles', (req, res) => {
+    const access = requireProject(db, req.user, idParam(req.params.id), 'read');
+    const rows = db.select().from(importProfiles).where(eq(importProfiles.projectId, access.projectId)).all();
+    res.json({ profiles: rows });
+  });
+
+  router.post('/projects/:id/import-profiles', (req, res) => {
+    const access = requireProject(db, req.user, idParam(req.params.id), 'manageProfiles');
+    const body = parseInput(profileSchema, req.body);
+    let labId = body.labId ?? null;
+    if (access.role === 'partner') {
+      if (labId != null && labId !== access.user.labId) throw forbidden('Partners may only save profiles for their own lab.');
+      labId = access.user.labId;
+    }
+    if (!body.mapping.voltage) throw new AppError(400, 'validation', 'mapping.voltage: a profile must say which column is the cell voltage.', { fields: [{ path: 'mapping.voltage', message: 'required' }] });
+    const row = db.insert(importProfiles).values({ name: body.name, labId, projectId: access.projectId, kind: body.kind, mapping: body.mapping, createdBy: access.user.id }).returning().get();
+    audit(db, { userId: access.user.id, action: 'create', entity: 'import-profile', entityId: row.id, projectId: access.projectId, after: row });
+    res.status(201).json({ profile: row });
+  });
+
+  router.delete('/import-profiles/:id', (req, res) => {
+    const id = idParam(req.params.id);
+    const row = db.select().from(importProfiles).where(eq(importProfiles.id, id)).get();
+    if (!row || row.projectId == null) throw notFound(`Import profile ${id}`);
+    const access = requireProject(db, req.user, row.projectId, 'manageProfiles');
+    if (access.role === 'partner' && row.labId !== access.user.labId) throw forbidden('Partners may only remove their own lab’s profiles.');
+    if (!can(access, 'manageProfiles')) throw forbidden();
+    db.delete(importProfiles).where(and(eq(importProfiles.id, id))).run();
+    audit(db, { userId: access.user.id, action: 'delete', entity: 'import-profile', entityId: id, projectId: access.projectId, before: row });
+    res.json({ ok: true });
+  });
+
+  return router;
+}

@@ -1,0 +1,371 @@
+// Curves: from an uploaded file to stored points and metrics at the project's reference point.
+import fs from 'node:fs';
+import path from 'node:path';
+import { and, asc, desc, eq, inArray, isNull, or } from 'drizzle-orm';
+import type { AppContext } from '../context';
+import { builds, curves, files, importProfiles, projects } from '../db/schema';
+import { applyMapping, detectMapping, polarizationMetrics } from '../../shared/curves';
+import type { ParsedTable } from '../../shared/curves';
+import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
+import { CurveFileError } from '../../shared/curves/types';
+import type { ColumnMapping, CurveData, CurveKind, MetricsResult, ReferencePoint } from '../../shared/curves/types';
+import { encodePoints, decodePoints } from './points-codec';
+import { readUpload } from './read-upload';
+import { audit } from '../lib/audit';
+import { AppError, notFound } from '../lib/errors';
+import type { ProjectAccess } from '../auth/access';
+
+type BuildRow = typeof builds.$inferSelect;
+type CurveRow = typeof curves.$inferSelect;
+
+export interface UploadOptions {
+  kind?: CurveKind;
+  areaCm2?: number;
+  profileId?: number;
+  mapping?: ColumnMapping;
+  sheet?: string;
+  label?: string;
+  saveProfileAs?: string;
+  /** only detect and preview; store nothing */
+  previewOnly?: boolean;
+}
+
+export interface DurabilityOptions {
+  breakInHours?: number;
+  windows?: { fromHours: number; toHours: number }[];
+  lossFraction?: number;
+}
+
+/** Error raised when the columns need a person to confirm them: 422 with a preview. */
+function mappingNeeded(table: ParsedTable, detection: ReturnType<typeof detectMapping>, extra: Record<string, unknown>) {
+  return new AppError(
+    422,
+    'mapping-needed',
+    `Please confirm the columns: ${detection.reasons.join('; ') || 'the columns could not be recognised'}.`,
+    { preview: previewOf(table), detected: detection.mapping, kind: detection.kind, reasons: detection.reasons, ...extra },
+  );
+}
+
+function previewOf(table: ParsedTable) {
+  return {
+    header: table.header,
+    rows: table.preview,
+    rowCount: table.rowCount,
+    headerLine: table.headerLine,
+    delimiter: table.delimiter,
+    decimalComma: table.decimalComma,
+    conditions: table.conditions,
+  };
+}
+
+export function referencePoint(project: typeof projects.$inferSelect): ReferencePoint {
+  return project.settings;
+}
+
+export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null): MetricsResult {
+  if (curve.kind === 'polarization') {
+    return polarizationMetrics(curve, ref, { loadingMgCm2: build.loadingMgCm2, metalLoadingMgCm2: build.metalLoadingMgCm2 });
+  }
+  const d = durabilityMetrics(curve, options ?? {});
+  return {
+    metrics: {
+      vAtRef: null, vAtRefIrFree: null, jAtRef: null, jAtRefIrFree: null, massActivity: null,
+      peakPower: null, ocv: null, tafelSlope: null, hfr: null,
+      degradationRate: d.degradationRate, breakInHours: d.breakInHours,
+    },
+    metricNotes: d.degradationRate == null ? { degradationRate: d.notes.join(' ') || 'not enough data after break-in' } : {},
+    method: {
+      degradationRate: {
+        method: 'straight-line fit of voltage vs time after break-in; restarts and gaps fitted as separate segments; 95 % interval from the slope standard error',
+        inputs: { fromHours: d.fitWindow?.fromHours ?? null, toHours: d.fitWindow?.toHours ?? null, breakInRule: d.breakInRule ?? null },
+      },
+      breakInHours: { method: d.breakInRule ?? 'given by the user', inputs: { breakInHours: d.breakInHours ?? null } },
+    },
+    summary: durabilitySummary(d),
+  };
+}
+
+function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<string, number | string | boolean | null> {
+  return {
+    degradationLow: d.low ?? null,
+    degradationHigh: d.high ?? null,
+    hoursRun: d.hoursRun ?? null,
+    voltageLossMv: d.voltageLossMv ?? null,
+    hoursToLoss: d.hoursToLoss ?? null,
+    fitFromHours: d.fitWindow?.fromHours ?? null,
+    fitToHours: d.fitWindow?.toHours ?? null,
+    interruptions: JSON.stringify(d.interruptions ?? []),
+    windows: JSON.stringify(d.windows ?? []),
+    notes: (d.notes ?? []).join(' '),
+  };
+}
+
+/** Profile mapping is stored by header text; turn it into column indices for this file. */
+function profileToMapping(profile: typeof importProfiles.$inferSelect, table: ParsedTable): ColumnMapping | null {
+  const mapping: Record<string, { column: number; unit: string }> = {};
+  for (const [quantity, spec] of Object.entries(profile.mapping)) {
+    const column = table.header.findIndex((h: string) => h.trim().toLowerCase() === spec.header.trim().toLowerCase());
+    if (column < 0) return null;
+    mapping[quantity] = { column, unit: spec.unit };
+  }
+  return mapping.voltage ? (mapping as unknown as ColumnMapping) : null;
+}
+
+function mappingToProfile(mapping: ColumnMapping, table: ParsedTable) {
+  const out: Record<string, { header: string; unit: string }> = {};
+  for (const [quantity, spec] of Object.entries(mapping)) {
+    if (!spec) continue;
+    const header = table.header[spec.column];
+    if (header === undefined) throw new AppError(400, 'validation', `mapping.${quantity}.column: column ${spec.column} does not exist (the file has ${table.header.length} columns)`);
+    out[quantity] = { header, unit: spec.unit };
+  }
+  return out;
+}
+
+function checkMappingColumns(mapping: ColumnMapping, table: ParsedTable) {
+  for (const [quantity, spec] of Object.entries(mapping)) {
+    if (!spec) continue;
+    if (!Number.isInteger(spec.column) || spec.column < 0 || spec.column >= table.header.length) {
+      throw new AppError(400, 'validation', `mapping.${quantity}.column: column ${spec.column} does not exist (the file has ${table.header.length} columns)`, { fields: [{ path: `mapping.${quantity}.column`, message: 'no such column' }] });
+    }
+    if (table.columns[spec.column] == null) {
+      throw new AppError(422, 'text-column', `Column "${table.header[spec.column]}" holds text, not numbers; it cannot be the ${quantity} column.`, { column: table.header[spec.column] });
+    }
+  }
+}
+
+/**
+ * Read, map, convert and measure an uploaded file, then store file + curve in one transaction.
+ * The temporary upload is always removed; the kept copy is named by its SHA-256, once per content.
+ */
+export async function ingestUpload(
+  ctx: AppContext,
+  access: ProjectAccess,
+  build: BuildRow,
+  upload: { tmpPath: string; originalName: string; size: number },
+  options: UploadOptions,
+) {
+  const { db, env } = ctx;
+  try {
+    let read;
+    try {
+      read = await readUpload(upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS });
+    } catch (error) {
+      throw asUnprocessable(error, upload.originalName);
+    }
+    const { table } = read;
+    const detection = detectMapping(table, options.kind);
+    const kind: CurveKind = options.kind ?? detection.kind;
+
+    let mapping: ColumnMapping | null = null;
+    let mappingSource = 'detected';
+    if (options.mapping) {
+      checkMappingColumns(options.mapping, table);
+      mapping = options.mapping;
+      mappingSource = 'confirmed';
+    } else if (options.profileId) {
+      const profile = db.select().from(importProfiles).where(eq(importProfiles.id, options.profileId)).get();
+      if (!profile || (profile.projectId != null && profile.projectId !== access.projectId)) throw notFound(`Import profile ${options.profileId}`);
+      mapping = profileToMapping(profile, table);
+      if (!mapping) throw mappingNeeded(table, detection, { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet, profileMismatch: `the file's headers do not match the profile "${profile.name}"` });
+      mappingSource = `profile ${profile.name}`;
+    } else {
+      const profile = findMatchingProfile(ctx, access.projectId, build.labId, table);
+      if (profile) {
+        mapping = profileToMapping(profile, table);
+        mappingSource = `profile ${profile.name}`;
+      } else if (detection.mapping && !detection.ambiguous) {
+        mapping = detection.mapping;
+      }
+    }
+
+    if (options.previewOnly) {
+      return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet } };
+    }
+    if (!mapping) throw mappingNeeded(table, detection, { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet });
+
+    const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? build.areaCm2 ?? null;
+    let data: CurveData;
+    try {
+      data = applyMapping(table, mapping, { kind, areaCm2 });
+    } catch (error) {
+      throw asUnprocessable(error, upload.originalName);
+    }
+    const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+    const result = computeMetrics(data, referencePoint(project), build);
+    const points = encodePoints(data);
+
+    const stored = path.join(env.uploadsDir, read.sha256.slice(0, 2), read.sha256);
+    fs.mkdirSync(path.dirname(stored), { recursive: true });
+    const existed = fs.existsSync(stored);
+    if (!existed) fs.renameSync(upload.tmpPath, stored);
+
+    try {
+      const curve = db.transaction((tx) => {
+        const file = tx
+          .insert(files)
+          .values({ sha256: read.sha256, sizeBytes: upload.size, originalName: upload.originalName.slice(0, 255), contentType: read.contentType, projectId: access.projectId, buildId: build.id, uploadedBy: access.user.id })
+          .returning()
+          .get();
+        if (options.saveProfileAs) {
+          tx.insert(importProfiles).values({ labId: build.labId, projectId: access.projectId, name: options.saveProfileAs, mapping: mappingToProfile(mapping!, table), kind, createdBy: access.user.id }).run();
+        }
+        const row = tx
+          .insert(curves)
+          .values({
+            buildId: build.id,
+            fileId: file.id,
+            kind,
+            label: options.label ?? upload.originalName.slice(0, 120),
+            mapping,
+            conditions: { ...table.conditions, ...(areaCm2 != null && { areaCm2 }) },
+            pointCount: data.v.length,
+            points,
+            metrics: result.metrics,
+            metricNotes: result.metricNotes as Record<string, string>,
+            method: result.method as never,
+            summary: { ...result.summary, mappingSource, sheet: read.sheet ?? null },
+            metricsVersion: project.metricsVersion,
+            createdBy: access.user.id,
+          })
+          .returning()
+          .get();
+        if (build.status === 'planned' || build.status === 'built') {
+          tx.update(builds).set({ status: 'tested', testedOn: build.testedOn ?? new Date().toISOString().slice(0, 10), updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
+        }
+        return row;
+      });
+      audit(db, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: curve.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length } });
+      return { curve: curveView(curve) };
+    } catch (error) {
+      if (!existed) fs.rmSync(stored, { force: true });
+      throw error;
+    }
+  } finally {
+    fs.rmSync(upload.tmpPath, { force: true });
+  }
+}
+
+function asUnprocessable(error: unknown, fileName: string): unknown {
+  if (error instanceof CurveFileError) {
+    const where = [error.line != null ? `line ${error.line}` : null, error.column != null ? `column ${typeof error.column === 'number' ? error.column + 1 : `"${error.column}"`}` : null].filter(Boolean).join(', ');
+    const prefix = where ? `${fileName}, ${where}: ` : `${fileName}: `;
+    const message = error.message.startsWith('line ') || error.message.includes(fileName) ? `${fileName}: ${error.message}` : prefix + error.message;
+    return new AppError(422, error.code, message, { file: fileName, line: error.line ?? null, column: error.column ?? null });
+  }
+  return error;
+}
+
+function findMatchingProfile(ctx: AppContext, projectId: number, labId: number | null, table: ParsedTable) {
+  const candidates = ctx.db
+    .select()
+    .from(importProfiles)
+    .where(and(or(eq(importProfiles.projectId, projectId), isNull(importProfiles.projectId)), labId == null ? isNull(importProfiles.labId) : eq(importProfiles.labId, labId)))
+    .orderBy(desc(importProfiles.id))
+    .all();
+  return candidates.find((p) => profileToMapping(p, table) !== null) ?? null;
+}
+
+export function curveView(row: Omit<CurveRow, 'points'> & { points?: unknown }) {
+  return {
+    id: row.id,
+    buildId: row.buildId,
+    fileId: row.fileId,
+    kind: row.kind,
+    label: row.label,
+    mapping: row.mapping,
+    conditions: row.conditions,
+    pointCount: row.pointCount,
+    metrics: row.metrics,
+    metricNotes: row.metricNotes,
+    method: row.method,
+    summary: row.summary,
+    metricsVersion: row.metricsVersion,
+    options: row.options,
+    createdAt: row.createdAt,
+  };
+}
+
+export function curvesForBuild(ctx: AppContext, buildId: number) {
+  const rows = ctx.db
+    .select({
+      id: curves.id, buildId: curves.buildId, fileId: curves.fileId, kind: curves.kind, label: curves.label, mapping: curves.mapping,
+      conditions: curves.conditions, pointCount: curves.pointCount, metrics: curves.metrics, metricNotes: curves.metricNotes,
+      method: curves.method, summary: curves.summary, metricsVersion: curves.metricsVersion, options: curves.options, createdAt: curves.createdAt, createdBy: curves.createdBy,
+    })
+    .from(curves)
+    .where(eq(curves.buildId, buildId))
+    .orderBy(asc(curves.id))
+    .all();
+  return rows.map(curveView);
+}
+
+export function loadCurve(ctx: AppContext, curveId: number): CurveRow {
+  const row = ctx.db.select().from(curves).where(eq(curves.id, curveId)).get();
+  if (!row) throw notFound(`Curve ${curveId}`);
+  return row;
+}
+
+/** Points for plotting: polarization curves whole; long logs downsampled to maxPoints over [from, to]. */
+export function curvePoints(row: CurveRow, options: { maxPoints?: number; fromHours?: number; toHours?: number }) {
+  const data = decodePoints(row.points, row.kind);
+  if (row.kind !== 'polarization' && data.tHours) {
+    const max = options.maxPoints ?? 2000;
+    const range = options.fromHours != null || options.toHours != null ? { fromHours: options.fromHours ?? -Infinity, toHours: options.toHours ?? Infinity } : undefined;
+    const down = downsampleForPlot(data.tHours, data.v, max, range);
+    return { tHours: Array.from(down.t), v: Array.from(down.v), downsampled: down.t.length < data.v.length, total: data.v.length };
+  }
+  return {
+    j: Array.from(data.j),
+    v: Array.from(data.v),
+    hfr: data.hfr ? Array.from(data.hfr) : null,
+    tHours: data.tHours ? Array.from(data.tHours) : null,
+    temperatureC: data.temperatureC ? Array.from(data.temperatureC) : null,
+    downsampled: false,
+    total: data.v.length,
+  };
+}
+
+/** Re-measure every curve of a project at its current reference point (after settings change). */
+export function recomputeProjectMetrics(ctx: AppContext, projectId: number): number {
+  const { db } = ctx;
+  const project = db.select().from(projects).where(eq(projects.id, projectId)).get();
+  if (!project) return 0;
+  const ref = referencePoint(project);
+  const buildRows = db.select().from(builds).where(eq(builds.projectId, projectId)).all();
+  if (buildRows.length === 0) return 0;
+  const byId = new Map(buildRows.map((b) => [b.id, b]));
+  const rows = db.select().from(curves).where(and(inArray(curves.buildId, [...byId.keys()]), eq(curves.kind, 'polarization'))).all();
+  db.transaction((tx) => {
+    for (const row of rows) {
+      const result = computeMetrics(decodePoints(row.points, row.kind), ref, byId.get(row.buildId)!, row.options as DurabilityOptions);
+      tx.update(curves)
+        .set({ metrics: result.metrics, metricNotes: result.metricNotes as Record<string, string>, method: result.method as never, summary: { ...row.summary, ...result.summary }, metricsVersion: project.metricsVersion })
+        .where(eq(curves.id, row.id))
+        .run();
+    }
+  });
+  return rows.length;
+}
+
+/** Re-measure one curve with new options (e.g. a break-in the user set by hand). */
+export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: CurveRow, options: DurabilityOptions) {
+  const { db } = ctx;
+  const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+  const build = db.select().from(builds).where(eq(builds.id, row.buildId)).get()!;
+  const merged = { ...(row.options as DurabilityOptions | null), ...options };
+  const result = computeMetrics(decodePoints(row.points, row.kind), referencePoint(project), build, merged);
+  const after = db
+    .update(curves)
+    .set({ options: merged, metrics: result.metrics, metricNotes: result.metricNotes as Record<string, string>, method: result.method as never, summary: { ...row.summary, ...result.summary } })
+    .where(eq(curves.id, row.id))
+    .returning()
+    .get();
+  audit(db, { userId: access.user.id, action: 'update', entity: 'curve', entityId: row.id, projectId: access.projectId, before: { options: row.options, metrics: row.metrics }, after: { options: merged, metrics: result.metrics } });
+  return curveView(after);
+}
+
+export function deleteCurve(ctx: AppContext, access: ProjectAccess, row: CurveRow) {
+  ctx.db.delete(curves).where(eq(curves.id, row.id)).run();
+  audit(ctx.db, { userId: access.user.id, action: 'delete', entity: 'curve', entityId: row.id, projectId: access.projectId, before: curveView(row) });
+}

@@ -1,0 +1,213 @@
+// Drizzle schema: every table Cellwright stores. camelCase keys map to snake_case columns.
+import { sqliteTable, integer, text, real, blob, uniqueIndex, index } from 'drizzle-orm/sqlite-core';
+import { sql } from 'drizzle-orm';
+import type { ProjectSettings, TestConditions } from '../../shared/schemas/project';
+import type { ColumnMapping, FileConditions, CurveMetrics, MetricMethod } from '../../shared/curves/types';
+
+const createdAt = () => text('created_at').notNull().default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`);
+
+export const labs = sqliteTable('labs', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  name: text('name').notNull().unique(),
+  kind: text('kind', { enum: ['home', 'partner'] }).notNull(),
+  city: text('city'),
+  createdAt: createdAt(),
+});
+
+export const users = sqliteTable('users', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  email: text('email').notNull().unique(),
+  name: text('name').notNull(),
+  passwordHash: text('password_hash'),
+  isAdmin: integer('is_admin', { mode: 'boolean' }).notNull().default(false),
+  labId: integer('lab_id').references(() => labs.id),
+  disabledAt: text('disabled_at'),
+  createdAt: createdAt(),
+});
+
+export const sessions = sqliteTable('sessions', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  tokenHash: text('token_hash').notNull().unique(),
+  csrfToken: text('csrf_token').notNull(),
+  userId: integer('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  userAgent: text('user_agent'),
+  createdAt: createdAt(),
+  lastSeenAt: text('last_seen_at'),
+  expiresAt: text('expires_at').notNull(),
+  revokedAt: text('revoked_at'),
+}, (t) => [index('sessions_user_idx').on(t.userId)]);
+
+export const apiTokens = sqliteTable('api_tokens', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  userId: integer('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  tokenHash: text('token_hash').notNull().unique(),
+  createdAt: createdAt(),
+  lastUsedAt: text('last_used_at'),
+  revokedAt: text('revoked_at'),
+});
+
+export const projects = sqliteTable('projects', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  name: text('name').notNull(),
+  description: text('description').notNull().default(''),
+  codePrefix: text('code_prefix').notNull().default('B'),
+  settings: text('settings', { mode: 'json' }).$type<ProjectSettings>().notNull(),
+  /** bumped whenever the reference point changes; curve metrics carry the version they were computed for */
+  metricsVersion: integer('metrics_version').notNull().default(1),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+  updatedAt: text('updated_at'),
+});
+
+export const memberships = sqliteTable('memberships', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  userId: integer('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  role: text('role', { enum: ['pi', 'researcher', 'partner', 'viewer'] }).notNull(),
+  notify: integer('notify', { mode: 'boolean' }).notNull().default(true),
+  createdAt: createdAt(),
+}, (t) => [uniqueIndex('memberships_project_user').on(t.projectId, t.userId)]);
+
+export const factors = sqliteTable('factors', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  key: text('key').notNull(),
+  label: text('label').notNull(),
+  unit: text('unit').notNull().default(''),
+  kind: text('kind', { enum: ['continuous', 'categorical'] }).notNull(),
+  low: real('low'),
+  high: real('high'),
+  levels: text('levels', { mode: 'json' }).$type<string[]>(),
+  position: integer('position').notNull().default(0),
+  createdAt: createdAt(),
+}, (t) => [uniqueIndex('factors_project_key').on(t.projectId, t.key)]);
+
+export const responseDefs = sqliteTable('responses', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  key: text('key').notNull(),
+  label: text('label').notNull(),
+  unit: text('unit').notNull().default(''),
+  goal: text('goal', { enum: ['maximize', 'minimize', 'target'] }).notNull(),
+  target: real('target'),
+  createdAt: createdAt(),
+}, (t) => [uniqueIndex('responses_project_key').on(t.projectId, t.key)]);
+
+export const builds = sqliteTable('builds', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  code: text('code').notNull(),
+  parentId: integer('parent_id'),
+  changeNote: text('change_note'),
+  factorValues: text('factor_values', { mode: 'json' }).$type<Record<string, number | string>>().notNull(),
+  loadingMgCm2: real('loading_mg_cm2'),
+  metalLoadingMgCm2: real('metal_loading_mg_cm2'),
+  areaCm2: real('area_cm2'),
+  catalystLot: text('catalyst_lot'),
+  labId: integer('lab_id').references(() => labs.id),
+  operatorId: integer('operator_id').references(() => users.id),
+  testConditions: text('test_conditions', { mode: 'json' }).$type<TestConditions>().notNull(),
+  status: text('status', { enum: ['planned', 'built', 'tested', 'reviewed', 'discarded'] }).notNull().default('planned'),
+  builtOn: text('built_on'),
+  testedOn: text('tested_on'),
+  replicateOf: integer('replicate_of'),
+  responseValues: text('response_values', { mode: 'json' }).$type<Record<string, number>>().notNull(),
+  notes: text('notes').notNull().default(''),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+  updatedAt: text('updated_at'),
+}, (t) => [
+  uniqueIndex('builds_project_code').on(t.projectId, t.code),
+  index('builds_parent_idx').on(t.parentId),
+]);
+
+export const files = sqliteTable('files', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  sha256: text('sha256').notNull(),
+  sizeBytes: integer('size_bytes').notNull(),
+  originalName: text('original_name').notNull(),
+  contentType: text('content_type').notNull(),
+  projectId: integer('project_id').references(() => projects.id, { onDelete: 'cascade' }),
+  buildId: integer('build_id').references(() => builds.id, { onDelete: 'set null' }),
+  uploadedBy: integer('uploaded_by').references(() => users.id),
+  uploadedAt: createdAt(),
+}, (t) => [index('files_sha_idx').on(t.sha256)]);
+
+export const curves = sqliteTable('curves', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  buildId: integer('build_id').notNull().references(() => builds.id, { onDelete: 'cascade' }),
+  fileId: integer('file_id').references(() => files.id),
+  kind: text('kind', { enum: ['polarization', 'durability', 'hold'] }).notNull(),
+  label: text('label').notNull().default(''),
+  mapping: text('mapping', { mode: 'json' }).$type<ColumnMapping>(),
+  conditions: text('conditions', { mode: 'json' }).$type<FileConditions>(),
+  pointCount: integer('point_count').notNull(),
+  /** packed Float64 columns: see server/curves/points-codec.ts */
+  points: blob('points', { mode: 'buffer' }).notNull(),
+  metrics: text('metrics', { mode: 'json' }).$type<CurveMetrics>().notNull(),
+  metricNotes: text('metric_notes', { mode: 'json' }).$type<Record<string, string>>().notNull(),
+  method: text('method', { mode: 'json' }).$type<Record<string, MetricMethod>>().notNull(),
+  summary: text('summary', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+  metricsVersion: integer('metrics_version').notNull(),
+  options: text('options', { mode: 'json' }).$type<Record<string, unknown>>(),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+}, (t) => [index('curves_build_idx').on(t.buildId)]);
+
+export const importProfiles = sqliteTable('import_profiles', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  labId: integer('lab_id').references(() => labs.id),
+  projectId: integer('project_id').references(() => projects.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  /** mapping by header text, so it survives column reordering */
+  mapping: text('mapping', { mode: 'json' }).$type<Record<string, { header: string; unit: string }>>().notNull(),
+  kind: text('kind', { enum: ['polarization', 'durability', 'hold'] }).notNull().default('polarization'),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+});
+
+export const invitations = sqliteTable('invitations', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  tokenHash: text('token_hash').notNull().unique(),
+  email: text('email').notNull(),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  role: text('role', { enum: ['pi', 'researcher', 'partner', 'viewer'] }).notNull(),
+  labId: integer('lab_id').references(() => labs.id),
+  invitedBy: integer('invited_by').references(() => users.id),
+  createdAt: createdAt(),
+  expiresAt: text('expires_at').notNull(),
+  acceptedAt: text('accepted_at'),
+});
+
+export const outbox = sqliteTable('outbox', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  to: text('to').notNull(),
+  subject: text('subject').notNull(),
+  text: text('text').notNull(),
+  html: text('html'),
+  transport: text('transport').notNull(),
+  messageId: text('message_id'),
+  createdAt: createdAt(),
+});
+
+export const reviews = sqliteTable('reviews', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  buildId: integer('build_id').notNull().references(() => builds.id, { onDelete: 'cascade' }),
+  userId: integer('user_id').notNull().references(() => users.id),
+  body: text('body').notNull(),
+  verdict: text('verdict', { enum: ['approved', 'needs-work'] }),
+  createdAt: createdAt(),
+}, (t) => [index('reviews_build_idx').on(t.buildId)]);
+
+export const auditLog = sqliteTable('audit_log', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  userId: integer('user_id'),
+  at: createdAt(),
+  action: text('action').notNull(),
+  entity: text('entity').notNull(),
+  entityId: integer('entity_id'),
+  projectId: integer('project_id'),
+  before: text('before', { mode: 'json' }),
+  after: text('after', { mode: 'json' }),
+}, (t) => [index('audit_entity_idx').on(t.entity, t.entityId), index('audit_project_idx').on(t.projectId)]);

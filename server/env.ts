@@ -1,0 +1,34 @@
+// Environment, read and validated once at start-up.
+import { z } from 'zod';
+import path from 'node:path';
+
+const envSchema = z.object({
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  DATABASE_PATH: z.string().default('data/cellwright.db'),
+  UPLOADS_DIR: z.string().default('data/uploads'),
+  SMTP_URL: z.string().optional(),
+  MAIL_FROM: z.string().default('Cellwright <no-reply@cellwright.test>'),
+  PUBLIC_URL: z.string().optional(),
+  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(50 * 1024 * 1024),
+  UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(2_000_000),
+  LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(20),
+  SEED_DEMO: z.enum(['auto', 'never']).default('auto'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
+  NODE_ENV: z.string().default('development'),
+});
+
+export type Env = z.infer<typeof envSchema> & { databasePath: string; uploadsDir: string };
+
+export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
+    throw new Error(`Invalid environment:\n${lines}`);
+  }
+  const env = parsed.data;
+  return {
+    ...env,
+    databasePath: env.DATABASE_PATH === ':memory:' ? ':memory:' : path.resolve(env.DATABASE_PATH),
+    uploadsDir: path.resolve(env.UPLOADS_DIR),
+  };
+}

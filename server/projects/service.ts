@@ -1,0 +1,248 @@
+// Projects, their factors and hand-entered responses, members and invitations.
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import type { AppContext, AuthUser } from '../context';
+import { builds, factors, invitations, labs, memberships, projects, responseDefs, users } from '../db/schema';
+import type { FactorDef, ResponseDef, ProjectRole } from '../../shared/schemas/project';
+import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
+import { inviteCreateSchema } from '../../shared/schemas/auth';
+import type { z } from 'zod';
+import { audit } from '../lib/audit';
+import { AppError, conflict, forbidden, notFound } from '../lib/errors';
+import { requireProject, type ProjectAccess } from '../auth/access';
+import { newToken, sha256 } from '../auth/tokens';
+import { recomputeProjectMetrics } from '../curves/service';
+
+type ProjectRow = typeof projects.$inferSelect;
+
+export function projectView(row: ProjectRow, role: ProjectRole | 'admin' | null) {
+  return {
+    id: row.id,
+    name: row.name,
+    description: row.description,
+    codePrefix: row.codePrefix,
+    settings: row.settings,
+    metricsVersion: row.metricsVersion,
+    createdAt: row.createdAt,
+    updatedAt: row.updatedAt,
+    myRole: role,
+  };
+}
+
+export function listProjects(ctx: AppContext, user: AuthUser) {
+  const { db } = ctx;
+  const rows = user.isAdmin
+    ? db.select().from(projects).orderBy(asc(projects.id)).all().map((p) => ({ p, role: 'admin' as const }))
+    : db
+        .select({ p: projects, role: memberships.role })
+        .from(memberships)
+        .innerJoin(projects, eq(projects.id, memberships.projectId))
+        .where(eq(memberships.userId, user.id))
+        .orderBy(asc(projects.id))
+        .all();
+  const counts = new Map(
+    db
+      .select({ projectId: builds.projectId, n: sql<number>`count(*)` })
+      .from(builds)
+      .groupBy(builds.projectId)
+      .all()
+      .map((r) => [r.projectId, r.n]),
+  );
+  return rows.map(({ p, role }) => ({ ...projectView(p, role), buildCount: counts.get(p.id) ?? 0 }));
+}
+
+export function createProject(ctx: AppContext, user: AuthUser, body: z.output<typeof projectCreateSchema>) {
+  if (!user.isAdmin && user.labKind === 'partner') throw forbidden('Partner-lab members cannot create projects; ask the project PI to invite you.');
+  const { db } = ctx;
+  return db.transaction((tx) => {
+    const row = tx.insert(projects).values({ name: body.name, description: body.description, codePrefix: body.codePrefix, settings: body.settings, createdBy: user.id }).returning().get();
+    tx.insert(memberships).values({ projectId: row.id, userId: user.id, role: 'pi' }).run();
+    audit(tx as never, { userId: user.id, action: 'create', entity: 'project', entityId: row.id, projectId: row.id, after: row });
+    return projectView(row, 'pi');
+  });
+}
+
+export function getProject(ctx: AppContext, access: ProjectAccess) {
+  const row = ctx.db.select().from(projects).where(eq(projects.id, access.projectId)).get();
+  if (!row) throw notFound(`Project ${access.projectId}`);
+  return projectView(row, access.role);
+}
+
+export function updateProject(ctx: AppContext, access: ProjectAccess, body: z.output<typeof projectUpdateSchema>) {
+  const { db } = ctx;
+  const before = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+  const settingsChanged = body.settings !== undefined && JSON.stringify(body.settings) !== JSON.stringify(before.settings);
+  const after = db
+    .update(projects)
+    .set({
+      ...(body.name !== undefined && { name: body.name }),
+      ...(body.description !== undefined && { description: body.description }),
+      ...(body.codePrefix !== undefined && { codePrefix: body.codePrefix }),
+      ...(body.settings !== undefined && { settings: body.settings }),
+      ...(settingsChanged && { metricsVersion: before.metricsVersion + 1 }),
+      updatedAt: new Date().toISOString(),
+    })
+    .where(eq(projects.id, access.projectId))
+    .returning()
+    .get();
+  audit(db, { userId: access.user.id, action: 'update', entity: 'project', entityId: after.id, projectId: after.id, before, after });
+  let recomputed = 0;
+  if (settingsChanged) recomputed = recomputeProjectMetrics(ctx, access.projectId);
+  return { ...projectView(after, access.role), recomputedCurves: recomputed };
+}
+
+export function factorView(row: typeof factors.$inferSelect): FactorDef {
+  return { id: row.id, key: row.key, label: row.label, unit: row.unit, kind: row.kind, low: row.low, high: row.high, levels: row.levels ?? null };
+}
+
+export function listFactors(ctx: AppContext, projectId: number): FactorDef[] {
+  return ctx.db.select().from(factors).where(eq(factors.projectId, projectId)).orderBy(asc(factors.position), asc(factors.id)).all().map(factorView);
+}
+
+export function addFactor(ctx: AppContext, access: ProjectAccess, body: z.output<typeof factorCreateSchema>) {
+  const { db } = ctx;
+  const exists = db.select({ id: factors.id }).from(factors).where(and(eq(factors.projectId, access.projectId), eq(factors.key, body.key))).get();
+  if (exists) throw conflict(`A factor with key "${body.key}" already exists in this project.`, { fields: [{ path: 'key', message: 'already used' }] });
+  const position = db.select({ n: sql<number>`count(*)` }).from(factors).where(eq(factors.projectId, access.projectId)).get()!.n;
+  const row = db
+    .insert(factors)
+    .values({
+      projectId: access.projectId,
+      key: body.key,
+      label: body.label,
+      unit: body.unit,
+      kind: body.kind,
+      low: body.kind === 'continuous' ? (body.low ?? null) : null,
+      high: body.kind === 'continuous' ? (body.high ?? null) : null,
+      levels: body.kind === 'categorical' ? (body.levels ?? []) : null,
+      position,
+    })
+    .returning()
+    .get();
+  audit(db, { userId: access.user.id, action: 'create', entity: 'factor', entityId: row.id, projectId: access.projectId, after: row });
+  return factorView(row);
+}
+
+export function updateFactor(ctx: AppContext, access: ProjectAccess, factorId: number, body: z.output<typeof factorCreateSchema>) {
+  const { db } = ctx;
+  const before = db.select().from(factors).where(and(eq(factors.id, factorId), eq(factors.projectId, access.projectId))).get();
+  if (!before) throw notFound(`Factor ${factorId}`);
+  if (body.key !== before.key) throw new AppError(400, 'validation', 'A factor key cannot change once builds may use it; add a new factor instead.', { fields: [{ path: 'key', message: 'cannot change' }] });
+  const after = db
+    .update(factors)
+    .set({
+      label: body.label,
+      unit: body.unit,
+      kind: body.kind,
+      low: body.kind === 'continuous' ? (body.low ?? null) : null,
+      high: body.kind === 'continuous' ? (body.high ?? null) : null,
+      levels: body.kind === 'categorical' ? (body.levels ?? []) : null,
+    })
+    .where(eq(factors.id, factorId))
+    .returning()
+    .get();
+  audit(db, { userId: access.user.id, action: 'update', entity: 'factor', entityId: factorId, projectId: access.projectId, before, after });
+  return factorView(after);
+}
+
+export function responseView(row: typeof responseDefs.$inferSelect): ResponseDef {
+  return { id: row.id, key: row.key, label: row.label, unit: row.unit, goal: row.goal, target: row.target };
+}
+
+export function listResponses(ctx: AppContext, projectId: number): ResponseDef[] {
+  return ctx.db.select().from(responseDefs).where(eq(responseDefs.projectId, projectId)).orderBy(asc(responseDefs.id)).all().map(responseView);
+}
+
+/** Keys the curve metrics already use; hand-entered responses must not shadow them. */
+export const METRIC_KEYS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr', 'degradationRate', 'breakInHours'];
+
+export function addResponse(ctx: AppContext, access: ProjectAccess, body: z.output<typeof responseCreateSchema>) {
+  const { db } = ctx;
+  if (METRIC_KEYS.includes(body.key)) throw conflict(`"${body.key}" is a curve metric; choose another key for a hand-entered response.`, { fields: [{ path: 'key', message: 'reserved for a curve metric' }] });
+  const exists = db.select({ id: responseDefs.id }).from(responseDefs).where(and(eq(responseDefs.projectId, access.projectId), eq(responseDefs.key, body.key))).get();
+  if (exists) throw conflict(`A response with key "${body.key}" already exists in this project.`, { fields: [{ path: 'key', message: 'already used' }] });
+  const row = db.insert(responseDefs).values({ projectId: access.projectId, key: body.key, label: body.label, unit: body.unit, goal: body.goal, target: body.target ?? null }).returning().get();
+  audit(db, { userId: access.user.id, action: 'create', entity: 'response', entityId: row.id, projectId: access.projectId, after: row });
+  return responseView(row);
+}
+
+export function listMembers(ctx: AppContext, projectId: number) {
+  const members = ctx.db
+    .select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, labId: users.labId, labName: labs.name, notify: memberships.notify })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .leftJoin(labs, eq(labs.id, users.labId))
+    .where(eq(memberships.projectId, projectId))
+    .orderBy(asc(users.name))
+    .all();
+  const pending = ctx.db
+    .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt, createdAt: invitations.createdAt })
+    .from(invitations)
+    .where(and(eq(invitations.projectId, projectId), sql`${invitations.acceptedAt} is null`))
+    .all();
+  return { members, pendingInvitations: pending };
+}
+
+export function setMemberRole(ctx: AppContext, access: ProjectAccess, userId: number, role: ProjectRole) {
+  const { db } = ctx;
+  const before = db.select().from(memberships).where(and(eq(memberships.projectId, access.projectId), eq(memberships.userId, userId))).get();
+  const user = db.select({ id: users.id }).from(users).where(eq(users.id, userId)).get();
+  if (!user) throw notFound(`Person ${userId}`);
+  if (before) db.update(memberships).set({ role }).where(eq(memberships.id, before.id)).run();
+  else db.insert(memberships).values({ projectId: access.projectId, userId, role }).run();
+  audit(db, { userId: access.user.id, action: before ? 'update' : 'create', entity: 'membership', entityId: userId, projectId: access.projectId, before, after: { userId, role } });
+  return { userId, role };
+}
+
+export function removeMember(ctx: AppContext, access: ProjectAccess, userId: number) {
+  const { db } = ctx;
+  const before = db.select().from(memberships).where(and(eq(memberships.projectId, access.projectId), eq(memberships.userId, userId))).get();
+  if (!before) throw notFound(`Member ${userId}`);
+  if (before.role === 'pi') {
+    const pis = db.select({ n: sql<number>`count(*)` }).from(memberships).where(and(eq(memberships.projectId, access.projectId), eq(memberships.role, 'pi'))).get()!.n;
+    if (pis <= 1) throw conflict('A project needs at least one PI; give someone else the PI role first.');
+  }
+  db.delete(memberships).where(eq(memberships.id, before.id)).run();
+  audit(db, { userId: access.user.id, action: 'delete', entity: 'membership', entityId: userId, projectId: access.projectId, before });
+  return { ok: true };
+}
+
+export function setNotify(ctx: AppContext, user: AuthUser, projectId: number, notify: boolean) {
+  const access = requireProject(ctx.db, user, projectId, 'read');
+  const row = ctx.db.select().from(memberships).where(and(eq(memberships.projectId, projectId), eq(memberships.userId, user.id))).get();
+  if (!row) throw notFound('Your membership');
+  ctx.db.update(memberships).set({ notify }).where(eq(memberships.id, row.id)).run();
+  audit(ctx.db, { userId: user.id, action: 'update', entity: 'membership', entityId: user.id, projectId: access.projectId, before: { notify: row.notify }, after: { notify } });
+  return { notify };
+}
+
+export async function invite(ctx: AppContext, access: ProjectAccess, body: z.output<typeof inviteCreateSchema>, baseUrl: string) {
+  const { db } = ctx;
+  const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+  if (body.role === 'partner' && body.labId == null) {
+    const existing = db.select({ labId: users.labId }).from(users).where(eq(users.email, body.email)).get();
+    if (!existing?.labId) throw new AppError(400, 'validation', 'A partner invitation needs the partner lab (labId) the person belongs to.', { fields: [{ path: 'labId', message: 'required for partners' }] });
+  }
+  if (body.labId != null && !db.select({ id: labs.id }).from(labs).where(eq(labs.id, body.labId)).get()) throw notFound(`Lab ${body.labId}`);
+  const token = newToken();
+  const expiresAt = new Date(Date.now() + 7 * 86400_000).toISOString();
+  const row = db.insert(invitations).values({ tokenHash: sha256(token), email: body.email, projectId: access.projectId, role: body.role, labId: body.labId ?? null, invitedBy: access.user.id, expiresAt }).returning().get();
+  const link = `${baseUrl}/invite/${token}`;
+  await ctx.mailer.send({
+    to: body.email,
+    subject: `You are invited to “${project.name}” on Cellwright`,
+    text: `${access.user.name} invited you to the project “${project.name}” as ${body.role}.\n\nSet your name and password here (the link works once and expires in 7 days):\n${link}\n`,
+    html: `<p>${escapeHtml(access.user.name)} invited you to the project “${escapeHtml(project.name)}” as <b>${body.role}</b>.</p><p><a href="${link}">Accept the invitation</a> — the link works once and expires in 7 days.</p>`,
+  });
+  audit(db, { userId: access.user.id, action: 'create', entity: 'invitation', entityId: row.id, projectId: access.projectId, after: { email: body.email, role: body.role, labId: body.labId } });
+  return { id: row.id, email: row.email, role: row.role, expiresAt };
+}
+
+export function escapeHtml(text: string): string {
+  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+export function projectIdsForUser(ctx: AppContext, user: AuthUser): number[] {
+  if (user.isAdmin) return ctx.db.select({ id: projects.id }).from(projects).all().map((r) => r.id);
+  return ctx.db.select({ id: memberships.projectId }).from(memberships).where(eq(memberships.userId, user.id)).all().map((r) => r.id);
+}
+

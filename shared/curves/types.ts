@@ -1,0 +1,149 @@
+// Shared shapes for curve files, parsed columns and the metrics pulled from them.
+// Units inside the code: A/cm², V, Ω·cm², °C, mg/cm², hours.
+
+export type CurveKind = 'polarization' | 'durability' | 'hold';
+
+export type CurrentUnit = 'A/cm2' | 'mA/cm2' | 'A' | 'mA';
+export type VoltageUnit = 'V' | 'mV';
+export type HfrUnit = 'ohm*cm2' | 'mohm*cm2' | 'ohm' | 'mohm';
+export type TimeUnit = 's' | 'min' | 'h' | 'timestamp';
+export type TemperatureUnit = 'C' | 'K';
+
+/** Which column (0-based index into the header) holds which quantity, and in what unit. */
+export interface ColumnMapping {
+  current?: { column: number; unit: CurrentUnit };
+  voltage: { column: number; unit: VoltageUnit };
+  hfr?: { column: number; unit: HfrUnit };
+  time?: { column: number; unit: TimeUnit };
+  temperature?: { column: number; unit: TemperatureUnit };
+}
+
+/** Conditions read from metadata lines above the header, when present. */
+export interface FileConditions {
+  areaCm2?: number;
+  temperatureC?: number;
+  anodeGas?: string;
+  cathodeGas?: string;
+  backPressureKPa?: number;
+  /** every "key: value" / "key,value" pair found above the header, as text */
+  raw: Record<string, string>;
+}
+
+/** Curve data in internal units, ready for metrics. Arrays have equal length, in file order. */
+export interface CurveData {
+  kind: CurveKind;
+  /** current density, A/cm² */
+  j: Float64Array;
+  /** cell voltage, V */
+  v: Float64Array;
+  /** high-frequency resistance, Ω·cm² (area-specific) */
+  hfr?: Float64Array;
+  /** elapsed time, hours from the first row */
+  tHours?: Float64Array;
+  /** cell temperature, °C */
+  temperatureC?: Float64Array;
+}
+
+/** The project's reference point: where metrics are read off every curve. */
+export interface ReferencePoint {
+  /** j_ref, A/cm² */
+  refCurrentDensity: number;
+  /** V_ref, V */
+  refVoltage: number;
+  /** read mass activity (and jAtRef for display) on iR-free voltage */
+  irFree: boolean;
+  /** loading basis for mass-specific activity */
+  loadingBasis: 'catalyst' | 'metal';
+}
+
+/** Loading of the build the curve belongs to. */
+export interface BuildLoading {
+  /** whole-catalyst loading, mg/cm² */
+  loadingMgCm2: number | null;
+  /** metal-only loading, mg/cm² (needed when loadingBasis = 'metal') */
+  metalLoadingMgCm2?: number | null;
+}
+
+/** Metrics object of product.md; units fixed. null = could not be computed (see metricNotes). */
+export interface CurveMetrics {
+  vAtRef: number | null; // V
+  vAtRefIrFree: number | null; // V
+  jAtRef: number | null; // A/cm² at V_ref
+  jAtRefIrFree: number | null; // A/cm² at V_ref on iR-free voltage
+  massActivity: number | null; // A/g
+  peakPower: number | null; // W/cm²
+  ocv: number | null; // V
+  tafelSlope: number | null; // mV/dec
+  hfr: number | null; // Ω·cm²
+  degradationRate?: number | null; // µV/h, positive = losing voltage
+  breakInHours?: number | null; // h
+}
+
+export type MetricKey = keyof CurveMetrics;
+
+/** How one metric was obtained: a short human sentence plus the inputs used. */
+export interface MetricMethod {
+  method: string;
+  inputs: Record<string, number | string | boolean | null>;
+}
+
+export interface MetricsResult {
+  metrics: CurveMetrics;
+  /** reason per metric that is null, or a caveat for one that is not */
+  metricNotes: Partial<Record<MetricKey, string>>;
+  method: Partial<Record<MetricKey, MetricMethod>>;
+  /** extra facts about the curve (sweeps, steps averaged, outliers flagged, ...) */
+  summary: Record<string, number | string | boolean | null>;
+}
+
+/** A problem with a file: code, human message, and where (1-based line, column name or index). */
+export class CurveFileError extends Error {
+  readonly code: string;
+  readonly line?: number;
+  readonly column?: number | string;
+  constructor(code: string, message: string, where: { line?: number; column?: number | string } = {}) {
+    super(message);
+    this.name = 'CurveFileError';
+    this.code = code;
+    this.line = where.line;
+    this.column = where.column;
+  }
+}
+
+// ---- Added with the delimited-text parser (new types only; the ones above are unchanged). ----
+
+/** How cells are separated in a text file; 'whitespace' means runs of spaces and/or tabs. */
+export type Delimiter = ',' | ';' | '\t' | '|' | 'whitespace';
+
+/**
+ * What a column holds: numbers; date-times (kept as epoch seconds, UTC when no zone is given);
+ * durations `H:MM:SS` (kept as seconds); text (ignored); or nothing at all (ignored).
+ */
+export type ColumnKind = 'number' | 'timestamp' | 'duration' | 'text' | 'empty';
+
+/** A delimited text file read into columns. Lines are 1-based file lines. */
+export interface ParsedTable {
+  delimiter: Delimiter;
+  /** numbers are written with a decimal comma (0,652) */
+  decimalComma: boolean;
+  /** 1-based line of the header row */
+  headerLine: number;
+  /** 1-based line of a separate unit row right under the header, merged into `header`; null if none */
+  unitLine: number | null;
+  /** column names as written (with the unit row merged as "name (unit)"), trailing empty columns dropped */
+  header: string[];
+  /** conditions read from metadata lines above the header */
+  conditions: FileConditions;
+  /** one entry per header column: values for number/timestamp/duration columns, null for ignored ones */
+  columns: (Float64Array | null)[];
+  columnKinds: ColumnKind[];
+  /** indices of the text/empty columns that were ignored */
+  ignoredColumns: number[];
+  rowCount: number;
+  /** 1-based line of the first data row */
+  firstDataLine: number;
+  /** the 1-based file line of each data row, so later errors can name lines */
+  dataLines: Int32Array;
+  /** the first data rows as text cells (trimmed), one array per row, header-length each */
+  preview: string[][];
+}

@@ -1,0 +1,401 @@
+// Fits a response-surface model to observed runs: least squares in coded units, ANOVA with
+// lack of fit and pure error, PRESS, leverage, VIF, and the coefficients in actual units.
+import { Matrix, solve } from 'ml-matrix';
+import { fUpperP, tTwoSidedP } from '../../stats/distributions';
+import { DoeInputError } from './errors';
+import { encodePoint } from './encode';
+import { checkRows, resolveFactors, rowPlace } from './factors';
+import { compensatedDot, compensatedSum, qrLeastSquares } from './numeric';
+import { buildModelTerms, modelRow } from './terms';
+import type {
+  Anova,
+  AnovaTermRow,
+  Coefficient,
+  Factor,
+  ModelColumn,
+  ModelSpec,
+  Observation,
+  ResolvedFactor,
+  SurfaceFit,
+} from './types';
+
+export interface FitSurfaceInput {
+  factors: Factor[];
+  rows: Observation[];
+  model: ModelSpec;
+  /** name of the response (e.g. "vAtRef"), carried into the result and messages */
+  responseKey?: string;
+}
+
+const VIF_LIMIT = 10;
+
+/** Key of a run's factor settings, so replicates (same settings) fall in one group. */
+function settingsKey(factors: ResolvedFactor[], row: Observation): string {
+  const parts: string[] = [];
+  for (const factor of factors) {
+    const value = row.factors[factor.key];
+    parts.push(factor.kind === 'continuous' ? (value as number).toPrecision(12) : `"${String(value)}"`);
+  }
+  return parts.join('|');
+}
+
+function finiteOrNull(value: number): number | null {
+  return Number.isFinite(value) ? value : null;
+}
+
+function binomial(n: number, k: number): number {
+  let result = 1;
+  for (let i = 1; i <= k; i++) result = (result * (n - k + i)) / i;
+  return result;
+}
+
+function columnSignature(powers: number[], indicators: { factor: number; level: string }[]): string {
+  const levels = indicators.map((entry) => `${entry.factor}=${entry.level}`).sort();
+  return `${powers.join(',')}|${levels.join(';')}`;
+}
+
+/**
+ * Coefficient map from coded to actual units. Each coded column Π((x_f − c_f)/h_f)^p_f is
+ * expanded by the binomial theorem into actual monomials Π x_f^q_f (q ≤ p), which are columns
+ * of the same model because the model is hierarchical. Returns T with actual = T·coded.
+ */
+function codedToActualMap(factors: ResolvedFactor[], columns: ModelColumn[]): number[][] {
+  const p = columns.length;
+  const index = new Map<string, number>();
+  for (let j = 0; j < p; j++) index.set(columnSignature(columns[j].powers, columns[j].indicators), j);
+  const map: number[][] = [];
+  for (let k = 0; k < p; k++) map.push(new Array<number>(p).fill(0));
+  for (let j = 0; j < p; j++) {
+    const powers = columns[j].powers;
+    const target = new Array<number>(powers.length).fill(0);
+    const walk = (f: number, factorProduct: number): void => {
+      if (f === powers.length) {
+        const k = index.get(columnSignature(target, columns[j].indicators));
+        if (k === undefined) throw new Error(`fitSurface: model is not hierarchical at column ${columns[j].name} (internal)`);
+        map[k][j] += factorProduct;
+        return;
+      }
+      if (powers[f] === 0) {
+        target[f] = 0;
+        walk(f + 1, factorProduct);
+        return;
+      }
+      const low = factors[f].low as number;
+      const high = factors[f].high as number;
+      const centre = (low + high) / 2;
+      const half = (high - low) / 2;
+      for (let q = 0; q <= powers[f]; q++) {
+        target[f] = q;
+        const weight = (binomial(powers[f], q) * (-centre) ** (powers[f] - q)) / half ** powers[f];
+        walk(f + 1, factorProduct * weight);
+      }
+      target[f] = 0;
+    };
+    walk(0, 1);
+  }
+  return map;
+}
+
+function describeRows(indices: number[], rows: Observation[]): string {
+  const shown = indices.slice(0, 6).map((i) => rowPlace(i, rows[i]));
+  return indices.length > 6 ? `${shown.join('; ')} and ${indices.length - 6} more` : shown.join('; ');
+}
+
+/**
+ * Fits a response-surface model by least squares.
+ * Definition: continuous factors are coded −1…+1 over low/high (data min/max when not
+ * given), categorical factors are treatment coded; coefficients come from a Householder QR
+ * of the coded model matrix (never the normal equations), (XᵀX)⁻¹ = R⁻¹R⁻ᵀ. Actual-unit
+ * coefficients and their standard errors follow exactly from the linear map that expands the
+ * coded polynomial. ANOVA: model/residual about the mean; lack of fit = residual − pure error,
+ * pure error from the spread within groups of runs with identical settings; partial SS per
+ * term. PRESS = Σ(eᵢ/(1 − hᵢᵢ))², predicted R² = 1 − PRESS/SS_total.
+ * Reference: Montgomery, Design and Analysis of Experiments, ch. 10–11; Myers, Montgomery &
+ * Anderson-Cook, Response Surface Methodology, ch. 2–3; NIST/SEMATECH e-Handbook §4.4.
+ * Cost: O(n·p²) for n runs and p model columns.
+ * @throws DoeInputError: 'invalid-factor', 'invalid-row', 'invalid-model', or 'too-few-runs'
+ *   when there are no more runs than model columns (n ≤ p).
+ * @example fitSurface({ factors, rows, model: 'quadratic' }).coefficients[1].coded
+ */
+export function fitSurface(input: FitSurfaceInput): SurfaceFit {
+  if (!input || typeof input !== 'object') {
+    throw new DoeInputError('invalid-row', 'fitSurface: input must be an object { factors, rows, model } (input)');
+  }
+  const { rows, model, responseKey } = input;
+  if (!Array.isArray(rows)) throw new DoeInputError('invalid-row', 'fitSurface: rows must be an array (rows)');
+  const factors = resolveFactors('fitSurface', input.factors, rows);
+  checkRows('fitSurface', factors, rows);
+  const built = buildModelTerms(factors, model);
+  const columns = built.columns;
+  const warnings = [...built.warnings];
+  const n = rows.length;
+  const p = columns.length;
+  const responseName = responseKey ? `response "${responseKey}"` : 'the response';
+  if (n <= p) {
+    throw new DoeInputError(
+      'too-few-runs',
+      `fitSurface: need more runs than model terms to estimate the error (${n} runs, ${p} model columns; ${responseName})`,
+      { runs: n, columns: p },
+    );
+  }
+
+  const encodedRows = rows.map((row) => encodePoint('fitSurface', factors, row.factors));
+  const x = encodedRows.map((encoded) => modelRow(columns, encoded));
+  const y = rows.map((row) => row.y);
+
+  const groups = new Map<string, number[]>();
+  for (let i = 0; i < n; i++) {
+    const key = settingsKey(factors, rows[i]);
+    const members = groups.get(key);
+    if (members) members.push(i);
+    else groups.set(key, [i]);
+  }
+  const distinctRuns = groups.size;
+  if (distinctRuns < p) {
+    warnings.push(`Only ${distinctRuns} distinct factor settings for ${p} model columns: the model cannot be fully estimated; use a smaller model or add runs.`);
+  }
+
+  const ls = qrLeastSquares(x, y);
+  const { estimated, aliased, beta, rInverse } = ls;
+  const rank = estimated.length;
+  if (aliased.length > 0) {
+    const names = aliased.map((j) => columns[j].name).join(', ');
+    warnings.push(`Aliased terms (linear combinations of earlier terms in these runs) were not estimated: ${names}.`);
+  }
+
+  // fitted values and residuals
+  const predicted = new Array<number>(n);
+  const residuals = new Array<number>(n);
+  for (let i = 0; i < n; i++) {
+    const rowValues = estimated.map((j) => x[i][j]);
+    predicted[i] = compensatedDot(rowValues, beta);
+    residuals[i] = y[i] - predicted[i];
+  }
+  const meanY = compensatedSum(y) / n;
+  const ssTotal = compensatedSum(y.map((value) => (value - meanY) * (value - meanY)));
+  const ssResidual = compensatedSum(residuals.map((e) => e * e));
+  const dfResidual = n - rank;
+  const mse = ssResidual / dfResidual;
+  const dfModel = rank - 1;
+  const ssModel = Math.max(0, ssTotal - ssResidual);
+
+  // (XᵀX)⁻¹ = R⁻¹R⁻ᵀ, its diagonal, and leverages hᵢ = ‖xᵢᵀR⁻¹‖²
+  const cov = new Array<number[]>(rank);
+  for (let a = 0; a < rank; a++) {
+    cov[a] = new Array<number>(rank);
+    for (let b = 0; b < rank; b++) {
+      let sum = 0;
+      for (let m = Math.max(a, b); m < rank; m++) sum += rInverse[a][m] * rInverse[b][m];
+      cov[a][b] = sum;
+    }
+  }
+  const leverage = new Array<number>(n);
+  for (let i = 0; i < n; i++) {
+    let sumSquares = 0;
+    for (let m = 0; m < rank; m++) {
+      let z = 0;
+      for (let a = 0; a <= m; a++) z += x[i][estimated[a]] * rInverse[a][m];
+      sumSquares += z * z;
+    }
+    leverage[i] = sumSquares;
+  }
+
+  let press: number | null = 0;
+  const pressTerms: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const oneMinusH = 1 - leverage[i];
+    if (!(oneMinusH > 1e-10)) {
+      press = null;
+      break;
+    }
+    const deleted = residuals[i] / oneMinusH;
+    pressTerms.push(deleted * deleted);
+  }
+  if (press !== null) press = compensatedSum(pressTerms);
+
+  // coded coefficients, SEs, t, p, VIF; aliased columns are reported with coded 0
+  const codedAll = new Array<number>(p).fill(0);
+  const positionOf = new Map<number, number>();
+  estimated.forEach((j, position) => {
+    codedAll[j] = beta[position];
+    positionOf.set(j, position);
+  });
+  const map = codedToActualMap(factors, columns);
+  const coefficients: Coefficient[] = [];
+  const highVif: string[] = [];
+  for (let k = 0; k < p; k++) {
+    const position = positionOf.get(k);
+    const actualTerms: number[] = [];
+    for (let j = 0; j < p; j++) if (map[k][j] !== 0) actualTerms.push(map[k][j] * codedAll[j]);
+    const actual = compensatedSum(actualTerms);
+    // actual-unit variance: row k of T·R⁻¹ (estimated columns), squared and summed
+    let actualVariance = 0;
+    for (let m = 0; m < rank; m++) {
+      const parts: number[] = [];
+      for (let a = 0; a <= m; a++) {
+        const weight = map[k][estimated[a]];
+        if (weight !== 0) parts.push(weight * rInverse[a][m]);
+      }
+      const v = compensatedSum(parts);
+      actualVariance += v * v;
+    }
+    const actualSE = Math.sqrt(mse * actualVariance);
+    if (position === undefined) {
+      coefficients.push({ term: columns[k].name, coded: 0, codedSE: null, t: null, p: null, actual, actualSE: finiteOrNull(actualSE), vif: null, aliased: true });
+      continue;
+    }
+    const codedSE = Math.sqrt(mse * cov[position][position]);
+    const t = beta[position] / codedSE;
+    let vif: number | null = null;
+    if (k !== 0) {
+      const column = x.map((row) => row[k]);
+      const mean = compensatedSum(column) / n;
+      const centredSS = compensatedSum(column.map((value) => (value - mean) * (value - mean)));
+      // the non-intercept block of (XᵀX)⁻¹ is the inverse of the centred cross-products,
+      // so VIF_j = [(XᵀX)⁻¹]_jj · Σ(x_ij − x̄_j)² = 1/(1 − R_j²)
+      vif = cov[position][position] * centredSS;
+      if (vif > VIF_LIMIT) highVif.push(`${columns[k].name} (${vif.toPrecision(3)})`);
+    }
+    coefficients.push({
+      term: columns[k].name,
+      coded: beta[position],
+      codedSE: finiteOrNull(codedSE),
+      t: finiteOrNull(t),
+      p: Number.isFinite(t) ? tTwoSidedP(t, dfResidual) : null,
+      actual,
+      actualSE: finiteOrNull(actualSE),
+      vif,
+      aliased: false,
+    });
+  }
+  if (highVif.length > 0) {
+    warnings.push(`Variance inflation above ${VIF_LIMIT} (correlated terms, unstable coefficients): ${highVif.join(', ')}.`);
+  }
+
+  // partial (adjusted) SS of each term given all others: b_Tᵀ (C_TT)⁻¹ b_T
+  const termRows: AnovaTermRow[] = [];
+  for (const term of built.terms) {
+    if (term.name === 'intercept') continue;
+    const positions: number[] = [];
+    for (let j = 0; j < p; j++) {
+      const position = positionOf.get(j);
+      if (columns[j].term === term.name && position !== undefined) positions.push(position);
+    }
+    if (positions.length === 0) continue;
+    const block = positions.map((a) => positions.map((b) => cov[a][b]));
+    const b = positions.map((a) => beta[a]);
+    let ss: number;
+    if (positions.length === 1) ss = (b[0] * b[0]) / block[0][0];
+    else {
+      const w = solve(new Matrix(block), Matrix.columnVector(b)).getColumn(0);
+      ss = compensatedDot(b, w);
+    }
+    const df = positions.length;
+    const ms = ss / df;
+    const f = ms / mse;
+    termRows.push({ term: term.name, ss, df, ms, f: finiteOrNull(f), p: Number.isFinite(f) ? fUpperP(f, df, dfResidual) : null });
+  }
+
+  const fModel = dfModel > 0 ? ssModel / dfModel / mse : NaN;
+  const anova: Anova = {
+    model: {
+      ss: ssModel,
+      df: dfModel,
+      ms: dfModel > 0 ? ssModel / dfModel : 0,
+      f: finiteOrNull(fModel),
+      p: Number.isFinite(fModel) ? fUpperP(fModel, dfModel, dfResidual) : null,
+    },
+    residual: { ss: ssResidual, df: dfResidual, ms: mse },
+    total: { ss: ssTotal, df: n - 1 },
+    terms: termRows,
+  };
+
+  // pure error from replicate groups; lack of fit is what is left of the residual
+  const pureErrorParts: number[] = [];
+  let dfPureError = 0;
+  for (const members of groups.values()) {
+    if (members.length < 2) continue;
+    const groupMean = compensatedSum(members.map((i) => y[i])) / members.length;
+    for (const i of members) pureErrorParts.push((y[i] - groupMean) * (y[i] - groupMean));
+    dfPureError += members.length - 1;
+  }
+  if (dfPureError > 0) {
+    const ssPureError = compensatedSum(pureErrorParts);
+    const msPureError = ssPureError / dfPureError;
+    anova.pureError = { ss: ssPureError, df: dfPureError, ms: msPureError };
+    const dfLackOfFit = dfResidual - dfPureError;
+    if (dfLackOfFit > 0) {
+      const ssLackOfFit = Math.max(0, ssResidual - ssPureError);
+      const msLackOfFit = ssLackOfFit / dfLackOfFit;
+      const fLackOfFit = msLackOfFit / msPureError;
+      anova.lackOfFit = {
+        ss: ssLackOfFit,
+        df: dfLackOfFit,
+        ms: msLackOfFit,
+        f: finiteOrNull(fLackOfFit),
+        p: Number.isFinite(fLackOfFit) ? fUpperP(fLackOfFit, dfLackOfFit, dfPureError) : null,
+      };
+    } else {
+      warnings.push('Lack of fit cannot be tested: the model has as many terms as there are distinct settings.');
+    }
+  } else {
+    warnings.push('No replicated settings: pure error and lack of fit cannot be separated (replicate a centre point to test lack of fit).');
+  }
+
+  // leverage, range and data-quality warnings
+  const leverageLimit = (2 * rank) / n;
+  if (leverageLimit < 1) {
+    const high: number[] = [];
+    for (let i = 0; i < n; i++) if (leverage[i] > leverageLimit) high.push(i);
+    if (high.length > 0) {
+      warnings.push(`High-leverage runs (h > 2p/n = ${leverageLimit.toPrecision(3)}), which steer the fit strongly: ${describeRows(high, rows)}.`);
+    }
+  }
+  if (press === null) {
+    warnings.push('A run has leverage 1 (the model passes through it exactly): PRESS and predicted R² are undefined.');
+  }
+  for (let f = 0; f < factors.length; f++) {
+    const factor = factors[f];
+    if (factor.kind !== 'continuous') continue;
+    const low = factor.low as number;
+    const high = factor.high as number;
+    const range = high - low;
+    const dataMin = factor.dataMin as number;
+    const dataMax = factor.dataMax as number;
+    if (dataMin > low + 0.1 * range || dataMax < high - 0.1 * range) {
+      warnings.push(`Factor ${factor.key}: the runs cover only ${dataMin}–${dataMax} of the range ${low}–${high}; predictions near the range ends are extrapolation.`);
+    }
+    let largestCoded = 0;
+    for (const encoded of encodedRows) largestCoded = Math.max(largestCoded, Math.abs(encoded[f] as number));
+    if (largestCoded > 2) {
+      warnings.push(`Factor ${factor.key}: some runs lie far outside the range ${low}–${high} (coded up to ${largestCoded.toPrecision(3)}); check the units.`);
+    }
+  }
+  if (ssTotal === 0) warnings.push(`${responseName} does not vary across the runs: nothing to model.`);
+  if (ssResidual === 0 && ssTotal > 0) warnings.push('The residual error is zero: the model reproduces every run exactly, so standard errors and tests are not meaningful.');
+
+  const r2 = ssTotal > 0 ? 1 - ssResidual / ssTotal : 0;
+  const adjR2 = ssTotal > 0 ? 1 - (ssResidual / dfResidual) / (ssTotal / (n - 1)) : 0;
+  const predR2 = press !== null && ssTotal > 0 ? 1 - press / ssTotal : null;
+  let maxLeverage = 0;
+  for (const h of leverage) maxLeverage = Math.max(maxLeverage, h);
+
+  return {
+    response: responseKey,
+    terms: built.terms.map((term) => term.name),
+    coefficients,
+    anova,
+    r2,
+    adjR2,
+    predR2,
+    press,
+    rmse: Math.sqrt(mse),
+    n,
+    distinctRuns,
+    leverage,
+    residuals,
+    predicted,
+    warnings,
+    basis: { factors, columns, estimated, rInverse, beta, mse, dfResidual, maxLeverage },
+  };
+}
