@@ -96,6 +96,8 @@ function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<stri
     fitToHours: d.fitWindow?.toHours ?? null,
     interruptions: JSON.stringify(d.interruptions ?? []),
     windows: JSON.stringify(d.windows ?? []),
+    segments: JSON.stringify((d.segments ?? []).map((g) => ({ fromHours: g.fromHours, toHours: g.toHours, startV: g.startV, endV: g.endV, rate: g.rate }))),
+    method: d.method,
     notes: (d.notes ?? []).join(' '),
   };
 }
@@ -192,7 +194,13 @@ export async function ingestUpload(
       throw asUnprocessable(error, upload.originalName);
     }
     const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
-    const result = computeMetrics(data, referencePoint(project), build);
+    let result: MetricsResult;
+    try {
+      result = computeMetrics(data, referencePoint(project), build);
+    } catch (error) {
+      if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}`, { file: upload.originalName });
+      throw error;
+    }
     const points = encodePoints(data);
 
     const stored = path.join(env.uploadsDir, read.sha256.slice(0, 2), read.sha256);

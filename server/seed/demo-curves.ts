@@ -1,7 +1,20 @@
-// Invented curves for the demo builds (filled in with the curves feature).
-import type { AppContext } from '../context';
+// Invented curves for the demo builds: polarization curves from the textbook semi-empirical
+// model, with parameters driven by each build's recipe (an invented "truth" so that lineage,
+// gains and the response surface tell a consistent story), plus noise; a few long durability
+// logs. Each file is written in its lab's own invented station layout and goes through the
+// real upload path, so raw files, import profiles and metrics are exactly what a user gets.
+import fs from 'node:fs';
+import path from 'node:path';
+import os from 'node:os';
+import type { AppContext, AuthUser } from '../context';
 import type { DemoBuild } from './demo-data';
 import type { ProjectSettings } from '../../shared/schemas/project';
+import { generatePolarizationCurve, tafelSlopeTheory, writeCurveCsv, type SemiEmpiricalParams, type CurveCsvShape } from '../../shared/curves';
+import { generateSyntheticLog, writeDurabilityCsv } from '../../shared/durability';
+import { builds, users } from '../db/schema';
+import { eq } from 'drizzle-orm';
+import { ingestUpload, type UploadOptions } from '../curves/service';
+import { AppError } from '../lib/errors';
 
 export interface DemoCurveJob {
   projectId: number;
@@ -11,4 +24,104 @@ export interface DemoCurveJob {
   uploadedBy: number;
 }
 
-export function addDemoCurves(_ctx: AppContext, _job: DemoCurveJob): void {}
+const LAB_SHAPE: Record<string, CurveCsvShape> = { home: 'metadata-header', kestrel: 'semicolon-decimal-comma', ridgeway: 'tab-total-current-mA' };
+
+function hashSeed(text: string): number {
+  let h = 2166136261;
+  for (let i = 0; i < text.length; i++) h = Math.imul(h ^ text.charCodeAt(i), 16777619);
+  return h >>> 0;
+}
+
+/** Invented recipe → model parameters. Optima: binder ≈ 30 wt %, activation ≈ 355 °C, longer is better. */
+export function demoParams(b: DemoBuild): SemiEmpiricalParams {
+  const f = b.factors as Record<string, number | string>;
+  const cellTemp = Number(f.cellTemp ?? b.conditions.temperatureC ?? 180);
+  if ('ruFraction' in f) {
+    const ru = Number(f.ruFraction), load = Number(f.anodeLoading), support = f.support === 'graphitised carbon' ? 0.12 : 0;
+    const lnJ0 = Math.log(4e-5) - ((ru - 48) / 18) ** 2 * 0.7 + 0.035 * (cellTemp - 200) + 0.45 * Math.log(load) + support;
+    return { e0: 0.9 - 0.0004 * (cellTemp - 200), tafelSlope: tafelSlopeTheory(cellTemp + 273.15, 1.0), exchangeCurrentDensity: Math.exp(lnJ0), resistance: 0.11 - 0.0003 * (cellTemp - 200), massTransportCoefficient: 0.05, limitingCurrentDensity: 1.0 + 0.004 * (cellTemp - 200) };
+  }
+  const binder = Number(f.binder), aTemp = Number(f.activationTemp), aTime = Number(f.activationTime), paper = f.gdl === 'carbon paper';
+  const lot = b.lot === 'FNC-24-11' ? 0.12 : 0;
+  const lnJ0 = Math.log(1.6e-5) - ((binder - 30) / 14) ** 2 * 0.7 - ((aTemp - 355) / 35) ** 2 * 0.8 + 0.32 * Math.log(aTime) + 0.03 * (cellTemp - 160) - (paper ? 0.15 : 0) + lot;
+  return {
+    e0: 1.0 - 0.0003 * (cellTemp - 160),
+    tafelSlope: tafelSlopeTheory(cellTemp + 273.15, 0.9),
+    exchangeCurrentDensity: Math.exp(lnJ0),
+    resistance: 0.12 + 0.0018 * (binder - 20) - 0.0006 * (cellTemp - 160) - (paper ? 0.01 : 0),
+    massTransportCoefficient: 0.045,
+    limitingCurrentDensity: 1.0 + 0.012 * (binder - 10) + (paper ? 0.1 : 0),
+  };
+}
+
+const J_STEPS = [0, 0.005, 0.01, 0.02, 0.04, 0.06, 0.08, 0.1, 0.15, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8];
+
+async function ingestText(ctx: AppContext, job: DemoCurveJob, user: AuthUser, fileName: string, text: string, options: UploadOptions) {
+  const tmp = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'cw-seed-')), fileName);
+  const build = ctx.db.select().from(builds).where(eq(builds.id, job.buildId)).get()!;
+  const access = { projectId: job.projectId, role: 'admin' as const, user };
+  const write = () => fs.writeFileSync(tmp, text);
+  write();
+  try {
+    await ingestUpload(ctx, access, build, { tmpPath: tmp, originalName: fileName, size: Buffer.byteLength(text) }, options);
+  } catch (error) {
+    // A lab's first file in an ambiguous layout: confirm the detected columns and keep them as
+    // that lab's import profile, as a person would on the upload page.
+    if (error instanceof AppError && error.code === 'mapping-needed') {
+      const details = error.details as { detected: UploadOptions['mapping'] | null };
+      if (!details.detected) throw error;
+      write();
+      await ingestUpload(ctx, access, ctx.db.select().from(builds).where(eq(builds.id, job.buildId)).get()!, { tmpPath: tmp, originalName: fileName, size: Buffer.byteLength(text) }, { ...options, mapping: details.detected, saveProfileAs: `${job.build.lab} station export` });
+    } else {
+      throw error;
+    }
+  } finally {
+    fs.rmSync(path.dirname(tmp), { recursive: true, force: true });
+  }
+}
+
+export async function addDemoCurves(ctx: AppContext, job: DemoCurveJob): Promise<void> {
+  const row = ctx.db.select().from(users).where(eq(users.id, job.uploadedBy)).get()!;
+  const user: AuthUser = { id: row.id, email: row.email, name: row.name, isAdmin: row.isAdmin, labId: row.labId, labKind: null };
+  const b = job.build;
+  const params = demoParams(b);
+  const jMax = params.limitingCurrentDensity * 0.92;
+  const curve = generatePolarizationCurve(params, {
+    jPoints: J_STEPS.filter((j) => j < jMax),
+    readingsPerStep: 3,
+    noiseV: 0.0015,
+    seed: hashSeed(b.code),
+    sweeps: 'up-down',
+    downSweepOffsetV: 0.004,
+  });
+  const shape = LAB_SHAPE[b.lab] ?? 'comma-plain';
+  const text = writeCurveCsv(curve, shape, {
+    areaCm2: b.areaCm2,
+    temperatureC: b.conditions.temperatureC ?? undefined,
+    anodeGas: b.conditions.anodeGas ?? undefined,
+    cathodeGas: b.conditions.cathodeGas ?? undefined,
+    backPressureKPa: b.conditions.backPressureKPa ?? undefined,
+    title: `${b.code} polarization`,
+  }).replace(/^/, '');
+  const ext = shape === 'tab-total-current-mA' || shape === 'whitespace-mV' ? 'txt' : 'csv';
+  await ingestText(ctx, job, user, `${b.code}_polarization.${ext}`, text, { kind: 'polarization', areaCm2: shape === 'tab-total-current-mA' ? b.areaCm2 : undefined });
+
+  if (b.durability) {
+    const log = generateSyntheticLog({
+      hours: b.durability.hours,
+      stepMinutes: 10,
+      v0: 0.56,
+      breakInHours: 120,
+      breakInDropMv: -18,
+      rateUvPerH: b.durability.rateUvPerH,
+      noiseMv: 0.8,
+      noiseCorrelation: 0.6,
+      restartAtHours: b.durability.restartAtHours,
+      restartShiftMv: b.durability.restartAtHours ? 6 : undefined,
+      currentDensity: 0.2,
+      temperatureC: b.conditions.temperatureC ?? 180,
+      seed: hashSeed(`${b.code}-durability`),
+    });
+    await ingestText(ctx, job, user, `${b.code}_durability_${b.durability.hours}h.csv`, writeDurabilityCsv(log), { kind: 'durability', label: `${b.durability.hours} h at 0.2 A/cm²` });
+  }
+}

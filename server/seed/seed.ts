@@ -65,6 +65,6 @@ export async function seedDemo(ctx: AppContext): Promise<void> {
       }
     }
   });
-  for (const job of jobs) addDemoCurves(ctx, job);
+  for (const job of jobs) await addDemoCurves(ctx, job);
   ctx.logger.info(`Seeded the demo lab: ${PEOPLE.length} people, ${PROJECTS.length} projects, ${PROJECTS.reduce((n, p) => n + p.builds.length, 0)} builds`);
 }

@@ -14,6 +14,24 @@ export interface MetadataPair {
   value: string;
 }
 
+// A title such as "Bench 2 (Lab A, invented)" is one cell: separators inside brackets do not split.
+function splitOutsideBrackets(text: string, separator: string): string[] {
+  const cells: string[] = [];
+  let depth = 0;
+  let start = 0;
+  for (let index = 0; index < text.length; index++) {
+    const char = text[index];
+    if (char === '(' || char === '[' || char === '{') depth++;
+    else if ((char === ')' || char === ']' || char === '}') && depth > 0) depth--;
+    else if (char === separator && depth === 0) {
+      cells.push(text.slice(start, index));
+      start = index + 1;
+    }
+  }
+  cells.push(text.slice(start));
+  return cells;
+}
+
 function stripQuotes(text: string): string {
   const trimmed = text.trim();
   if (trimmed.length >= 2 && trimmed[0] === '"' && trimmed[trimmed.length - 1] === '"') return trimmed.slice(1, -1).trim();
@@ -41,7 +59,8 @@ export function splitMetadataLine(line: string, delimiter: string): MetadataPair
   const separators = [delimiter, ';', ',', '\t'].filter((candidate) => candidate.length === 1);
   for (const separator of separators) {
     if (!text.includes(separator)) continue;
-    const cells = text.split(separator).map(stripQuotes).filter((cell) => cell.length > 0);
+    const cells = splitOutsideBrackets(text, separator).map(stripQuotes).filter((cell) => cell.length > 0);
+    if (cells.length === 1) continue;
     if (cells.length >= 2) return { key: cells[0], value: cells.slice(1).join(' ') };
     return null;
   }

@@ -26,8 +26,10 @@ export interface InterruptionOptions {
   gapFactor?: number;
   /** default 0.5 h */
   minGapHours?: number;
-  /** a gap is a restart when the voltage steps by more than restartNoiseFactor × local noise; default 5 */
+  /** a pause is a restart when the voltage steps by more than restartNoiseFactor × local noise; default 5 */
   restartNoiseFactor?: number;
+  /** a pause that can hide a restart: a time step longer than this × the median step (rows missing); default 2 */
+  restartPauseFactor?: number;
   /** time either side of a gap used for the voltage step and local noise, h; default 1 */
   localHours?: number;
   /** a current change departs from the median current density by more than this fraction of it; default 0.05 */
@@ -43,10 +45,53 @@ export interface InterruptionOptions {
 const fmt = (value: number, digits: number): string => value.toFixed(digits);
 
 /**
+ * Robust SD of the differences between neighbouring block means of v (blocks of blockHours on the time
+ * axis, begun afresh at a time reset). A voltage step is itself a difference of two levels, so it is
+ * compared with this spread as it is. 0 when there are fewer than 5 differences.
+ */
+function hourToHourNoise(t: ArrayLike<number>, v: ArrayLike<number>, blockHours: number): number {
+  const differences: number[] = [];
+  let blockStart = t[0];
+  let sum = 0;
+  let count = 0;
+  let previousMean = NaN;
+  let previousBlockEnd = -Infinity;
+  for (let i = 0; i <= t.length; i++) {
+    const closes = i === t.length || t[i] >= blockStart + blockHours || t[i] < t[i - 1];
+    if (closes && count > 0) {
+      const mean = sum / count;
+      // Only neighbouring blocks: across a gap or a reset the difference is not hour-to-hour wander.
+      if (Number.isFinite(previousMean) && Math.abs(blockStart - previousBlockEnd) < blockHours * 1e-6) differences.push(mean - previousMean);
+      previousMean = mean;
+      previousBlockEnd = blockStart + blockHours;
+      sum = 0;
+      count = 0;
+    }
+    if (i === t.length) break;
+    if (closes) {
+      if (t[i] < t[i - 1]) {
+        previousMean = NaN;
+        blockStart = t[i];
+      } else {
+        blockStart += Math.floor((t[i] - blockStart) / blockHours) * blockHours;
+      }
+    }
+    sum += v[i];
+    count++;
+  }
+  return differences.length >= 5 ? robustSd(differences) : 0;
+}
+
+/**
  * Interruptions of a constant-current (or open-circuit) log, in row order.
  * Rules: gap = time step > max(10 × median step, 0.5 h); restart = time going backwards (a new run
- * appended) or a gap across which the median voltage of the hour before and the hour after differ by
- * more than 5 × the local noise (robust SD of the voltage about each side's median, floored at 10 µV);
+ * appended) or a pause (time step > 2 × median step, i.e. rows missing — a stop and restart often
+ * takes less than a gap's length) across which the median voltage of the hour before and the hour
+ * after differ by more than 5 × the local noise; a gap without such a step stays a gap. Local noise =
+ * the larger of the spread of the rows about each side's median (robust SD) and the robust SD of the
+ * differences between consecutive 1 h block means over the whole log — the second one is how far the
+ * level wanders from one hour to the next when the noise is autocorrelated, which the spread within
+ * an hour understates; floored at 10 µV (station resolution);
  * current change = a run of rows lasting ≥ 0.25 h whose current density departs from the log's median
  * by more than max(5 % of the median, 2 mA/cm²).
  * Reference: none single — common practice in reading test-station logs; robust SD per Rousseeuw & Croux (1993).
@@ -67,6 +112,7 @@ export function detectInterruptions(
   const gapFactor = options.gapFactor ?? 10;
   const minGapHours = options.minGapHours ?? 0.5;
   const restartNoiseFactor = options.restartNoiseFactor ?? 5;
+  const restartPauseFactor = options.restartPauseFactor ?? 2;
   const localHours = options.localHours ?? 1;
   const currentFraction = options.currentFraction ?? 0.05;
   const minCurrentStep = options.minCurrentStep ?? 0.002;
@@ -76,6 +122,7 @@ export function detectInterruptions(
     ['gapFactor', gapFactor],
     ['localHours', localHours],
     ['restartNoiseFactor', restartNoiseFactor],
+    ['restartPauseFactor', restartPauseFactor],
   ];
   for (const [name, value] of positive) {
     if (!(Number.isFinite(value) && value > 0)) throw new RangeError(`detectInterruptions: ${name} must be a positive number, got ${value}`);
@@ -109,6 +156,7 @@ export function detectInterruptions(
   const medianStep = stepCount > 0 ? median(steps, 0, stepCount) : 0;
   const gapThreshold = Math.max(gapFactor * medianStep, minGapHours);
   const localRows = Math.max(5, medianStep > 0 ? Math.round(localHours / medianStep) : 5);
+  let levelNoise: number | null = null;
 
   for (let i = 1; i < n; i++) {
     const dt = tHours[i] - tHours[i - 1];
@@ -124,17 +172,19 @@ export function detectInterruptions(
       });
       continue;
     }
-    if (dt <= gapThreshold) continue;
+    const isGap = dt > gapThreshold;
+    if (!isGap && !(medianStep > 0 && dt > restartPauseFactor * medianStep)) continue;
     const beforeFrom = Math.max(0, i - localRows);
     const afterTo = Math.min(n, i + localRows);
     const before = median(v, beforeFrom, i);
     const after = median(v, i, afterTo);
     const step = after - before;
-    // Local noise: spread of the voltage about each side's own median, so a slow drift or an
-    // autocorrelated wander counts as noise and only a real jump counts as a step.
+    // Local noise: the larger of the rows' spread about each side's median and the log's hour-to-hour
+    // wander, so neither white noise nor an autocorrelated drift is taken for a restart.
     const noiseBefore = i - beforeFrom >= 3 ? robustSd(v, beforeFrom, i) : 0;
     const noiseAfter = afterTo - i >= 3 ? robustSd(v, i, afterTo) : 0;
-    const noise = Math.max(minNoiseV, Math.sqrt((noiseBefore * noiseBefore + noiseAfter * noiseAfter) / 2));
+    if (levelNoise === null) levelNoise = hourToHourNoise(tHours, v, localHours);
+    const noise = Math.max(minNoiseV, levelNoise, Math.sqrt((noiseBefore * noiseBefore + noiseAfter * noiseAfter) / 2));
     const stepText = `${step >= 0 ? '+' : '−'}${fmt(Math.abs(step) * 1000, 1)} mV`;
     if (Math.abs(step) > restartNoiseFactor * noise) {
       found.push({
@@ -146,7 +196,7 @@ export function detectInterruptions(
         detail: `no data for ${fmt(dt, 2)} h, then the voltage stepped ${stepText} (local noise ${fmt(noise * 1000, 2)} mV): restart`,
         voltageStep: step,
       });
-    } else {
+    } else if (isGap) {
       found.push({
         kind: 'gap',
         startHours: tHours[i - 1],

@@ -1,6 +1,12 @@
 // Quantiles and tail probabilities of the t, F and normal distributions, from jStat
 // (a well-known statistics package), wrapped so every caller checks its inputs the same way.
-import { jStat } from 'jstat';
+import * as jstatModule from 'jstat';
+
+// jStat is CommonJS: under Node's ESM loader it arrives as a default export, under bundlers as a
+// named one. Accept either.
+type JStat = typeof jstatModule.jStat;
+const loaded = jstatModule as unknown as { jStat?: JStat; default?: { jStat?: JStat } & JStat };
+const jStat: JStat = loaded.jStat ?? loaded.default?.jStat ?? (loaded.default as JStat);
 
 function checkDf(name: string, df: number): void {
   if (!Number.isFinite(df) || df <= 0) throw new RangeError(`${name}: degrees of freedom must be a positive number, got ${df}`);

@@ -4,6 +4,7 @@
 // two-factor interactions.
 import { DesignInputError } from './design-input-error';
 import { compareWords, wordLength, wordOfMask } from './factor-letters';
+import { mulberry32 } from '../random';
 import type { CorePoint, TwoLevelStructure } from './types';
 
 export interface TwoLevelBlocking {
@@ -16,6 +17,11 @@ export interface TwoLevelBlocking {
   /** the lowest order of any effect mixed with blocks */
   lowestConfoundedOrder: number;
 }
+
+/** Pairs kept for extending to three block generators (9 or more base factors). */
+const PAIR_POOL = 300;
+/** Up to 8 base factors (255 columns) every triple of block generators is tried (≈ 2.7·10⁶). */
+const EXHAUSTIVE_TRIPLES_UP_TO = 255;
 
 interface Score {
   lowest: number;
@@ -67,13 +73,14 @@ function shortestMembers(baseWord: number, definingWords: readonly number[]): nu
  * Splits the factorial points of a two-level design into 2^b blocks (b = 1, 2, 3).
  * The b block generators are chosen among products of the base (free) columns to maximise the
  * lowest order of any effect confounded with blocks (counting aliases in a fraction), then to
- * have the fewest effects at that order; b ≥ 2 searches the most promising candidates
- * exhaustively (all of them for up to 400 / 60 candidates). For a full 2^k in 2 blocks this is
+ * have the fewest effects at that order, then the highest total order. b = 1 and b = 2 are
+ * exhaustive, so is b = 3 up to 8 base factors; beyond that b = 3 extends a fixed-seed sample
+ * of 300 best pairs by every possible third column (a heuristic). For a full 2^k in 2 blocks this is
  * the k-factor interaction; 2^4 in 4 blocks gives ABC, ABD (CD confounded, unavoidably a two-factor interaction).
  * Block 1 holds the first factorial point in standard order.
  * Reference: NIST/SEMATECH e-Handbook §5.3.3.3.3 (blocking of full factorial designs); confounding
  * in 2^k blocks as in Montgomery, Design and Analysis of Experiments, ch. 7 (from memory).
- * Cost: O(2^m · 2^p) for the alias lengths, plus at most ~2·10⁵ candidate sets.
+ * Cost: O(2^m · 2^p) for the alias lengths, O(4^m) pairs for b ≥ 2 (m base factors, ≤ 12), plus C(2^m − 1, 3) ≤ 2.7·10⁶ triples (m ≤ 8) or 300 · 2^m triples for b = 3.
  * @throws DesignInputError when blockCount is not 2, 4 or 8 or leaves fewer than 2 factorial runs per block.
  * @example blockTwoLevel(points, structure, 2).blockGenerators // ['ABC'] for a 2^3
  */
@@ -105,32 +112,75 @@ export function blockTwoLevel(points: readonly CorePoint[], structure: TwoLevelS
   if (generatorCount === 1) {
     bestGenerators = [candidates[0] as number];
     bestScore = scoreOf(bestGenerators, shortest);
-  } else if (generatorCount === 2) {
-    const pool = candidates.slice(0, 400);
-    for (let first = 0; first < pool.length; first++) {
-      for (let second = first + 1; second < pool.length; second++) {
-        const generators = [pool[first] as number, pool[second] as number];
-        const score = scoreOf(allProducts(generators), shortest);
-        if (betterScore(score, bestScore)) {
-          bestScore = score;
-          bestGenerators = generators;
+  } else {
+    // Every pair, exhaustively (at most 4095²/2 ≈ 8·10⁶ for 12 base factors).
+    const goodPairs: [number, number][] = [];
+    let pairsSeen = 0;
+    const sampler = mulberry32(candidates.length);
+    let bestPairScore: Score | undefined;
+    for (let first = 0; first < candidates.length; first++) {
+      const firstMask = candidates[first] as number;
+      const firstOrder = shortest[firstMask] as number;
+      if (bestPairScore !== undefined && firstOrder < bestPairScore.lowest) break; // sorted: nothing later can do better
+      for (let second = first + 1; second < candidates.length; second++) {
+        const secondMask = candidates[second] as number;
+        const secondOrder = shortest[secondMask] as number;
+        if (bestPairScore !== undefined && secondOrder < bestPairScore.lowest) break;
+        const productOrder = shortest[firstMask ^ secondMask] as number;
+        const lowest = Math.min(firstOrder, secondOrder, productOrder);
+        if (bestPairScore !== undefined && lowest < bestPairScore.lowest) continue;
+        const score: Score = {
+          lowest,
+          countAtLowest: (firstOrder === lowest ? 1 : 0) + (secondOrder === lowest ? 1 : 0) + (productOrder === lowest ? 1 : 0),
+          totalOrder: firstOrder + secondOrder + productOrder,
+        };
+        if (bestPairScore === undefined || lowest > bestPairScore.lowest) {
+          goodPairs.length = 0;
+          pairsSeen = 0;
+        }
+        // Reservoir sample of the pairs at the best lowest order, so the pool is not biased
+        // towards the longest words (which multiply into short ones).
+        pairsSeen++;
+        if (goodPairs.length < PAIR_POOL) goodPairs.push([firstMask, secondMask]);
+        else {
+          const slot = Math.floor(sampler() * pairsSeen);
+          if (slot < PAIR_POOL) goodPairs[slot] = [firstMask, secondMask];
+        }
+        if (betterScore(score, bestPairScore)) {
+          bestPairScore = score;
+          if (generatorCount === 2) {
+            bestScore = score;
+            bestGenerators = [firstMask, secondMask];
+          }
         }
       }
     }
-  } else {
-    const pool = candidates.slice(0, 60);
-    for (let first = 0; first < pool.length; first++) {
-      for (let second = first + 1; second < pool.length; second++) {
-        for (let third = second + 1; third < pool.length; third++) {
-          const generators = [pool[first] as number, pool[second] as number, pool[third] as number];
-          const products = allProducts(generators);
-          if (products.includes(0)) continue; // dependent: fewer than 8 distinct blocks
-          const score = scoreOf(products, shortest);
-          if (betterScore(score, bestScore)) {
-            bestScore = score;
-            bestGenerators = generators;
+    if (generatorCount === 3) {
+      const products = new Array<number>(7).fill(0);
+      const tryTriple = (firstMask: number, secondMask: number, thirdMask: number): void => {
+        if (thirdMask === firstMask || thirdMask === secondMask || thirdMask === (firstMask ^ secondMask)) return; // dependent: fewer than 8 blocks
+        products[0] = firstMask;
+        products[1] = secondMask;
+        products[2] = firstMask ^ secondMask;
+        products[3] = thirdMask;
+        products[4] = firstMask ^ thirdMask;
+        products[5] = secondMask ^ thirdMask;
+        products[6] = firstMask ^ secondMask ^ thirdMask;
+        const score = scoreOf(products, shortest);
+        if (betterScore(score, bestScore)) {
+          bestScore = score;
+          bestGenerators = [firstMask, secondMask, thirdMask];
+        }
+      };
+      if (candidates.length <= EXHAUSTIVE_TRIPLES_UP_TO) {
+        for (let first = 0; first < candidates.length; first++) {
+          for (let second = first + 1; second < candidates.length; second++) {
+            for (let third = second + 1; third < candidates.length; third++) tryTriple(candidates[first] as number, candidates[second] as number, candidates[third] as number);
           }
         }
+      } else {
+        // Heuristic for 9 or more base factors: extend a sample of the best pairs by every third column.
+        for (const [firstMask, secondMask] of goodPairs) for (const thirdMask of candidates) tryTriple(firstMask, secondMask, thirdMask);
       }
     }
   }

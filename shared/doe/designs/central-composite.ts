@@ -82,7 +82,7 @@ export function centralComposite(k: number, options: CentralCompositeOptions): C
   if (!useFraction && 2 ** k + 2 * k > MAX_DESIGN_RUNS) {
     throw new DesignInputError(functionName, 'factors', `2^${k} + ${2 * k} runs is more than ${MAX_DESIGN_RUNS}; give generators for a fractional factorial part`);
   }
-  const factorialPart = useFraction ? fractionalFactorial(k, { generators: options.generators }) : fullFactorial2(k);
+  const factorialPart = useFraction ? fractionalFactorial(k, { generators: options.generators ?? [] }) : fullFactorial2(k);
   const factorialRuns = factorialPart.points.length;
   if (factorialRuns + 2 * k > MAX_DESIGN_RUNS) {
     throw new DesignInputError(functionName, 'generators', `${factorialRuns} + ${2 * k} runs is more than ${MAX_DESIGN_RUNS}`);

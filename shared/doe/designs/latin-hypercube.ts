@@ -46,7 +46,7 @@ function closestPair(points: readonly (readonly number[])[]): ClosestPair {
 
 /**
  * Smallest Euclidean distance between any two points (coded units); Infinity for fewer than 2 points.
- * Reference: maximin distance criterion, Johnson, Moore & Ylvisaker (1990), J. Stat. Plan. Inference 26 (from memory).
+ * Reference: the maximin distance criterion for space-filling designs (from memory).
  * Cost: O(n² · k).
  * @example minPairwiseDistance([[0, 0], [3, 4], [10, 0]]) // 5
  */

@@ -1,4 +1,5 @@
 // Turns a point in actual units (°C, wt %, level names) into the coded form the model uses.
+import { fromCoded, toCoded } from '../coding';
 import { DoeInputError } from './errors';
 import type { ResolvedFactor } from './types';
 
@@ -25,9 +26,7 @@ export function encodePoint(fn: string, factors: ResolvedFactor[], point: Record
       if (typeof value !== 'number' || !Number.isFinite(value)) {
         throw new DoeInputError('invalid-point', `${fn}: factor "${factor.key}" must be a finite number (point, got ${JSON.stringify(value)})`);
       }
-      const low = factor.low as number;
-      const high = factor.high as number;
-      encoded[i] = (value - (low + high) / 2) / ((high - low) / 2);
+      encoded[i] = toCoded(value, factor.low as number, factor.high as number);
     } else {
       const level = String(value);
       if (!(factor.levels as string[]).includes(level)) {
@@ -41,7 +40,5 @@ export function encodePoint(fn: string, factors: ResolvedFactor[], point: Record
 
 /** Actual value of a coded continuous setting for a resolved factor. */
 export function decodeValue(factor: ResolvedFactor, coded: number): number {
-  const low = factor.low as number;
-  const high = factor.high as number;
-  return (low + high) / 2 + coded * ((high - low) / 2);
+  return fromCoded(coded, factor.low as number, factor.high as number);
 }

@@ -1,6 +1,5 @@
 // Fits a response-surface model to observed runs: least squares in coded units, ANOVA with
 // lack of fit and pure error, PRESS, leverage, VIF, and the coefficients in actual units.
-import { Matrix, solve } from 'ml-matrix';
 import { fUpperP, tTwoSidedP } from '../../stats/distributions';
 import { DoeInputError } from './errors';
 import { encodePoint } from './encode';
@@ -37,6 +36,11 @@ function settingsKey(factors: ResolvedFactor[], row: Observation): string {
     parts.push(factor.kind === 'continuous' ? (value as number).toPrecision(12) : `"${String(value)}"`);
   }
   return parts.join('|');
+}
+
+/** A number with at most 6 significant digits, for messages. */
+function short(value: number): string {
+  return String(Number(value.toPrecision(6)));
 }
 
 function finiteOrNull(value: number): number | null {
@@ -282,13 +286,20 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
       if (columns[j].term === term.name && position !== undefined) positions.push(position);
     }
     if (positions.length === 0) continue;
-    const block = positions.map((a) => positions.map((b) => cov[a][b]));
-    const b = positions.map((a) => beta[a]);
     let ss: number;
-    if (positions.length === 1) ss = (b[0] * b[0]) / block[0][0];
+    if (positions.length === 1) ss = (beta[positions[0]] * beta[positions[0]]) / cov[positions[0]][positions[0]];
     else {
-      const w = solve(new Matrix(block), Matrix.columnVector(b)).getColumn(0);
-      ss = compensatedDot(b, w);
+      // several columns (a categorical term): refit without them rather than invert their
+      // covariance block, which can be near singular in a poor design
+      const kept = estimated.filter((_, position) => !positions.includes(position));
+      const reduced = qrLeastSquares(x.map((row) => kept.map((j) => row[j])), y);
+      const reducedResiduals = new Array<number>(n);
+      for (let i = 0; i < n; i++) {
+        const rowValues = reduced.estimated.map((j) => x[i][kept[j]]);
+        const e = y[i] - compensatedDot(rowValues, reduced.beta);
+        reducedResiduals[i] = e * e;
+      }
+      ss = Math.max(0, compensatedSum(reducedResiduals) - ssResidual);
     }
     const df = positions.length;
     const ms = ss / df;
@@ -363,7 +374,7 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     const dataMin = factor.dataMin as number;
     const dataMax = factor.dataMax as number;
     if (dataMin > low + 0.1 * range || dataMax < high - 0.1 * range) {
-      warnings.push(`Factor ${factor.key}: the runs cover only ${dataMin}–${dataMax} of the range ${low}–${high}; predictions near the range ends are extrapolation.`);
+      warnings.push(`Factor ${factor.key}: the runs cover only ${short(dataMin)}–${short(dataMax)} of the range ${short(low)}–${short(high)}; predictions near the range ends are extrapolation.`);
     }
     let largestCoded = 0;
     for (const encoded of encodedRows) largestCoded = Math.max(largestCoded, Math.abs(encoded[f] as number));
@@ -371,7 +382,10 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
       warnings.push(`Factor ${factor.key}: some runs lie far outside the range ${low}–${high} (coded up to ${largestCoded.toPrecision(3)}); check the units.`);
     }
   }
-  if (ssTotal === 0) warnings.push(`${responseName} does not vary across the runs: nothing to model.`);
+  const blocks = new Set<string>();
+  for (const row of rows) if (row.block !== undefined && row.block !== null) blocks.add(String(row.block));
+  if (blocks.size > 1) warnings.push(`The runs carry ${blocks.size} blocks; block effects are not part of this model.`);
+  if (ssTotal === 0) warnings.push(`${responseKey ? `Response "${responseKey}"` : 'The response'} does not vary across the runs: nothing to model.`);
   if (ssResidual === 0 && ssTotal > 0) warnings.push('The residual error is zero: the model reproduces every run exactly, so standard errors and tests are not meaningful.');
 
   const r2 = ssTotal > 0 ? 1 - ssResidual / ssTotal : 0;

@@ -64,13 +64,14 @@ export interface QrLeastSquares {
 /**
  * Least squares by Householder QR, dropping columns that are (numerically) linear
  * combinations of earlier ones. A column is aliased when |R_jj| ≤ tolerance·‖x_j‖, i.e. the
- * part of it orthogonal to the earlier columns is negligible; earlier columns win, so the
- * lower-order terms of a hierarchical model are kept.
+ * part of it orthogonal to the earlier columns is negligible (default 1e-7, the usual
+ * choice of statistical packages; such a column would have a VIF above 1e14); earlier
+ * columns win, so the lower-order terms of a hierarchical model are kept.
  * Reference: Golub & Van Loan, Matrix Computations, §5.3 (QR least squares) and §5.4.
  * Cost: O(n·p²) per pass, at most a few passes.
  * @example qrLeastSquares([[1, 0], [1, 1], [1, 2]], [1, 2, 3]).beta // [1, 1]
  */
-export function qrLeastSquares(x: number[][], y: number[], tolerance = 1e-9): QrLeastSquares {
+export function qrLeastSquares(x: number[][], y: number[], tolerance = 1e-7): QrLeastSquares {
   const n = x.length;
   const p = n > 0 ? x[0].length : 0;
   const norms = new Array<number>(p).fill(0);

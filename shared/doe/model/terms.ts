@@ -166,19 +166,21 @@ export function buildModelTerms(factors: AnyFactor[], model: ModelSpec): ModelTe
 
   const byName = new Map<string, number[]>();
   for (const powers of requested) byName.set(termName(factors, powers), powers);
-  const added: string[] = [];
-  // parents of parents are parents too, and parentsOf already returns every divisor
+  const added: { powers: number[]; text: string }[] = [];
+  // parentsOf returns every divisor, so parents of parents need no second pass
   for (const powers of [...byName.values()]) {
     for (const parent of parentsOf(powers)) {
       const name = termName(factors, parent);
       if (!byName.has(name)) {
         byName.set(name, parent);
-        added.push(`${name} (for ${termName(factors, powers)})`);
+        added.push({ powers: parent, text: `${name} (for ${termName(factors, powers)})` });
       }
     }
   }
   if (added.length > 0) {
-    warnings.push(`Added ${added.length === 1 ? 'a parent term' : 'parent terms'} to keep the model hierarchical: ${added.join(', ')}.`);
+    added.sort((a, b) => compareTerms(a.powers, b.powers));
+    const list = added.map((entry) => entry.text).join(', ');
+    warnings.push(`Added ${added.length === 1 ? 'a parent term' : 'parent terms'} to keep the model hierarchical: ${list}.`);
   }
 
   const sorted = [...byName.values()].sort(compareTerms);

@@ -1,0 +1,121 @@
+// Shapes of the JSON the API returns, shared by the server (to type its answers) and the client.
+import type { FactorDef, ProjectSettings, ResponseDef, TestConditions, ProjectRole } from './schemas/project';
+import type { BuildStatus } from './schemas/build';
+import type { ColumnMapping, CurveKind, CurveMetrics, FileConditions, MetricMethod } from './curves/types';
+
+export type { FactorDef, ResponseDef, ProjectSettings, TestConditions, ProjectRole, BuildStatus };
+
+export interface Me {
+  user: { id: number; email: string; name: string; isAdmin: boolean; labId: number | null; labKind: 'home' | 'partner' | null };
+  roles: { projectId: number; role: ProjectRole; notify: boolean }[];
+  csrfToken: string | null;
+}
+
+export interface Project {
+  id: number;
+  name: string;
+  description: string;
+  codePrefix: string;
+  settings: ProjectSettings;
+  metricsVersion: number;
+  createdAt: string;
+  updatedAt: string | null;
+  myRole: ProjectRole | 'admin' | null;
+  buildCount?: number;
+}
+
+export interface Build {
+  id: number;
+  projectId: number;
+  code: string;
+  parentId: number | null;
+  parentCode: string | null;
+  changeNote: string | null;
+  factors: Record<string, number | string>;
+  loadingMgCm2: number | null;
+  metalLoadingMgCm2: number | null;
+  areaCm2: number | null;
+  catalystLot: string | null;
+  labId: number | null;
+  labName: string | null;
+  operatorId: number | null;
+  operatorName: string | null;
+  status: BuildStatus;
+  builtOn: string | null;
+  testedOn: string | null;
+  replicateOf: number | null;
+  testConditions: TestConditions;
+  responses: Record<string, number>;
+  values: Record<string, number | null>;
+  curveCount: number;
+  createdAt: string;
+  updatedAt: string | null;
+}
+
+export interface CurveSummary {
+  id: number;
+  buildId: number;
+  fileId: number | null;
+  kind: CurveKind;
+  label: string;
+  mapping: ColumnMapping | null;
+  conditions: FileConditions | null;
+  pointCount: number;
+  metrics: CurveMetrics;
+  metricNotes: Record<string, string>;
+  method: Record<string, MetricMethod>;
+  summary: Record<string, unknown>;
+  metricsVersion: number;
+  options: Record<string, unknown> | null;
+  createdAt: string;
+}
+
+export interface LineageNode {
+  id: number;
+  code: string;
+  changeNote: string | null;
+  status: string;
+}
+
+export interface BuildDetail {
+  build: Build;
+  lineage: { ancestors: LineageNode[]; children: LineageNode[]; replicates: { id: number; code: string; status: string }[] };
+  curves: CurveSummary[];
+  permissions: { edit: boolean; upload: boolean; review: boolean; comment: boolean };
+}
+
+export interface CurvePoints {
+  j?: number[];
+  v: number[];
+  hfr?: number[] | null;
+  tHours?: number[] | null;
+  temperatureC?: number[] | null;
+  downsampled: boolean;
+  total: number;
+}
+
+export interface Lab {
+  id: number;
+  name: string;
+  kind: 'home' | 'partner';
+  city: string | null;
+}
+
+export interface UploadPreview {
+  header: string[];
+  rows: string[][];
+  rowCount: number;
+  headerLine: number;
+  delimiter: string;
+  decimalComma: boolean;
+  conditions: FileConditions;
+  detected: ColumnMapping | null;
+  applied?: ColumnMapping | null;
+  mappingSource?: string;
+  ambiguous?: boolean;
+  reasons: string[];
+  kind: CurveKind;
+  sheets?: string[];
+  sheet?: string;
+  fileName?: string;
+}

@@ -1,0 +1,306 @@
+// Parsed table + confirmed column mapping → CurveData in internal units (A/cm², V, Ω·cm²,
+// hours, °C), refusing values no cell can produce and naming the line and column.
+import { CurveFileError } from './types';
+import type { ColumnMapping, CurveData, CurveKind, CurrentUnit, HfrUnit, ParsedTable, TemperatureUnit, TimeUnit, VoltageUnit } from './types';
+import { currentDensityFactor } from '../units/current-density';
+import { voltageFactor } from '../units/voltage';
+import { hfrFactor } from '../units/area-specific-resistance';
+import { hoursFactor } from '../units/elapsed-time';
+import { ZERO_CELSIUS_K } from '../units/temperature';
+
+/** Where the time column started again near zero (a station restart); hours are carried on. */
+export interface TimeReset {
+  /** 0-based row index of the first reading after the restart */
+  row: number;
+  /** 1-based file line of that reading */
+  line: number;
+  /** elapsed hours given to that reading, continuing from the previous segment */
+  atHours: number;
+  /** the file's time value before and after the restart, in hours */
+  fromHours: number;
+  toHours: number;
+}
+
+/** CurveData plus what was done on the way in. */
+export interface AppliedCurve extends CurveData {
+  /** the area used for total current / cell resistance, cm², or null when none was needed */
+  areaCm2: number | null;
+  timeResets: TimeReset[];
+  /** 1-based file line of each row (copied from the table) */
+  dataLines: Int32Array;
+  notes: string[];
+}
+
+export interface ApplyMappingOptions {
+  kind: CurveKind;
+  /** active area in cm²; overrides the area read from the file's metadata */
+  areaCm2?: number | null;
+}
+
+// Limits of what a single cell can show (common practice in the trade): the H2/O2 reversible
+// voltage is ~1.23 V, no cell holds 2 V; 10 A/cm² is several times any PEM limiting current;
+// a negative current beyond −50 mA/cm² is a reversed sign, not a crossover current.
+const MAX_CELL_VOLTAGE_V = 2.0;
+const MIN_CURRENT_DENSITY = -0.05;
+const MAX_CURRENT_DENSITY = 10;
+const MAX_HFR_OHM_CM2 = 10;
+// A time value this small against the previous one is a restart from zero, not disorder.
+const RESTART_FRACTION = 0.05;
+
+const CURRENT_UNITS: readonly CurrentUnit[] = ['A/cm2', 'mA/cm2', 'A', 'mA'];
+const VOLTAGE_UNITS: readonly VoltageUnit[] = ['V', 'mV'];
+const HFR_UNITS: readonly HfrUnit[] = ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'];
+const TIME_UNITS: readonly TimeUnit[] = ['s', 'min', 'h', 'timestamp'];
+const TEMPERATURE_UNITS: readonly TemperatureUnit[] = ['C', 'K'];
+
+const UNIT_LABEL: Readonly<Record<string, string>> = {
+  'A/cm2': 'A/cm²',
+  'mA/cm2': 'mA/cm²',
+  A: 'A',
+  mA: 'mA',
+  V: 'V',
+  mV: 'mV',
+  'ohm*cm2': 'Ω·cm²',
+  'mohm*cm2': 'mΩ·cm²',
+  ohm: 'Ω',
+  mohm: 'mΩ',
+  s: 's',
+  min: 'min',
+  h: 'h',
+  timestamp: 's',
+  C: '°C',
+  K: 'K',
+};
+
+function formatValue(value: number): string {
+  if (value === 0) return '0';
+  const magnitude = Math.abs(value);
+  if (magnitude >= 1e6 || magnitude < 1e-4) return value.toExponential(3);
+  return String(Number(value.toPrecision(6)));
+}
+
+function checkColumn(table: ParsedTable, role: string, entry: { column: number; unit: string } | undefined, units: readonly string[]): Float64Array | null {
+  if (entry === undefined) return null;
+  if (entry === null || typeof entry !== 'object' || !Number.isInteger(entry.column) || entry.column < 0 || entry.column >= table.header.length) {
+    throw new CurveFileError('bad-mapping', `mapping: ${role} column ${String(entry?.column)} is not one of the ${table.header.length} columns`, {
+      line: table.headerLine,
+    });
+  }
+  if (!units.includes(entry.unit)) {
+    throw new CurveFileError('bad-mapping', `mapping: ${role} unit "${String(entry.unit)}" is not one of ${units.join(', ')}`, {
+      line: table.headerLine,
+      column: table.header[entry.column],
+    });
+  }
+  const values = table.columns[entry.column];
+  if (values === null || values === undefined) {
+    throw new CurveFileError('bad-mapping', `line ${table.headerLine}, column "${table.header[entry.column]}": holds text, not numbers; it cannot be the ${role}`, {
+      line: table.headerLine,
+      column: table.header[entry.column],
+    });
+  }
+  return values;
+}
+
+/**
+ * Converts the mapped columns to internal units and checks every value.
+ * Current → A/cm² (total A or mA ÷ area), voltage → V, HFR → Ω·cm² (Ω or mΩ × area), time →
+ * hours elapsed from the first row, temperature → °C. The area is `options.areaCm2`, else
+ * the file's `Active area` line.
+ * Refused (CurveFileError, with line and column): |V| > 2 V; j < −0.05 A/cm² or > 10 A/cm²;
+ * HFR < 0 or > 10 Ω·cm²; temperature below absolute zero; time going backwards, except a
+ * restart near zero (kept, hours carried on from the previous segment, listed in `timeResets`).
+ * A polarization curve needs a current column; a hold without one gets j = 0, a durability
+ * log without one gets j = NaN (the current is then the build's, not the file's).
+ * Reference: limits are common practice in the trade for single PEM cells.
+ * Cost: O(rows) time, one Float64Array per mapped quantity.
+ * @throws CurveFileError `bad-mapping`, `bad-area`, `area-required`, `missing-current`,
+ *   `impossible-value`, `time-backwards`.
+ * @example applyMapping(table, { current: { column: 0, unit: 'mA/cm2' }, voltage: { column: 1, unit: 'V' } }, { kind: 'polarization' }).j
+ */
+export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options: ApplyMappingOptions): AppliedCurve {
+  if (table === null || typeof table !== 'object' || !Array.isArray(table.columns)) throw new TypeError('applyMapping: table must be a ParsedTable');
+  if (mapping === null || typeof mapping !== 'object') throw new CurveFileError('bad-mapping', 'mapping: no column mapping given');
+  if (options === null || typeof options !== 'object' || !['polarization', 'durability', 'hold'].includes(options.kind)) {
+    throw new CurveFileError('bad-mapping', `mapping: kind must be polarization, durability or hold, got ${String(options?.kind)}`);
+  }
+  const kind = options.kind;
+  const notes: string[] = [];
+  const rowCount = table.rowCount;
+  const lines = table.dataLines;
+
+  const voltageValues = checkColumn(table, 'voltage', mapping.voltage, VOLTAGE_UNITS);
+  if (voltageValues === null) throw new CurveFileError('bad-mapping', 'mapping: a voltage column is required', { line: table.headerLine });
+  const currentValues = checkColumn(table, 'current', mapping.current, CURRENT_UNITS);
+  const hfrValues = checkColumn(table, 'HFR', mapping.hfr, HFR_UNITS);
+  const timeValues = checkColumn(table, 'time', mapping.time, TIME_UNITS);
+  const temperatureValues = checkColumn(table, 'temperature', mapping.temperature, TEMPERATURE_UNITS);
+
+  // ---- area
+  let areaCm2: number | null = null;
+  const givenArea = options.areaCm2;
+  if (givenArea !== undefined && givenArea !== null) {
+    if (typeof givenArea !== 'number' || !Number.isFinite(givenArea) || givenArea <= 0) {
+      throw new CurveFileError('bad-area', `area: must be a positive number of cm², got ${String(givenArea)}`);
+    }
+    areaCm2 = givenArea;
+    const fileArea = table.conditions.areaCm2;
+    if (fileArea !== undefined && Math.abs(fileArea - givenArea) > 1e-9 * givenArea) {
+      notes.push(`area ${givenArea} cm² given with the upload; the file says ${fileArea} cm²; used ${givenArea} cm²`);
+    }
+  } else if (table.conditions.areaCm2 !== undefined && table.conditions.areaCm2 > 0) {
+    areaCm2 = table.conditions.areaCm2;
+  }
+  const needsArea: { column: number; what: string }[] = [];
+  if (mapping.current !== undefined && (mapping.current.unit === 'A' || mapping.current.unit === 'mA')) {
+    needsArea.push({ column: mapping.current.column, what: `total current in ${mapping.current.unit}` });
+  }
+  if (mapping.hfr !== undefined && (mapping.hfr.unit === 'ohm' || mapping.hfr.unit === 'mohm')) {
+    needsArea.push({ column: mapping.hfr.column, what: `cell resistance in ${UNIT_LABEL[mapping.hfr.unit]}` });
+  }
+  if (needsArea.length > 0 && areaCm2 === null) {
+    const first = needsArea[0];
+    throw new CurveFileError(
+      'area-required',
+      `line ${table.headerLine}, column "${table.header[first.column]}": ${first.what} needs the active area (cm²); the file does not state it, so give it with the upload`,
+      { line: table.headerLine, column: table.header[first.column] },
+    );
+  }
+  if (needsArea.length === 0) areaCm2 = null;
+
+  // ---- voltage
+  const voltageUnit = mapping.voltage.unit;
+  const voltageScale = voltageFactor(voltageUnit);
+  const v = new Float64Array(rowCount);
+  const voltageName = table.header[mapping.voltage.column];
+  for (let row = 0; row < rowCount; row++) {
+    const volts = voltageValues[row] * voltageScale;
+    if (!(Math.abs(volts) <= MAX_CELL_VOLTAGE_V)) {
+      const raw = voltageValues[row];
+      const hint =
+        voltageUnit === 'V' && Math.abs(raw) <= 2000 ? 'is the column in mV?' : voltageUnit === 'mV' && Math.abs(raw) <= 2e6 ? 'is the column in µV?' : 'is this the right column?';
+      throw new CurveFileError(
+        'impossible-value',
+        `line ${lines[row]}, column "${voltageName}": ${formatValue(raw)} ${UNIT_LABEL[voltageUnit]} is not a possible cell voltage; ${hint}`,
+        { line: lines[row], column: voltageName },
+      );
+    }
+    v[row] = volts;
+  }
+
+  // ---- current
+  let j: Float64Array;
+  if (currentValues !== null && mapping.current !== undefined) {
+    const currentUnit = mapping.current.unit;
+    const scale = currentDensityFactor(currentUnit, areaCm2);
+    const currentName = table.header[mapping.current.column];
+    const total = currentUnit === 'A' || currentUnit === 'mA';
+    j = new Float64Array(rowCount);
+    for (let row = 0; row < rowCount; row++) {
+      const density = currentValues[row] * scale;
+      if (density < MIN_CURRENT_DENSITY || density > MAX_CURRENT_DENSITY || density !== density) {
+        const raw = currentValues[row];
+        const shown = total ? `${formatValue(raw)} ${UNIT_LABEL[currentUnit]} on ${areaCm2} cm² (${formatValue(density)} A/cm²)` : `${formatValue(raw)} ${UNIT_LABEL[currentUnit]}`;
+        const problem =
+          density < MIN_CURRENT_DENSITY
+            ? `${shown} is a negative current density below −0.05 A/cm²; is the sign reversed (some stations log load current as negative)?`
+            : `${shown} is above 10 A/cm², more than any cell carries; ${total ? 'is the area right, or the unit mA?' : currentUnit === 'A/cm2' ? 'is the column in mA/cm²?' : 'is this the right column?'}`;
+        throw new CurveFileError('impossible-value', `line ${lines[row]}, column "${currentName}": ${problem}`, { line: lines[row], column: currentName });
+      }
+      j[row] = density;
+    }
+  } else if (kind === 'polarization') {
+    throw new CurveFileError('missing-current', `mapping: a polarization curve needs a current column; none is mapped`, { line: table.headerLine });
+  } else if (kind === 'hold') {
+    j = new Float64Array(rowCount);
+    notes.push('no current column: an open-circuit hold, j = 0 throughout');
+  } else {
+    j = new Float64Array(rowCount).fill(Number.NaN);
+    notes.push('no current column: j is unknown (NaN); the durability current is the build’s');
+  }
+
+  const curve: AppliedCurve = { kind, j, v, areaCm2, timeResets: [], dataLines: lines, notes };
+
+  // ---- HFR
+  if (hfrValues !== null && mapping.hfr !== undefined) {
+    const hfrUnit = mapping.hfr.unit;
+    const scale = hfrFactor(hfrUnit, areaCm2);
+    const hfrName = table.header[mapping.hfr.column];
+    const hfr = new Float64Array(rowCount);
+    for (let row = 0; row < rowCount; row++) {
+      const asr = hfrValues[row] * scale;
+      if (!(asr >= 0 && asr <= MAX_HFR_OHM_CM2)) {
+        const raw = hfrValues[row];
+        const shown = hfrUnit === 'ohm' || hfrUnit === 'mohm' ? `${formatValue(raw)} ${UNIT_LABEL[hfrUnit]} on ${areaCm2} cm² (${formatValue(asr)} Ω·cm²)` : `${formatValue(raw)} ${UNIT_LABEL[hfrUnit]}`;
+        const hint = asr < 0 ? 'a resistance cannot be negative' : hfrUnit === 'ohm*cm2' ? 'is the column in mΩ·cm²?' : hfrUnit === 'ohm' ? 'is the column in mΩ?' : 'is this the right column?';
+        throw new CurveFileError('impossible-value', `line ${lines[row]}, column "${hfrName}": ${shown} is not a possible HFR (0–10 Ω·cm²); ${hint}`, {
+          line: lines[row],
+          column: hfrName,
+        });
+      }
+      hfr[row] = asr;
+    }
+    curve.hfr = hfr;
+  }
+
+  // ---- time
+  if (timeValues !== null && mapping.time !== undefined) {
+    const timeUnit = mapping.time.unit;
+    const scale = hoursFactor(timeUnit);
+    const timeName = table.header[mapping.time.column];
+    const tHours = new Float64Array(rowCount);
+    // Epoch seconds (~1.7e9) lose resolution when scaled first: subtract the first value.
+    const origin = timeUnit === 'timestamp' ? timeValues[0] : 0;
+    let base = (timeValues[0] - origin) * scale;
+    let offset = 0;
+    for (let row = 0; row < rowCount; row++) {
+      const raw = (timeValues[row] - origin) * scale;
+      if (row > 0) {
+        const previousRaw = (timeValues[row - 1] - origin) * scale;
+        if (raw < previousRaw) {
+          const isRestart = timeUnit !== 'timestamp' && raw >= 0 && raw <= RESTART_FRACTION * previousRaw;
+          if (!isRestart) {
+            throw new CurveFileError(
+              'time-backwards',
+              `line ${lines[row]}, column "${timeName}": time goes back from ${formatValue(timeValues[row - 1])} to ${formatValue(timeValues[row])} ${UNIT_LABEL[timeUnit]}; rows must be in time order (a restart from 0 is allowed)`,
+              { line: lines[row], column: timeName },
+            );
+          }
+          // The restarted clock counts from the restart, which came after the last reading:
+          // carry on from there; a restart logged at exactly 0 gets one sampling interval.
+          const previousInterval = row >= 2 ? tHours[row - 1] - tHours[row - 2] : 0;
+          base = 0;
+          offset = tHours[row - 1] + (raw > 0 ? 0 : previousInterval);
+          curve.timeResets.push({ row, line: lines[row], atHours: raw + offset, fromHours: previousRaw, toHours: raw });
+        }
+      }
+      tHours[row] = raw - base + offset;
+    }
+    if (curve.timeResets.length > 0) {
+      notes.push(`time restarted near 0 at ${curve.timeResets.length === 1 ? 'line' : 'lines'} ${curve.timeResets.map((reset) => reset.line).join(', ')}; elapsed hours carried on`);
+    }
+    curve.tHours = tHours;
+  }
+
+  // ---- temperature
+  if (temperatureValues !== null && mapping.temperature !== undefined) {
+    const temperatureUnit = mapping.temperature.unit;
+    const temperatureName = table.header[mapping.temperature.column];
+    const temperatureC = new Float64Array(rowCount);
+    const shift = temperatureUnit === 'K' ? -ZERO_CELSIUS_K : 0;
+    for (let row = 0; row < rowCount; row++) {
+      const celsius = temperatureValues[row] + shift;
+      if (!(celsius >= -ZERO_CELSIUS_K)) {
+        throw new CurveFileError(
+          'impossible-value',
+          `line ${lines[row]}, column "${temperatureName}": ${formatValue(temperatureValues[row])} ${UNIT_LABEL[temperatureUnit]} is below absolute zero; is the unit right?`,
+          { line: lines[row], column: temperatureName },
+        );
+      }
+      temperatureC[row] = celsius;
+    }
+    curve.temperatureC = temperatureC;
+  }
+
+  return curve;
+}

@@ -1,0 +1,322 @@
+// Guesses which column holds current, voltage, HFR, time and temperature, and in which unit,
+// so the upload page can show a preview with the guess filled in for the user to confirm.
+import type { ColumnMapping, CurrentUnit, CurveKind, HfrUnit, ParsedTable, TemperatureUnit, TimeUnit, VoltageUnit } from './types';
+import { recogniseHeaderUnit } from '../units/recognise-header-unit';
+import type { HeaderQuantity, HeaderUnitMatch } from '../units/recognise-header-unit';
+
+/** How one column was read, for the preview. */
+export interface ColumnReading {
+  index: number;
+  header: string;
+  quantity: HeaderQuantity | null;
+  unit: string | null;
+  irFree: boolean;
+  /** the unit came from the header text, from the values, or from the column's cell format */
+  unitSource: 'header' | 'values' | 'cells' | null;
+}
+
+export interface MappingDetection {
+  /** null when we cannot even guess (no voltage column, or a polarization file without current) */
+  mapping: ColumnMapping | null;
+  /** true when the user should look at the preview and confirm before the curve is stored */
+  ambiguous: boolean;
+  /** why, in plain sentences: every guess and every doubt */
+  reasons: string[];
+  kind: CurveKind;
+  columns: ColumnReading[];
+}
+
+interface ColumnStats {
+  min: number;
+  max: number;
+  maxAbs: number;
+  median: number;
+  mean: number;
+  sd: number;
+}
+
+const MEDIAN_SAMPLE = 10_001;
+
+// Min, max, mean and SD in one pass (Welford), median from an evenly strided sample: the
+// detection only needs magnitudes, and this stays O(n) on a 1,000,000-row log.
+function columnStats(values: Float64Array): ColumnStats {
+  let min = Infinity;
+  let max = -Infinity;
+  let mean = 0;
+  let sumSquares = 0;
+  for (let index = 0; index < values.length; index++) {
+    const value = values[index];
+    if (value < min) min = value;
+    if (value > max) max = value;
+    const delta = value - mean;
+    mean += delta / (index + 1);
+    sumSquares += delta * (value - mean);
+  }
+  const stride = Math.max(1, Math.floor(values.length / MEDIAN_SAMPLE));
+  const sample: number[] = [];
+  for (let index = 0; index < values.length; index += stride) sample.push(values[index]);
+  sample.sort((a, b) => a - b);
+  const middle = sample.length >> 1;
+  const median = sample.length % 2 === 1 ? sample[middle] : (sample[middle - 1] + sample[middle]) / 2;
+  const sd = values.length > 1 ? Math.sqrt(sumSquares / (values.length - 1)) : 0;
+  return { min, max, maxAbs: Math.max(Math.abs(min), Math.abs(max)), median, mean, sd };
+}
+
+function formatRange(stats: ColumnStats): string {
+  const digits = stats.maxAbs >= 100 ? 0 : stats.maxAbs >= 10 ? 1 : 3;
+  return `${stats.min.toFixed(digits)}–${stats.max.toFixed(digits)}`;
+}
+
+function quoted(table: ParsedTable, index: number): string {
+  return `"${table.header[index]}"`;
+}
+
+/**
+ * Parsed table → a column mapping guess. Header units are believed first
+ * (recogniseHeaderUnit); a header with no unit gets one from the values: voltage up to
+ * ~2 → V, up to ~2000 → mV; current up to ~4 → A/cm², up to ~4000 → mA/cm² (then
+ * `ambiguous`, since a total current in A or mA looks the same); HFR up to ~2 → Ω·cm²,
+ * else mΩ·cm² (ambiguous). Two voltage columns (e.g. measured and iR-free) → the measured
+ * one, ambiguous. A time column makes the kind `durability` unless `kind` is given — except
+ * when the current column steps over a wide range, which is a polarization curve with a
+ * clock (then `polarization`, ambiguous). A current column that is ~0 throughout with a
+ * time column → `hold`.
+ * Reference: magnitudes are those of single cells (common practice in the trade):
+ * 0–1.2 V, 0–3 A/cm², HFR 0.05–1 Ω·cm².
+ * Cost: O(rows × columns).
+ * @example detectMapping(parseDelimitedText('j (A/cm2),U (V)\n0.2,0.65\n')).mapping // { current: {column:0,unit:'A/cm2'}, voltage: {column:1,unit:'V'} }
+ */
+export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDetection {
+  if (table === null || typeof table !== 'object' || !Array.isArray(table.header) || !Array.isArray(table.columns)) {
+    throw new TypeError('detectMapping: table must be a ParsedTable');
+  }
+  const reasons: string[] = [];
+  let ambiguous = false;
+  const readings: ColumnReading[] = [];
+  const matches: (HeaderUnitMatch | null)[] = [];
+  const stats: (ColumnStats | null)[] = [];
+
+  for (let index = 0; index < table.header.length; index++) {
+    const values = table.columns[index];
+    const columnKind = table.columnKinds[index];
+    const match = recogniseHeaderUnit(table.header[index]);
+    matches.push(values === null ? null : match);
+    stats.push(values === null || values.length === 0 ? null : columnStats(values));
+    let quantity: HeaderQuantity | null = values === null ? null : match.quantity;
+    let unit: string | null = values === null ? null : match.unit;
+    let unitSource: ColumnReading['unitSource'] = unit === null ? null : 'header';
+    if (columnKind === 'timestamp') {
+      quantity = 'time';
+      unit = 'timestamp';
+      unitSource = 'cells';
+    } else if (columnKind === 'duration') {
+      quantity = 'time';
+      unit = 's';
+      unitSource = 'cells';
+    }
+    readings.push({ index, header: table.header[index], quantity, unit, irFree: match.irFree, unitSource });
+  }
+
+  const ofQuantity = (quantity: HeaderQuantity): ColumnReading[] => readings.filter((reading) => reading.quantity === quantity);
+  const unknownNumeric = readings.filter((reading) => reading.quantity === null && table.columns[reading.index] !== null && table.columnKinds[reading.index] === 'number');
+  const unitTextIgnored = (reading: ColumnReading): boolean => {
+    const match = matches[reading.index];
+    return match !== null && match.unitText !== null && match.unit === null && reading.unitSource !== 'cells';
+  };
+
+  // ---- voltage
+  let voltageReading: ColumnReading | null = null;
+  const voltageCandidates = ofQuantity('voltage');
+  if (voltageCandidates.length > 0) {
+    const measured = voltageCandidates.filter((reading) => !reading.irFree);
+    voltageReading = measured.length > 0 ? measured[0] : voltageCandidates[0];
+    if (voltageCandidates.length > 1) {
+      ambiguous = true;
+      const names = voltageCandidates.map((reading) => quoted(table, reading.index)).join(' and ');
+      const which = voltageReading.irFree ? 'the first (all are iR-corrected)' : 'the measured one';
+      reasons.push(`${voltageCandidates.length} voltage columns: ${names}; using ${quoted(table, voltageReading.index)}, ${which}; confirm`);
+    }
+  } else {
+    // Without names, a cell voltage is the column in a voltage range whose smallest value is
+    // the largest: current starts at ~0, a cell voltage stays well above 0 until the limit.
+    const ranges: readonly [VoltageUnit, number, number][] = [
+      ['V', -0.1, 1.5],
+      ['mV', -100, 1500],
+    ];
+    for (const [unit, low, high] of ranges) {
+      let best: ColumnReading | null = null;
+      let bestMin = -Infinity;
+      for (const reading of unknownNumeric) {
+        const columnStatistics = stats[reading.index];
+        if (columnStatistics === null || columnStatistics.min < low || columnStatistics.max > high || columnStatistics.max <= 0) continue;
+        if (unit === 'mV' && columnStatistics.max <= 2) continue;
+        if (columnStatistics.min > bestMin) {
+          best = reading;
+          bestMin = columnStatistics.min;
+        }
+      }
+      if (best !== null) {
+        const columnStatistics = stats[best.index] as ColumnStats;
+        voltageReading = { ...best, quantity: 'voltage', unit, unitSource: 'values' };
+        readings[best.index] = voltageReading;
+        ambiguous = true;
+        reasons.push(`no header names a voltage; ${quoted(table, best.index)} (values ${formatRange(columnStatistics)}) read as cell voltage in ${unit}; confirm`);
+        break;
+      }
+    }
+  }
+  if (voltageReading !== null && voltageReading.unit === null) {
+    const columnStatistics = stats[voltageReading.index];
+    if (columnStatistics !== null) {
+      const unit: VoltageUnit = columnStatistics.maxAbs <= 2 ? 'V' : 'mV';
+      voltageReading = { ...voltageReading, unit, unitSource: 'values' };
+      readings[voltageReading.index] = voltageReading;
+      if (unitTextIgnored(voltageReading) || columnStatistics.maxAbs > 2000) ambiguous = true;
+      reasons.push(`${quoted(table, voltageReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unit}`);
+    }
+  }
+
+  // ---- current
+  let currentReading: ColumnReading | null = null;
+  const currentCandidates = ofQuantity('current');
+  if (currentCandidates.length > 0) {
+    const densities = currentCandidates.filter((reading) => reading.unit === 'A/cm2' || reading.unit === 'mA/cm2');
+    currentReading = densities.length > 0 ? densities[0] : currentCandidates[0];
+    if (currentCandidates.length > 1 && densities.length !== 1) {
+      ambiguous = true;
+      const names = currentCandidates.map((reading) => quoted(table, reading.index)).join(' and ');
+      reasons.push(`${currentCandidates.length} current columns: ${names}; using ${quoted(table, currentReading.index)}; confirm`);
+    } else if (currentCandidates.length > 1) {
+      reasons.push(`several current columns; using ${quoted(table, currentReading.index)}, the current density`);
+    }
+  } else {
+    for (const reading of unknownNumeric) {
+      if (voltageReading !== null && reading.index === voltageReading.index) continue;
+      const columnStatistics = stats[reading.index];
+      if (columnStatistics === null || columnStatistics.min < -0.1 * Math.max(columnStatistics.maxAbs, 1e-12)) continue;
+      currentReading = { ...reading, quantity: 'current', unit: null, unitSource: null };
+      ambiguous = true;
+      reasons.push(`no header names a current; ${quoted(table, reading.index)} read as current; confirm`);
+      break;
+    }
+  }
+  if (currentReading !== null && currentReading.unit === null) {
+    const columnStatistics = stats[currentReading.index];
+    if (columnStatistics !== null) {
+      const unit: CurrentUnit = columnStatistics.maxAbs <= 4 ? 'A/cm2' : 'mA/cm2';
+      currentReading = { ...currentReading, unit, unitSource: 'values' };
+      ambiguous = true;
+      reasons.push(
+        `${quoted(table, currentReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unit === 'A/cm2' ? 'A/cm²' : 'mA/cm²'} (a total current in A or mA would look the same); confirm`,
+      );
+    }
+  }
+  if (currentReading !== null) readings[currentReading.index] = currentReading;
+
+  // ---- HFR
+  let hfrReading: ColumnReading | null = null;
+  const hfrCandidates = ofQuantity('hfr');
+  if (hfrCandidates.length > 0) {
+    hfrReading = hfrCandidates[0];
+    if (hfrCandidates.length > 1) {
+      ambiguous = true;
+      reasons.push(`${hfrCandidates.length} resistance columns; using ${quoted(table, hfrReading.index)}; confirm`);
+    }
+    if (hfrReading.unit === null) {
+      const columnStatistics = stats[hfrReading.index];
+      if (columnStatistics !== null) {
+        const unit: HfrUnit = Math.abs(columnStatistics.median) <= 2 ? 'ohm*cm2' : 'mohm*cm2';
+        hfrReading = { ...hfrReading, unit, unitSource: 'values' };
+        ambiguous = true;
+        reasons.push(
+          `${quoted(table, hfrReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unit === 'ohm*cm2' ? 'Ω·cm²' : 'mΩ·cm²'} (a cell resistance in Ω or mΩ would need the area); confirm`,
+        );
+      }
+    }
+    readings[hfrReading.index] = hfrReading;
+  }
+
+  // ---- time
+  let timeReading: ColumnReading | null = null;
+  const timeCandidates = ofQuantity('time');
+  if (timeCandidates.length > 0) {
+    const clocks = timeCandidates.filter((reading) => reading.unit === 'timestamp');
+    const elapsed = timeCandidates.filter((reading) => reading.unit !== 'timestamp' && reading.unit !== null);
+    // an elapsed-time column is closer to what we store than a clock, and is free of clock changes
+    timeReading = elapsed[0] ?? clocks[0] ?? timeCandidates[0];
+    if (timeReading.unit === null) {
+      timeReading = { ...timeReading, unit: 's', unitSource: 'values' };
+      ambiguous = true;
+      reasons.push(`${quoted(table, timeReading.index)} has no unit we read; read as seconds; confirm`);
+    }
+    if (timeCandidates.length > 1) reasons.push(`several time columns; using ${quoted(table, timeReading.index)}`);
+    readings[timeReading.index] = timeReading;
+  }
+
+  // ---- temperature
+  let temperatureReading: ColumnReading | null = null;
+  const temperatureCandidates = ofQuantity('temperature');
+  if (temperatureCandidates.length > 0) {
+    const cellNamed = temperatureCandidates.filter((reading) => /cell/i.test(reading.header));
+    temperatureReading = cellNamed[0] ?? temperatureCandidates[0];
+    if (temperatureReading.unit === null) {
+      const columnStatistics = stats[temperatureReading.index];
+      const unit: TemperatureUnit = columnStatistics !== null && columnStatistics.median > 250 ? 'K' : 'C';
+      temperatureReading = { ...temperatureReading, unit, unitSource: 'values' };
+      reasons.push(`${quoted(table, temperatureReading.index)} has no unit we read; read as ${unit === 'K' ? 'K' : '°C'}`);
+    }
+    readings[temperatureReading.index] = temperatureReading;
+  }
+
+  // ---- kind
+  let detectedKind: CurveKind;
+  if (kind !== undefined) {
+    detectedKind = kind;
+  } else if (timeReading !== null) {
+    detectedKind = 'durability';
+    const currentStatistics = currentReading === null ? null : stats[currentReading.index];
+    if (currentStatistics !== null && currentReading !== null) {
+      const hold = currentReading.unit === 'A/cm2' || currentReading.unit === 'A' ? currentStatistics.maxAbs < 0.001 : currentStatistics.maxAbs < 1;
+      const steps = currentStatistics.max - currentStatistics.min > 0.5 * currentStatistics.maxAbs && currentStatistics.sd > 0.25 * Math.abs(currentStatistics.mean);
+      if (hold) {
+        detectedKind = 'hold';
+        reasons.push(`time column and current ≈ 0 throughout: read as an open-circuit hold`);
+      } else if (steps) {
+        detectedKind = 'polarization';
+        ambiguous = true;
+        reasons.push(`time column present, but the current steps over ${formatRange(currentStatistics)}: read as a polarization curve; confirm`);
+      } else {
+        reasons.push('time column present and current about constant: read as a durability log');
+      }
+    } else {
+      reasons.push('time column present: read as a durability log');
+    }
+  } else {
+    detectedKind = 'polarization';
+  }
+
+  if (voltageReading === null || voltageReading.unit === null) {
+    reasons.push('no voltage column found: name it e.g. "Voltage (V)" or "U (mV)", or choose the columns by hand');
+    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
+  }
+  if (detectedKind === 'polarization' && (currentReading === null || currentReading.unit === null)) {
+    reasons.push('no current column found for a polarization curve: name it e.g. "Current density (A/cm2)", or choose the columns by hand');
+    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
+  }
+  if (detectedKind === 'durability' && timeReading === null) {
+    reasons.push('no time column found for a durability log: name it e.g. "Time (h)", or choose the columns by hand');
+    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
+  }
+
+  const mapping: ColumnMapping = { voltage: { column: voltageReading.index, unit: voltageReading.unit as VoltageUnit } };
+  if (currentReading !== null && currentReading.unit !== null) mapping.current = { column: currentReading.index, unit: currentReading.unit as CurrentUnit };
+  if (hfrReading !== null && hfrReading.unit !== null) mapping.hfr = { column: hfrReading.index, unit: hfrReading.unit as HfrUnit };
+  if (timeReading !== null && timeReading.unit !== null) mapping.time = { column: timeReading.index, unit: timeReading.unit as TimeUnit };
+  if (temperatureReading !== null && temperatureReading.unit !== null) {
+    mapping.temperature = { column: temperatureReading.index, unit: temperatureReading.unit as TemperatureUnit };
+  }
+  if ((mapping.current?.unit === 'A' || mapping.current?.unit === 'mA' || mapping.hfr?.unit === 'ohm' || mapping.hfr?.unit === 'mohm') && table.conditions.areaCm2 === undefined) {
+    reasons.push('total current or cell resistance: the active area (cm²) is needed, and the file does not state it');
+  }
+  return { mapping, ambiguous, reasons, kind: detectedKind, columns: readings };
+}

@@ -1,0 +1,12 @@
+// Next-build proposals from a fitted response surface.
+export {
+  proposeBuilds,
+  type ProposeInput,
+  type Proposal,
+  type ProposalGoal,
+  type ProposalStrategy,
+  type ProposalReasonKind,
+  type ProposalConstraints,
+} from './propose';
+export { candidateSet, type Candidate, type CandidatePlan } from './candidates';
+export { seededUniform } from './prng';

@@ -1,0 +1,44 @@
+// Edit a build: the same form, filled with what is stored.
+import { useNavigate, useParams } from 'react-router-dom';
+import { useFactors, useProject, useResponses } from '@/features/projects/api/projects';
+import { useBuild, useBuilds, useLabs, useUpdateBuild } from '@/features/builds/api/builds';
+import { BuildForm, buildToForm, cleanBuildInput } from '@/features/builds/components/build-form';
+import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
+import { useMe } from '@/features/auth/api/get-me';
+
+export default function BuildEdit() {
+  const projectId = Number(useParams().projectId);
+  const buildId = Number(useParams().buildId);
+  const navigate = useNavigate();
+  const project = useProject(projectId);
+  const factors = useFactors(projectId);
+  const responses = useResponses(projectId);
+  const builds = useBuilds(projectId);
+  const build = useBuild(buildId);
+  const labs = useLabs();
+  const { data: me } = useMe();
+  const update = useUpdateBuild(buildId, projectId);
+  if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading || build.isLoading) return <Loading />;
+  const error = project.error ?? factors.error ?? responses.error ?? builds.error ?? labs.error ?? build.error;
+  if (error) return <ErrorNote error={error} />;
+  const partnerLab = project.data?.myRole === 'partner' ? me?.user.labId ?? null : null;
+  const b = build.data!.build;
+
+  return (
+    <div className="max-w-5xl">
+      <PageHeader eyebrow={project.data!.name} title={`Edit ${b.code}`} />
+      <BuildForm
+        factors={factors.data!}
+        responses={responses.data!}
+        labs={labs.data!}
+        builds={builds.data!.filter((x) => x.id !== b.id)}
+        lockLabId={partnerLab}
+        initial={buildToForm(b)}
+        submitLabel="Save changes"
+        pending={update.isPending}
+        serverError={update.error}
+        onSubmit={(values) => update.mutate(cleanBuildInput(values), { onSuccess: () => navigate(`/projects/${projectId}/builds/${buildId}`) })}
+      />
+    </div>
+  );
+}

@@ -1,0 +1,95 @@
+// Home: my projects with their best build, uploads waiting for review, recent uploads.
+import { Link } from 'react-router-dom';
+import { useHome } from '@/features/projects/api/projects';
+import { useMe } from '@/features/auth/api/get-me';
+import { PageHeader, Panel, EmptyState, Loading, ErrorNote } from '@/components/ui/panel';
+import { formatDateTime, formatMetric, formatNumber } from '@/lib/format';
+
+export default function Home() {
+  const { data: me } = useMe();
+  const { data, isLoading, error } = useHome();
+  if (isLoading) return <Loading />;
+  if (error || !data) return <ErrorNote error={error} />;
+  const firstName = me?.user.name.replace(/^Dr\.\s*/, '').split(' ')[0];
+
+  return (
+    <div className="max-w-6xl">
+      <PageHeader eyebrow="Home" title={`Good to see you, ${firstName}`} subtitle="Your projects, the best build in each at its reference point, and what is waiting for you." />
+      {(data.awaitingReview?.length ?? 0) > 0 && (
+        <Panel title="Waiting for my review" className="mb-5">
+          <ul className="divide-y divide-line">
+            {data.awaitingReview!.map((b) => (
+              <li key={b.buildId} className="flex items-center justify-between py-2 text-sm">
+                <Link className="font-medium text-copper-700 hover:underline" to={`/projects/${b.projectId}/builds/${b.buildId}`}>{b.code}</Link>
+                <span className="flex-1 px-3 text-ink-500">{b.changeNote}</span>
+                <span className="text-xs text-ink-500">{b.projectName}</span>
+              </li>
+            ))}
+          </ul>
+        </Panel>
+      )}
+      {(data.needsWork?.length ?? 0) > 0 && (
+        <Panel title="Needs work (my builds)" className="mb-5">
+          <ul className="divide-y divide-line">
+            {data.needsWork!.map((b) => (
+              <li key={b.buildId} className="flex items-center justify-between py-2 text-sm">
+                <Link className="font-medium text-copper-700 hover:underline" to={`/projects/${b.projectId}/builds/${b.buildId}`}>{b.code}</Link>
+                <span className="flex-1 px-3 text-ink-500">{b.comment}</span>
+                <span className="text-xs text-ink-500">{b.projectName}</span>
+              </li>
+            ))}
+          </ul>
+        </Panel>
+      )}
+      <div className="grid gap-4 md:grid-cols-2">
+        {data.projects.length === 0 && (
+          <EmptyState title="No projects yet">Ask a PI to invite you, or create a project from the side rail.</EmptyState>
+        )}
+        {data.projects.map((p) => (
+          <Link key={p.id} to={`/projects/${p.id}`} className="group rounded-lg border border-line bg-panel p-4 transition-colors hover:border-copper-500">
+            <div className="flex items-start justify-between gap-3">
+              <h2 className="font-semibold text-ink-950 group-hover:text-copper-700">{p.name}</h2>
+              <span className="rounded-full bg-ink-100 px-2 py-0.5 text-xs text-ink-700">{p.myRole}</span>
+            </div>
+            <p className="mt-1 line-clamp-2 text-sm text-ink-500">{p.description}</p>
+            <dl className="mt-3 grid grid-cols-3 gap-2 text-sm">
+              <div>
+                <dt className="text-xs text-ink-500">Builds</dt>
+                <dd className="num text-ink-900">{p.buildCount ?? 0}</dd>
+              </div>
+              <div>
+                <dt className="text-xs text-ink-500">Reference point</dt>
+                <dd className="num text-ink-900">{formatNumber(p.settings.refCurrentDensity, 2)} A/cm²</dd>
+              </div>
+              <div>
+                <dt className="text-xs text-ink-500">Best V at j_ref</dt>
+                <dd className="num text-ink-900">{p.best ? <>{formatMetric('vAtRef', p.best.vAtRef)} <span className="text-ink-500">({p.best.code})</span></> : '—'}</dd>
+              </div>
+            </dl>
+          </Link>
+        ))}
+      </div>
+      <Panel title="Recent uploads" className="mt-5">
+        {data.recentUploads.length === 0 ? (
+          <EmptyState title="No uploads yet">Upload a polarization curve from a build page or a project’s Upload page to see metrics.</EmptyState>
+        ) : (
+          <table className="w-full text-sm">
+            <thead className="text-left text-xs text-ink-500">
+              <tr><th className="py-1 font-medium">File</th><th className="font-medium">Build</th><th className="font-medium">By</th><th className="font-medium">When</th></tr>
+            </thead>
+            <tbody className="divide-y divide-line">
+              {data.recentUploads.map((u) => (
+                <tr key={u.fileId}>
+                  <td className="py-1.5 text-ink-900">{u.name}</td>
+                  <td>{u.buildId ? <Link className="text-copper-700 hover:underline" to={`/projects/${u.projectId}/builds/${u.buildId}`}>{u.buildCode}</Link> : '—'}</td>
+                  <td className="text-ink-700">{u.uploadedBy}</td>
+                  <td className="num text-ink-500">{formatDateTime(u.uploadedAt)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </Panel>
+    </div>
+  );
+}

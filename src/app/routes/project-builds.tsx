@@ -1,0 +1,57 @@
+// A project's builds table, with shortcuts to create a build, upload curves and compare.
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { useState } from 'react';
+import { useProject, useFactors, useResponses } from '@/features/projects/api/projects';
+import { useBuilds } from '@/features/builds/api/builds';
+import { BuildsTable } from '@/features/builds/components/builds-table';
+import { PageHeader, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
+import { Button } from '@/components/ui/button';
+import { canWrite } from '@/features/projects/components/permissions';
+
+export default function ProjectBuilds() {
+  const projectId = Number(useParams().projectId);
+  const project = useProject(projectId);
+  const builds = useBuilds(projectId);
+  const factors = useFactors(projectId);
+  const responses = useResponses(projectId);
+  const navigate = useNavigate();
+  const [selected, setSelected] = useState<Set<number>>(new Set());
+  if (project.isLoading || builds.isLoading || factors.isLoading || responses.isLoading) return <Loading />;
+  const error = project.error ?? builds.error ?? factors.error ?? responses.error;
+  if (error || !project.data) return <ErrorNote error={error} />;
+  const p = project.data;
+  const role = p.myRole;
+
+  return (
+    <div>
+      <PageHeader
+        eyebrow="Project"
+        title={p.name}
+        subtitle={p.description}
+        actions={
+          <>
+            {selected.size > 0 && (
+              <Button onClick={() => navigate(`/projects/${projectId}/compare?builds=${[...selected].join(',')}`)}>Compare {selected.size} selected</Button>
+            )}
+            {canWrite(role) && <Link to={`/projects/${projectId}/upload`}><Button>Upload curves</Button></Link>}
+            {canWrite(role) && <Link to={`/projects/${projectId}/builds/new`}><Button variant="primary">New build</Button></Link>}
+          </>
+        }
+      />
+      {builds.data!.length === 0 ? (
+        <EmptyState title="No builds yet" action={canWrite(role) ? <Link to={`/projects/${projectId}/builds/new`}><Button variant="primary">Record the first build</Button></Link> : undefined}>
+          Record an electrode build with its recipe, then upload its polarization curve to see metrics.
+        </EmptyState>
+      ) : (
+        <BuildsTable
+          project={p}
+          builds={builds.data!}
+          factors={factors.data!}
+          responses={responses.data!}
+          selected={selected}
+          onSelect={(id, on) => setSelected((s) => { const n = new Set(s); if (on) n.add(id); else n.delete(id); return n; })}
+        />
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,115 @@
+// Project settings: the project and its reference point, factors, hand-entered responses,
+// members and invitations, and my own e-mail notices.
+import { useParams } from 'react-router-dom';
+import { useState } from 'react';
+import type { FactorDef } from '@shared/api-types';
+import { useFactors, useMembers, useProject, useResponses, useSaveFactor, useCreateResponse, useUpdateProject, useInvite, useSetNotify } from '@/features/projects/api/projects';
+import { useLabs } from '@/features/builds/api/builds';
+import { ProjectForm } from '@/features/projects/components/project-form';
+import { FactorForm, ResponseForm } from '@/features/projects/components/factor-form';
+import { canEditFactors, canEditSettings } from '@/features/projects/components/permissions';
+import { PageHeader, Panel, Loading, ErrorNote } from '@/components/ui/panel';
+import { Button } from '@/components/ui/button';
+import { Field, Input, Select } from '@/components/ui/field';
+import { useMe } from '@/features/auth/api/get-me';
+import { formatDate } from '@/lib/format';
+
+export default function Settings() {
+  const projectId = Number(useParams().projectId);
+  const project = useProject(projectId);
+  const factors = useFactors(projectId);
+  const responses = useResponses(projectId);
+  const members = useMembers(projectId);
+  const labs = useLabs();
+  const { data: me } = useMe();
+  const update = useUpdateProject(projectId);
+  const saveFactor = useSaveFactor(projectId);
+  const createResponse = useCreateResponse(projectId);
+  const invite = useInvite(projectId);
+  const notify = useSetNotify(projectId);
+  const [editing, setEditing] = useState<FactorDef | null>(null);
+  const [inviteForm, setInviteForm] = useState({ email: '', role: 'researcher', labId: '' });
+  const [message, setMessage] = useState<string | null>(null);
+  if (project.isLoading || factors.isLoading || responses.isLoading || members.isLoading) return <Loading />;
+  const error = project.error ?? factors.error ?? responses.error ?? members.error;
+  if (error || !project.data) return <ErrorNote error={error} />;
+  const p = project.data;
+  const mine = members.data!.members.find((m) => m.userId === me?.user.id);
+
+  return (
+    <div className="max-w-5xl space-y-5">
+      <PageHeader eyebrow={p.name} title="Project settings" />
+      <Panel title="Project and reference point">
+        {!canEditSettings(p.myRole) && <p className="mb-3 text-xs text-ink-500">Only the project’s PI changes these.</p>}
+        <ProjectForm
+          key={p.metricsVersion}
+          initial={{ name: p.name, description: p.description, codePrefix: p.codePrefix, settings: p.settings }}
+          disabled={!canEditSettings(p.myRole)}
+          pending={update.isPending}
+          error={update.error}
+          submitLabel="Save project"
+          onSubmit={(v) => update.mutate(v, { onSuccess: (r) => setMessage(r.recomputedCurves ? `Saved. ${r.recomputedCurves} curves were re-measured at the new reference point (metrics version ${r.metricsVersion}).` : 'Saved.') })}
+        />
+        {message && <p role="status" className="mt-2 text-sm text-moss-700">{message}</p>}
+      </Panel>
+
+      <Panel title="Factors">
+        <table className="mb-4 w-full text-sm">
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Key</th><th>Label</th><th>Kind</th><th>Range or levels</th><th /></tr></thead>
+          <tbody className="divide-y divide-line">
+            {factors.data!.map((f) => (
+              <tr key={f.id}>
+                <td className="num py-1.5">{f.key}</td><td>{f.label}</td><td>{f.kind}</td>
+                <td className="num">{f.kind === 'continuous' ? `${f.low} – ${f.high} ${f.unit}` : (f.levels ?? []).join(' · ')}</td>
+                <td className="text-right">{canEditFactors(p.myRole) && <Button variant="ghost" onClick={() => setEditing(f)}>Edit</Button>}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {canEditFactors(p.myRole) && (
+          editing ? (
+            <FactorForm key={editing.id} initial={{ ...editing, low: editing.low, high: editing.high, levels: editing.levels }} pending={saveFactor.isPending} error={saveFactor.error} onCancel={() => setEditing(null)} onSubmit={(v) => saveFactor.mutate({ ...v, id: editing.id }, { onSuccess: () => setEditing(null) })} />
+          ) : (
+            <FactorForm key={`new-${factors.data!.length}`} pending={saveFactor.isPending} error={saveFactor.error} onSubmit={(v) => saveFactor.mutate(v)} />
+          )
+        )}
+      </Panel>
+
+      <Panel title="Hand-entered responses">
+        <p className="mb-3 text-xs text-ink-500">Numbers measured outside the curves (cost, thickness, …). Curve metrics such as vAtRef are always available and need no definition.</p>
+        <table className="mb-4 w-full text-sm">
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Key</th><th>Label</th><th>Unit</th><th>Goal</th></tr></thead>
+          <tbody className="divide-y divide-line">{responses.data!.map((r) => <tr key={r.id}><td className="num py-1.5">{r.key}</td><td>{r.label}</td><td>{r.unit}</td><td>{r.goal}</td></tr>)}</tbody>
+        </table>
+        {canEditFactors(p.myRole) && <ResponseForm pending={createResponse.isPending} error={createResponse.error} onSubmit={(v) => createResponse.mutate(v)} />}
+      </Panel>
+
+      <Panel title="People">
+        <table className="w-full text-sm">
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Name</th><th>E-mail</th><th>Lab</th><th>Role</th></tr></thead>
+          <tbody className="divide-y divide-line">
+            {members.data!.members.map((m) => <tr key={m.userId}><td className="py-1.5">{m.name}</td><td className="text-ink-700">{m.email}</td><td>{m.labName ?? '—'}</td><td>{m.role}</td></tr>)}
+            {members.data!.pendingInvitations.map((i) => <tr key={`i${i.id}`} className="text-ink-500"><td className="py-1.5 italic">invited</td><td>{i.email}</td><td /><td>{i.role} · until {formatDate(i.expiresAt)}</td></tr>)}
+          </tbody>
+        </table>
+        {canEditSettings(p.myRole) && (
+          <form className="mt-4 grid gap-3 md:grid-cols-4" aria-label="Invite form" onSubmit={(e) => { e.preventDefault(); invite.mutate({ email: inviteForm.email, role: inviteForm.role, labId: inviteForm.labId ? Number(inviteForm.labId) : null }, { onSuccess: () => { setInviteForm({ email: '', role: 'researcher', labId: '' }); setMessage('Invitation sent: it is in the outbox.'); } }); }}>
+            <Field label="Invite by e-mail">{(fp) => <Input {...fp} type="email" required value={inviteForm.email} onChange={(e) => setInviteForm({ ...inviteForm, email: e.target.value })} />}</Field>
+            <Field label="Role">{(fp) => <Select {...fp} value={inviteForm.role} onChange={(e) => setInviteForm({ ...inviteForm, role: e.target.value })}><option value="pi">pi</option><option value="researcher">researcher</option><option value="partner">partner</option><option value="viewer">viewer</option></Select>}</Field>
+            <Field label="Lab" hint="required for partners">{(fp) => <Select {...fp} value={inviteForm.labId} onChange={(e) => setInviteForm({ ...inviteForm, labId: e.target.value })}><option value="">—</option>{labs.data?.map((l) => <option key={l.id} value={l.id}>{l.name}</option>)}</Select>}</Field>
+            <div className="flex items-end"><Button type="submit" variant="primary" disabled={invite.isPending}>Send invitation</Button></div>
+            <div className="md:col-span-4"><ErrorNote error={invite.error} /></div>
+          </form>
+        )}
+      </Panel>
+
+      {mine && (
+        <Panel title="My notices">
+          <label className="flex items-center gap-2 text-sm">
+            <input type="checkbox" checked={mine.notify} onChange={(e) => notify.mutate(e.target.checked)} /> E-mail me when a partner lab uploads curves or a build is ready for review in this project
+          </label>
+        </Panel>
+      )}
+    </div>
+  );
+}

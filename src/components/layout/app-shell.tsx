@@ -1,0 +1,95 @@
+// The frame of every signed-in page: the ink-blue side rail with projects and admin links.
+import { NavLink, Outlet, useNavigate, useParams } from 'react-router-dom';
+import type { ReactNode } from 'react';
+import { useMe } from '@/features/auth/api/get-me';
+import { useSignOut } from '@/features/auth/api/sign-in';
+import { useProjects } from '@/features/projects/api/projects';
+
+function RailLink({ to, children, end, indent }: { to: string; children: ReactNode; end?: boolean; indent?: boolean }) {
+  return (
+    <NavLink
+      to={to}
+      end={end}
+      className={({ isActive }) =>
+        `flex items-center gap-2 rounded-md px-2.5 py-1.5 text-sm transition-colors ${indent ? 'ml-3 text-[13px]' : ''} ${
+          isActive ? 'bg-ink-700 text-white' : 'text-ink-300 hover:bg-ink-800 hover:text-white'
+        }`
+      }
+    >
+      {children}
+    </NavLink>
+  );
+}
+
+export function Logo() {
+  return (
+    <span className="flex items-center gap-2">
+      <svg aria-hidden width="26" height="26" viewBox="0 0 32 32"><rect width="32" height="32" rx="6" fill="#2c3c63" /><path d="M7 9 C 12 9, 14 12, 16 16 S 21 23, 25 23" stroke="#c06a35" strokeWidth="3" fill="none" strokeLinecap="round" /><circle cx="16" cy="16" r="2.5" fill="#f6f4ef" /></svg>
+      <span className="text-[15px] font-semibold tracking-tight text-white">Cellwright</span>
+    </span>
+  );
+}
+
+export function AppShell() {
+  const { data: me } = useMe();
+  const { data: projects } = useProjects();
+  const { projectId } = useParams();
+  const signOut = useSignOut();
+  const navigate = useNavigate();
+  const current = projects?.find((p) => String(p.id) === projectId);
+
+  return (
+    <div className="flex min-h-screen">
+      <aside className="sticky top-0 flex h-screen w-60 shrink-0 flex-col bg-ink-900 px-3 py-4" aria-label="Main navigation">
+        <div className="mb-5 px-1.5"><Logo /></div>
+        <nav className="flex flex-1 flex-col gap-0.5 overflow-y-auto">
+          <RailLink to="/" end>Home</RailLink>
+          <div className="mb-1 mt-4 px-2.5 text-[11px] font-semibold uppercase tracking-wider text-ink-500">Projects</div>
+          {projects?.map((p) => (
+            <div key={p.id}>
+              <RailLink to={`/projects/${p.id}`} end>
+                <span className="truncate" title={p.name}>{p.name}</span>
+              </RailLink>
+              {current?.id === p.id && (
+                <div className="mb-1 mt-0.5 flex flex-col gap-0.5">
+                  <RailLink to={`/projects/${p.id}/upload`} indent>Upload</RailLink>
+                  <RailLink to={`/projects/${p.id}/compare`} indent>Compare curves</RailLink>
+                  <RailLink to={`/projects/${p.id}/gains`} indent>Gains</RailLink>
+                  <RailLink to={`/projects/${p.id}/surface`} indent>Surface</RailLink>
+                  <RailLink to={`/projects/${p.id}/plan`} indent>Plan</RailLink>
+                  <RailLink to={`/projects/${p.id}/settings`} indent>Settings</RailLink>
+                </div>
+              )}
+            </div>
+          ))}
+          {me && me.user.labKind !== 'partner' && <RailLink to="/projects/new">+ New project</RailLink>}
+          {me?.user.isAdmin && (
+            <>
+              <div className="mb-1 mt-4 px-2.5 text-[11px] font-semibold uppercase tracking-wider text-ink-500">Administration</div>
+              <RailLink to="/admin/people">People</RailLink>
+              <RailLink to="/admin/labs">Labs</RailLink>
+              <RailLink to="/admin/outbox">Outbox</RailLink>
+              <RailLink to="/admin/audit">Audit log</RailLink>
+            </>
+          )}
+        </nav>
+        {me && (
+          <div className="mt-3 border-t border-ink-700 pt-3 text-sm">
+            <div className="truncate px-1.5 font-medium text-white">{me.user.name}</div>
+            <div className="truncate px-1.5 text-xs text-ink-300">{me.user.email}</div>
+            <button
+              type="button"
+              className="mt-2 w-full rounded-md px-2.5 py-1.5 text-left text-sm text-ink-300 hover:bg-ink-800 hover:text-white"
+              onClick={() => signOut.mutate(undefined, { onSettled: () => navigate('/sign-in') })}
+            >
+              Sign out
+            </button>
+          </div>
+        )}
+      </aside>
+      <main className="min-w-0 flex-1 px-8 py-6">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,36 @@
+// Builds: the project's list, one build with lineage and curves, create and update.
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { api } from '@/lib/api-client';
+import type { Build, BuildDetail, Lab } from '@shared/api-types';
+import type { BuildCreate } from '@shared/schemas/build';
+
+export const buildsQueryOptions = (projectId: number) => queryOptions({ queryKey: ['builds', projectId], queryFn: () => api<{ builds: Build[] }>(`/projects/${projectId}/builds`).then((r) => r.builds) });
+export const useBuilds = (projectId: number) => useQuery(buildsQueryOptions(projectId));
+
+export const buildQueryOptions = (buildId: number) => queryOptions({ queryKey: ['build', buildId], queryFn: () => api<BuildDetail>(`/builds/${buildId}`) });
+export const useBuild = (buildId: number) => useQuery(buildQueryOptions(buildId));
+
+export function useCreateBuild(projectId: number) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (input: BuildCreate) => api<{ build: Build }>(`/projects/${projectId}/builds`, { method: 'POST', body: input }).then((r) => r.build),
+    onSuccess: () => {
+      client.invalidateQueries({ queryKey: ['builds', projectId] });
+      client.invalidateQueries({ queryKey: ['home'] });
+    },
+  });
+}
+
+export function useUpdateBuild(buildId: number, projectId: number) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (input: Partial<BuildCreate>) => api<{ build: Build }>(`/builds/${buildId}`, { method: 'PATCH', body: input }).then((r) => r.build),
+    onSuccess: () => {
+      client.invalidateQueries({ queryKey: ['builds', projectId] });
+      client.invalidateQueries({ queryKey: ['build', buildId] });
+    },
+  });
+}
+
+export const labsQueryOptions = () => queryOptions({ queryKey: ['labs'], queryFn: () => api<{ labs: Lab[] }>('/labs').then((r) => r.labs), staleTime: 5 * 60_000 });
+export const useLabs = () => useQuery(labsQueryOptions());

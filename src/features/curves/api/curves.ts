@@ -1,0 +1,78 @@
+// Curves: points of one curve, uploads (with progress), previews, profiles, curve options.
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { api, uploadWithProgress } from '@/lib/api-client';
+import type { CurvePoints, CurveSummary, UploadPreview } from '@shared/api-types';
+import type { ColumnMapping, CurveKind } from '@shared/curves/types';
+
+export const curveQueryOptions = (curveId: number, range?: { fromHours?: number; toHours?: number; maxPoints?: number }) =>
+  queryOptions({
+    queryKey: ['curve', curveId, range ?? null],
+    queryFn: () => {
+      const q = new URLSearchParams();
+      if (range?.maxPoints) q.set('maxPoints', String(range.maxPoints));
+      if (range?.fromHours != null) q.set('fromHours', String(range.fromHours));
+      if (range?.toHours != null) q.set('toHours', String(range.toHours));
+      return api<{ curve: CurveSummary; points: CurvePoints }>(`/curves/${curveId}${q.size ? `?${q}` : ''}`);
+    },
+    staleTime: 5 * 60_000,
+  });
+export const useCurve = (curveId: number, range?: { fromHours?: number; toHours?: number; maxPoints?: number }) => useQuery(curveQueryOptions(curveId, range));
+
+export interface UploadFields {
+  kind?: CurveKind;
+  areaCm2?: number;
+  profileId?: number;
+  mapping?: ColumnMapping;
+  sheet?: string;
+  label?: string;
+  saveProfileAs?: string;
+}
+
+function formFor(file: File, fields: UploadFields) {
+  const form = new FormData();
+  for (const [key, value] of Object.entries(fields)) {
+    if (value === undefined || value === null || value === '') continue;
+    form.append(key, typeof value === 'object' ? JSON.stringify(value) : String(value));
+  }
+  form.append('file', file);
+  return form;
+}
+
+export function uploadCurve(buildId: number, file: File, fields: UploadFields, onProgress: (f: number) => void) {
+  return uploadWithProgress<{ curve: CurveSummary }>(`/builds/${buildId}/curves`, formFor(file, fields), onProgress);
+}
+
+export function previewCurve(buildId: number, file: File, fields: UploadFields) {
+  return uploadWithProgress<{ preview: UploadPreview }>(`/builds/${buildId}/curves/preview`, formFor(file, fields), () => {});
+}
+
+export function useInvalidateAfterUpload(projectId: number) {
+  const client = useQueryClient();
+  return (buildId: number) => {
+    client.invalidateQueries({ queryKey: ['build', buildId] });
+    client.invalidateQueries({ queryKey: ['builds', projectId] });
+    client.invalidateQueries({ queryKey: ['home'] });
+  };
+}
+
+export function useUpdateCurve(buildId: number) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: ({ curveId, ...body }: { curveId: number; label?: string; breakInHours?: number; lossFraction?: number; windows?: { fromHours: number; toHours: number }[] }) =>
+      api<{ curve: CurveSummary }>(`/curves/${curveId}`, { method: 'PATCH', body }),
+    onSuccess: () => {
+      client.invalidateQueries({ queryKey: ['build', buildId] });
+      client.invalidateQueries({ queryKey: ['curve'] });
+    },
+  });
+}
+
+export interface ImportProfile {
+  id: number;
+  name: string;
+  labId: number | null;
+  kind: CurveKind;
+  mapping: Record<string, { header: string; unit: string }>;
+}
+export const profilesQueryOptions = (projectId: number) => queryOptions({ queryKey: ['profiles', projectId], queryFn: () => api<{ profiles: ImportProfile[] }>(`/projects/${projectId}/import-profiles`).then((r) => r.profiles) });
+export const useProfiles = (projectId: number) => useQuery(profilesQueryOptions(projectId));

@@ -1,0 +1,57 @@
+// Durability log: voltage against time, downsampled by the server for the browser; zooming
+// fetches finer detail for the visible window. The fit line and break-in period are drawn.
+import { useRef, useState } from 'react';
+import type { CurveSummary } from '@shared/api-types';
+import { useCurve } from '../api/curves';
+import { LazyPlot, exportPlot } from '@/components/plot/lazy-plot';
+import { Button } from '@/components/ui/button';
+import { Loading, ErrorNote } from '@/components/ui/panel';
+import { formatNumber } from '@/lib/format';
+
+export function DurabilityPlot({ curve, title }: { curve: CurveSummary; title: string }) {
+  const [range, setRange] = useState<{ fromHours?: number; toHours?: number }>({});
+  const box = useRef<HTMLDivElement>(null);
+  const { data, isLoading, error, isFetching } = useCurve(curve.id, { ...range, maxPoints: 2000 });
+  if (isLoading) return <Loading label="Loading the log…" />;
+  if (error || !data) return <ErrorNote error={error} />;
+  const t = data.points.tHours ?? [];
+  const v = data.points.v;
+  const s = curve.summary as Record<string, number | null>;
+  const rate = curve.metrics.degradationRate ?? null;
+  const breakIn = curve.metrics.breakInHours ?? 0;
+  const shapes: Partial<Plotly.Shape>[] = [];
+  if (breakIn > 0) shapes.push({ type: 'rect', xref: 'x', yref: 'paper', x0: 0, x1: breakIn, y0: 0, y1: 1, fillcolor: 'rgba(86,102,140,0.12)', line: { width: 0 } });
+  const traces: Plotly.Data[] = [{ x: t, y: v, type: 'scattergl', mode: 'lines', name: 'cell voltage', line: { color: '#0072B2', width: 1 }, hovertemplate: '%{x:.1f} h<br>%{y:.4f} V<extra></extra>' }];
+  const segments = (() => { try { return JSON.parse(String(curve.summary.segments ?? '[]')) as { fromHours: number; toHours: number; startV: number; endV: number }[]; } catch { return []; } })();
+  segments.forEach((g, i) => {
+    traces.push({ x: [g.fromHours, g.toHours], y: [g.startV, g.endV], type: 'scatter', mode: 'lines', name: 'fit after break-in', showlegend: i === 0, line: { color: '#D55E00', width: 2, dash: 'dash' } });
+  });
+  return (
+    <div ref={box}>
+      <div className="mb-2 flex flex-wrap items-center gap-3 text-sm text-ink-700">
+        <span>{data.points.downsampled ? `showing ${t.length.toLocaleString()} of ${data.points.total.toLocaleString()} points (zoom for detail)` : `${data.points.total.toLocaleString()} points`}</span>
+        {isFetching && <span className="text-xs text-ink-500">refining…</span>}
+        {range.fromHours != null && <Button onClick={() => setRange({})}>Whole run</Button>}
+        <span className="ml-auto flex gap-1.5">
+          <Button onClick={() => exportPlot(box.current, 'png', title)}>PNG</Button>
+          <Button onClick={() => exportPlot(box.current, 'svg', title)}>SVG</Button>
+        </span>
+      </div>
+      <LazyPlot
+        fileName={title}
+        data={traces}
+        onRelayout={(e: Record<string, unknown>) => {
+          const a = e['xaxis.range[0]'], b = e['xaxis.range[1]'];
+          if (typeof a === 'number' && typeof b === 'number') setRange({ fromHours: Math.max(0, a), toHours: b });
+          else if (e['xaxis.autorange']) setRange({});
+        }}
+        layout={{
+          title: { text: `${title}<br><span style="font-size:11px;color:#56668c">${rate == null ? 'rate not computed' : `${formatNumber(rate, 1)} µV/h after ${formatNumber(breakIn, 0)} h break-in (shaded)`}</span>` },
+          xaxis: { title: { text: 'Time (h)' }, gridcolor: '#eeeae2', ...(range.fromHours != null && { range: [range.fromHours, range.toHours] }) },
+          yaxis: { title: { text: 'Cell voltage (V)' }, gridcolor: '#eeeae2' },
+          shapes,
+        }}
+      />
+    </div>
+  );
+}

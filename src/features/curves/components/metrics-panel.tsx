@@ -1,0 +1,76 @@
+// Metrics of one polarization curve with units, conditions and method on hover; a what-if
+// reference point recomputes them instantly in the browser with the same shared code.
+import { useMemo, useState } from 'react';
+import type { CurvePoints, CurveSummary, ProjectSettings } from '@shared/api-types';
+import type { CurveMetrics, MetricsResult } from '@shared/curves/types';
+import { polarizationMetrics } from '@shared/curves';
+import { METRICS, formatMetric } from '@/lib/format';
+
+const ORDER = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'] as const;
+
+function methodText(result: Pick<MetricsResult, 'method' | 'metricNotes'>, key: string, settings: ProjectSettings) {
+  const m = result.method[key as keyof CurveMetrics];
+  const inputs = m ? Object.entries(m.inputs).map(([k, v]) => `${k} = ${v}`).join(', ') : '';
+  return [m?.method, inputs, `reference point: j_ref ${settings.refCurrentDensity} A/cm², V_ref ${settings.refVoltage} V${settings.irFree ? ', iR-free' : ''}, ${settings.loadingBasis} loading basis`].filter(Boolean).join('\n');
+}
+
+export function MetricsList({ result, settings }: { result: Pick<MetricsResult, 'metrics' | 'metricNotes' | 'method'>; settings: ProjectSettings }) {
+  return (
+    <dl className="grid grid-cols-2 gap-x-6 gap-y-2 sm:grid-cols-3">
+      {ORDER.map((key) => {
+        const value = result.metrics[key];
+        const note = result.metricNotes[key];
+        return (
+          <div key={key} title={methodText(result, key, settings)} className="cursor-help">
+            <dt className="text-xs text-ink-500">{METRICS[key]!.label}</dt>
+            <dd className="num text-[15px] text-ink-950">{value == null ? <span className="text-ink-300">—</span> : formatMetric(key, value)}</dd>
+            {note && <dd className="text-[11px] leading-tight text-amber-700">{note}</dd>}
+          </div>
+        );
+      })}
+    </dl>
+  );
+}
+
+export function WhatIfReference({ curve, points, settings, loading }: { curve: CurveSummary; points: CurvePoints; settings: ProjectSettings; loading: { loadingMgCm2: number | null; metalLoadingMgCm2: number | null } }) {
+  const [jRef, setJRef] = useState(settings.refCurrentDensity);
+  const [vRef, setVRef] = useState(settings.refVoltage);
+  const data = useMemo(
+    () => ({ kind: curve.kind, j: Float64Array.from(points.j ?? []), v: Float64Array.from(points.v), hfr: points.hfr ? Float64Array.from(points.hfr) : undefined }),
+    [curve, points],
+  );
+  const maxJ = Math.max(0.05, ...Array.from(data.j));
+  const what = useMemo(() => {
+    try {
+      return polarizationMetrics(data, { ...settings, refCurrentDensity: jRef, refVoltage: vRef }, loading);
+    } catch {
+      return null;
+    }
+  }, [data, settings, jRef, vRef, loading]);
+  return (
+    <div className="rounded-md border border-line bg-paper/50 p-3">
+      <div className="mb-2 text-xs font-semibold text-ink-700">What if the reference point were…</div>
+      <div className="grid gap-3 sm:grid-cols-2">
+        <label className="text-xs text-ink-700">
+          j_ref <span className="num">{jRef.toFixed(3)} A/cm²</span>
+          <input aria-label="What-if reference current density" type="range" min={0.01} max={Math.round(maxJ * 100) / 100} step={0.005} value={jRef} onChange={(e) => setJRef(Number(e.target.value))} className="w-full accent-copper-600" />
+        </label>
+        <label className="text-xs text-ink-700">
+          V_ref <span className="num">{vRef.toFixed(3)} V</span>
+          <input aria-label="What-if reference voltage" type="range" min={0.2} max={1.0} step={0.005} value={vRef} onChange={(e) => setVRef(Number(e.target.value))} className="w-full accent-copper-600" />
+        </label>
+      </div>
+      {what && (
+        <div className="mt-2 grid grid-cols-2 gap-2 text-sm sm:grid-cols-4">
+          {(['vAtRef', 'vAtRefIrFree', 'jAtRef', 'massActivity'] as const).map((k) => (
+            <div key={k}>
+              <div className="text-[11px] text-ink-500">{METRICS[k]!.label}</div>
+              <div className="num">{formatMetric(k, what.metrics[k])}</div>
+            </div>
+          ))}
+        </div>
+      )}
+      <p className="mt-2 text-[11px] text-ink-500">Computed in your browser with the same code as the server. The stored metrics change only when a PI changes the project’s reference point in Settings.</p>
+    </div>
+  );
+}

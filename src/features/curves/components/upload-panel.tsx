@@ -1,0 +1,183 @@
+// Upload one or more files to a build: progress per file, a column preview to confirm when the
+// file's columns or units are ambiguous, optional saving of the mapping as an import profile.
+import { useState, useCallback } from 'react';
+import type { UploadPreview } from '@shared/api-types';
+import type { ColumnMapping, CurveKind } from '@shared/curves/types';
+import { ApiError } from '@/lib/api-client';
+import { uploadCurve, useInvalidateAfterUpload, useProfiles } from '../api/curves';
+import { Button } from '@/components/ui/button';
+import { Input, Select } from '@/components/ui/field';
+
+export interface UploadRow {
+  key: string;
+  file: File;
+  buildId: number | null;
+  state: 'waiting' | 'uploading' | 'done' | 'error' | 'confirm';
+  progress: number;
+  message?: string;
+  preview?: UploadPreview;
+  curveId?: number;
+  kind?: CurveKind;
+}
+
+const QUANTITIES = [
+  { key: 'current', label: 'Current', units: ['A/cm2', 'mA/cm2', 'A', 'mA'] },
+  { key: 'voltage', label: 'Cell voltage', units: ['V', 'mV'] },
+  { key: 'hfr', label: 'HFR', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
+  { key: 'time', label: 'Time', units: ['s', 'min', 'h', 'timestamp'] },
+  { key: 'temperature', label: 'Temperature', units: ['C', 'K'] },
+] as const;
+
+const UNIT_LABEL: Record<string, string> = { 'A/cm2': 'A/cm²', 'mA/cm2': 'mA/cm²', A: 'A (total)', mA: 'mA (total)', V: 'V', mV: 'mV', 'ohm*cm2': 'Ω·cm²', 'mohm*cm2': 'mΩ·cm²', ohm: 'Ω (total)', mohm: 'mΩ (total)', s: 's', min: 'min', h: 'h', timestamp: 'date/time', C: '°C', K: 'K' };
+
+export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: UploadPreview; onConfirm: (m: ColumnMapping, opts: { kind: CurveKind; saveProfileAs?: string; areaCm2?: number; sheet?: string }) => void; onCancel: () => void }) {
+  const start = (preview.detected ?? {}) as Partial<ColumnMapping>;
+  const [mapping, setMapping] = useState<Record<string, { column: number; unit: string } | undefined>>({ ...start } as never);
+  const [kind, setKind] = useState<CurveKind>(preview.kind);
+  const [profileName, setProfileName] = useState('');
+  const [area, setArea] = useState<string>(preview.conditions?.areaCm2 ? String(preview.conditions.areaCm2) : '');
+  const [sheet, setSheet] = useState(preview.sheet ?? '');
+  const needsArea = ['A', 'mA'].includes(mapping.current?.unit ?? '') || ['ohm', 'mohm'].includes(mapping.hfr?.unit ?? '');
+  return (
+    <div className="mt-2 rounded-md border border-copper-500/40 bg-copper-100/40 p-3">
+      <p className="text-sm font-medium text-ink-900">Confirm the columns of {preview.fileName ?? 'this file'}</p>
+      {preview.reasons.length > 0 && <ul className="mt-1 list-disc pl-5 text-xs text-amber-700">{preview.reasons.map((r) => <li key={r}>{r}</li>)}</ul>}
+      <div className="mt-2 overflow-x-auto">
+        <table className="text-xs">
+          <thead><tr>{preview.header.map((h, i) => <th key={i} className="border-b border-line px-2 py-1 text-left font-semibold">{h}</th>)}</tr></thead>
+          <tbody>{preview.rows.slice(0, 6).map((r, i) => <tr key={i}>{r.map((c, k) => <td key={k} className="num px-2 py-0.5 text-ink-700">{c}</td>)}</tr>)}</tbody>
+        </table>
+        <p className="mt-1 text-[11px] text-ink-500">{preview.rowCount.toLocaleString()} data rows; header on line {preview.headerLine}; delimiter “{preview.delimiter === '\t' ? 'tab' : preview.delimiter}”{preview.decimalComma ? ', decimal comma' : ''}</p>
+      </div>
+      <div className="mt-3 grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
+        <label className="text-xs text-ink-700">Curve kind
+          <Select value={kind} onChange={(e) => setKind(e.target.value as CurveKind)} aria-label="Curve kind">
+            <option value="polarization">polarization</option><option value="durability">durability</option><option value="hold">hold (open circuit)</option>
+          </Select>
+        </label>
+        {preview.sheets && preview.sheets.length > 1 && (
+          <label className="text-xs text-ink-700">Sheet
+            <Select value={sheet} onChange={(e) => setSheet(e.target.value)} aria-label="Sheet">{preview.sheets.map((s) => <option key={s}>{s}</option>)}</Select>
+          </label>
+        )}
+        {QUANTITIES.map((q) => (
+          <div key={q.key} className="flex items-end gap-1">
+            <label className="flex-1 text-xs text-ink-700">{q.label} column
+              <Select aria-label={`${q.label} column`} value={mapping[q.key]?.column ?? ''} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: e.target.value === '' ? undefined : { column: Number(e.target.value), unit: m[q.key]?.unit ?? q.units[0] } }))}>
+                <option value="">— none —</option>
+                {preview.header.map((h, i) => <option key={i} value={i}>{h}</option>)}
+              </Select>
+            </label>
+            <label className="w-28 text-xs text-ink-700">unit
+              <Select aria-label={`${q.label} unit`} value={mapping[q.key]?.unit ?? q.units[0]} disabled={!mapping[q.key]} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: { column: m[q.key]!.column, unit: e.target.value } }))}>
+                {q.units.map((u) => <option key={u} value={u}>{UNIT_LABEL[u]}</option>)}
+              </Select>
+            </label>
+          </div>
+        ))}
+        {needsArea && (
+          <label className="text-xs text-ink-700">Active area (cm²) — needed for total current or Ω
+            <Input type="number" step="any" value={area} onChange={(e) => setArea(e.target.value)} aria-label="Active area" />
+          </label>
+        )}
+        <label className="text-xs text-ink-700">Save as import profile (optional)
+          <Input value={profileName} onChange={(e) => setProfileName(e.target.value)} placeholder="e.g. partner station export" aria-label="Profile name" />
+        </label>
+      </div>
+      <div className="mt-3 flex gap-2">
+        <Button variant="primary" disabled={!mapping.voltage} onClick={() => onConfirm(Object.fromEntries(Object.entries(mapping).filter(([, v]) => v)) as unknown as ColumnMapping, { kind, saveProfileAs: profileName || undefined, areaCm2: area ? Number(area) : undefined, sheet: sheet || undefined })}>
+          Use these columns
+        </Button>
+        <Button onClick={onCancel}>Skip this file</Button>
+      </div>
+    </div>
+  );
+}
+
+/** Drives a batch of uploads: each file on its own, one result row per file. */
+export function useUploadBatch(projectId: number) {
+  const [rows, setRows] = useState<UploadRow[]>([]);
+  const invalidate = useInvalidateAfterUpload(projectId);
+  const patch = (key: string, change: Partial<UploadRow>) => setRows((rs) => rs.map((r) => (r.key === key ? { ...r, ...change } : r)));
+
+  const send = useCallback(async (row: UploadRow, fields: Parameters<typeof uploadCurve>[2]) => {
+    if (!row.buildId) return patch(row.key, { state: 'error', message: 'Choose the build this file belongs to.' });
+    patch(row.key, { state: 'uploading', progress: 0, message: undefined });
+    try {
+      const result = await uploadCurve(row.buildId, row.file, fields, (f) => patch(row.key, { progress: f }));
+      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, message: `${result.curve.kind} curve, ${result.curve.pointCount.toLocaleString()} points` });
+      invalidate(row.buildId);
+    } catch (error) {
+      if (error instanceof ApiError && error.code === 'mapping-needed') {
+        const d = error.details as UploadPreview & { preview: UploadPreview };
+        patch(row.key, { state: 'confirm', preview: { ...d.preview, detected: d.detected, reasons: d.reasons, kind: d.kind, sheets: d.sheets, sheet: d.sheet, fileName: row.file.name }, message: error.message });
+      } else {
+        patch(row.key, { state: 'error', message: error instanceof Error ? error.message : String(error) });
+      }
+    }
+  }, [invalidate]);
+
+  return { rows, setRows, patch, send };
+}
+
+export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuild }: {
+  rows: UploadRow[];
+  onConfirm: (row: UploadRow, mapping: ColumnMapping, opts: { kind: CurveKind; saveProfileAs?: string; areaCm2?: number; sheet?: string }) => void;
+  onSkip: (row: UploadRow) => void;
+  buildChoices?: { id: number; code: string }[];
+  onChooseBuild?: (row: UploadRow, buildId: number) => void;
+}) {
+  if (rows.length === 0) return null;
+  return (
+    <ul className="mt-3 divide-y divide-line rounded-md border border-line bg-white" aria-label="Upload results">
+      {rows.map((row) => (
+        <li key={row.key} className="px-3 py-2 text-sm">
+          <div className="flex items-center gap-3">
+            <span className="min-w-0 flex-1 truncate font-medium text-ink-900">{row.file.name}</span>
+            {buildChoices && onChooseBuild && (
+              <Select aria-label={`Build for ${row.file.name}`} className="w-36" value={row.buildId ?? ''} onChange={(e) => onChooseBuild(row, Number(e.target.value))} disabled={row.state === 'uploading' || row.state === 'done'}>
+                <option value="">— build —</option>
+                {buildChoices.map((b) => <option key={b.id} value={b.id}>{b.code}</option>)}
+              </Select>
+            )}
+            <span className="w-40">
+              {row.state === 'uploading' && (
+                <span className="block h-2 overflow-hidden rounded bg-ink-100" role="progressbar" aria-valuenow={Math.round(row.progress * 100)} aria-valuemin={0} aria-valuemax={100} aria-label={`Uploading ${row.file.name}`}>
+                  <span className="block h-full bg-copper-500 transition-all" style={{ width: `${Math.max(4, row.progress * 100)}%` }} />
+                </span>
+              )}
+              {row.state === 'done' && <span className="text-moss-700">✓ stored</span>}
+              {row.state === 'error' && <span className="text-rust-700">✕ refused</span>}
+              {row.state === 'confirm' && <span className="text-amber-700">? confirm columns</span>}
+              {row.state === 'waiting' && <span className="text-ink-500">waiting</span>}
+            </span>
+          </div>
+          {row.message && <p className={`mt-0.5 text-xs ${row.state === 'error' ? 'text-rust-700' : 'text-ink-500'}`}>{row.message}</p>}
+          {row.state === 'confirm' && row.preview && (
+            <MappingConfirm preview={row.preview} onConfirm={(m, o) => onConfirm(row, m, o)} onCancel={() => onSkip(row)} />
+          )}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+export function DropZone({ onFiles, label = 'Drop curve files here (CSV, TSV, TXT, XLSX) or choose them' }: { onFiles: (files: File[]) => void; label?: string }) {
+  const [over, setOver] = useState(false);
+  return (
+    <label
+      onDragOver={(e) => { e.preventDefault(); setOver(true); }}
+      onDragLeave={() => setOver(false)}
+      onDrop={(e) => { e.preventDefault(); setOver(false); onFiles([...e.dataTransfer.files]); }}
+      className={`flex cursor-pointer flex-col items-center justify-center gap-1 rounded-md border-2 border-dashed px-4 py-6 text-center text-sm transition-colors ${over ? 'border-copper-500 bg-copper-100/50' : 'border-line bg-paper/40 hover:border-ink-300'}`}
+    >
+      <span className="font-medium text-ink-800">{label}</span>
+      <span className="text-xs text-ink-500">Columns and units are detected; you confirm them when they are ambiguous.</span>
+      <input type="file" multiple className="sr-only" aria-label="Choose curve files" accept=".csv,.tsv,.txt,.dat,.xlsx,text/plain,text/csv" onChange={(e) => { onFiles([...(e.target.files ?? [])]); e.target.value = ''; }} />
+    </label>
+  );
+}
+
+export function useProfilesFor(projectId: number) {
+  return useProfiles(projectId);
+}
