@@ -1,6 +1,6 @@
 // Sign-in, sign-out, who am I, personal API tokens, and accepting invitations.
 import { Router } from 'express';
-import rateLimit from 'express-rate-limit';
+import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
 import { and, desc, eq, isNull } from 'drizzle-orm';
 import type { AppContext } from '../context';
 import { apiTokens, invitations, memberships, projects, sessions, users } from '../db/schema';
@@ -22,7 +22,7 @@ export function authRouter(ctx: AppContext): Router {
     limit: ctx.env.LOGIN_RATE_LIMIT,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: (req) => `${req.ip}|${String((req.body as { email?: unknown } | undefined)?.email ?? '').toLowerCase()}`,
+    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String((req.body as { email?: unknown } | undefined)?.email ?? '').toLowerCase()}`,
     handler: (_req, _res, next) =>
       next(new AppError(429, 'rate-limited', 'Too many sign-in attempts for this address; wait 15 minutes and try again.')),
   });

@@ -7,7 +7,7 @@ import { builds, curves, labs, projects, users } from '../db/schema';
 import { buildCreateSchema, buildUpdateSchema, checkFactorValues } from '../../shared/schemas/build';
 import { audit } from '../lib/audit';
 import { AppError, conflict, notFound } from '../lib/errors';
-import { requireBuildWrite, requireProject, type ProjectAccess } from '../auth/access';
+import { requireBuildWrite, requireProject, requireUser, type ProjectAccess } from '../auth/access';
 import type { AuthUser } from '../context';
 import { listFactors, listResponses } from '../projects/service';
 
@@ -142,6 +142,7 @@ export function loadBuildRow(ctx: AppContext, buildId: number): BuildRow {
 
 /** Build and the caller's access to its project (404 when the project is not visible). */
 export function accessBuild(ctx: AppContext, user: AuthUser | undefined, buildId: number, action: Parameters<typeof requireProject>[3] = 'read') {
+  requireUser(user);
   const row = loadBuildRow(ctx, buildId);
   const access = requireProject(ctx.db, user, row.projectId, action);
   return { row, access };

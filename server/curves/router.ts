@@ -10,7 +10,7 @@ import type { AppContext } from '../context';
 import { curves, files, importProfiles } from '../db/schema';
 import { idParam, parseInput } from '../lib/validate';
 import { AppError, forbidden, notFound } from '../lib/errors';
-import { requireBuildWrite, requireProject, can } from '../auth/access';
+import { requireBuildWrite, requireProject, requireUser, can } from '../auth/access';
 import { accessBuild } from '../builds/service';
 import { curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView } from './service';
 import { audit } from '../lib/audit';
@@ -61,7 +61,7 @@ const profileSchema = z.object({
   name: z.string().trim().min(1).max(80),
   labId: z.number().int().positive().nullish(),
   kind: z.enum(['polarization', 'durability', 'hold']).default('polarization'),
-  mapping: z.record(z.enum(['current', 'voltage', 'hfr', 'time', 'temperature']), z.object({ header: z.string().min(1), unit: z.string().min(1) })),
+  mapping: z.partialRecord(z.enum(['current', 'voltage', 'hfr', 'time', 'temperature']), z.object({ header: z.string().min(1), unit: z.string().min(1) })),
 });
 
 export function curvesRouter(ctx: AppContext): Router {
@@ -99,6 +99,7 @@ export function curvesRouter(ctx: AppContext): Router {
   router.post('/builds/:id/curves/preview', receiveFile, (req, res) => handleUpload(req, res, true));
 
   router.get('/curves/:id', (req, res) => {
+    requireUser(req.user);
     const row = loadCurve(ctx, idParam(req.params.id));
     accessBuild(ctx, req.user, row.buildId);
     const query = parseInput(pointsQuery, req.query, 'query');
@@ -106,6 +107,7 @@ export function curvesRouter(ctx: AppContext): Router {
   });
 
   router.patch('/curves/:id', (req, res) => {
+    requireUser(req.user);
     const row = loadCurve(ctx, idParam(req.params.id));
     const { row: build, access } = accessBuild(ctx, req.user, row.buildId, 'createBuild');
     requireBuildWrite(access, build);
@@ -121,6 +123,7 @@ export function curvesRouter(ctx: AppContext): Router {
   });
 
   router.delete('/curves/:id', (req, res) => {
+    requireUser(req.user);
     const row = loadCurve(ctx, idParam(req.params.id));
     const { access } = accessBuild(ctx, req.user, row.buildId, 'deleteBuild');
     deleteCurve(ctx, access, row);
@@ -128,6 +131,7 @@ export function curvesRouter(ctx: AppContext): Router {
   });
 
   router.get('/files/:id/raw', (req, res) => {
+    requireUser(req.user);
     const id = idParam(req.params.id);
     const file = db.select().from(files).where(eq(files.id, id)).get();
     if (!file || file.projectId == null) throw notFound(`File ${id}`);
@@ -161,6 +165,7 @@ export function curvesRouter(ctx: AppContext): Router {
   });
 
   router.delete('/import-profiles/:id', (req, res) => {
+    requireUser(req.user);
     const id = idParam(req.params.id);
     const row = db.select().from(importProfiles).where(eq(importProfiles.id, id)).get();
     if (!row || row.projectId == null) throw notFound(`Import profile ${id}`);

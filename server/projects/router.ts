@@ -79,6 +79,7 @@ export function projectsRouter(ctx: AppContext): Router {
   });
 
   router.put('/projects/:id/notify', (req, res) => {
+    requireUser(req.user);
     const body = parseInput(z.object({ notify: z.boolean() }), req.body);
     res.json(projects.setNotify(ctx, requireUser(req.user), idParam(req.params.id), body.notify));
   });

@@ -68,6 +68,7 @@ function cathodeBuilds(): DemoBuild[] {
   const b = (code: string, f: Record<string, number | string>, extra: Partial<DemoBuild>): DemoBuild => ({
     code,
     factors: f,
+    conditions: { ...cathodeConditions, temperatureC: Number(f.cellTemp) },
     loadingMgCm2: 3.0,
     metalLoadingMgCm2: 0.06,
     areaCm2: 25,
@@ -76,7 +77,6 @@ function cathodeBuilds(): DemoBuild[] {
     operator: 'researcher',
     status: 'tested',
     builtOn: '2026-09-01',
-    conditions: cathodeConditions,
     ...extra,
   });
   const base = { binder: 20, activationTemp: 320, activationTime: 1, gdl: 'woven carbon', cellTemp: 160 };
@@ -112,6 +112,7 @@ function anodeBuilds(): DemoBuild[] {
   const b = (code: string, f: Record<string, number | string>, extra: Partial<DemoBuild>): DemoBuild => ({
     code,
     factors: f,
+    conditions: { ...anodeConditions, temperatureC: Number(f.cellTemp) },
     loadingMgCm2: Number(f.anodeLoading ?? 1.0),
     metalLoadingMgCm2: Number(f.anodeLoading ?? 1.0) * 0.4,
     areaCm2: 16,
@@ -120,7 +121,6 @@ function anodeBuilds(): DemoBuild[] {
     operator: 'researcher',
     status: 'tested',
     builtOn: '2026-10-01',
-    conditions: anodeConditions,
     ...extra,
   });
   const base = { ruFraction: 30, anodeLoading: 1.0, cellTemp: 200, support: 'carbon black' };

@@ -322,6 +322,7 @@ function findLayout(lines: readonly BufferedLine[]): Layout | null {
       if (headerCount < 2 || firstData.count > headerCount) continue;
       let exactRows = 0;
       for (let index = next; index < rows.length && index < next + DETECTION_DATA_ROWS; index++) {
+        if (lines[index].text === lines[headerIndex].text) continue;
         const row = rows[index];
         if (!isDataRow(row)) break;
         if (row.count === headerCount) exactRows++;
@@ -422,10 +423,14 @@ function explainMissingLayout(lines: readonly BufferedLine[]): CurveFileError {
   });
 }
 
-function decideColumnKinds(rows: readonly string[][], headerCount: number, decimalComma: boolean, delimiter: Delimiter): ColumnKind[] {
+// A column is numeric when most of its sampled cells are numbers — or, when its header names
+// a quantity we read (voltage, current, …), as soon as any cell is a number, so that one stray
+// word in a voltage column is reported with its line instead of the column being dropped.
+function decideColumnKinds(rows: readonly string[][], header: readonly string[], decimalComma: boolean, delimiter: Delimiter): ColumnKind[] {
   const kinds: ColumnKind[] = [];
   const allowDecimalComma = decimalComma && delimiter !== ',';
-  for (let column = 0; column < headerCount; column++) {
+  for (let column = 0; column < header.length; column++) {
+    const namesQuantity = recogniseHeaderUnit(header[column]).quantity !== null;
     let numbers = 0;
     let nans = 0;
     let timestamps = 0;
@@ -444,7 +449,7 @@ function decideColumnKinds(rows: readonly string[][], headerCount: number, decim
     if (filled === 0) kinds.push('empty');
     else if (timestamps >= 0.8 * filled) kinds.push('timestamp');
     else if (durations >= 0.8 * filled) kinds.push('duration');
-    else if (numbers >= 1 && numbers + nans >= 0.8 * filled) kinds.push('number');
+    else if (numbers >= 1 && (numbers + nans >= 0.8 * filled || (namesQuantity && numbers >= timestamps + durations))) kinds.push('number');
     else kinds.push('text');
   }
   return kinds;
@@ -574,10 +579,11 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
 
   function endDetection(): void {
     detecting = false;
-    const nonEmpty = buffered.filter((entry) => !isBlankText(entry.text));
-    if (nonEmpty.length === 0) throw new CurveFileError('empty', 'the file is empty (no text, or only blank lines)');
-    const layout = findLayout(nonEmpty);
-    if (layout === null) throw explainMissingLayout(nonEmpty);
+    const nonEmpty = buffered.filter((entry) => !isBlankText(entry.text) && entry.text.charCodeAt(0) !== 35);
+    const nonEmptyWithComments = buffered.filter((entry) => !isBlankText(entry.text));
+    if (nonEmptyWithComments.length === 0) throw new CurveFileError('empty', 'the file is empty (no text, or only blank lines)');
+    const layout = nonEmpty.length === 0 ? null : findLayout(nonEmpty);
+    if (layout === null) throw explainMissingLayout(nonEmpty.length > 0 ? nonEmpty : nonEmptyWithComments);
     delimiter = layout.delimiter;
     decimalComma = layout.decimalComma;
     const headerEntry = nonEmpty[layout.headerIndex];
@@ -606,7 +612,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
       if (sample.length >= KIND_SAMPLE_ROWS) break;
       sample.push(splitLine(entry.text, delimiter));
     }
-    kinds = decideColumnKinds(sample, header.length, decimalComma, delimiter);
+    kinds = decideColumnKinds(sample, header, decimalComma, delimiter);
     storedColumns = [];
     storedKinds = [];
     for (let column = 0; column < kinds.length; column++) {

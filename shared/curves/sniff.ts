@@ -85,13 +85,29 @@ export function sniffBytes(bytes: Uint8Array): SniffedKind {
   return control > CONTROL_SHARE_LIMIT * scanned ? 'binary' : 'text';
 }
 
-function decodeLatin1(bytes: Uint8Array): string {
-  let text = '';
+// windows-1252 bytes 0x80–0x9F (WHATWG Encoding Standard, index-windows-1252); the five
+// unassigned bytes map to the C1 control of the same number, as WHATWG specifies.
+const WINDOWS_1252_HIGH = [
+  0x20ac, 0x81, 0x201a, 0x192, 0x201e, 0x2026, 0x2020, 0x2021, 0x2c6, 0x2030, 0x160, 0x2039, 0x152, 0x8d, 0x17d, 0x8f,
+  0x90, 0x2018, 0x2019, 0x201c, 0x201d, 0x2022, 0x2013, 0x2014, 0x2dc, 0x2122, 0x161, 0x203a, 0x153, 0x9d, 0x17e, 0x178,
+] as const;
+
+// Decoded by hand rather than with TextDecoder('windows-1252'): some runtimes (Node 20
+// among them) decode that label as ISO-8859-1, turning 0x80 into U+0080 instead of €.
+function decodeWindows1252(bytes: Uint8Array): string {
+  const parts: string[] = [];
   const step = 8192;
+  const codes = new Array<number>(step);
   for (let offset = 0; offset < bytes.length; offset += step) {
-    text += String.fromCharCode(...bytes.subarray(offset, offset + step));
+    const end = Math.min(bytes.length, offset + step);
+    codes.length = end - offset;
+    for (let index = offset; index < end; index++) {
+      const byte = bytes[index];
+      codes[index - offset] = byte >= 0x80 && byte <= 0x9f ? WINDOWS_1252_HIGH[byte - 0x80] : byte;
+    }
+    parts.push(String.fromCharCode(...codes));
   }
-  return text;
+  return parts.join('');
 }
 
 /**
@@ -114,11 +130,6 @@ export function decodeText(bytes: Uint8Array): string {
   try {
     return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
   } catch {
-    try {
-      return new TextDecoder('windows-1252').decode(bytes);
-    } catch {
-      // a runtime without the legacy encodings: plain Latin-1 is the closest reading
-      return decodeLatin1(bytes);
-    }
+    return decodeWindows1252(bytes);
   }
 }

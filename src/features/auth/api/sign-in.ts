@@ -1,6 +1,7 @@
 // Sign in and sign out; both reset every cached query so nothing leaks between people.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, setCsrfToken } from '@/lib/api-client';
+import { meQueryOptions } from './get-me';
 import type { z } from 'zod';
 import type { loginSchema } from '@shared/schemas/auth';
 
@@ -14,7 +15,7 @@ export function useSignIn() {
     },
     onSuccess: async () => {
       client.clear();
-      await client.fetchQuery({ queryKey: ['me'], queryFn: () => import('./get-me').then((m) => m.getMe()) });
+      await client.fetchQuery(meQueryOptions());
     },
   });
 }

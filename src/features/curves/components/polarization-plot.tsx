@@ -69,7 +69,7 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
             { type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: settings.refVoltage, y1: settings.refVoltage, line: { color: '#56668c', width: 1, dash: 'dash' } },
           ],
           annotations: [
-            { x: jRef, y: 1, xref: 'x', yref: 'paper', text: 'j_ref', showarrow: false, yanchor: 'bottom', font: { color: '#a9592a', size: 11 } },
+            { x: jRef, y: 0, xref: 'x', yref: 'paper', text: ' j_ref', showarrow: false, xanchor: 'left', yanchor: 'bottom', font: { color: '#a9592a', size: 11 } },
             { x: 1, y: settings.refVoltage, xref: 'paper', yref: 'y', text: 'V_ref', showarrow: false, xanchor: 'right', yanchor: 'bottom', font: { color: '#56668c', size: 11 } },
           ],
         }}

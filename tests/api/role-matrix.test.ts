@@ -1,0 +1,192 @@
+// The role × route matrix: every role tries every route, and the expected allow/deny holds.
+// Every route of the OpenAPI document must have a row here (checked below), so the matrix
+// grows with each feature. Roles are those of product.md: site admin; per project pi,
+// researcher, partner, viewer. A denial is 403, or 404 where the project is not visible.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { createHarness, demoIds, EVERYONE, type Harness, type Who, type Client } from './harness';
+import { ROUTES } from '../../server/openapi';
+
+const CSV = 'Current density (A/cm2),Voltage (V),HFR (Ohm cm2)\n0,0.98,0.12\n0.05,0.74,0.12\n0.1,0.69,0.12\n0.2,0.62,0.12\n0.3,0.57,0.12\n0.4,0.52,0.12\n';
+
+export interface MatrixRow {
+  method: 'get' | 'post' | 'patch' | 'put' | 'delete';
+  /** OpenAPI-style path, e.g. /api/builds/{id} */
+  path: string;
+  allowed: Who[];
+  /** build the request for one role (may create fixtures through h.as.admin) */
+  send: (h: Harness, c: Client, who: Who) => Promise<request.Response>;
+  /** anonymous callers are refused with 401 unless this is set */
+  publicRoute?: boolean;
+}
+
+let h: Harness;
+let ids: ReturnType<typeof demoIds>;
+let counter = 0;
+const unique = (prefix: string) => `${prefix}${++counter}`;
+
+async function freshAgent(h: Harness, who: Who) {
+  const agent = request.agent(h.app);
+  const res = await agent.post('/api/auth/login').send({ email: `${who}@demo.cellwright.test`, password: 'demo-password' });
+  return { agent, csrf: res.body.csrfToken as string };
+}
+
+async function makeCurve(h: Harness) {
+  const res = await h.as.admin.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'fixture.csv', content: CSV });
+  if (res.status !== 201) throw new Error(`fixture upload failed: ${JSON.stringify(res.body)}`);
+  return res.body.curve.id as number;
+}
+
+const C = () => ids.project('C');
+const ALL: Who[] = [...EVERYONE];
+const WRITERS: Who[] = ['admin', 'pi', 'researcher', 'partner'];
+const PLANNERS: Who[] = ['admin', 'pi', 'researcher'];
+
+export const MATRIX: MatrixRow[] = [
+  { method: 'post', path: '/api/auth/login', allowed: ALL, publicRoute: true, send: (h, _c, who) => request(h.app).post('/api/auth/login').send({ email: `${who}@demo.cellwright.test`, password: 'demo-password' }) },
+  { method: 'post', path: '/api/auth/logout', allowed: ALL, publicRoute: true, send: async (h, _c, who) => { const { agent, csrf } = await freshAgent(h, who); return agent.post('/api/auth/logout').set('X-CSRF-Token', csrf); } },
+  { method: 'get', path: '/api/auth/me', allowed: ALL, send: (_h, c) => c.get('/api/auth/me') },
+  { method: 'get', path: '/api/auth/sessions', allowed: ALL, send: (_h, c) => c.get('/api/auth/sessions') },
+  { method: 'post', path: '/api/auth/sessions/{id}/revoke', allowed: ALL, send: async (h, c, who) => {
+    await freshAgent(h, who);
+    const list = await c.get('/api/auth/sessions');
+    const other = list.body.sessions.find((s: { current: boolean; revokedAt: string | null }) => !s.current && !s.revokedAt);
+    return c.post(`/api/auth/sessions/${other.id}/revoke`);
+  } },
+  { method: 'get', path: '/api/auth/tokens', allowed: ALL, send: (_h, c) => c.get('/api/auth/tokens') },
+  { method: 'post', path: '/api/auth/tokens', allowed: ALL, send: (_h, c) => c.post('/api/auth/tokens', { name: unique('script') }) },
+  { method: 'post', path: '/api/auth/tokens/{id}/revoke', allowed: ALL, send: async (_h, c) => { const t = await c.post('/api/auth/tokens', { name: unique('t') }); return c.post(`/api/auth/tokens/${t.body.id}/revoke`); } },
+  { method: 'get', path: '/api/invitations/{token}', allowed: ALL, publicRoute: true, send: async (h) => {
+    const mail = `${unique('guest')}@partner.example`;
+    await h.as.pi.post(`/api/projects/${C()}/invitations`, { email: mail, role: 'viewer' });
+    const token = latestInviteToken(h, mail);
+    return request(h.app).get(`/api/invitations/${token}`);
+  } },
+  { method: 'post', path: '/api/invitations/{token}/accept', allowed: ALL, publicRoute: true, send: async (h) => {
+    const mail = `${unique('guest')}@partner.example`;
+    await h.as.pi.post(`/api/projects/${C()}/invitations`, { email: mail, role: 'viewer' });
+    return request(h.app).post(`/api/invitations/${latestInviteToken(h, mail)}/accept`).send({ name: 'Guest Person', password: 'long-enough-pw' });
+  } },
+  { method: 'get', path: '/api/home', allowed: ALL, send: (_h, c) => c.get('/api/home') },
+  { method: 'get', path: '/api/projects', allowed: ALL, send: (_h, c) => c.get('/api/projects') },
+  { method: 'post', path: '/api/projects', allowed: ['admin', 'pi', 'researcher', 'viewer'], send: (_h, c) => c.post('/api/projects', { name: unique('Matrix project '), settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } }) },
+  { method: 'get', path: '/api/projects/{id}', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}`) },
+  { method: 'patch', path: '/api/projects/{id}', allowed: ['admin', 'pi'], send: (_h, c) => c.patch(`/api/projects/${C()}`, { description: unique('desc ') }) },
+  { method: 'get', path: '/api/projects/{id}/factors', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/factors`) },
+  { method: 'post', path: '/api/projects/{id}/factors', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/factors`, { key: unique('inkSolids'), label: 'Ink solids', unit: 'wt %', kind: 'continuous', low: 1, high: 5 }) },
+  { method: 'patch', path: '/api/projects/{id}/factors/{factorId}', allowed: PLANNERS, send: async (h, c) => {
+    const f = await h.as.admin.post(`/api/projects/${C()}/factors`, { key: unique('hp'), label: 'Hot-press time', unit: 'min', kind: 'continuous', low: 1, high: 10 });
+    return c.patch(`/api/projects/${C()}/factors/${f.body.factor.id}`, { key: f.body.factor.key, label: 'Hot-press time (edited)', unit: 'min', kind: 'continuous', low: 1, high: 12 });
+  } },
+  { method: 'get', path: '/api/projects/{id}/responses', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/responses`) },
+  { method: 'post', path: '/api/projects/{id}/responses', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/responses`, { key: unique('cost'), label: 'Cost', unit: '€', goal: 'minimize' }) },
+  { method: 'get', path: '/api/projects/{id}/members', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/members`) },
+  { method: 'put', path: '/api/projects/{id}/members', allowed: ['admin', 'pi'], send: (_h, c) => c.put(`/api/projects/${C()}/members`, { userId: ids.user('r.castellane@ridgeway.example'), role: 'partner' }) },
+  { method: 'delete', path: '/api/projects/{id}/members/{userId}', allowed: ['admin', 'pi'], send: async (h, c) => {
+    const mail = `${unique('leaver')}@partner.example`;
+    await h.as.pi.post(`/api/projects/${C()}/invitations`, { email: mail, role: 'viewer' });
+    await request(h.app).post(`/api/invitations/${latestInviteToken(h, mail)}/accept`).send({ name: 'Leaving Person', password: 'long-enough-pw' });
+    return c.delete(`/api/projects/${C()}/members/${ids.user(mail)}`);
+  } },
+  { method: 'put', path: '/api/projects/{id}/notify', allowed: ['pi', 'researcher', 'partner', 'viewer'], send: (_h, c) => c.put(`/api/projects/${C()}/notify`, { notify: true }) },
+  { method: 'post', path: '/api/projects/{id}/invitations', allowed: ['admin', 'pi'], send: (_h, c) => c.post(`/api/projects/${C()}/invitations`, { email: `${unique('new')}@lab.example`, role: 'researcher' }) },
+  { method: 'get', path: '/api/projects/{id}/builds', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/builds`) },
+  { method: 'post', path: '/api/projects/{id}/builds', allowed: WRITERS, send: (_h, c) => c.post(`/api/projects/${C()}/builds`, { status: 'planned', factors: { binder: 25 }, loadingMgCm2: 3, areaCm2: 25 }) },
+  { method: 'get', path: '/api/builds/{id}', allowed: ALL, send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}`) },
+  { method: 'patch', path: '/api/builds/{id}', allowed: WRITERS, send: (_h, c) => c.patch(`/api/builds/${ids.build('C-014')}`, { changeNote: unique('partner check, note ') }) },
+  { method: 'get', path: '/api/labs', allowed: ALL, send: (_h, c) => c.get('/api/labs') },
+  { method: 'post', path: '/api/admin/labs', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/labs', { name: unique('Matrix Lab '), kind: 'partner' }) },
+  { method: 'get', path: '/api/admin/people', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/people') },
+  { method: 'patch', path: '/api/admin/people/{id}', allowed: ['admin'], send: (_h, c) => c.patch(`/api/admin/people/${ids.user('r.castellane@ridgeway.example')}`, { name: 'Rosa Castellane' }) },
+  { method: 'post', path: '/api/admin/people/{id}/revoke-sessions', allowed: ['admin'], send: (_h, c) => c.post(`/api/admin/people/${ids.user('r.castellane@ridgeway.example')}/revoke-sessions`) },
+  { method: 'get', path: '/api/admin/outbox', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/outbox') },
+  { method: 'get', path: '/api/admin/audit', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/audit') },
+  { method: 'post', path: '/api/builds/{id}/curves', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'matrix.csv', content: CSV }) },
+  { method: 'post', path: '/api/builds/{id}/curves/preview', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves/preview`, { name: 'matrix.csv', content: CSV }) },
+  { method: 'get', path: '/api/curves/{id}', allowed: ALL, send: async (h, c) => c.get(`/api/curves/${await makeCurve(h)}`) },
+  { method: 'patch', path: '/api/curves/{id}', allowed: WRITERS, send: async (h, c) => c.patch(`/api/curves/${await makeCurve(h)}`, { label: 'relabelled' }) },
+  { method: 'delete', path: '/api/curves/{id}', allowed: PLANNERS, send: async (h, c) => c.delete(`/api/curves/${await makeCurve(h)}`) },
+  { method: 'get', path: '/api/files/{id}/raw', allowed: ALL, send: async (h, c) => { const id = await makeCurve(h); const curve = await h.as.admin.get(`/api/curves/${id}`); return c.get(`/api/files/${curve.body.curve.fileId}/raw`); } },
+  { method: 'get', path: '/api/projects/{id}/import-profiles', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/import-profiles`) },
+  { method: 'post', path: '/api/projects/{id}/import-profiles', allowed: WRITERS, send: (_h, c) => c.post(`/api/projects/${C()}/import-profiles`, { name: unique('profile '), mapping: { voltage: { header: 'U (V)', unit: 'V' }, current: { header: 'j (A/cm2)', unit: 'A/cm2' } } }) },
+  { method: 'delete', path: '/api/import-profiles/{id}', allowed: WRITERS, send: async (h, c, who) => {
+    // each writer removes a profile it could have made itself (partners: their own lab's)
+    const owner = who === 'partner' ? h.as.partner : h.as.admin;
+    const p = await owner.post(`/api/projects/${C()}/import-profiles`, { name: unique('tmp '), mapping: { voltage: { header: 'U (V)', unit: 'V' } } });
+    return c.delete(`/api/import-profiles/${p.body.profile.id}`);
+  } },
+];
+
+function latestInviteToken(h: Harness, email: string): string {
+  const row = h.ctx.db.$client.prepare("select text from outbox where \"to\" = ? order by id desc limit 1").get(email) as { text: string };
+  const match = row.text.match(/\/invite\/([A-Za-z0-9_-]+)/);
+  if (!match) throw new Error('no invitation link in the e-mail');
+  return match[1]!;
+}
+
+beforeAll(async () => {
+  h = await createHarness();
+  ids = demoIds(h.ctx);
+});
+afterAll(() => h.close());
+
+describe('role × route matrix', () => {
+  it('has a row for every documented route', () => {
+    const covered = new Set(MATRIX.map((r) => `${r.method} ${r.path}`));
+    const missing = ROUTES.map((r) => `${r.method} ${r.path}`).filter((k) => !covered.has(k));
+    expect(missing).toEqual([]);
+  });
+
+  for (const row of MATRIX) {
+    for (const who of EVERYONE) {
+      const allowed = row.allowed.includes(who);
+      it(`${row.method.toUpperCase()} ${row.path} as ${who} is ${allowed ? 'allowed' : 'refused'}`, async () => {
+        const res = await row.send(h, h.as[who], who);
+        if (allowed) expect(res.status, JSON.stringify(res.body)).toBeLessThan(300);
+        else {
+          expect([403, 404], JSON.stringify(res.body)).toContain(res.status);
+          expect(res.body.error.code).toBeTypeOf('string');
+        }
+      });
+    }
+    if (!row.publicRoute) {
+      it(`${row.method.toUpperCase()} ${row.path} without signing in is 401`, async () => {
+        const path = row.path.replace(/\{[^}]+\}/g, '1');
+        const res = await (request(h.app) as unknown as Record<string, (u: string) => request.Test>)[row.method]!(path);
+        expect(res.status).toBe(401);
+        expect(res.body.error.code).toBe('unauthorized');
+      });
+    }
+  }
+
+  it('a partner cannot edit another lab’s build, nor see a project it is not in', async () => {
+    const other = await h.as.partner.patch(`/api/builds/${ids.build('C-001')}`, { changeNote: 'nope' });
+    expect(other.status).toBe(403);
+    const hidden = await h.as.partner.get(`/api/projects/${ids.project('A')}`);
+    expect(hidden.status).toBe(404);
+    const hiddenBuild = await h.as.partner.get(`/api/builds/${ids.build('A-001')}`);
+    expect(hiddenBuild.status).toBe(404);
+    const upload = await h.as.partner.upload(`/api/builds/${ids.build('C-001')}/curves`, { name: 'x.csv', content: CSV });
+    expect(upload.status).toBe(403);
+    const list = await h.as.partner.get('/api/projects');
+    expect(list.body.projects.map((p: { id: number }) => p.id)).toEqual([ids.project('C')]);
+  });
+
+  it('a partner’s new build is recorded for its own lab whatever it asks', async () => {
+    const res = await h.as.partner.post(`/api/projects/${ids.project('C')}/builds`, { status: 'planned', factors: {}, labId: ids.lab('Northgate') });
+    expect(res.status).toBe(403);
+    const ok = await h.as.partner.post(`/api/projects/${ids.project('C')}/builds`, { status: 'planned', factors: {} });
+    expect(ok.body.build.labId).toBe(ids.lab('Kestrel'));
+  });
+
+  it('cookie writes without the CSRF header are refused; Bearer-token writes need none', async () => {
+    const agent = request.agent(h.app);
+    await agent.post('/api/auth/login').send({ email: 'researcher@demo.cellwright.test', password: 'demo-password' });
+    const refused = await agent.post(`/api/projects/${ids.project('C')}/builds`).send({ status: 'planned', factors: {} });
+    expect(refused.status).toBe(403);
+    expect(refused.body.error.code).toBe('csrf');
+    const token = await h.as.researcher.post('/api/auth/tokens', { name: 'station script' });
+    const viaToken = await request(h.app).post(`/api/projects/${ids.project('C')}/builds`).set('Authorization', `Bearer ${token.body.token}`).send({ status: 'planned', factors: {} });
+    expect(viaToken.status).toBe(201);
+  });
+});
