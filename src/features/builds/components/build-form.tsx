@@ -1,6 +1,6 @@
 // The build form (create and edit): recipe factors checked against bounds and levels with
 // inline errors, loading and area, lot, lab, dates, test conditions and hand-entered responses.
-import { useForm } from 'react-hook-form';
+import { useForm, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import type { Build, FactorDef, ResponseDef, Lab } from '@shared/api-types';
@@ -13,8 +13,19 @@ import { useEffect } from 'react';
 
 const num = (v: unknown) => (v === '' || v == null || (typeof v === 'number' && Number.isNaN(v)) ? undefined : Number(v));
 
+/** Drop the empty inputs (undefined, '' or NaN) inside the nested records before validating. */
+function dropEmpty(input: unknown): unknown {
+  if (!input || typeof input !== 'object') return input;
+  const v = { ...(input as Record<string, unknown>) };
+  for (const key of ['factors', 'responses', 'testConditions']) {
+    const rec = v[key] as Record<string, unknown> | undefined;
+    if (rec && typeof rec === 'object') v[key] = Object.fromEntries(Object.entries(rec).filter(([, x]) => x !== undefined && x !== '' && x !== null && !(typeof x === 'number' && Number.isNaN(x))));
+  }
+  return v;
+}
+
 function formSchema(factors: FactorDef[]) {
-  return buildCreateSchema.superRefine((value, ctx) => {
+  return z.preprocess(dropEmpty, buildCreateSchema).superRefine((value, ctx) => {
     for (const issue of checkFactorValues(value.factors ?? {}, factors, { requireAll: (value.status ?? 'built') !== 'planned' })) {
       ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
     }
@@ -61,7 +72,7 @@ export function BuildForm({ factors, responses, labs, builds, initial, lockLabId
   serverError: unknown;
 }) {
   const { register, handleSubmit, formState, watch, setError, setValue } = useForm<FormValues>({
-    resolver: zodResolver(formSchema(factors)),
+    resolver: zodResolver(formSchema(factors) as never) as unknown as Resolver<FormValues>,
     defaultValues: initial ?? { factors: {}, testConditions: { temperatureC: 180, anodeGas: 'H2', cathodeGas: 'air' }, status: 'built', areaCm2: 25 },
   });
   const errors = formState.errors as Record<string, unknown> & { factors?: Record<string, { message?: string }>; testConditions?: Record<string, { message?: string }>; responses?: Record<string, { message?: string }> };
