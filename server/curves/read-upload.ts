@@ -3,7 +3,7 @@
 import fs from 'node:fs';
 import { createHash } from 'node:crypto';
 import ExcelJS from 'exceljs';
-import { createDelimitedParser, sniffBytes } from '../../shared/curves';
+import { createDelimitedParser, createChunkDecoder, sniffBytes } from '../../shared/curves';
 import { CurveFileError } from '../../shared/curves/types';
 import type { ParsedTable } from '../../shared/curves';
 
@@ -26,22 +26,23 @@ async function readHead(path: string, bytes: number): Promise<Uint8Array> {
   }
 }
 
-function looksUtf8(head: Uint8Array): boolean {
-  try {
-    new TextDecoder('utf-8', { fatal: true }).decode(head, { stream: true });
-    return true;
-  } catch {
-    return false;
-  }
-}
-
 export async function hashFile(path: string): Promise<string> {
   const hash = createHash('sha256');
   for await (const chunk of fs.createReadStream(path)) hash.update(chunk as Buffer);
   return hash.digest('hex');
 }
 
-export async function readUpload(path: string, options: { sheet?: string; maxRows: number }): Promise<ReadResult> {
+export interface ReadOptions {
+  sheet?: string;
+  maxRows: number;
+  /** called after each chunk with the bytes parsed so far (text files) */
+  onBytes?: (bytesParsed: number) => void;
+}
+
+/** Give the event loop a turn so other requests (and progress polls) are served during a long parse. */
+const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+export async function readUpload(path: string, options: ReadOptions): Promise<ReadResult> {
   const head = await readHead(path, 65536);
   const kind = sniffBytes(head);
   if (kind === 'empty') throw new CurveFileError('empty', 'The file is empty.');
@@ -50,11 +51,15 @@ export async function readUpload(path: string, options: { sheet?: string; maxRow
   if (kind === 'xlsx') return readWorkbook(path, options);
 
   const hash = createHash('sha256');
-  const decoder = new TextDecoder(looksUtf8(head) ? 'utf-8' : 'windows-1252');
+  const decoder = createChunkDecoder(head);
   const parser = createDelimitedParser({ maxRows: options.maxRows });
+  let bytesParsed = 0;
   for await (const chunk of fs.createReadStream(path, { highWaterMark: 1 << 20 })) {
     hash.update(chunk as Buffer);
     parser.push(decoder.decode(chunk as Buffer, { stream: true }));
+    bytesParsed += (chunk as Buffer).length;
+    options.onBytes?.(bytesParsed);
+    await yieldToEventLoop();
   }
   parser.push(decoder.decode());
   return { table: parser.finish(), sha256: hash.digest('hex'), contentType: 'text/plain' };
@@ -75,7 +80,7 @@ function cellText(value: ExcelJS.CellValue): string {
   return String(value);
 }
 
-async function readWorkbook(path: string, options: { sheet?: string; maxRows: number }): Promise<ReadResult> {
+async function readWorkbook(path: string, options: ReadOptions): Promise<ReadResult> {
   const workbook = new ExcelJS.Workbook();
   try {
     await workbook.xlsx.readFile(path);

@@ -1,8 +1,8 @@
 // Public API of curve files: sniff and decode bytes, parse delimited text, guess and apply a
 // column mapping, step-average, polarization metrics, and the semi-empirical model.
 export * from './types';
-export { sniffBytes, decodeText } from './sniff';
-export type { SniffedKind } from './sniff';
+export { sniffBytes, decodeText, createChunkDecoder } from './sniff';
+export type { SniffedKind, ChunkDecoder } from './sniff';
 export { createDelimitedParser, parseDelimitedText } from './parse-delimited';
 export type { DelimitedParser, DelimitedParserOptions } from './parse-delimited';
 export { readConditions, splitMetadataLine } from './read-conditions';

@@ -111,10 +111,11 @@ function decodeWindows1252(bytes: Uint8Array): string {
 }
 
 /**
- * Text bytes → string: UTF-8 (BOM dropped); UTF-16 LE/BE when a BOM or the UTF-16 byte
- * pattern says so; otherwise, when the bytes are not valid UTF-8, windows-1252 (the
- * WHATWG reading of "latin1", which older station PCs write: `°`, `µ`, `²` as single bytes).
- * Reference: WHATWG Encoding Standard (TextDecoder, windows-1252 index). Cost: O(n).
+ * Text bytes → string: UTF-8 via TextDecoder (BOM dropped); UTF-16 LE/BE when a BOM or the
+ * UTF-16 byte pattern says so; otherwise, when the bytes are not valid UTF-8, windows-1252
+ * (the WHATWG reading of "latin1", which older station PCs write: `°`, `µ`, `²` as single
+ * bytes), decoded from its table because not every runtime's TextDecoder has it right.
+ * Reference: WHATWG Encoding Standard (TextDecoder; index-windows-1252). Cost: O(n).
  * @throws TypeError when bytes is not a Uint8Array.
  * @example decodeText(Uint8Array.of(0x54, 0xb0, 0x43)) // 'T°C'
  */
@@ -132,4 +133,41 @@ export function decodeText(bytes: Uint8Array): string {
   } catch {
     return decodeWindows1252(bytes);
   }
+}
+
+/** A decoder for text arriving in chunks, chosen once from the file's first bytes. */
+export interface ChunkDecoder {
+  encoding: 'utf-8' | 'utf-16le' | 'utf-16be' | 'windows-1252';
+  /** decode the next chunk; call once more with no bytes (or stream: false) at the end */
+  decode(bytes?: Uint8Array, options?: { stream?: boolean }): string;
+}
+
+/**
+ * Streaming counterpart of decodeText: picks the encoding from the first bytes of the file
+ * (UTF-8 or UTF-16 by BOM or byte pattern; windows-1252 when the head is not valid UTF-8)
+ * and decodes chunk by chunk, carrying split multi-byte characters across chunks.
+ * Reference: WHATWG Encoding Standard (TextDecoder streaming; index-windows-1252).
+ * Cost: O(n) over all chunks.
+ * @throws TypeError when head is not a Uint8Array.
+ * @example const decoder = createChunkDecoder(head); parser.push(decoder.decode(chunk, { stream: true }))
+ */
+export function createChunkDecoder(head: Uint8Array): ChunkDecoder {
+  if (!(head instanceof Uint8Array)) throw new TypeError('createChunkDecoder: head must be a Uint8Array');
+  const utf16 = startsWith(head, UTF8_BOM) ? null : guessUtf16(head);
+  if (utf16 !== null) {
+    const decoder = new TextDecoder(utf16);
+    return { encoding: utf16, decode: (bytes, options) => decoder.decode(bytes ?? new Uint8Array(0), { stream: options?.stream ?? false }) };
+  }
+  let validUtf8 = true;
+  try {
+    // a head cut inside a multi-byte character is still UTF-8: decode it in stream mode
+    new TextDecoder('utf-8', { fatal: true }).decode(head, { stream: true });
+  } catch {
+    validUtf8 = false;
+  }
+  if (validUtf8) {
+    const decoder = new TextDecoder('utf-8');
+    return { encoding: 'utf-8', decode: (bytes, options) => decoder.decode(bytes ?? new Uint8Array(0), { stream: options?.stream ?? false }) };
+  }
+  return { encoding: 'windows-1252', decode: (bytes) => (bytes === undefined ? '' : decodeWindows1252(bytes)) };
 }

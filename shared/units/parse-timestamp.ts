@@ -4,6 +4,12 @@
 const TIMESTAMP_PATTERN =
   /^(\d{4})[-/](\d{1,2})[-/](\d{1,2})(?:[T ](\d{1,2}):(\d{2})(?::(\d{2})(?:[.,](\d{1,9}))?)?)?\s*(Z|[+-]\d{2}(?::?\d{2})?)?$/i;
 
+// Gregorian calendar (ISO 8601 uses the proleptic Gregorian calendar).
+function daysInMonth(year: number, month: number): number {
+  if (month === 2) return (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0 ? 29 : 28;
+  return month === 4 || month === 6 || month === 9 || month === 11 ? 30 : 31;
+}
+
 /**
  * Date-time text → seconds since 1970-01-01T00:00:00Z (Unix epoch).
  * Accepts ISO 8601 calendar dates with an optional time and zone (`2024-05-01T10:00:00Z`,
@@ -28,11 +34,9 @@ export function parseTimestamp(text: string): number | null {
   if (month < 1 || month > 12 || day < 1 || day > 31) return null;
   if (hour > 24 || minute > 59 || second > 60) return null;
   if (hour === 24 && (minute !== 0 || second !== 0)) return null;
-  const epochMs = Date.UTC(year, month - 1, day, hour, minute, second);
   // Date.UTC rolls 2024-02-31 over into March: refuse dates that do not exist.
-  const check = new Date(Date.UTC(year, month - 1, day));
-  if (check.getUTCDate() !== day || check.getUTCMonth() !== month - 1) return null;
-  let seconds = epochMs / 1000;
+  if (day > daysInMonth(year, month)) return null;
+  let seconds = Date.UTC(year, month - 1, day, hour, minute, second) / 1000;
   if (match[7] !== undefined) seconds += Number(`0.${match[7]}`);
   const zone = match[8];
   if (zone !== undefined && zone.toUpperCase() !== 'Z') {

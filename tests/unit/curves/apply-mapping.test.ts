@@ -21,7 +21,7 @@ describe('applyMapping conversions', () => {
     expect(curve.j[1]).toBeCloseTo(0.1, 12); // derived by hand: 2500 mA = 2.5 A; / 25 cm² = 0.1 A/cm²
     expect(curve.v[2]).toBeCloseTo(0.65, 12); // derived by hand: 650 mV
     expect(curve.hfr?.[2]).toBeCloseTo(0.21, 12); // derived by hand: 8.4 mΩ × 25 cm² = 210 mΩ·cm² = 0.21 Ω·cm²
-    expect(curve.areaCm2).toBe(25);
+    expect(curve.areaCm2).toBe(25); // the area given
     expect(Array.from(curve.dataLines)).toEqual([2, 3, 4]); // lines of the three rows
   });
   it('prefers the upload area over the file area, and says so', () => {
@@ -46,12 +46,12 @@ describe('applyMapping conversions', () => {
     const table = parseDelimitedText('Time (h),j (A/cm2),U (V)\n0,0.2,0.65\n1,0.2,0.65\n2,0.2,0.65\n0,0.2,0.64\n1,0.2,0.64\n');
     const curve = applyMapping(table, { current: { column: 1, unit: 'A/cm2' }, voltage: { column: 2, unit: 'V' }, time: { column: 0, unit: 'h' } }, { kind: 'durability' });
     expect(Array.from(curve.tHours ?? [])).toEqual([0, 1, 2, 3, 4]); // derived by hand: restart logged at 0 → one interval (1 h) after 2 h
-    expect(curve.timeResets).toEqual([{ row: 3, line: 5, atHours: 3, fromHours: 2, toHours: 0 }]);
+    expect(curve.timeResets).toEqual([{ row: 3, line: 5, atHours: 3, fromHours: 2, toHours: 0 }]); // derived by hand: 4th row (index 3) on file line 5, from 2 h back to 0 h, placed at 3 h
   });
   it('a hold without current gets j = 0', () => {
     const table = parseDelimitedText('Time (h),U (V)\n0,0.95\n1,0.949\n');
     const curve = applyMapping(table, { voltage: { column: 1, unit: 'V' }, time: { column: 0, unit: 'h' } }, { kind: 'hold' });
-    expect(Array.from(curve.j)).toEqual([0, 0]);
+    expect(Array.from(curve.j)).toEqual([0, 0]); // the brief: an open-circuit hold has j = 0
   });
 });
 

@@ -17,7 +17,7 @@ describe('detectMapping from header units', () => {
   });
   it('notes that a total current needs an area when the file gives none', () => {
     const result = detect('I [A],U [V]\n0,0.95\n5,0.65\n');
-    expect(result.mapping?.current).toEqual({ column: 0, unit: 'A' });
+    expect(result.mapping?.current).toEqual({ column: 0, unit: 'A' }); // column 0 of the text above
     expect(result.reasons.join(' ')).toMatch(/active area/);
   });
 });
@@ -38,7 +38,7 @@ describe('detectMapping from magnitudes', () => {
   });
   it('guesses unnamed columns, voltage being the one that stays away from zero', () => {
     const result = detect('col1,col2\n0,0.95\n0.2,0.65\n0.6,0.5\n');
-    expect(result.mapping).toEqual({ current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' } });
+    expect(result.mapping).toEqual({ current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' } }); // column order of the text above
     expect(result.ambiguous).toBe(true);
   });
   it('reads a unit-less HFR by its median and asks to confirm', () => {
@@ -51,14 +51,14 @@ describe('detectMapping from magnitudes', () => {
 describe('detectMapping: ambiguities and kinds', () => {
   it('two voltage columns → measured one, ambiguous', () => {
     const result = detect('j (A/cm2),E_cell (V),E_iR-free (V)\n0,0.95,0.95\n0.2,0.65,0.7\n');
-    expect(result.mapping?.voltage.column).toBe(1);
+    expect(result.mapping?.voltage.column).toBe(1); // "E_cell (V)" is column 1
     expect(result.ambiguous).toBe(true);
     expect(result.reasons[0]).toMatch(/"E_cell \(V\)" and "E_iR-free \(V\)"/);
   });
   it('a time column with constant current → durability', () => {
     const result = detect('Time (h),Current density (A/cm2),Voltage (V)\n0,0.2,0.65\n1,0.2,0.6499\n2,0.2,0.6498\n');
     expect(result.kind).toBe('durability');
-    expect(result.mapping?.time).toEqual({ column: 0, unit: 'h' });
+    expect(result.mapping?.time).toEqual({ column: 0, unit: 'h' }); // column 0, "Time (h)"
   });
   it('a time column, voltage only → durability; with kind given → that kind', () => {
     expect(detect('Time (h),Voltage (V)\n0,0.65\n1,0.649\n').kind).toBe('durability');
@@ -74,7 +74,7 @@ describe('detectMapping: ambiguities and kinds', () => {
   });
   it('timestamps are time columns whatever their name', () => {
     const result = detect('When,j (A/cm2),U (V)\n2024-05-01 10:00:00,0.2,0.65\n2024-05-01 11:00:00,0.2,0.649\n');
-    expect(result.mapping?.time).toEqual({ column: 0, unit: 'timestamp' });
+    expect(result.mapping?.time).toEqual({ column: 0, unit: 'timestamp' }); // column 0 holds date-times
   });
   it('no voltage at all → mapping null', () => {
     const result = detect('Step,Label\n1,a\n2,b\n');

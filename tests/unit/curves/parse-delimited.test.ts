@@ -129,7 +129,7 @@ describe('parseDelimitedText: columns that are not plain numbers', () => {
     const table = parseDelimitedText(text);
     expect(table.columnKinds).toEqual(['timestamp', 'text', 'number', 'number']);
     expect(table.columns[1]).toBeNull();
-    expect(table.ignoredColumns).toEqual([1]);
+    expect(table.ignoredColumns).toEqual([1]); // column 1 "Step" holds labels
     const stamps = column(table, 0);
     expect(stamps[0]).toBe(Date.UTC(2024, 4, 1, 10, 0, 0) / 1000); // ECMA-262 Date.UTC, read as UTC
     expect(stamps[2] - stamps[0]).toBe(60); // derived by hand: one minute
@@ -154,7 +154,7 @@ describe('parseDelimitedText: columns that are not plain numbers', () => {
     const rows = Array.from({ length: 15 }, (_, index) => `${index / 10},${(0.9 - index / 100).toFixed(2)}`);
     const table = parseDelimitedText(['j,V', ...rows].join('\n'));
     expect(table.preview.length).toBe(10); // brief: first 10 data rows
-    expect(table.preview[0]).toEqual(['0', '0.90']);
+    expect(table.preview[0]).toEqual(['0', '0.90']); // first data row: 0/10 and 0.9 − 0 written with 2 decimals
   });
 });
 

@@ -68,7 +68,7 @@ describe('mulberry32', () => {
     expect(a).toEqual(b);
     expect(Array.from({ length: 5 }, () => other())).not.toEqual(a.slice(0, 5));
     expect(Math.min(...a)).toBeGreaterThanOrEqual(0);
-    expect(Math.max(...a)).toBeLessThan(1);
+    expect(Math.max(...a)).toBeLessThan(1); // mulberry32 divides a 32-bit integer by 2^32
     const mean = a.reduce((sum, value) => sum + value, 0) / a.length;
     expect(Math.abs(mean - 0.5)).toBeLessThan(0.05); // uniform mean 1/2, SD of the mean √(1/12/1000) ≈ 0.009
   });

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { sniffBytes, decodeText } from '../../../shared/curves/index';
+import { sniffBytes, decodeText, createChunkDecoder } from '../../../shared/curves/index';
 
 const encode = (text: string): Uint8Array => new TextEncoder().encode(text);
 
@@ -45,5 +45,27 @@ describe('decodeText', () => {
   it('returns an empty string for no bytes and checks its argument', () => {
     expect(decodeText(new Uint8Array(0))).toBe('');
     expect(() => decodeText([1, 2] as never)).toThrow(TypeError);
+  });
+});
+
+describe('createChunkDecoder', () => {
+  const decodeInChunks = (bytes: Uint8Array, size: number): { encoding: string; text: string } => {
+    const decoder = createChunkDecoder(bytes.subarray(0, 8));
+    let text = '';
+    for (let offset = 0; offset < bytes.length; offset += size) text += decoder.decode(bytes.subarray(offset, offset + size), { stream: true });
+    return { encoding: decoder.encoding, text: text + decoder.decode() };
+  };
+  it('carries UTF-8 characters split across chunks and drops the BOM', () => {
+    const bytes = new TextEncoder().encode('\uFEFFT (°C);j (mA/cm²)\n');
+    expect(decodeInChunks(bytes, 1)).toEqual({ encoding: 'utf-8', text: 'T (°C);j (mA/cm²)\n' });
+  });
+  it('reads windows-1252 chunk by chunk', () => {
+    expect(decodeInChunks(Uint8Array.of(0x54, 0xb0, 0x43, 0x80, 0x0a), 2)).toEqual({ encoding: 'windows-1252', text: 'T°C€\n' }); // WHATWG index-windows-1252
+  });
+  it('reads UTF-16LE with a BOM chunk by chunk', () => {
+    expect(decodeInChunks(Uint8Array.of(0xff, 0xfe, 0x6a, 0x00, 0x2c, 0x00, 0x56, 0x00), 3)).toEqual({ encoding: 'utf-16le', text: 'j,V' });
+  });
+  it('checks its argument', () => {
+    expect(() => createChunkDecoder('x' as never)).toThrow(TypeError);
   });
 });

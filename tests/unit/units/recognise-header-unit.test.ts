@@ -62,7 +62,7 @@ describe('recogniseHeaderUnit', () => {
     expect(recogniseHeaderUnit('Voltage (A)').quantity).toBe('current');
   });
   it('normalises unit spellings to one key', () => {
-    expect(normaliseUnitKey('mΩ·cm²')).toBe('mohmcm2');
+    expect(normaliseUnitKey('mΩ·cm²')).toBe('mohmcm2'); // normalisation rules of normaliseUnitKey
     expect(normaliseUnitKey('mOhm cm^2')).toBe('mohmcm2');
     expect(normaliseUnitKey('A cm-2')).toBe('acm2');
     expect(lookUpUnit('µA')).toBeNull();

@@ -1,0 +1,147 @@
+// Whatever the input, the import chain either returns or throws CurveFileError — never another
+// error type, never a hang. Property tests with fast-check (numRuns kept modest for speed).
+import { describe, it, expect } from 'vitest';
+import fc from 'fast-check';
+import {
+  sniffBytes,
+  decodeText,
+  createDelimitedParser,
+  parseDelimitedText,
+  detectMapping,
+  applyMapping,
+  polarizationMetrics,
+  CurveFileError,
+} from '../../../shared/curves/index';
+import type { ReferencePoint } from '../../../shared/curves/index';
+
+const REF: ReferencePoint = { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' };
+
+// Runs the whole chain; returns 'ok' or the CurveFileError code; rethrows anything else.
+function runChain(text: string, areaCm2?: number): string {
+  try {
+    const table = parseDelimitedText(text);
+    const detection = detectMapping(table);
+    if (detection.mapping === null) return 'no-mapping';
+    const curve = applyMapping(table, detection.mapping, { kind: detection.kind, areaCm2 });
+    if (detection.kind === 'polarization') polarizationMetrics(curve, REF, { loadingMgCm2: 1 });
+    return 'ok';
+  } catch (error) {
+    if (error instanceof CurveFileError) return error.code;
+    throw error;
+  }
+}
+
+const HEADER_WORDS = ['Current density (A/cm2)', 'j (mA/cm²)', 'I [A]', 'U (V)', 'U_cell / mV', 'HFR (mOhm cm2)', 'R_HF [mΩ]', 'Time (h)', 'Timestamp', 'T_cell (°C)', 'Step', 'E_iR-free', 'x'];
+const cell = fc.oneof(
+  fc.double({ min: -5, max: 5, noNaN: true }).map((value) => value.toFixed(4)),
+  fc.integer({ min: -2000, max: 3000 }).map(String),
+  fc.double({ min: 0, max: 2, noNaN: true }).map((value) => value.toFixed(3).replace('.', ',')),
+  fc.constantFrom('', ' ', 'NaN', 'abc', '"0.5"', '2024-05-01 10:00:00', '1:30:00', '0x1f', '-', '1e3', '#'),
+  fc.string({ maxLength: 6 }),
+);
+const csvLike = fc
+  .record({
+    delimiter: fc.constantFrom(',', ';', '\t', ' ', '   ', '|'),
+    lineEnd: fc.constantFrom('\n', '\r\n', '\r'),
+    bom: fc.boolean(),
+    metadata: fc.array(fc.constantFrom('Active area: 25 cm2', '# Cell temperature = 180 °C', 'Anode: H2', 'Area,abc', 'Back pressure 1 bar', ''), { maxLength: 3 }),
+    header: fc.option(fc.array(fc.oneof(fc.constantFrom(...HEADER_WORDS), fc.string({ maxLength: 8 })), { minLength: 1, maxLength: 5 }), { nil: undefined }),
+    rows: fc.array(fc.array(cell, { minLength: 0, maxLength: 5 }), { maxLength: 12 }),
+  })
+  .map(({ delimiter, lineEnd, bom, metadata, header, rows }) => {
+    const lines = [...metadata, ...(header ? [header.join(delimiter)] : []), ...rows.map((row) => row.join(delimiter))];
+    return (bom ? '\uFEFF' : '') + lines.join(lineEnd);
+  });
+
+// Well-formed tables (one header, rows of the header's width, plausible magnitudes, a wild
+// cell now and then) so the property also reaches mapping, conversion and metrics.
+const plausible = fc.oneof(
+  { weight: 6, arbitrary: fc.double({ min: 0, max: 1.2, noNaN: true }).map((value) => value.toFixed(4)) },
+  { weight: 2, arbitrary: fc.integer({ min: 0, max: 1500 }).map(String) },
+  { weight: 1, arbitrary: cell },
+);
+const tableLike = fc
+  .record({
+    delimiter: fc.constantFrom(',', ';', '\t', '  '),
+    header: fc.shuffledSubarray(HEADER_WORDS, { minLength: 2, maxLength: 5 }),
+    rowCount: fc.integer({ min: 1, max: 15 }),
+    seedCells: fc.array(plausible, { minLength: 75, maxLength: 75 }),
+  })
+  .map(({ delimiter, header, rowCount, seedCells }) => {
+    const lines = [header.join(delimiter)];
+    for (let row = 0; row < rowCount; row++) {
+      const cells: string[] = [];
+      for (let column = 0; column < header.length; column++) cells.push(seedCells[(row * header.length + column) % seedCells.length]);
+      lines.push(cells.join(delimiter));
+    }
+    return lines.join('\n');
+  });
+
+describe('import chain properties', () => {
+  it('well-formed tables reach the end of the chain in a fair share of cases', () => {
+    let reachedEnd = 0;
+    fc.assert(
+      fc.property(tableLike, fc.option(fc.constantFrom(25), { nil: undefined }), (text, area) => {
+        if (runChain(text, area) === 'ok') reachedEnd++;
+      }),
+      { numRuns: 200 },
+    );
+    expect(reachedEnd).toBeGreaterThan(10); // guard that the generator is not all errors
+  });
+  it('arbitrary bytes: sniff + decode + parse + detect + apply + metrics return or throw CurveFileError', () => {
+    fc.assert(
+      fc.property(fc.uint8Array({ maxLength: 300 }), (bytes) => {
+        expect(['xlsx', 'xls', 'text', 'binary', 'empty']).toContain(sniffBytes(bytes));
+        const text = decodeText(bytes);
+        expect(typeof text).toBe('string');
+        runChain(text);
+      }),
+      { numRuns: 200 },
+    );
+  });
+  it('arbitrary printable text: the same', () => {
+    fc.assert(
+      fc.property(fc.string({ maxLength: 300 }), (text) => {
+        runChain(text);
+        runChain(text, 25);
+      }),
+      { numRuns: 200 },
+    );
+  });
+  it('CSV-like grids with random delimiters, empties, words and numbers: the same', () => {
+    fc.assert(
+      fc.property(csvLike, fc.option(fc.constantFrom(25, 0.5), { nil: undefined }), (text, area) => {
+        runChain(text, area);
+      }),
+      { numRuns: 200 },
+    );
+  });
+  it('chunk boundaries never change the result', () => {
+    fc.assert(
+      fc.property(csvLike, fc.array(fc.integer({ min: 1, max: 40 }), { minLength: 1, maxLength: 20 }), (text, sizes) => {
+        const outcome = (parse: () => unknown): string => {
+          try {
+            return JSON.stringify(parse(), (_key, value) => (ArrayBuffer.isView(value) ? Array.from(value as Float64Array) : value));
+          } catch (error) {
+            if (error instanceof CurveFileError) return `${error.code}:${error.message}`;
+            throw error;
+          }
+        };
+        const whole = outcome(() => parseDelimitedText(text));
+        const chunked = outcome(() => {
+          const parser = createDelimitedParser();
+          let offset = 0;
+          let turn = 0;
+          while (offset < text.length) {
+            const size = sizes[turn++ % sizes.length];
+            parser.push(text.slice(offset, offset + size));
+            offset += size;
+          }
+          return parser.finish();
+        });
+        expect(chunked).toBe(whole);
+      }),
+      { numRuns: 200 },
+    );
+  });
+});
