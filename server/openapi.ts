@@ -1,6 +1,8 @@
 // The OpenAPI document of the JSON API, generated from the same zod schemas the routes validate with.
-import { OpenAPIRegistry, OpenApiGeneratorV3 } from '@asteasolutions/zod-to-openapi';
+import { OpenAPIRegistry, OpenApiGeneratorV3, extendZodWithOpenApi } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
+
+extendZodWithOpenApi(z);
 import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../shared/schemas/project';
 import { buildCreateSchema, buildUpdateSchema } from '../shared/schemas/build';
 import { apiTokenCreateSchema, inviteAcceptSchema, inviteCreateSchema, labCreateSchema, loginSchema, membershipSetSchema, personUpdateSchema } from '../shared/schemas/auth';
