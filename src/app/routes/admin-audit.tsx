@@ -6,10 +6,16 @@ import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
 import { Select } from '@/components/ui/field';
 import { formatDateTime } from '@/lib/format';
 
+const SKIP = new Set(['updatedAt', 'createdAt', 'id', 'projectId']);
+
 function changed(before: unknown, after: unknown): string {
+  if (!before && after && typeof after === 'object') {
+    return Object.entries(after as Record<string, unknown>).filter(([k, v]) => !SKIP.has(k) && v != null && v !== '').slice(0, 5).map(([k, v]) => `${k}: ${typeof v === 'object' ? JSON.stringify(v).slice(0, 60) : String(v)}`).join('; ');
+  }
+  if (before && !after && typeof before === 'object') return `removed ${Object.entries(before as Record<string, unknown>).filter(([k]) => !SKIP.has(k)).slice(0, 3).map(([k, v]) => `${k}: ${String(v)}`).join('; ')}`;
   if (!before || !after || typeof before !== 'object' || typeof after !== 'object') return '';
   const b = before as Record<string, unknown>, a = after as Record<string, unknown>;
-  return Object.keys(a).filter((k) => k !== 'updatedAt' && JSON.stringify(a[k]) !== JSON.stringify(b[k])).map((k) => `${k}: ${JSON.stringify(b[k])} → ${JSON.stringify(a[k])}`).join('; ');
+  return Object.keys(a).filter((k) => !SKIP.has(k) && JSON.stringify(a[k]) !== JSON.stringify(b[k])).map((k) => `${k}: ${JSON.stringify(b[k])} → ${JSON.stringify(a[k])}`).join('; ');
 }
 
 export default function AdminAudit() {

@@ -24,7 +24,7 @@ export function conditionsLine(c: TestConditions | null | undefined, settings: P
 
 export function PolarizationPlot({ series, settings, conditions, title, fileName }: { series: PlotSeries[]; settings: ProjectSettings; conditions?: TestConditions | null; title: string; fileName: string }) {
   const [irFree, setIrFree] = useState(false);
-  const [showPower, setShowPower] = useState(true);
+  const [showPower, setShowPower] = useState(series.length <= 2);
   const box = useRef<HTMLDivElement>(null);
   const hasHfr = series.some((s) => s.points.hfr && s.points.hfr.length);
   const traces: Plotly.Data[] = [];
@@ -32,7 +32,7 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
     const color = s.color ?? OKABE_ITO[i % OKABE_ITO.length];
     const j = (s.points.j ?? []).map((x) => x * 1000);
     const v = s.points.v;
-    traces.push({ x: j, y: v, type: 'scatter', mode: 'lines+markers', name: `${s.name} V`, line: { color, width: 2 }, marker: { size: 4, color }, hovertemplate: 'j %{x:.1f} mA/cm²<br>V %{y:.3f} V<extra>%{fullData.name}</extra>' });
+    traces.push({ x: j, y: v, type: 'scatter', mode: 'lines+markers', name: showPower || irFree ? `${s.name} V` : s.name, line: { color, width: 2 }, marker: { size: 4, color }, hovertemplate: 'j %{x:.1f} mA/cm²<br>V %{y:.3f} V<extra>%{fullData.name}</extra>' });
     if (irFree && s.points.hfr) {
       const vIr = v.map((vv, k) => vv + (s.points.j![k]! * s.points.hfr![k]!));
       traces.push({ x: j, y: vIr, type: 'scatter', mode: 'lines', name: `${s.name} iR-free V`, line: { color, width: 1.5, dash: 'dash' }, hovertemplate: 'j %{x:.1f} mA/cm²<br>iR-free V %{y:.3f} V<extra>%{fullData.name}</extra>' });
@@ -59,7 +59,9 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
       <LazyPlot
         fileName={fileName}
         data={traces}
+        style={{ height: 400 + 20 * Math.ceil(traces.length / 2) }}
         layout={{
+          legend: { orientation: 'h', y: -0.18, yanchor: 'top', x: 0, font: { size: 11 } },
           title: { text: `${title}<br><span style="font-size:11px;color:#56668c">${conditionsLine(conditions, settings)}</span>` },
           xaxis: { title: { text: 'Current density j (mA/cm²)' }, zeroline: false, gridcolor: '#eeeae2' },
           yaxis: { title: { text: 'Cell voltage V (V)' }, gridcolor: '#eeeae2', rangemode: 'tozero' },

@@ -18,7 +18,7 @@ export function ProjectForm({ initial, onSubmit, pending, error, submitLabel, di
       <fieldset disabled={disabled} className="space-y-4">
         <div className="grid gap-4 md:grid-cols-[1fr_8rem]">
           <Field label="Project name" error={e.name?.message}>{(p) => <Input {...p} {...register('name')} placeholder="e.g. PGM-free cathode for 180 °C stacks" />}</Field>
-          <Field label="Build code prefix" hint="Codes like B-001" error={e.codePrefix?.message}>{(p) => <Input {...p} {...register('codePrefix')} />}</Field>
+          <Field label="Build code prefix" hint="Build codes like C-001" error={e.codePrefix?.message}>{(p) => <Input {...p} {...register('codePrefix')} />}</Field>
         </div>
         <Field label="Description" error={e.description?.message}>{(p) => <Textarea {...p} rows={2} {...register('description')} />}</Field>
         <fieldset className="rounded-md border border-line p-3">
