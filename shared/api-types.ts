@@ -48,6 +48,7 @@ export interface Build {
   responses: Record<string, number>;
   values: Record<string, number | null>;
   curveCount: number;
+  notes: string;
   createdAt: string;
   updatedAt: string | null;
 }

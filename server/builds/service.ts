@@ -10,6 +10,7 @@ import { AppError, conflict, notFound } from '../lib/errors';
 import { requireBuildWrite, requireProject, requireUser, type ProjectAccess } from '../auth/access';
 import type { AuthUser } from '../context';
 import { listFactors, listResponses } from '../projects/service';
+import { notifyBuildTested } from '../review/notify';
 
 type BuildRow = typeof builds.$inferSelect;
 const parent = alias(builds, 'parent');
@@ -39,6 +40,7 @@ export interface BuildListItem {
   /** curve metrics (current metrics version) merged with hand-entered responses */
   values: Record<string, number | null>;
   curveCount: number;
+  notes: string;
   createdAt: string;
   updatedAt: string | null;
 }
@@ -114,6 +116,7 @@ function toItem(row: { b: BuildRow; parentCode: string | null; labName: string |
     responses: b.responseValues,
     values: { ...(metrics?.values ?? {}), ...b.responseValues },
     curveCount: metrics?.count ?? 0,
+    notes: b.notes,
     createdAt: b.createdAt,
     updatedAt: b.updatedAt,
   };
@@ -302,6 +305,7 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   if (body.notes !== undefined) set.notes = body.notes;
   const after = db.update(builds).set(set).where(eq(builds.id, before.id)).returning().get();
   audit(db, { userId: access.user.id, action: 'update', entity: 'build', entityId: before.id, projectId: before.projectId, before, after });
+  if (after.status === 'tested' && before.status !== 'tested') void notifyBuildTested(ctx, access.user, before, after);
   return getBuildItem(ctx, before.id);
 }
 

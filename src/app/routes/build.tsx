@@ -187,6 +187,9 @@ export default function BuildPage() {
           </dl>
         </Panel>
       )}
+      {b.notes && (
+        <Panel title="Notes" className="mt-4"><p className="whitespace-pre-wrap text-sm text-ink-800">{b.notes}</p></Panel>
+      )}
       <Panel
         title="Curves and metrics"
         className="mt-4"

@@ -54,6 +54,7 @@ export function AppShell() {
                 <div className="mb-1 mt-0.5 flex flex-col gap-0.5">
                   <RailLink to={`/projects/${p.id}/upload`} indent>Upload</RailLink>
                   <RailLink to={`/projects/${p.id}/compare`} indent>Compare curves</RailLink>
+                  <RailLink to={`/projects/${p.id}/lineage`} indent>Lineage</RailLink>
                   <RailLink to={`/projects/${p.id}/gains`} indent>Gains</RailLink>
                   <RailLink to={`/projects/${p.id}/surface`} indent>Surface</RailLink>
                   <RailLink to={`/projects/${p.id}/plan`} indent>Plan</RailLink>
@@ -77,6 +78,7 @@ export function AppShell() {
           <div className="mt-3 border-t border-ink-700 pt-3 text-sm">
             <div className="truncate px-1.5 font-medium text-white">{me.user.name}</div>
             <div className="truncate px-1.5 text-xs text-ink-300">{me.user.email}</div>
+            <NavLink to="/account" className="mt-2 block rounded-md px-2.5 py-1.5 text-sm text-ink-300 hover:bg-ink-800 hover:text-white">Sessions and API tokens</NavLink>
             <button
               type="button"
               className="mt-2 w-full rounded-md px-2.5 py-1.5 text-left text-sm text-ink-300 hover:bg-ink-800 hover:text-white"

@@ -51,7 +51,7 @@ export function buildToForm(b: Build): FormValues {
     replicateOf: b.replicateOf,
     testConditions: b.testConditions,
     responses: b.responses,
-    notes: '',
+    notes: b.notes,
   };
 }
 

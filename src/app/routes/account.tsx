@@ -1,0 +1,62 @@
+// My account: where I am signed in (revoke any session) and personal API tokens for scripts.
+import { useState } from 'react';
+import { useCreateToken, useRevokeSession, useRevokeToken, useSessions, useTokens } from '@/features/auth/api/account';
+import { PageHeader, Panel, Loading, ErrorNote } from '@/components/ui/panel';
+import { Button } from '@/components/ui/button';
+import { Field, Input } from '@/components/ui/field';
+import { formatDateTime } from '@/lib/format';
+
+export default function Account() {
+  const sessions = useSessions();
+  const tokens = useTokens();
+  const revokeSession = useRevokeSession();
+  const createToken = useCreateToken();
+  const revokeToken = useRevokeToken();
+  const [name, setName] = useState('');
+  const [fresh, setFresh] = useState<string | null>(null);
+  if (sessions.isLoading || tokens.isLoading) return <Loading />;
+  return (
+    <div className="max-w-4xl space-y-5">
+      <PageHeader eyebrow="Account" title="Sessions and API tokens" subtitle="Scripts at partner labs use a personal token: send it as “Authorization: Bearer <token>”. The API is described at /api/openapi.json." />
+      <Panel title="Where I am signed in">
+        <table className="w-full text-sm" aria-label="Sessions">
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Started</th><th>Browser</th><th>Expires</th><th /></tr></thead>
+          <tbody className="divide-y divide-line">
+            {sessions.data!.filter((s) => !s.revokedAt).map((s) => (
+              <tr key={s.id}>
+                <td className="num py-1.5">{formatDateTime(s.createdAt)}</td>
+                <td className="max-w-xs truncate text-ink-700" title={s.userAgent ?? ''}>{s.current ? <b>this browser</b> : (s.userAgent ?? '—')}</td>
+                <td className="num text-ink-500">{formatDateTime(s.expiresAt)}</td>
+                <td className="text-right">{!s.current && <Button variant="ghost" onClick={() => revokeSession.mutate(s.id)}>Sign out there</Button>}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </Panel>
+      <Panel title="Personal API tokens">
+        <table className="mb-4 w-full text-sm" aria-label="API tokens">
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Name</th><th>Created</th><th>Last used</th><th /></tr></thead>
+          <tbody className="divide-y divide-line">
+            {tokens.data!.map((t) => (
+              <tr key={t.id} className={t.revokedAt ? 'text-ink-300' : ''}>
+                <td className="py-1.5">{t.name}</td><td className="num">{formatDateTime(t.createdAt)}</td><td className="num">{formatDateTime(t.lastUsedAt)}</td>
+                <td className="text-right">{t.revokedAt ? 'revoked' : <Button variant="danger" onClick={() => { if (window.confirm(`Revoke “${t.name}”? Scripts using it stop working.`)) revokeToken.mutate(t.id); }}>Revoke</Button>}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <form className="flex items-end gap-2" onSubmit={(e) => { e.preventDefault(); createToken.mutate(name, { onSuccess: (r) => { setFresh(r.token); setName(''); } }); }}>
+          <div className="w-72"><Field label="New token name">{(p) => <Input {...p} required value={name} onChange={(e) => setName(e.target.value)} placeholder="station upload script" />}</Field></div>
+          <Button type="submit" variant="primary" disabled={createToken.isPending}>Create token</Button>
+        </form>
+        {fresh && (
+          <div className="mt-3 rounded-md border border-moss-700/30 bg-moss-100 p-3 text-sm">
+            <p className="font-medium text-moss-700">Copy it now — it is shown once:</p>
+            <code className="num mt-1 block break-all text-ink-950">{fresh}</code>
+          </div>
+        )}
+        <ErrorNote error={createToken.error ?? revokeToken.error ?? revokeSession.error} />
+      </Panel>
+    </div>
+  );
+}
