@@ -1,0 +1,37 @@
+// How a response is shown: curve metrics in their display units (mV, mA/cm², …), hand-entered
+// responses in their own unit. The API works in internal units (V, A/cm²); we scale at the edge.
+import { METRICS, formatNumber } from '@/lib/format';
+import type { ResponseInfo } from '../api/surface';
+
+export interface Display {
+  label: string;
+  unit: string;
+  scale: number;
+  digits: number;
+}
+
+export function displayOf(response: Pick<ResponseInfo, 'key' | 'label' | 'unit'>): Display {
+  const metric = METRICS[response.key];
+  if (metric) return { label: metric.label, unit: metric.unit, scale: metric.scale, digits: metric.digits };
+  return { label: response.label, unit: response.unit, scale: 1, digits: 3 };
+}
+
+/** A value in display units with its unit. */
+export function show(value: number | null | undefined, d: Display, extraDigits = 0): string {
+  if (value == null || !Number.isFinite(value)) return '—';
+  return `${formatNumber(value * d.scale, d.digits + extraDigits)}${d.unit ? ` ${d.unit}` : ''}`;
+}
+
+/** A number with a sensible count of significant digits (coefficients, SS). */
+export function sig(value: number | null | undefined, digits = 4): string {
+  if (value == null || !Number.isFinite(value)) return '—';
+  if (value === 0) return '0';
+  const abs = Math.abs(value);
+  if (abs >= 1e5 || abs < 1e-4) return value.toExponential(digits - 1);
+  return String(Number(value.toPrecision(digits)));
+}
+
+export function pValue(p: number | null | undefined): string {
+  if (p == null || !Number.isFinite(p)) return '—';
+  return p < 0.0001 ? '< 0.0001' : p.toFixed(4);
+}
