@@ -5,6 +5,7 @@ import type { AppContext } from '../context';
 import { builds, curves, files, projects, users } from '../db/schema';
 import { requireUser } from '../auth/access';
 import { listProjects } from '../projects/service';
+import { awaitingReview, needsWork } from '../review/service';
 
 export function homeRouter(ctx: AppContext): Router {
   const router = Router();
@@ -42,7 +43,7 @@ export function homeRouter(ctx: AppContext): Router {
       }
       best[p.id] = top;
     }
-    res.json({ projects: myProjects.map((p) => ({ ...p, best: best[p.id] })), recentUploads });
+    res.json({ projects: myProjects.map((p) => ({ ...p, best: best[p.id] })), recentUploads, awaitingReview: awaitingReview(ctx, user), needsWork: needsWork(ctx, user, ids) });
   });
 
   return router;

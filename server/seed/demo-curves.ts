@@ -9,7 +9,7 @@ import os from 'node:os';
 import type { AppContext, AuthUser } from '../context';
 import type { DemoBuild } from './demo-data';
 import type { ProjectSettings } from '../../shared/schemas/project';
-import { generatePolarizationCurve, tafelSlopeTheory, writeCurveCsv, type SemiEmpiricalParams, type CurveCsvShape } from '../../shared/curves';
+import { generatePolarizationCurve, mulberry32, tafelSlopeTheory, writeCurveCsv, type SemiEmpiricalParams, type CurveCsvShape } from '../../shared/curves';
 import { generateSyntheticLog, writeDurabilityCsv } from '../../shared/durability';
 import { builds, users } from '../db/schema';
 import { eq } from 'drizzle-orm';
@@ -84,7 +84,12 @@ export async function addDemoCurves(ctx: AppContext, job: DemoCurveJob): Promise
   const row = ctx.db.select().from(users).where(eq(users.id, job.uploadedBy)).get()!;
   const user: AuthUser = { id: row.id, email: row.email, name: row.name, isAdmin: row.isAdmin, labId: row.labId, labKind: null };
   const b = job.build;
-  const params = demoParams(b);
+  // Build-to-build scatter (ink batch, pressing, assembly): a seeded offset of about 5 mV SD,
+  // so replicates differ as they do in a lab and small steps can fall within noise.
+  const scatter = mulberry32(hashSeed(`${b.code}-scatter`));
+  const offset = 0.005 * Math.sqrt(-2 * Math.log(1 - scatter())) * Math.cos(2 * Math.PI * scatter());
+  const base = demoParams(b);
+  const params = { ...base, e0: base.e0 + offset };
   const jMax = params.limitingCurrentDensity * 0.92;
   const curve = generatePolarizationCurve(params, {
     jPoints: J_STEPS.filter((j) => j < jMax),

@@ -52,6 +52,8 @@ const norm = (value: unknown): number | string | null => (blank(value) ? null : 
  * project's factors (in definition order, then any unknown keys alphabetically), catalyst
  * loading, metal loading, catalyst lot, lab, then test conditions.
  * Numbers equal to within a relative 1e-9 count as unchanged; empty and missing count as equal.
+ * A test-condition change with the same old and new values as a factor change already listed
+ * (cell temperature kept both as a factor and as a test condition) is not repeated.
  * Reference: none needed (bookkeeping); wording follows the change-note habit "binder 20 → 30 wt %".
  * Cost: O(number of factors + conditions).
  * @throws TypeError when a snapshot has no factors record.
@@ -93,6 +95,8 @@ export function diffRecipe(parent: RecipeSnapshot, child: RecipeSnapshot, factor
     const from = before[key];
     const to = after[key];
     if (same(from, to)) continue;
+    // a test condition that is also a factor (cell temperature) is said once, as the factor
+    if (changes.some((c) => !c.key.startsWith('conditions.') && same(c.from, norm(from)) && same(c.to, norm(to)))) continue;
     const info = CONDITION_LABELS[key] ?? { label: key, unit: '' };
     changes.push({ key: `conditions.${key}`, label: info.label, unit: info.unit, from: norm(from), to: norm(to) });
   }

@@ -1,13 +1,113 @@
-// Placeholder page until this feature lands.
-import { useParams } from 'react-router-dom';
-import { PageHeader, EmptyState } from '@/components/ui/panel';
+// Gains: the step-by-step waterfall of a response along a chain of builds (by default the
+// lineage's best path), with 95 % intervals and "within noise" flags; chart and table export.
+// The URL keeps the response and the chain (?response=vAtRef&builds=1,4,6) so it can be shared.
+import { Link, useParams, useSearchParams } from 'react-router-dom';
+import { useProject } from '@/features/projects/api/projects';
+import { useBuilds } from '@/features/builds/api/builds';
+import { useGains } from '@/features/gains/api/get-gains';
+import { useLineage } from '@/features/lineage/api/get-lineage';
+import { WaterfallChart } from '@/features/gains/components/waterfall-chart';
+import { GainsTable } from '@/features/gains/components/gains-table';
+import { ChainEditor } from '@/features/gains/components/chain-editor';
+import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
+import { Field, Select } from '@/components/ui/field';
+import { formatNumber } from '@/lib/format';
+import type { Build, ProjectSettings } from '@shared/api-types';
 
-export default function Page() {
-  useParams();
+function conditionsText(responseKey: string, settings: ProjectSettings, chainBuilds: Build[]): string {
+  const parts: string[] = [];
+  if (responseKey.startsWith('vAtRef')) parts.push(`at j_ref = ${formatNumber(settings.refCurrentDensity, 2)} A/cm²${responseKey === 'vAtRefIrFree' ? ', iR-free' : ''}`);
+  if (responseKey.startsWith('jAtRef') || responseKey === 'massActivity') parts.push(`at V_ref = ${formatNumber(settings.refVoltage, 2)} V${settings.irFree || responseKey.endsWith('IrFree') ? ', iR-free' : ''}`);
+  if (responseKey === 'massActivity') parts.push(`per g of ${settings.loadingBasis === 'metal' ? 'metal' : 'catalyst'}`);
+  const temps = chainBuilds.map((b) => b.testConditions?.temperatureC).filter((t): t is number => typeof t === 'number');
+  if (temps.length) {
+    const lo = Math.min(...temps), hi = Math.max(...temps);
+    parts.push(lo === hi ? `${lo} °C` : `${lo}–${hi} °C`);
+  }
+  const gases = [...new Set(chainBuilds.map((b) => (b.testConditions?.anodeGas || b.testConditions?.cathodeGas ? `${b.testConditions.anodeGas ?? '?'}/${b.testConditions.cathodeGas ?? '?'}` : null)).filter(Boolean))];
+  if (gases.length) parts.push(gases.join(', '));
+  parts.push('95 % intervals');
+  return parts.join(' · ');
+}
+
+export default function GainsPage() {
+  const projectId = Number(useParams().projectId);
+  const [params, setParams] = useSearchParams();
+  const response = params.get('response') ?? 'vAtRef';
+  const chainParam = params.get('builds');
+  const chain = chainParam ? chainParam.split(',').map(Number).filter((n) => Number.isInteger(n) && n > 0) : null;
+  const project = useProject(projectId);
+  const builds = useBuilds(projectId);
+  const lineage = useLineage(projectId, response);
+  const gains = useGains(projectId, response, chain);
+
+  const setQuery = (next: { response?: string; builds?: number[] | null }) => {
+    const p = new URLSearchParams(params);
+    if (next.response !== undefined) p.set('response', next.response);
+    if (next.builds !== undefined) {
+      if (next.builds === null || next.builds.length === 0) p.delete('builds');
+      else p.set('builds', next.builds.join(','));
+    }
+    setParams(p, { replace: false });
+  };
+
+  if (project.isLoading || builds.isLoading) return <Loading />;
+  if (project.error || !project.data) return <ErrorNote error={project.error} />;
+  const responses = lineage.data?.responses ?? [];
+  const data = gains.data;
+  const shownChain = data ? data.steps.map((s) => s.buildId) : chain ?? [];
+  const byId = new Map((builds.data ?? []).map((b) => [b.id, b]));
+  const fileName = `gains-${project.data.codePrefix}-${response}-${shownChain.map((id) => byId.get(id)?.code ?? id).join('_')}`.slice(0, 120);
+
   return (
-    <div>
-      <PageHeader title="Gains" />
-      <EmptyState title="Coming with the next release">This page is being built.</EmptyState>
+    <div className="max-w-7xl">
+      <PageHeader
+        eyebrow={<Link to={`/projects/${projectId}`} className="hover:underline">{project.data.name}</Link>}
+        title="Gains"
+        subtitle="How much each change added, step by step from the baseline — and which steps are bigger than build-to-build noise."
+        actions={<Link to={`/projects/${projectId}/lineage?response=${encodeURIComponent(response)}`} className="text-sm text-copper-700 hover:underline">Open the lineage</Link>}
+      />
+      <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(16rem,1fr)]">
+        <Panel title="Waterfall">
+          {gains.isLoading ? <Loading label="Computing gains…" /> : gains.error ? (
+            <div className="space-y-3">
+              <ErrorNote error={gains.error} />
+              {chain && <button type="button" className="text-sm text-copper-700 underline" onClick={() => setQuery({ builds: null })}>Show the best path instead</button>}
+            </div>
+          ) : !data ? (
+            <EmptyState title="Nothing to show yet">Upload polarization curves to the builds of a lineage to see its gains.</EmptyState>
+          ) : data.steps.length < 2 ? (
+            <EmptyState title="Only the baseline so far">Add a build to the chain (on the right) to see a step.</EmptyState>
+          ) : (
+            <WaterfallChart data={data} subtitle={conditionsText(response, project.data.settings, data.steps.map((s) => byId.get(s.buildId)).filter((b): b is Build => Boolean(b)))} fileName={fileName} />
+          )}
+        </Panel>
+        <div className="space-y-4">
+          <Panel title="Response">
+            <Field label="Response" hint={data ? `Values in ${data.unit} internally; shown in display units.` : undefined}>
+              {(props) => (
+                <Select {...props} value={response} onChange={(e) => setQuery({ response: e.target.value })}>
+                  {(responses.length ? responses : [{ key: response, label: response, unit: '' }]).map((r) => <option key={r.key} value={r.key}>{r.label}{r.unit ? ` (${r.unit})` : ''}</option>)}
+                </Select>
+              )}
+            </Field>
+          </Panel>
+          <Panel title="Chain of builds">
+            <ChainEditor
+              chain={shownChain}
+              builds={(builds.data ?? []).map((b) => ({ id: b.id, code: b.code, changeNote: b.changeNote, status: b.status }))}
+              onChange={(ids) => setQuery({ builds: ids })}
+              onReset={() => setQuery({ builds: null })}
+              fromBestPath={!chain}
+            />
+          </Panel>
+        </div>
+      </div>
+      {data && data.steps.length >= 1 && (
+        <Panel title="Steps" className="mt-4">
+          <GainsTable data={data} projectId={projectId} fileName={fileName} />
+        </Panel>
+      )}
     </div>
   );
 }

@@ -1,0 +1,118 @@
+// E-mail notices to a project's PIs when a partner lab uploads curves or a build reaches
+// "tested", and to a build's author when a PI gives a verdict. Every message goes through the
+// mailer (so it lands in the outbox); people who turned notices off for the project get none.
+// A failing mailer never fails the upload or update that triggered it.
+import { and, eq, inArray, isNull } from 'drizzle-orm';
+import type { AppContext, AuthUser } from '../context';
+import type { ProjectAccess } from '../auth/access';
+import { builds, labs, memberships, projects, users } from '../db/schema';
+
+type BuildRow = typeof builds.$inferSelect;
+
+function appUrl(ctx: AppContext): string {
+  return (ctx.env.PUBLIC_URL ?? `http://localhost:${ctx.env.PORT}`).replace(/\/$/, '');
+}
+
+const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+/** Members of a project with one of the roles who want notices, minus the person who acted. */
+function recipients(ctx: AppContext, projectId: number, options: { roles?: ('pi' | 'researcher' | 'partner' | 'viewer')[]; userIds?: number[]; exclude: number | null }) {
+  const conditions = [eq(memberships.projectId, projectId), eq(memberships.notify, true), isNull(users.disabledAt)];
+  if (options.roles) conditions.push(inArray(memberships.role, options.roles));
+  if (options.userIds) {
+    if (options.userIds.length === 0) return [];
+    conditions.push(inArray(users.id, options.userIds));
+  }
+  return ctx.db
+    .select({ id: users.id, email: users.email, name: users.name })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(...conditions))
+    .all()
+    .filter((u) => u.id !== options.exclude);
+}
+
+async function sendAll(ctx: AppContext, to: { email: string }[], message: { subject: string; text: string; html: string }) {
+  for (const person of to) {
+    try {
+      await ctx.mailer.send({ to: person.email, ...message });
+    } catch (error) {
+      ctx.logger.warn({ err: error, to: person.email }, 'notice e-mail could not be sent');
+    }
+  }
+}
+
+function context(ctx: AppContext, build: BuildRow) {
+  const project = ctx.db.select({ id: projects.id, name: projects.name }).from(projects).where(eq(projects.id, build.projectId)).get()!;
+  const lab = build.labId != null ? ctx.db.select({ name: labs.name }).from(labs).where(eq(labs.id, build.labId)).get()?.name ?? null : null;
+  const base = appUrl(ctx);
+  return { project, lab, link: `${base}/projects/${project.id}/builds/${build.id}`, settings: `${base}/projects/${project.id}/settings` };
+}
+
+function footer(settingsLink: string) {
+  return {
+    text: `\n\nTo stop these e-mails for this project, untick the notice box on the project's settings page: ${settingsLink}\n`,
+    html: `<p style="color:#666;font-size:12px">To stop these e-mails for this project, untick the notice box on the <a href="${settingsLink}">project's settings page</a>.</p>`,
+  };
+}
+
+/**
+ * After a curve upload: the PIs hear of it when the uploader is a partner-lab member or when the
+ * upload moved the build to "tested" (one e-mail per PI either way). `before` is the build as it
+ * was before the upload.
+ */
+export async function notifyAfterUpload(ctx: AppContext, access: ProjectAccess, before: BuildRow, fileName: string): Promise<void> {
+  try {
+    const becameTested = before.status === 'planned' || before.status === 'built';
+    const fromPartner = access.role === 'partner';
+    if (!becameTested && !fromPartner) return;
+    const c = context(ctx, before);
+    const to = recipients(ctx, before.projectId, { roles: ['pi'], exclude: access.user.id });
+    if (to.length === 0) return;
+    const who = `${access.user.name}${fromPartner && c.lab ? ` (${c.lab})` : ''}`;
+    const state = becameTested ? ` ${before.code} is now tested and waiting for your review.` : '';
+    const f = footer(c.settings);
+    await sendAll(ctx, to, {
+      subject: `${before.code}: new curves uploaded${becameTested ? ' — ready for review' : ''} (${c.project.name})`,
+      text: `${who} uploaded “${fileName}” to build ${before.code} in “${c.project.name}”.${state}\n\nOpen the build: ${c.link}${f.text}`,
+      html: `<p>${escapeHtml(who)} uploaded “${escapeHtml(fileName)}” to build <b>${escapeHtml(before.code)}</b> in “${escapeHtml(c.project.name)}”.${escapeHtml(state)}</p><p><a href="${c.link}">Open ${escapeHtml(before.code)}</a></p>${f.html}`,
+    });
+  } catch (error) {
+    ctx.logger.warn({ err: error }, 'upload notice failed');
+  }
+}
+
+/** A build set to "tested" by hand (not by an upload, and not a restore from discarded). */
+export async function notifyBuildTested(ctx: AppContext, actor: AuthUser, before: BuildRow, after: BuildRow): Promise<void> {
+  try {
+    if (after.status !== 'tested' || before.status === 'tested' || before.status === 'discarded' || before.status === 'reviewed') return;
+    const c = context(ctx, after);
+    const to = recipients(ctx, after.projectId, { roles: ['pi'], exclude: actor.id });
+    const f = footer(c.settings);
+    await sendAll(ctx, to, {
+      subject: `${after.code} is tested — ready for review (${c.project.name})`,
+      text: `${actor.name} marked build ${after.code} in “${c.project.name}” as tested.${after.changeNote ? `\nChange: ${after.changeNote}` : ''}\n\nOpen the build: ${c.link}${f.text}`,
+      html: `<p>${escapeHtml(actor.name)} marked build <b>${escapeHtml(after.code)}</b> in “${escapeHtml(c.project.name)}” as tested.</p>${after.changeNote ? `<p>Change: ${escapeHtml(after.changeNote)}</p>` : ''}<p><a href="${c.link}">Open ${escapeHtml(after.code)}</a></p>${f.html}`,
+    });
+  } catch (error) {
+    ctx.logger.warn({ err: error }, 'tested notice failed');
+  }
+}
+
+/** The build's author and operator hear of a PI's verdict. */
+export async function notifyVerdict(ctx: AppContext, actor: AuthUser, build: BuildRow, verdict: 'approved' | 'needs-work', comment: string): Promise<void> {
+  try {
+    const authors = [...new Set([build.createdBy, build.operatorId].filter((id): id is number => id != null))];
+    const c = context(ctx, build);
+    const to = recipients(ctx, build.projectId, { userIds: authors, exclude: actor.id });
+    const word = verdict === 'approved' ? 'approved' : 'needs work';
+    const f = footer(c.settings);
+    await sendAll(ctx, to, {
+      subject: `${build.code} ${word} — review by ${actor.name} (${c.project.name})`,
+      text: `${actor.name} reviewed build ${build.code} in “${c.project.name}”: ${word}.\n\n“${comment}”\n\nOpen the build: ${c.link}${f.text}`,
+      html: `<p>${escapeHtml(actor.name)} reviewed build <b>${escapeHtml(build.code)}</b> in “${escapeHtml(c.project.name)}”: <b>${word}</b>.</p><blockquote>${escapeHtml(comment)}</blockquote><p><a href="${c.link}">Open ${escapeHtml(build.code)}</a></p>${f.html}`,
+    });
+  } catch (error) {
+    ctx.logger.warn({ err: error }, 'verdict notice failed');
+  }
+}

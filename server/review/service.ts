@@ -1,0 +1,163 @@
+// The review loop: comments on a build by anyone who may comment, a PI's verdict (which moves
+// the build to "reviewed"), the build's audit trail, and the home page's review lists.
+import { and, asc, desc, eq, inArray, or, sql } from 'drizzle-orm';
+import type { AppContext, AuthUser } from '../context';
+import { can, type ProjectAccess } from '../auth/access';
+import { auditLog, builds, memberships, projects, reviews, users } from '../db/schema';
+import { audit } from '../lib/audit';
+import { conflict, forbidden } from '../lib/errors';
+import { notifyVerdict } from './notify';
+
+type BuildRow = typeof builds.$inferSelect;
+
+export interface ReviewEntry {
+  id: number;
+  buildId: number;
+  userId: number;
+  userName: string | null;
+  body: string;
+  verdict: 'approved' | 'needs-work' | null;
+  createdAt: string;
+}
+
+export function listThread(ctx: AppContext, buildId: number): ReviewEntry[] {
+  return ctx.db
+    .select({ id: reviews.id, buildId: reviews.buildId, userId: reviews.userId, userName: users.name, body: reviews.body, verdict: reviews.verdict, createdAt: reviews.createdAt })
+    .from(reviews)
+    .leftJoin(users, eq(users.id, reviews.userId))
+    .where(eq(reviews.buildId, buildId))
+    .orderBy(asc(reviews.id))
+    .all();
+}
+
+function entry(ctx: AppContext, id: number): ReviewEntry {
+  return listThread(ctx, ctx.db.select({ b: reviews.buildId }).from(reviews).where(eq(reviews.id, id)).get()!.b).find((r) => r.id === id)!;
+}
+
+export function addComment(ctx: AppContext, access: ProjectAccess, build: BuildRow, body: string): ReviewEntry {
+  if (!can(access, 'comment')) throw forbidden(`Your role (${access.role}) in this project does not allow: comment.`);
+  const row = ctx.db.insert(reviews).values({ buildId: build.id, userId: access.user.id, body, verdict: null }).returning().get();
+  audit(ctx.db, { userId: access.user.id, action: 'comment', entity: 'review', entityId: row.id, projectId: build.projectId, after: { buildId: build.id, body } });
+  return entry(ctx, row.id);
+}
+
+export async function giveVerdict(ctx: AppContext, access: ProjectAccess, build: BuildRow, input: { verdict: 'approved' | 'needs-work'; body: string }) {
+  if (!can(access, 'review')) throw forbidden(`Your role (${access.role}) in this project does not allow: give review verdicts.`);
+  if (build.status === 'planned' || build.status === 'discarded') {
+    throw conflict(`${build.code} is ${build.status}: a verdict needs a build that was made and tested.`, { fields: [{ path: 'verdict', message: `not possible on a ${build.status} build` }] });
+  }
+  const { row, after } = ctx.db.transaction((tx) => {
+    const row = tx.insert(reviews).values({ buildId: build.id, userId: access.user.id, body: input.body, verdict: input.verdict }).returning().get();
+    const after = tx.update(builds).set({ status: 'reviewed', updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).returning().get();
+    return { row, after };
+  });
+  audit(ctx.db, { userId: access.user.id, action: 'verdict', entity: 'review', entityId: row.id, projectId: build.projectId, after: { buildId: build.id, verdict: input.verdict, body: input.body } });
+  if (build.status !== 'reviewed') {
+    audit(ctx.db, { userId: access.user.id, action: 'update', entity: 'build', entityId: build.id, projectId: build.projectId, before: { status: build.status }, after: { status: after.status } });
+  }
+  await notifyVerdict(ctx, access.user, build, input.verdict, input.body);
+  return { review: entry(ctx, row.id), status: after.status };
+}
+
+/** Who changed what on one build, newest first: the build itself, its curves and its reviews. */
+export function buildAuditTrail(ctx: AppContext, build: BuildRow, limit = 200) {
+  const reviewIds = ctx.db.select({ id: reviews.id }).from(reviews).where(eq(reviews.buildId, build.id)).all().map((r) => r.id);
+  const rows = ctx.db
+    .select({ a: auditLog, userName: users.name })
+    .from(auditLog)
+    .leftJoin(users, eq(users.id, auditLog.userId))
+    .where(
+      or(
+        and(eq(auditLog.entity, 'build'), eq(auditLog.entityId, build.id)),
+        and(
+          eq(auditLog.entity, 'curve'),
+          or(
+            sql`json_extract(${auditLog.after}, '$.buildId') = ${build.id}`,
+            sql`json_extract(${auditLog.before}, '$.buildId') = ${build.id}`,
+            sql`${auditLog.entityId} in (select id from curves where build_id = ${build.id})`,
+          ),
+        ),
+        reviewIds.length ? and(eq(auditLog.entity, 'review'), inArray(auditLog.entityId, reviewIds)) : sql`0`,
+      ),
+    )
+    .orderBy(desc(auditLog.id))
+    .limit(limit)
+    .all();
+  return rows.map(({ a, userName }) => ({
+    id: a.id,
+    at: a.at,
+    userId: a.userId,
+    userName,
+    action: a.action,
+    entity: a.entity,
+    entityId: a.entityId,
+    changes: changedFields(a.before, a.after),
+    summary: summarize(a.entity, a.action, a.after),
+  }));
+}
+
+const SKIP = new Set(['updatedAt', 'createdAt', 'id', 'projectId']);
+
+/** Field-by-field before → after for updates; the new values for creations. */
+function changedFields(before: unknown, after: unknown): { field: string; from: unknown; to: unknown }[] {
+  const b = (before && typeof before === 'object' ? before : {}) as Record<string, unknown>;
+  const a = (after && typeof after === 'object' ? after : {}) as Record<string, unknown>;
+  if (!before) return [];
+  const out: { field: string; from: unknown; to: unknown }[] = [];
+  for (const key of new Set([...Object.keys(b), ...Object.keys(a)])) {
+    if (SKIP.has(key) || !(key in a)) continue;
+    if (JSON.stringify(b[key]) !== JSON.stringify(a[key])) out.push({ field: key, from: b[key] ?? null, to: a[key] ?? null });
+  }
+  return out;
+}
+
+function summarize(entity: string, action: string, after: unknown): string {
+  const a = (after && typeof after === 'object' ? after : {}) as Record<string, unknown>;
+  if (entity === 'curve' && action === 'upload') return `uploaded ${String(a.kind ?? 'curve')} file “${String(a.file ?? '')}” (${String(a.points ?? '?')} points)`;
+  if (entity === 'curve' && action === 'delete') return 'removed a curve';
+  if (entity === 'curve') return 'changed curve options';
+  if (entity === 'review' && action === 'verdict') return `verdict: ${String(a.verdict)} — “${String(a.body ?? '')}”`;
+  if (entity === 'review') return `commented: “${String(a.body ?? '')}”`;
+  if (entity === 'build' && action === 'create') return 'created the build';
+  return `${action} ${entity}`;
+}
+
+/** Home: tested builds waiting for a verdict in the projects where I am PI. */
+export function awaitingReview(ctx: AppContext, user: AuthUser, limit = 20) {
+  const piProjects = ctx.db.select({ projectId: memberships.projectId }).from(memberships).where(and(eq(memberships.userId, user.id), eq(memberships.role, 'pi'))).all().map((m) => m.projectId);
+  if (piProjects.length === 0) return [];
+  return ctx.db
+    .select({ buildId: builds.id, code: builds.code, projectId: builds.projectId, projectName: projects.name, changeNote: builds.changeNote, status: builds.status, testedOn: builds.testedOn })
+    .from(builds)
+    .innerJoin(projects, eq(projects.id, builds.projectId))
+    .where(and(inArray(builds.projectId, piProjects), eq(builds.status, 'tested')))
+    .orderBy(desc(sql`coalesce(${builds.updatedAt}, ${builds.testedOn}, ${builds.createdAt})`), desc(builds.id))
+    .limit(limit)
+    .all();
+}
+
+/** Home: my builds whose latest verdict is "needs work" (and still stand as reviewed). */
+export function needsWork(ctx: AppContext, user: AuthUser, projectIds: number[], limit = 20) {
+  if (projectIds.length === 0) return [];
+  const mine = ctx.db
+    .select({ buildId: builds.id, code: builds.code, projectId: builds.projectId, projectName: projects.name })
+    .from(builds)
+    .innerJoin(projects, eq(projects.id, builds.projectId))
+    .where(and(inArray(builds.projectId, projectIds), eq(builds.status, 'reviewed'), or(eq(builds.createdBy, user.id), eq(builds.operatorId, user.id))))
+    .all();
+  if (mine.length === 0) return [];
+  const verdicts = ctx.db
+    .select({ buildId: reviews.buildId, verdict: reviews.verdict, body: reviews.body, id: reviews.id })
+    .from(reviews)
+    .where(and(inArray(reviews.buildId, mine.map((b) => b.buildId)), sql`${reviews.verdict} is not null`))
+    .orderBy(asc(reviews.id))
+    .all();
+  const latest = new Map<number, { verdict: string | null; body: string; id: number }>();
+  for (const v of verdicts) latest.set(v.buildId, v);
+  return mine
+    .filter((b) => latest.get(b.buildId)?.verdict === 'needs-work')
+    .map((b) => ({ ...b, comment: latest.get(b.buildId)!.body, reviewId: latest.get(b.buildId)!.id }))
+    .sort((x, y) => y.reviewId - x.reviewId)
+    .slice(0, limit)
+    .map(({ reviewId: _omit, ...rest }) => rest);
+}

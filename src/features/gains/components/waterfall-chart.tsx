@@ -1,0 +1,141 @@
+// The gains waterfall: baseline bar, one floating bar per step (up and down told apart by colour,
+// hatching and sign), the total bar, 95 % intervals as whiskers, "within noise" steps faded and
+// labelled. Exports PNG and SVG through the plot's own image export.
+import { useRef } from 'react';
+import { LazyPlot, exportPlot } from '@/components/plot/lazy-plot';
+import { Button } from '@/components/ui/button';
+import type { GainsData } from '../api/get-gains';
+import { displayOf, showGain, showValue } from './display';
+
+const UP = '#009E73';
+const DOWN = '#D55E00';
+const LEVEL = '#2c3c63';
+
+const wrap = (text: string, width = 22): string => {
+  const words = text.split(/\s+/);
+  const lines: string[] = [];
+  let line = '';
+  for (const word of words) {
+    if ((line + ' ' + word).trim().length > width && line) { lines.push(line); line = word; } else line = (line + ' ' + word).trim();
+  }
+  if (line) lines.push(line);
+  return lines.slice(0, 3).join('<br>') + (lines.length > 3 ? '…' : '');
+};
+
+export function WaterfallChart({ data, subtitle, fileName }: { data: GainsData; subtitle: string; fileName: string }) {
+  const ref = useRef<HTMLDivElement>(null);
+  const d = displayOf(data.response);
+  const s = d.scale;
+  const steps = data.steps;
+  const x = [...steps.map((st) => st.code), 'Total'];
+  const tick = [
+    `${steps[0].code}<br>baseline`,
+    ...steps.slice(1).map((st) => `${st.code}<br>${wrap(st.changeNote ?? st.changeText ?? '')}`),
+    `Total<br>${steps[0].code} → ${steps[steps.length - 1].code}`,
+  ];
+  const levels: number[] = [];
+  for (const st of steps) levels.push(st.value * s);
+  const gains = steps.slice(1).map((st) => (st.gain ?? 0) * s);
+  const floor = Math.min(...levels);
+  const ceil = Math.max(...levels);
+  const span = Math.max(ceil - floor, Math.abs(levels[0]) * 0.01, 1e-9);
+  // Intervals can reach beyond the bars: make room for the whiskers.
+  let low = floor;
+  let high = ceil;
+  steps.forEach((st, k) => {
+    if (k === 0 || st.low == null || st.high == null) return;
+    const before = levels[k - 1];
+    low = Math.min(low, before + st.low * s);
+    high = Math.max(high, before + st.high * s);
+  });
+  const pad = Math.max(span, high - low) * 0.18;
+  const range = [low - pad, high + pad];
+
+  const barText = [
+    showValue(d, steps[0].value),
+    ...steps.slice(1).map((st) => `${showGain(d, st.gain)}${st.withinNoise ? '<br>within noise' : ''}`),
+    `${showGain(d, data.total.gain)}<br>${showValue(d, data.total.value)}`,
+  ];
+  const colours = [LEVEL, ...steps.slice(1).map((st) => ((st.gain ?? 0) >= 0 ? UP : DOWN)), LEVEL];
+  const patterns = ['', ...steps.slice(1).map((st) => ((st.gain ?? 0) >= 0 ? '' : '/')), ''];
+  const opacity = [1, ...steps.slice(1).map((st) => (st.withinNoise ? 0.45 : 1)), 1];
+  // Level bars rise from below the visible range so the axis can start near the baseline.
+  const bottom = range[0] - Math.abs(range[1] - range[0]);
+  const base = [bottom, ...steps.slice(1).map((_st, k) => levels[k]), bottom];
+  const y = [levels[0] - bottom, ...gains, levels[levels.length - 1] - bottom];
+
+  const whiskerX: string[] = [];
+  const whiskerY: number[] = [];
+  const plus: number[] = [];
+  const minus: number[] = [];
+  steps.forEach((st, k) => {
+    if (k === 0 || st.low == null || st.high == null || st.gain == null) return;
+    whiskerX.push(st.code);
+    whiskerY.push(levels[k]);
+    plus.push((st.high - st.gain) * s);
+    minus.push((st.gain - st.low) * s);
+  });
+  if (data.total.low != null && data.total.high != null) {
+    whiskerX.push('Total');
+    whiskerY.push(levels[levels.length - 1]);
+    plus.push((data.total.high - data.total.gain) * s);
+    minus.push((data.total.gain - data.total.low) * s);
+  }
+  const connectors = levels.map((level, k) => ({ type: 'line', xref: 'x', yref: 'y', x0: k + 0.4, x1: k + 0.6, y0: level, y1: level, line: { color: '#8a93a8', width: 1, dash: 'dot' } }));
+
+  return (
+    <div>
+      <div ref={ref} role="img" aria-label={`Gains waterfall of ${d.label} from ${steps[0].code} to ${steps[steps.length - 1].code}`}>
+        <LazyPlot
+          fileName={fileName}
+          data={[
+            {
+              type: 'bar',
+              x,
+              y,
+              base,
+              text: barText,
+              textposition: 'outside',
+              cliponaxis: false,
+              marker: { color: colours, opacity, line: { color: colours, width: 1.5 }, pattern: { shape: patterns, fgcolor: '#ffffff', size: 6, solidity: 0.3 } },
+              hovertemplate: '%{text}<extra></extra>',
+              name: 'steps',
+              showlegend: false,
+            },
+            {
+              type: 'scatter',
+              mode: 'markers',
+              x: whiskerX,
+              y: whiskerY,
+              marker: { size: 1, color: '#18233d' },
+              error_y: { type: 'data', symmetric: false, array: plus, arrayminus: minus, color: '#18233d', thickness: 1.4, width: 6 },
+              name: `${Math.round(data.confidence * 100)} % interval`,
+              hoverinfo: 'skip',
+            },
+          ] as never}
+          layout={{
+            title: { text: `${d.label} from ${steps[0].code} to ${steps[steps.length - 1].code}<br><span style="font-size:11px;color:#5b6478">${subtitle}</span>`, font: { size: 14 } },
+            barmode: 'overlay',
+            xaxis: { tickmode: 'array', tickvals: x, ticktext: tick, tickfont: { size: 11 }, automargin: true },
+            yaxis: { title: { text: `${d.label} (${d.unit})` }, range, zeroline: false, gridcolor: '#e7e9ee' },
+            shapes: connectors,
+            margin: { t: 72, b: 110 },
+            legend: { orientation: 'h', y: -0.32 },
+            height: 470,
+          } as never}
+          style={{ height: 470 }}
+        />
+      </div>
+      <div className="mt-2 flex flex-wrap items-center gap-3 text-xs text-ink-500">
+        <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} /></svg> gain (up)</span>
+        <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={DOWN} /><path d="M0 12 12 0" stroke="#fff" strokeWidth="2" /></svg> loss (down, hatched)</span>
+        <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} opacity="0.45" /></svg> faded = within noise (interval contains zero)</span>
+        <span>whiskers: {Math.round(data.confidence * 100)} % interval of each step · the axis does not start at zero</span>
+        <span className="ml-auto flex gap-2">
+          <Button onClick={() => exportPlot(ref.current, 'png', fileName)}>Export PNG</Button>
+          <Button onClick={() => exportPlot(ref.current, 'svg', fileName)}>Export SVG</Button>
+        </span>
+      </div>
+    </div>
+  );
+}
