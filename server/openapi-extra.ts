@@ -2,6 +2,10 @@
 import { z } from 'zod';
 import type { RouteDoc } from './openapi';
 import { uploadFieldsSchema } from './curves/router';
+import { designRequestSchema, planRunsSchema, proposalsRequestSchema, surfaceRequestSchema } from './doe/router';
+import { gainsQuery } from './gains/router';
+import { lineageQuery } from './lineage/router';
+import { commentSchema, verdictSchema } from './review/router';
 
 const fileField = z.string().describe('the file (CSV, TSV, TXT or XLSX)');
 
@@ -15,4 +19,16 @@ export const extraRoutes: RouteDoc[] = [
   { method: 'get', path: '/api/projects/{id}/import-profiles', summary: 'Saved column/unit mappings', tag: 'curves' },
   { method: 'post', path: '/api/projects/{id}/import-profiles', summary: 'Save a column/unit mapping for a lab’s file shape', body: z.object({ name: z.string(), labId: z.number().nullish(), kind: z.enum(['polarization', 'durability', 'hold']).optional(), mapping: z.record(z.string(), z.object({ header: z.string(), unit: z.string() })) }), tag: 'curves' },
   { method: 'delete', path: '/api/import-profiles/{id}', summary: 'Remove an import profile', tag: 'curves' },
+  { method: 'get', path: '/api/uploads/{uploadId}/progress', summary: 'Processing progress of an upload sent with an uploadId field: phase (receiving, parsing, measuring, storing, done, error) and fraction; JSON for polling, or server-sent events with Accept: text/event-stream', tag: 'curves' },
+  { method: 'get', path: '/api/projects/{id}/durability', summary: 'Durability comparison: every durability / hold curve of the project with rate ± 95 % interval (µV/h), hours run, break-in and held conditions', tag: 'curves' },
+  { method: 'post', path: '/api/projects/{id}/designs', summary: 'Generate a design over the project’s factors (2^k, 2^(k−p), 3^k, central composite, Box–Behnken, Latin hypercube) → runs in coded and actual units with alias structure; not stored', body: designRequestSchema, tag: 'plan' },
+  { method: 'post', path: '/api/projects/{id}/designs/plan', summary: 'Turn design runs into planned builds (codes assigned, optional parent, lab per block); all or none', body: planRunsSchema, tag: 'plan' },
+  { method: 'post', path: '/api/projects/{id}/surface', summary: 'Fit a response surface on tested and reviewed builds → coefficients (coded and actual) with SE, t, p, ANOVA, R², adjusted R², predicted R², RMSE, VIF, warnings', body: surfaceRequestSchema, tag: 'surface' },
+  { method: 'post', path: '/api/projects/{id}/proposals', summary: 'Next builds from the fitted surface → {proposals: [{factors, predicted, low, high, reason, extrapolation, nearest, cautions}]}', body: proposalsRequestSchema, tag: 'surface' },
+  { method: 'get', path: '/api/projects/{id}/gains', summary: 'Gains waterfall along a chain of builds (default: the lineage’s best path) → {response, unit, steps: [{buildId, code, value, gain, low, high, withinNoise, n, sd, method, note, changeNote, changeText}], total}; values in the response’s internal unit', query: gainsQuery, tag: 'gains' },
+  { method: 'get', path: '/api/projects/{id}/lineage', summary: 'Lineage tree of replicate groups with the chosen response (mean, SD, n), recipe changes from each parent, best path', query: lineageQuery, tag: 'gains' },
+  { method: 'get', path: '/api/builds/{id}/reviews', summary: 'A build’s review thread: comments and verdicts', tag: 'review' },
+  { method: 'post', path: '/api/builds/{id}/reviews', summary: 'Comment on a build (PIs, researchers, partners)', body: commentSchema, tag: 'review' },
+  { method: 'post', path: '/api/builds/{id}/verdict', summary: 'A PI’s verdict (approved or needs-work) with a comment; the build becomes reviewed and its author is told', body: verdictSchema, tag: 'review' },
+  { method: 'get', path: '/api/builds/{id}/audit', summary: 'Audit trail of one build: who changed what, when (build, curves, reviews)', tag: 'review' },
 ];

@@ -14,6 +14,14 @@ import { requireBuildWrite, requireProject, requireUser, can } from '../auth/acc
 import { accessBuild } from '../builds/service';
 import { curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView } from './service';
 import { audit } from '../lib/audit';
+import { silentProgress, trackUpload, UPLOAD_ID_PATTERN } from '../uploads/progress';
+
+/** 52428800 → "50 MB", 1500 → "1.5 kB": the limit in the words of the message. */
+function formatBytes(bytes: number): string {
+  if (bytes >= 1048576) return `${Number((bytes / 1048576).toFixed(1))} MB`;
+  if (bytes >= 1024) return `${Number((bytes / 1024).toFixed(1))} kB`;
+  return `${bytes} bytes`;
+}
 
 const unitSpec = z.object({ column: z.number().int().min(0), unit: z.string() });
 const mappingSchema = z.object({
@@ -42,6 +50,7 @@ export const uploadFieldsSchema = z.object({
   sheet: z.string().max(100).optional(),
   label: z.string().max(120).optional(),
   saveProfileAs: z.string().trim().min(1).max(80).optional(),
+  uploadId: z.string().regex(UPLOAD_ID_PATTERN, 'must be 8–64 letters, digits, "-" or "_"').optional(),
 });
 
 const pointsQuery = z.object({
@@ -52,7 +61,7 @@ const pointsQuery = z.object({
 
 const curvePatchSchema = z.object({
   label: z.string().trim().max(120).optional(),
-  breakInHours: z.number().min(0).optional(),
+  breakInHours: z.number().min(0).nullable().optional(),
   windows: z.array(z.object({ fromHours: z.number().min(0), toHours: z.number().min(0) })).max(20).optional(),
   lossFraction: z.number().gt(0).lt(1).optional(),
 });
@@ -74,7 +83,9 @@ export function curvesRouter(ctx: AppContext): Router {
   const receiveFile = (req: Request, res: Response, next: NextFunction) => {
     upload.single('file')(req, res, (error: unknown) => {
       if (error instanceof multer.MulterError) {
-        if (error.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too-large', `The file is larger than the upload limit of ${Math.round(env.UPLOAD_MAX_BYTES / 1048576)} MB.`));
+        if (error.code === 'LIMIT_FILE_SIZE') {
+          return next(new AppError(413, 'too-large', `The file is larger than the upload limit of ${formatBytes(env.UPLOAD_MAX_BYTES)} (UPLOAD_MAX_BYTES = ${env.UPLOAD_MAX_BYTES} bytes); nothing was stored. Split the log or ask an administrator to raise the limit.`, { limit: 'UPLOAD_MAX_BYTES', maxBytes: env.UPLOAD_MAX_BYTES }));
+        }
         return next(new AppError(400, 'bad-upload', `Upload refused: ${error.message} (field "${error.field ?? 'file'}"). Send one file in the multipart field "file".`));
       }
       next(error);
@@ -87,9 +98,16 @@ export function curvesRouter(ctx: AppContext): Router {
       const { row, access } = accessBuild(ctx, req.user, idParam(req.params.id), 'createBuild');
       requireBuildWrite(access, row);
       if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
-      const fields = parseInput(uploadFieldsSchema, req.body ?? {}, 'upload fields');
-      const result = await ingestUpload(ctx, access, row, { tmpPath: file.path, originalName: Buffer.from(file.originalname, 'latin1').toString('utf8'), size: file.size }, { ...fields, previewOnly });
-      res.status(previewOnly ? 200 : 201).json(result);
+      const { uploadId, ...fields } = parseInput(uploadFieldsSchema, req.body ?? {}, 'upload fields');
+      const progress = uploadId && !previewOnly ? trackUpload(access.user.id, uploadId, file.size) : silentProgress;
+      try {
+        const result = await ingestUpload(ctx, access, row, { tmpPath: file.path, originalName: Buffer.from(file.originalname, 'latin1').toString('utf8'), size: file.size }, { ...fields, previewOnly, progress });
+        progress.done('curve' in result && result.curve ? result.curve.id : null);
+        res.status(previewOnly ? 200 : 201).json(result);
+      } catch (error) {
+        progress.fail(error instanceof Error ? error.message : String(error));
+        throw error;
+      }
     } finally {
       if (file) fs.rmSync(file.path, { force: true });
     }

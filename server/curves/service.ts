@@ -14,6 +14,11 @@ import { readUpload } from './read-upload';
 import { audit } from '../lib/audit';
 import { AppError, notFound } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
+import type { ProgressReporter } from '../uploads/progress';
+import { notifyAfterUpload } from '../review/notify';
+
+/** Give the event loop a turn between the long synchronous steps of a big upload. */
+const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 type BuildRow = typeof builds.$inferSelect;
 type CurveRow = typeof curves.$inferSelect;
@@ -28,6 +33,8 @@ export interface UploadOptions {
   saveProfileAs?: string;
   /** only detect and preview; store nothing */
   previewOnly?: boolean;
+  /** where to report parsing / measuring / storing progress (large uploads) */
+  progress?: ProgressReporter;
 }
 
 export interface DurabilityOptions {
@@ -81,8 +88,20 @@ export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: Bui
       },
       breakInHours: { method: d.breakInRule ?? 'given by the user', inputs: { breakInHours: d.breakInHours ?? null } },
     },
-    summary: durabilitySummary(d),
+    summary: { ...durabilitySummary(d), currentDensity: sampledMedian(curve.j), temperatureC: sampledMedian(curve.temperatureC) },
   };
+}
+
+/** Median of at most ~10,000 evenly spaced finite values: the held condition of a long log, cheaply. */
+function sampledMedian(values: Float64Array | undefined): number | null {
+  if (!values || values.length === 0) return null;
+  const stride = Math.max(1, Math.floor(values.length / 10_000));
+  const sample: number[] = [];
+  for (let i = 0; i < values.length; i += stride) if (Number.isFinite(values[i])) sample.push(values[i]);
+  if (sample.length === 0) return null;
+  sample.sort((a, b) => a - b);
+  const mid = sample.length >> 1;
+  return sample.length % 2 ? sample[mid] : (sample[mid - 1] + sample[mid]) / 2;
 }
 
 function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<string, number | string | boolean | null> {
@@ -92,6 +111,11 @@ function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<stri
     hoursRun: d.hoursRun ?? null,
     voltageLossMv: d.voltageLossMv ?? null,
     hoursToLoss: d.hoursToLoss ?? null,
+    projectedHoursToLoss: d.projectedHoursToLoss?.hours ?? null,
+    lossFraction: d.lossFraction ?? null,
+    confidence: d.confidence ?? null,
+    breakInSource: d.breakInSource ?? null,
+    breakInRule: d.breakInRule ?? null,
     fitFromHours: d.fitWindow?.fromHours ?? null,
     fitToHours: d.fitWindow?.toHours ?? null,
     interruptions: JSON.stringify(d.interruptions ?? []),
@@ -151,8 +175,11 @@ export async function ingestUpload(
   try {
     let read;
     try {
-      read = await readUpload(upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS });
+      read = await readUpload(upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS, onBytes: options.progress && ((bytes) => options.progress!.parsed(bytes)) });
     } catch (error) {
+      if (error instanceof CurveFileError && error.code === 'too-many-rows') {
+        throw new AppError(422, 'too-many-rows', `${upload.originalName}: more than ${env.UPLOAD_MAX_ROWS.toLocaleString('en-US')} data rows, the row limit per file (UPLOAD_MAX_ROWS); nothing was stored. Split the log or ask an administrator to raise the limit.`, { file: upload.originalName, limit: 'UPLOAD_MAX_ROWS', maxRows: env.UPLOAD_MAX_ROWS, line: error.line ?? null });
+      }
       throw asUnprocessable(error, upload.originalName);
     }
     const { table } = read;
@@ -187,12 +214,16 @@ export async function ingestUpload(
     if (!mapping) throw mappingNeeded(table, detection, { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet });
 
     const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? build.areaCm2 ?? null;
+    options.progress?.phase('measuring', null);
+    await yieldToEventLoop();
     let data: CurveData;
     try {
       data = applyMapping(table, mapping, { kind, areaCm2 });
     } catch (error) {
       throw asUnprocessable(error, upload.originalName);
     }
+    // The parsed columns are now copied into `data`; let them go before measuring a big log.
+    table.columns.fill(null);
     const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
     let result: MetricsResult;
     try {
@@ -201,6 +232,8 @@ export async function ingestUpload(
       if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}`, { file: upload.originalName });
       throw error;
     }
+    options.progress?.phase('storing', null);
+    await yieldToEventLoop();
     const points = encodePoints(data);
 
     const stored = path.join(env.uploadsDir, read.sha256.slice(0, 2), read.sha256);
@@ -236,7 +269,8 @@ export async function ingestUpload(
             metricsVersion: project.metricsVersion,
             createdBy: access.user.id,
           })
-          .returning()
+          // everything but the points: reading the blob straight back would double a big log's memory
+          .returning(CURVE_COLUMNS_WITHOUT_POINTS)
           .get();
         if (build.status === 'planned' || build.status === 'built') {
           tx.update(builds).set({ status: 'tested', testedOn: build.testedOn ?? new Date().toISOString().slice(0, 10), updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
@@ -244,6 +278,7 @@ export async function ingestUpload(
         return row;
       });
       audit(db, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: curve.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length } });
+      await notifyAfterUpload(ctx, access, build, upload.originalName);
       return { curve: curveView(curve) };
     } catch (error) {
       if (!existed) fs.rmSync(stored, { force: true });
@@ -294,13 +329,15 @@ export function curveView(row: Omit<CurveRow, 'points'> & { points?: unknown }) 
   };
 }
 
+const CURVE_COLUMNS_WITHOUT_POINTS = {
+  id: curves.id, buildId: curves.buildId, fileId: curves.fileId, kind: curves.kind, label: curves.label, mapping: curves.mapping,
+  conditions: curves.conditions, pointCount: curves.pointCount, metrics: curves.metrics, metricNotes: curves.metricNotes,
+  method: curves.method, summary: curves.summary, metricsVersion: curves.metricsVersion, options: curves.options, createdAt: curves.createdAt, createdBy: curves.createdBy,
+};
+
 export function curvesForBuild(ctx: AppContext, buildId: number) {
   const rows = ctx.db
-    .select({
-      id: curves.id, buildId: curves.buildId, fileId: curves.fileId, kind: curves.kind, label: curves.label, mapping: curves.mapping,
-      conditions: curves.conditions, pointCount: curves.pointCount, metrics: curves.metrics, metricNotes: curves.metricNotes,
-      method: curves.method, summary: curves.summary, metricsVersion: curves.metricsVersion, options: curves.options, createdAt: curves.createdAt, createdBy: curves.createdBy,
-    })
+    .select(CURVE_COLUMNS_WITHOUT_POINTS)
     .from(curves)
     .where(eq(curves.buildId, buildId))
     .orderBy(asc(curves.id))
@@ -357,15 +394,31 @@ export function recomputeProjectMetrics(ctx: AppContext, projectId: number): num
 }
 
 /** Re-measure one curve with new options (e.g. a break-in the user set by hand). */
-export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: CurveRow, options: DurabilityOptions) {
+export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: CurveRow, options: Omit<DurabilityOptions, 'breakInHours'> & { breakInHours?: number | null }) {
   const { db } = ctx;
   const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
   const build = db.select().from(builds).where(eq(builds.id, row.buildId)).get()!;
-  const merged = { ...(row.options as DurabilityOptions | null), ...options };
-  const result = computeMetrics(decodePoints(row.points, row.kind), referencePoint(project), build, merged);
+  const merged: DurabilityOptions = { ...(row.options as DurabilityOptions | null) };
+  // breakInHours: null means "use the detected break-in again"
+  for (const [key, value] of Object.entries(options)) {
+    if (value === null) delete merged[key as keyof DurabilityOptions];
+    else if (value !== undefined) (merged as Record<string, unknown>)[key] = value;
+  }
+  if (row.kind === 'polarization') throw new AppError(400, 'validation', 'Break-in, windows and loss fraction apply to durability and hold curves only.', { fields: [{ path: 'breakInHours', message: 'not a durability curve' }] });
+  for (const w of merged.windows ?? []) {
+    if (!(w.toHours > w.fromHours)) throw new AppError(400, 'validation', `windows: a window must end after it starts, got ${w.fromHours}–${w.toHours} h.`, { fields: [{ path: 'windows', message: 'toHours must be above fromHours' }] });
+  }
+  const result = (() => {
+    try {
+      return computeMetrics(decodePoints(row.points, row.kind), referencePoint(project), build, merged);
+    } catch (error) {
+      if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', error.message.replace(/^\w+: /, ''));
+      throw error;
+    }
+  })();
   const after = db
     .update(curves)
-    .set({ options: merged, metrics: result.metrics, metricNotes: result.metricNotes as Record<string, string>, method: result.method as never, summary: { ...row.summary, ...result.summary } })
+    .set({ options: merged as Record<string, unknown>, metrics: result.metrics, metricNotes: result.metricNotes as Record<string, string>, method: result.method as never, summary: { ...row.summary, ...result.summary } })
     .where(eq(curves.id, row.id))
     .returning()
     .get();

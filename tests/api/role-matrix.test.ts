@@ -115,6 +115,18 @@ export const MATRIX: MatrixRow[] = [
     const p = await owner.post(`/api/projects/${C()}/import-profiles`, { name: unique('tmp '), mapping: { voltage: { header: 'U (V)', unit: 'V' } } });
     return c.delete(`/api/import-profiles/${p.body.profile.id}`);
   } },
+  { method: 'get', path: '/api/uploads/{uploadId}/progress', allowed: ALL, send: (_h, c) => c.get(`/api/uploads/${unique('matrix-upload-')}/progress`) },
+  { method: 'get', path: '/api/projects/{id}/durability', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/durability`) },
+  { method: 'post', path: '/api/projects/{id}/designs', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/designs`, { kind: 'full-factorial-2', factors: ['binder', 'cellTemp'], seed: 1 }) },
+  { method: 'post', path: '/api/projects/{id}/designs/plan', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/designs/plan`, { runs: [{ runOrder: 1, block: 1, actual: { binder: 25, cellTemp: 180 } }] }) },
+  { method: 'post', path: '/api/projects/{id}/surface', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/surface`, { response: 'vAtRef', model: 'linear' }) },
+  { method: 'post', path: '/api/projects/{id}/proposals', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/proposals`, { response: 'vAtRef', model: 'linear', count: 2 }) },
+  { method: 'get', path: '/api/projects/{id}/gains', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/gains?response=vAtRef`) },
+  { method: 'get', path: '/api/projects/{id}/lineage', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/lineage?response=vAtRef`) },
+  { method: 'get', path: '/api/builds/{id}/reviews', allowed: ALL, send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/reviews`) },
+  { method: 'post', path: '/api/builds/{id}/reviews', allowed: WRITERS, send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/reviews`, { body: unique('matrix comment ') }) },
+  { method: 'post', path: '/api/builds/{id}/verdict', allowed: ['admin', 'pi'], send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/verdict`, { verdict: 'approved', body: unique('matrix verdict ') }) },
+  { method: 'get', path: '/api/builds/{id}/audit', allowed: ALL, send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/audit`) },
 ];
 
 function latestInviteToken(h: Harness, email: string): string {

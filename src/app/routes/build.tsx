@@ -8,6 +8,7 @@ import { useCurve } from '@/features/curves/api/curves';
 import { PolarizationPlot, curveTitle } from '@/features/curves/components/polarization-plot';
 import { MetricsList, WhatIfReference } from '@/features/curves/components/metrics-panel';
 import { DurabilityPlot } from '@/features/curves/components/durability-plot';
+import { DurabilityControls } from '@/features/durability/components/durability-controls';
 import { DropZone, UploadRows, useUploadBatch } from '@/features/curves/components/upload-panel';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -113,22 +114,12 @@ function CurveView({ curve, project, detail }: { curve: CurveSummary; project: P
 }
 
 function DurabilityView({ curve }: { curve: CurveSummary }) {
-  const s = curve.summary as Record<string, unknown>;
-  const interruptions = (() => { try { return JSON.parse(String(s.interruptions ?? '[]')) as { kind: string; startHours: number }[]; } catch { return []; } })();
+  // the build is already in the query cache; its permissions say whether the options can be edited
+  const build = useBuild(curve.buildId);
   return (
     <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <DurabilityPlot curve={curve} title={curveTitle(curve)} />
-      <dl className="grid grid-cols-2 content-start gap-x-6 gap-y-2 text-sm">
-        <div title={curve.method.degradationRate?.method}><dt className="text-xs text-ink-500">Degradation rate</dt><dd className="num text-[15px]">{curve.metrics.degradationRate == null ? '—' : `${formatNumber(curve.metrics.degradationRate, 1)} µV/h`}</dd>
-          {s.degradationLow != null && <dd className="num text-[11px] text-ink-500">95 % interval {formatNumber(Number(s.degradationLow), 1)} – {formatNumber(Number(s.degradationHigh), 1)} µV/h</dd>}
-        </div>
-        <div title={curve.method.breakInHours?.method}><dt className="text-xs text-ink-500">Break-in</dt><dd className="num text-[15px]">{curve.metrics.breakInHours == null ? '—' : `${formatNumber(curve.metrics.breakInHours, 0)} h`}</dd></div>
-        <div><dt className="text-xs text-ink-500">Hours run</dt><dd className="num">{s.hoursRun == null ? '—' : `${formatNumber(Number(s.hoursRun), 0)} h`}</dd></div>
-        <div><dt className="text-xs text-ink-500">Voltage loss over the run</dt><dd className="num">{s.voltageLossMv == null ? '—' : `${formatNumber(Number(s.voltageLossMv), 1)} mV`}</dd></div>
-        <div><dt className="text-xs text-ink-500">Interruptions found</dt><dd>{interruptions.length === 0 ? 'none' : interruptions.map((i) => `${i.kind} at ${formatNumber(i.startHours, 0)} h`).join(', ')}</dd></div>
-        <div><dt className="text-xs text-ink-500">Typical HT-PEM</dt><dd className="text-xs text-ink-700">10–15 µV/h standard, ≈5 µV/h improved (common practice)</dd></div>
-        {curve.metricNotes.degradationRate && <p className="col-span-2 text-xs text-amber-700">{curve.metricNotes.degradationRate}</p>}
-      </dl>
+      <DurabilityControls curve={curve} buildId={curve.buildId} canEdit={Boolean(build.data?.permissions.upload)} />
     </div>
   );
 }

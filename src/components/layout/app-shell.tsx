@@ -56,6 +56,7 @@ export function AppShell() {
                   <RailLink to={`/projects/${p.id}/compare`} indent>Compare curves</RailLink>
                   <RailLink to={`/projects/${p.id}/lineage`} indent>Lineage</RailLink>
                   <RailLink to={`/projects/${p.id}/gains`} indent>Gains</RailLink>
+                  <RailLink to={`/projects/${p.id}/durability`} indent>Durability</RailLink>
                   <RailLink to={`/projects/${p.id}/surface`} indent>Surface</RailLink>
                   <RailLink to={`/projects/${p.id}/plan`} indent>Plan</RailLink>
                   <RailLink to={`/projects/${p.id}/settings`} indent>Settings</RailLink>

@@ -26,6 +26,25 @@ export interface UploadFields {
   sheet?: string;
   label?: string;
   saveProfileAs?: string;
+  /** random id under which the server reports processing progress */
+  uploadId?: string;
+}
+
+export interface UploadProgress {
+  uploadId: string;
+  phase: 'receiving' | 'parsing' | 'measuring' | 'storing' | 'done' | 'error';
+  fraction: number | null;
+  bytesParsed: number;
+  bytesTotal: number;
+  curveId: number | null;
+  message: string | null;
+  known: boolean;
+}
+
+export const newUploadId = () => `u${Date.now().toString(36)}${Math.random().toString(36).slice(2, 10)}`;
+
+export function fetchUploadProgress(uploadId: string) {
+  return api<{ progress: UploadProgress }>(`/uploads/${uploadId}/progress`).then((r) => r.progress);
 }
 
 function formFor(file: File, fields: UploadFields) {
@@ -58,7 +77,7 @@ export function useInvalidateAfterUpload(projectId: number) {
 export function useUpdateCurve(buildId: number) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: ({ curveId, ...body }: { curveId: number; label?: string; breakInHours?: number; lossFraction?: number; windows?: { fromHours: number; toHours: number }[] }) =>
+    mutationFn: ({ curveId, ...body }: { curveId: number; label?: string; breakInHours?: number | null; lossFraction?: number; windows?: { fromHours: number; toHours: number }[] }) =>
       api<{ curve: CurveSummary }>(`/curves/${curveId}`, { method: 'PATCH', body }),
     onSuccess: () => {
       client.invalidateQueries({ queryKey: ['build', buildId] });

@@ -16,11 +16,20 @@ export function DurabilityPlot({ curve, title }: { curve: CurveSummary; title: s
   if (error || !data) return <ErrorNote error={error} />;
   const t = data.points.tHours ?? [];
   const v = data.points.v;
-  const s = curve.summary as Record<string, number | null>;
+  const s = curve.summary as Record<string, unknown>;
   const rate = curve.metrics.degradationRate ?? null;
   const breakIn = curve.metrics.breakInHours ?? 0;
   const shapes: Partial<Plotly.Shape>[] = [];
   if (breakIn > 0) shapes.push({ type: 'rect', xref: 'x', yref: 'paper', x0: 0, x1: breakIn, y0: 0, y1: 1, fillcolor: 'rgba(86,102,140,0.12)', line: { width: 0 } });
+  // interruptions: gaps and restarts shaded, current changes as a band, each labelled by word
+  const interruptions = (() => { try { return JSON.parse(String(curve.summary.interruptions ?? '[]')) as { kind: string; startHours: number; endHours: number }[]; } catch { return []; } })();
+  const annotations: Partial<Plotly.Annotation>[] = [];
+  for (const i of interruptions) {
+    const wide = i.endHours - i.startHours > 0;
+    shapes.push({ type: wide ? 'rect' : 'line', xref: 'x', yref: 'paper', x0: i.startHours, x1: wide ? i.endHours : i.startHours, y0: 0, y1: 1, fillcolor: 'rgba(230,159,0,0.18)', line: { color: '#E69F00', width: 1, dash: 'dot' } });
+    annotations.push({ x: i.startHours, y: 1, xref: 'x', yref: 'paper', text: i.kind, showarrow: false, yanchor: 'bottom', font: { size: 10, color: '#8a5a00' } });
+  }
+  if (breakIn > 0) annotations.push({ x: breakIn / 2, y: 0, xref: 'x', yref: 'paper', text: 'break-in', showarrow: false, yanchor: 'bottom', font: { size: 10, color: '#56668c' } });
   const traces: Plotly.Data[] = [{ x: t, y: v, type: 'scattergl', mode: 'lines', name: 'cell voltage', line: { color: '#0072B2', width: 1 }, hovertemplate: '%{x:.1f} h<br>%{y:.4f} V<extra></extra>' }];
   const segments = (() => { try { return JSON.parse(String(curve.summary.segments ?? '[]')) as { fromHours: number; toHours: number; startV: number; endV: number }[]; } catch { return []; } })();
   segments.forEach((g, i) => {
@@ -46,10 +55,11 @@ export function DurabilityPlot({ curve, title }: { curve: CurveSummary; title: s
           else if (e['xaxis.autorange']) setRange({});
         }}
         layout={{
-          title: { text: `${title}<br><span style="font-size:11px;color:#56668c">${rate == null ? 'rate not computed' : `${formatNumber(rate, 1)} µV/h after ${formatNumber(breakIn, 0)} h break-in (shaded)`}</span>` },
+          title: { text: `${title}<br><span style="font-size:11px;color:#56668c">${rate == null ? 'rate not computed' : `${formatNumber(rate, 1)} µV/h after ${formatNumber(breakIn, 0)} h break-in (shaded)`}${typeof s.currentDensity === 'number' ? ` · ${formatNumber(s.currentDensity, 2)} A/cm²` : ''}${typeof s.temperatureC === 'number' ? ` · ${formatNumber(s.temperatureC, 0)} °C` : ''}</span>` },
           xaxis: { title: { text: 'Time (h)' }, gridcolor: '#eeeae2', ...(range.fromHours != null && { range: [range.fromHours, range.toHours] }) },
           yaxis: { title: { text: 'Cell voltage (V)' }, gridcolor: '#eeeae2' },
           shapes,
+          annotations,
         }}
       />
     </div>

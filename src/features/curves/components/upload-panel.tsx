@@ -4,7 +4,7 @@ import { useState, useCallback } from 'react';
 import type { UploadPreview } from '@shared/api-types';
 import type { ColumnMapping, CurveKind } from '@shared/curves/types';
 import { ApiError } from '@/lib/api-client';
-import { uploadCurve, useInvalidateAfterUpload, useProfiles } from '../api/curves';
+import { fetchUploadProgress, newUploadId, uploadCurve, useInvalidateAfterUpload, useProfiles, type UploadProgress } from '../api/curves';
 import { Button } from '@/components/ui/button';
 import { Input, Select } from '@/components/ui/field';
 
@@ -12,8 +12,10 @@ export interface UploadRow {
   key: string;
   file: File;
   buildId: number | null;
-  state: 'waiting' | 'uploading' | 'done' | 'error' | 'confirm';
+  state: 'waiting' | 'uploading' | 'processing' | 'done' | 'error' | 'confirm';
   progress: number;
+  /** server-side phase once the bytes are sent */
+  processing?: Pick<UploadProgress, 'phase' | 'fraction'>;
   message?: string;
   preview?: UploadPreview;
   curveId?: number;
@@ -102,9 +104,25 @@ export function useUploadBatch(projectId: number) {
 
   const send = useCallback(async (row: UploadRow, fields: Parameters<typeof uploadCurve>[2]) => {
     if (!row.buildId) return patch(row.key, { state: 'error', message: 'Choose the build this file belongs to.' });
-    patch(row.key, { state: 'uploading', progress: 0, message: undefined });
+    patch(row.key, { state: 'uploading', progress: 0, message: undefined, processing: undefined });
+    const uploadId = newUploadId();
+    let polling = false;
+    let finished = false;
+    // once the bytes are sent, ask the server how far parsing / measuring / storing has got
+    const poll = async () => {
+      while (!finished) {
+        try {
+          const p = await fetchUploadProgress(uploadId);
+          if (!finished) patch(row.key, { state: 'processing', processing: { phase: p.phase, fraction: p.fraction } });
+        } catch { /* a missed poll is not an error; the upload's own answer decides */ }
+        await new Promise((r) => setTimeout(r, 400));
+      }
+    };
     try {
-      const result = await uploadCurve(row.buildId, row.file, fields, (f) => patch(row.key, { progress: f }));
+      const result = await uploadCurve(row.buildId, row.file, { ...fields, uploadId }, (f) => {
+        patch(row.key, { progress: f });
+        if (f >= 1 && !polling && row.file.size > 256 * 1024) { polling = true; void poll(); }
+      }).finally(() => { finished = true; });
       patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, message: `${result.curve.kind} curve, ${result.curve.pointCount.toLocaleString()} points` });
       invalidate(row.buildId);
     } catch (error) {
@@ -119,6 +137,8 @@ export function useUploadBatch(projectId: number) {
 
   return { rows, setRows, patch, send };
 }
+
+const PHASE_LABEL: Record<UploadProgress['phase'], string> = { receiving: 'server receiving…', parsing: 'parsing', measuring: 'measuring…', storing: 'storing…', done: 'finishing…', error: 'refused' };
 
 export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuild }: {
   rows: UploadRow[];
@@ -135,7 +155,7 @@ export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuil
           <div className="flex items-center gap-3">
             <span className="min-w-0 flex-1 truncate font-medium text-ink-900">{row.file.name}</span>
             {buildChoices && onChooseBuild && (
-              <Select aria-label={`Build for ${row.file.name}`} className="w-36" value={row.buildId ?? ''} onChange={(e) => onChooseBuild(row, Number(e.target.value))} disabled={row.state === 'uploading' || row.state === 'done'}>
+              <Select aria-label={`Build for ${row.file.name}`} className="w-36" value={row.buildId ?? ''} onChange={(e) => onChooseBuild(row, Number(e.target.value))} disabled={row.state === 'uploading' || row.state === 'processing' || row.state === 'done'}>
                 <option value="">— build —</option>
                 {buildChoices.map((b) => <option key={b.id} value={b.id}>{b.code}</option>)}
               </Select>
@@ -144,6 +164,14 @@ export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuil
               {row.state === 'uploading' && (
                 <span className="block h-2 overflow-hidden rounded bg-ink-100" role="progressbar" aria-valuenow={Math.round(row.progress * 100)} aria-valuemin={0} aria-valuemax={100} aria-label={`Uploading ${row.file.name}`}>
                   <span className="block h-full bg-copper-500 transition-all" style={{ width: `${Math.max(4, row.progress * 100)}%` }} />
+                </span>
+              )}
+              {row.state === 'processing' && (
+                <span className="block">
+                  <span className="block h-2 overflow-hidden rounded bg-ink-100" role="progressbar" aria-valuenow={row.processing?.fraction == null ? undefined : Math.round(row.processing.fraction * 100)} aria-valuemin={0} aria-valuemax={100} aria-label={`Processing ${row.file.name}`}>
+                    <span className={`block h-full bg-ink-500 transition-all ${row.processing?.fraction == null ? 'animate-pulse' : ''}`} style={{ width: `${row.processing?.fraction == null ? 100 : Math.max(4, row.processing.fraction * 100)}%` }} />
+                  </span>
+                  <span className="text-[11px] text-ink-500">{PHASE_LABEL[row.processing?.phase ?? 'receiving']}{row.processing?.phase === 'parsing' && row.processing.fraction != null ? ` ${Math.round(row.processing.fraction * 100)} %` : ''}</span>
                 </span>
               )}
               {row.state === 'done' && <span className="text-moss-700">✓ stored</span>}

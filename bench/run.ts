@@ -1,0 +1,149 @@
+// `npm run bench`: every figure is a ratio against a baseline measured in the same run, plus the
+// absolute numbers. Writes bench/results.json and prints a table. Heavy parts run in their own
+// processes so memory and CPU figures are theirs. Bounded: about 2–3 minutes on 2 cores.
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import zlib from 'node:zlib';
+import { execFileSync } from 'node:child_process';
+import autocannon from 'autocannon';
+import { BENCH_DIR, ROOT, runChild, startChildServer } from './lib';
+
+interface Figure {
+  figure: string;
+  measured: string;
+  baseline: string;
+  ratio: number | null;
+  /** what the issue aims for, and whether this run met it */
+  aim: string;
+  met: boolean | null;
+  details: Record<string, unknown>;
+}
+
+const figures: Figure[] = [];
+const started = performance.now();
+const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'cw-bench-'));
+const round = (value: number, digits = 2) => Number(value.toFixed(digits));
+const MB = 1024 * 1024;
+const log = (text: string) => process.stderr.write(`· ${text}\n`);
+
+// 1 and 2: ingest of a 1,000,000-row log, then reading it back for a plot
+{
+  const file = path.join(tmp, 'log-1M.csv');
+  log('writing the 1,000,000-row log');
+  const generated = await runChild<{ rows: number; bytes: number }>('generate-log.ts', [file, '1000024']);
+  log('parsing it with plain CSV parsers (baseline)');
+  const parse = await runChild<Record<string, { ms: number; rows: number; peakDeltaBytes: number }>>('parse-baseline.ts', [file]);
+  log('uploading it through the API');
+  const ingest = await runChild<{ ingest: Record<string, number> & { phasesSeen: string[] }; readBack: Record<string, number> }>('ingest.ts', [file]);
+  const [fastestName, fastest] = Object.entries(parse).sort((a, b) => a[1].ms - b[1].ms)[0]!;
+  const i = ingest.ingest;
+  const ratio = fastest.ms / i.ms;
+  const memoryMultiple = (i.peakRssBytes - i.idleRssBytes) / i.bytes;
+  figures.push({
+    figure: '1a ingest 1M-row log (upload → stored metrics)',
+    measured: `${round(i.ms / 1000)} s for ${i.rows.toLocaleString('en-US')} rows (${round(i.bytes / MB, 1)} MB)`,
+    baseline: `${fastestName} ${round(fastest.ms / 1000)} s`,
+    ratio: round(ratio),
+    aim: '≥ 0.7× the raw parse speed',
+    met: ratio >= 0.7,
+    details: { ingestMs: round(i.ms, 0), rowsPerSecond: round(i.rows / (i.ms / 1000), 0), baselines: Object.fromEntries(Object.entries(parse).map(([k, v]) => [k, round(v.ms, 0)])), phasesSeen: i.phasesSeen, worstProgressPollMs: round(i.worstProgressPollMs, 0), degradationRateUvPerH: round(i.degradationRate, 2), intervalUvPerH: [round(i.low, 2), round(i.high, 2)], breakInHours: i.breakInHours, interruptions: i.interruptions, generatedRows: generated.rows },
+  });
+  figures.push({
+    figure: '1b ingest peak memory',
+    measured: `${round((i.peakRssBytes - i.idleRssBytes) / MB, 0)} MB over idle (peak RSS ${round(i.peakRssBytes / MB, 0)} MB)`,
+    baseline: `file size ${round(i.bytes / MB, 1)} MB`,
+    ratio: round(memoryMultiple),
+    aim: '≤ 3× the file size',
+    met: memoryMultiple <= 3,
+    details: { idleRssMB: round(i.idleRssBytes / MB, 0), peakRssMB: round(i.peakRssBytes / MB, 0), plainParserPeakDeltaMB: Object.fromEntries(Object.entries(parse).map(([k, v]) => [k, round(v.peakDeltaBytes / MB, 0)])) },
+  });
+  const r = ingest.readBack;
+  figures.push({
+    figure: '2 read stored 1M-point curve, downsampled for a plot',
+    measured: `${round(r.httpMedianMs, 1)} ms over HTTP (${r.plotPoints} points); ${round(r.serviceMedianMs, 1)} ms in-process`,
+    baseline: `raw blob select ${round(r.rawBlobMedianMs, 1)} ms`,
+    ratio: round(r.rawBlobMedianMs / r.httpMedianMs),
+    aim: '< 100 ms',
+    met: r.httpMedianMs < 100,
+    details: { httpMedianMs: round(r.httpMedianMs, 1), zoomHttpMedianMs: round(r.httpZoomMedianMs, 1), serviceMedianMs: round(r.serviceMedianMs, 1), rawBlobMedianMs: round(r.rawBlobMedianMs, 1), blobMB: round(r.blobBytes / MB, 1) },
+  });
+}
+
+// 3: builds list with 10,000 builds, 50 connections, real app vs a bare Express route
+{
+  log('seeding 10,000 builds and starting both servers');
+  const { info, stop } = await startChildServer<{ realUrl: string; bareUrl: string; projectId: number; builds: number; seedMs: number; cookie: string }>('serve-builds.ts', ['10000']);
+  const cannon = (url: string, headers: Record<string, string>, duration: number) =>
+    autocannon({ url, connections: 50, duration, headers }) as unknown as Promise<{ requests: { average: number }; latency: { p99: number; p50: number }; errors: number; non2xx: number; throughput: { average: number } }>;
+  try {
+    for (const [label, query, duration] of [['full list (10,000 builds)', '', 10], ['one page (?limit=100)', '?limit=100', 8]] as const) {
+      log(`autocannon: ${label}`);
+      const realPath = `${info.realUrl}/api/projects/${info.projectId}/builds${query}`;
+      const size = (await (await fetch(realPath, { headers: { cookie: info.cookie } })).text()).length;
+      const bareSize = (await (await fetch(`${info.bareUrl}/builds${query}`)).text()).length;
+      const real = await cannon(realPath, { cookie: info.cookie }, duration);
+      const bare = await cannon(`${info.bareUrl}/builds${query}`, {}, duration);
+      const ratio = real.requests.average / bare.requests.average;
+      figures.push({
+        figure: `3 builds list, ${label}, 50 connections`,
+        measured: `${round(real.requests.average, 1)} req/s, p99 ${real.latency.p99} ms`,
+        baseline: `bare Express + better-sqlite3 ${round(bare.requests.average, 1)} req/s, p99 ${bare.latency.p99} ms`,
+        ratio: round(ratio),
+        aim: '≥ 0.5× the bare route, p99 < 50 ms',
+        met: ratio >= 0.5 && real.latency.p99 < 50,
+        details: { builds: info.builds, seedMs: round(info.seedMs, 0), responseKB: round(size / 1024, 0), bareResponseKB: round(bareSize / 1024, 0), realP50: real.latency.p50, bareP50: bare.latency.p50, errors: real.errors + real.non2xx, durationS: duration },
+      });
+    }
+  } finally {
+    await stop();
+  }
+}
+
+// 4: the fit + proposals figure of the surface work, when its bench file exists
+{
+  const file = path.join(BENCH_DIR, 'fit-proposals.ts');
+  if (fs.existsSync(file)) {
+    log('fit + proposals');
+    const { benchFitProposals } = (await import('./fit-proposals')) as { benchFitProposals: (o?: { repeats?: number }) => Promise<{ name: string; medianMs: number; baselineMedianMs: number; ratio: number; details: Record<string, number | string> }> };
+    const result = await benchFitProposals();
+    figures.push({ figure: `4 ${result.name}`, measured: `${round(result.medianMs, 1)} ms`, baseline: `${round(result.baselineMedianMs, 1)} ms`, ratio: round(result.ratio), aim: 'whole call < 100 ms', met: result.medianMs < 100, details: result.details });
+  } else {
+    figures.push({ figure: '4 fit + proposals', measured: 'skipped', baseline: '—', ratio: null, aim: '—', met: null, details: { note: 'bench/fit-proposals.ts is not there yet' } });
+  }
+}
+
+// 5: the first page's JavaScript (gzip) and the plot chunk
+{
+  log('vite build (to a temp folder)');
+  const outDir = path.join(tmp, 'dist');
+  execFileSync(process.execPath, [path.join(ROOT, 'node_modules/vite/bin/vite.js'), 'build', '--outDir', outDir, '--emptyOutDir', '--logLevel', 'error'], { cwd: ROOT, stdio: ['ignore', 'ignore', 'inherit'] });
+  const html = fs.readFileSync(path.join(outDir, 'index.html'), 'utf8');
+  const entry = [...html.matchAll(/<(?:script[^>]*\ssrc|link[^>]*rel="modulepreload"[^>]*\shref)="\/?([^"]+\.js)"/g)].map((m) => m[1]!);
+  const gz = (file: string) => zlib.gzipSync(fs.readFileSync(path.join(outDir, file)), { level: 9 }).length;
+  const entryGzip = entry.reduce((sum, f) => sum + gz(f), 0);
+  const assets = fs.readdirSync(path.join(outDir, 'assets'));
+  const plotFile = assets.filter((f) => /plotly/i.test(f) && f.endsWith('.js')).sort((a, b) => fs.statSync(path.join(outDir, 'assets', b)).size - fs.statSync(path.join(outDir, 'assets', a)).size)[0];
+  const plotGzip = plotFile ? gz(`assets/${plotFile}`) : null;
+  figures.push({
+    figure: '5 first page JavaScript (gzip) vs plot chunk',
+    measured: `${round(entryGzip / 1024, 1)} kB gzip in ${entry.length} file(s) loaded by index.html`,
+    baseline: plotGzip ? `plot chunk ${plotFile} ${round(plotGzip / 1024, 1)} kB gzip (lazy)` : 'no plot chunk found',
+    ratio: plotGzip ? round(entryGzip / plotGzip) : null,
+    aim: 'plot chunk kept out of the first page',
+    met: plotFile ? !entry.some((f) => f.includes(plotFile)) : null,
+    details: { entryFiles: entry, entryGzipBytes: entryGzip, plotChunk: plotFile ?? null, plotGzipBytes: plotGzip, plotRawBytes: plotFile ? fs.statSync(path.join(outDir, 'assets', plotFile)).size : null },
+  });
+}
+
+fs.rmSync(tmp, { recursive: true, force: true });
+const results = { ranAt: new Date().toISOString(), node: process.version, cpus: os.cpus().length, totalSeconds: round((performance.now() - started) / 1000, 1), figures };
+fs.writeFileSync(path.join(BENCH_DIR, 'results.json'), JSON.stringify(results, null, 2) + '\n');
+
+const rows = figures.map((f) => [f.figure, f.measured, f.baseline, f.ratio == null ? '—' : `${f.ratio}×`, f.aim, f.met == null ? '—' : f.met ? 'met' : 'MISSED']);
+const widths = [0, 1, 2, 3, 4, 5].map((c) => Math.max(...[['figure', 'measured', 'baseline', 'ratio', 'aim', ''], ...rows].map((r) => r[c]!.length)));
+const line = (r: string[]) => r.map((cell, c) => cell.padEnd(widths[c]!)).join(' | ');
+console.log(line(['figure', 'measured', 'baseline', 'ratio', 'aim', '']));
+console.log(widths.map((w) => '-'.repeat(w)).join('-|-'));
+for (const r of rows) console.log(line(r));
+console.log(`\n${results.totalSeconds} s in all; written to bench/results.json`);

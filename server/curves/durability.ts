@@ -1,0 +1,100 @@
+// Durability comparison of a project's builds: every durability / hold curve with its rate, 95 %
+// interval, hours run, break-in and held conditions, read from the stored summaries (no points).
+import { Router } from 'express';
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import type { AppContext } from '../context';
+import { builds, curves, labs } from '../db/schema';
+import { idParam } from '../lib/validate';
+import { requireProject, type ProjectAccess } from '../auth/access';
+import { TYPICAL_DEGRADATION_BAND } from '../../shared/durability';
+
+export interface DurabilityRow {
+  curveId: number;
+  buildId: number;
+  code: string;
+  status: string;
+  labName: string | null;
+  kind: 'durability' | 'hold';
+  label: string;
+  /** µV/h, positive = losing voltage */
+  degradationRate: number | null;
+  low: number | null;
+  high: number | null;
+  hoursRun: number | null;
+  breakInHours: number | null;
+  breakInSource: string | null;
+  voltageLossMv: number | null;
+  hoursToLoss: number | null;
+  projectedHoursToLoss: number | null;
+  lossFraction: number | null;
+  interruptions: number;
+  /** held current density, A/cm² (median of the log) */
+  currentDensity: number | null;
+  /** cell temperature, °C: the log's median, else the build's test conditions */
+  temperatureC: number | null;
+  note: string | null;
+}
+
+const num = (value: unknown): number | null => (typeof value === 'number' && Number.isFinite(value) ? value : null);
+
+function countInterruptions(text: unknown): number {
+  try {
+    const list = JSON.parse(String(text ?? '[]')) as unknown[];
+    return Array.isArray(list) ? list.length : 0;
+  } catch {
+    return 0;
+  }
+}
+
+export function durabilityComparison(ctx: AppContext, access: ProjectAccess): DurabilityRow[] {
+  const buildRows = ctx.db
+    .select({ id: builds.id, code: builds.code, status: builds.status, testConditions: builds.testConditions, labName: labs.name })
+    .from(builds)
+    .leftJoin(labs, eq(labs.id, builds.labId))
+    .where(eq(builds.projectId, access.projectId))
+    .all();
+  if (buildRows.length === 0) return [];
+  const byId = new Map(buildRows.map((b) => [b.id, b]));
+  const rows = ctx.db
+    .select({ id: curves.id, buildId: curves.buildId, kind: curves.kind, label: curves.label, metrics: curves.metrics, metricNotes: curves.metricNotes, summary: curves.summary })
+    .from(curves)
+    .where(and(inArray(curves.buildId, [...byId.keys()]), inArray(curves.kind, ['durability', 'hold'])))
+    .orderBy(asc(curves.buildId), asc(curves.id))
+    .all();
+  return rows.map((c) => {
+    const b = byId.get(c.buildId)!;
+    const s = c.summary as Record<string, unknown>;
+    return {
+      curveId: c.id,
+      buildId: b.id,
+      code: b.code,
+      status: b.status,
+      labName: b.labName ?? null,
+      kind: c.kind as 'durability' | 'hold',
+      label: c.label,
+      degradationRate: num(c.metrics.degradationRate),
+      low: num(s.degradationLow),
+      high: num(s.degradationHigh),
+      hoursRun: num(s.hoursRun),
+      breakInHours: num(c.metrics.breakInHours),
+      breakInSource: typeof s.breakInSource === 'string' ? s.breakInSource : null,
+      voltageLossMv: num(s.voltageLossMv),
+      hoursToLoss: num(s.hoursToLoss),
+      projectedHoursToLoss: num(s.projectedHoursToLoss),
+      lossFraction: num(s.lossFraction),
+      interruptions: countInterruptions(s.interruptions),
+      currentDensity: num(s.currentDensity),
+      temperatureC: num(s.temperatureC) ?? num(b.testConditions?.temperatureC),
+      note: c.metricNotes?.degradationRate ?? null,
+    };
+  });
+}
+
+export function durabilityRouter(ctx: AppContext): Router {
+  const router = Router();
+  router.get('/projects/:id/durability', (req, res) => {
+    const access = requireProject(ctx.db, req.user, idParam(req.params.id), 'read');
+    res.json({ curves: durabilityComparison(ctx, access), typicalBand: TYPICAL_DEGRADATION_BAND });
+  });
+  return router;
+}

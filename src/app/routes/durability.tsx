@@ -1,0 +1,108 @@
+// Durability comparison of a project's builds: rate ± 95 % interval against the typical band,
+// hours run, break-in and held conditions, one row per durability or hold log.
+import { Link, useParams } from 'react-router-dom';
+import { useRef } from 'react';
+import { useProject } from '@/features/projects/api/projects';
+import { useDurability, type DurabilityRow } from '@/features/durability/api/durability';
+import { bandWord } from '@/features/durability/components/durability-controls';
+import { LazyPlot, OKABE_ITO, exportPlot } from '@/components/plot/lazy-plot';
+import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
+import { Button } from '@/components/ui/button';
+import { formatNumber } from '@/lib/format';
+
+const fmt = (value: number | null, digits: number, unit: string) => (value == null ? '—' : `${formatNumber(value, digits)} ${unit}`);
+
+function WhiskerChart({ rows, band, title }: { rows: DurabilityRow[]; band: { standard: readonly [number, number]; improved: number }; title: string }) {
+  const box = useRef<HTMLDivElement>(null);
+  const shown = rows.filter((r) => r.degradationRate != null && r.kind === 'durability');
+  const labels = shown.map((r) => `${r.code} · ${r.label.slice(0, 18)}`);
+  const conditions = [...new Set(shown.map((r) => `${fmt(r.currentDensity, 2, 'A/cm²')}, ${fmt(r.temperatureC, 0, '°C')}`))].join('; ');
+  return (
+    <div ref={box}>
+      <div className="mb-2 flex justify-end gap-1.5">
+        <Button onClick={() => exportPlot(box.current, 'png', title)}>PNG</Button>
+        <Button onClick={() => exportPlot(box.current, 'svg', title)}>SVG</Button>
+      </div>
+      <LazyPlot
+        fileName={title}
+        data={[{
+          type: 'scatter', mode: 'markers', orientation: 'h', name: 'rate ± 95 % interval',
+          x: shown.map((r) => r.degradationRate!), y: labels,
+          error_x: { type: 'data', symmetric: false, array: shown.map((r) => (r.high ?? r.degradationRate!) - r.degradationRate!), arrayminus: shown.map((r) => r.degradationRate! - (r.low ?? r.degradationRate!)), color: OKABE_ITO[0], thickness: 1.5, width: 4 },
+          marker: { color: OKABE_ITO[0], size: 9, symbol: 'circle' },
+          hovertemplate: '%{y}<br>%{x:.1f} µV/h<extra></extra>',
+        }]}
+        layout={{
+          title: { text: `${title}<br><span style="font-size:11px;color:#56668c">constant-current logs after break-in · ${conditions || 'conditions not logged'} · band: typical HT-PEM (common practice)</span>` },
+          xaxis: { title: { text: 'Degradation rate (µV/h, positive = losing voltage)' }, rangemode: 'tozero', gridcolor: '#eeeae2' },
+          yaxis: { automargin: true, autorange: 'reversed' },
+          height: Math.max(260, 90 + 36 * shown.length),
+          shapes: [
+            { type: 'rect', xref: 'x', yref: 'paper', x0: band.standard[0], x1: band.standard[1], y0: 0, y1: 1, fillcolor: 'rgba(213,94,0,0.10)', line: { width: 0 } },
+            { type: 'line', xref: 'x', yref: 'paper', x0: band.improved, x1: band.improved, y0: 0, y1: 1, line: { color: '#009E73', width: 1.5, dash: 'dash' } },
+          ],
+          annotations: [
+            { x: (band.standard[0] + band.standard[1]) / 2, y: 0, xref: 'x', yref: 'paper', yanchor: 'bottom', showarrow: false, text: `standard ${band.standard[0]}–${band.standard[1]} µV/h`, font: { size: 10, color: '#8a3b00' } },
+            { x: band.improved, y: 0, xref: 'x', yref: 'paper', yanchor: 'bottom', xanchor: 'left', showarrow: false, text: `improved ≈${band.improved}`, font: { size: 10, color: '#006b4f' } },
+          ],
+        }}
+      />
+    </div>
+  );
+}
+
+export default function DurabilityPage() {
+  const projectId = Number(useParams().projectId);
+  const project = useProject(projectId);
+  const durability = useDurability(projectId);
+  if (project.isLoading || durability.isLoading) return <Loading />;
+  const error = project.error ?? durability.error;
+  if (error || !project.data || !durability.data) return <ErrorNote error={error} />;
+  const { curves, typicalBand } = durability.data;
+  return (
+    <div className="max-w-7xl">
+      <PageHeader
+        eyebrow={<Link to={`/projects/${projectId}`} className="hover:underline">{project.data.name}</Link>}
+        title="Durability"
+        subtitle="Degradation rate of each build’s constant-current log after break-in, with its 95 % interval; open-circuit holds listed apart."
+      />
+      {curves.length === 0 ? (
+        <EmptyState title="No durability logs yet">Upload a long constant-current log to a build (kind “durability”) to compare builds here.</EmptyState>
+      ) : (
+        <>
+          <Panel title="Rate against the typical band">
+            <WhiskerChart rows={curves} band={typicalBand} title={`${project.data.name} · durability`} />
+          </Panel>
+          <Panel title="Builds with durability logs" className="mt-4" bodyClassName="overflow-x-auto">
+            <table className="w-full text-sm">
+              <thead>
+                <tr className="border-b border-line text-left text-xs text-ink-500">
+                  <th className="px-3 py-2">Build</th><th className="px-3 py-2">Log</th><th className="px-3 py-2 text-right">Rate (µV/h)</th><th className="px-3 py-2 text-right">95 % interval (µV/h)</th>
+                  <th className="px-3 py-2">Against typical</th><th className="px-3 py-2 text-right">Hours run</th><th className="px-3 py-2 text-right">Break-in</th><th className="px-3 py-2 text-right">Loss over fit</th>
+                  <th className="px-3 py-2 text-right">j</th><th className="px-3 py-2 text-right">T</th><th className="px-3 py-2 text-right">Interruptions</th>
+                </tr>
+              </thead>
+              <tbody>
+                {curves.map((r) => (
+                  <tr key={r.curveId} className="border-b border-line/60">
+                    <td className="px-3 py-1.5"><Link className="font-medium text-copper-700 hover:underline" to={`/projects/${projectId}/builds/${r.buildId}`}>{r.code}</Link>{r.labName && <div className="text-[11px] text-ink-500">{r.labName}</div>}</td>
+                    <td className="px-3 py-1.5 text-xs">{r.kind === 'hold' ? 'open-circuit hold · ' : ''}{r.label}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right">{r.degradationRate == null ? '—' : formatNumber(r.degradationRate, 1)}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right text-xs">{r.low == null || r.high == null ? '—' : `${formatNumber(r.low, 1)} – ${formatNumber(r.high, 1)}`}</td>
+                    <td className="px-3 py-1.5 text-xs">{r.kind === 'hold' ? 'hold (not compared)' : bandWord(r.degradationRate) || (r.note ?? '—')}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right">{fmt(r.hoursRun, 0, 'h')}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right">{fmt(r.breakInHours, 0, 'h')}{r.breakInSource === 'user' ? ' (set)' : ''}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right">{fmt(r.voltageLossMv, 1, 'mV')}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right">{fmt(r.currentDensity, 2, 'A/cm²')}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right">{fmt(r.temperatureC, 0, '°C')}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right">{r.interruptions}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </Panel>
+        </>
+      )}
+    </div>
+  );
+}
