@@ -218,11 +218,11 @@ export async function ingestUpload(
     await yieldToEventLoop();
     let data: CurveData;
     try {
-      data = applyMapping(table, mapping, { kind, areaCm2 });
+      data = applyMapping(table, mapping, { kind, areaCm2, reuseColumns: true });
     } catch (error) {
       throw asUnprocessable(error, upload.originalName);
     }
-    // The parsed columns are now copied into `data`; let them go before measuring a big log.
+    // The mapped columns now live in `data` (converted in place); let the rest go before measuring.
     table.columns.fill(null);
     const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
     let result: MetricsResult;

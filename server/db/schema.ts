@@ -119,6 +119,8 @@ export const builds = sqliteTable('builds', {
   updatedAt: text('updated_at'),
 }, (t) => [
   uniqueIndex('builds_project_code').on(t.projectId, t.code),
+  // the builds list reads a project's builds in id order: no sort of the whole project per request
+  index('builds_project_id_idx').on(t.projectId, t.id),
   index('builds_parent_idx').on(t.parentId),
 ]);
 

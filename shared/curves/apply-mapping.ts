@@ -35,6 +35,11 @@ export interface ApplyMappingOptions {
   kind: CurveKind;
   /** active area in cm²; overrides the area read from the file's metadata */
   areaCm2?: number | null;
+  /**
+   * convert each mapped column in place instead of copying it (the table's columns then hold
+   * internal units): for big logs, where a copy per column is the memory peak of an upload
+   */
+  reuseColumns?: boolean;
 }
 
 // Limits of what a single cell can show (common practice in the trade): the H2/O2 reversible
@@ -135,6 +140,10 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
   const hfrValues = checkColumn(table, 'HFR', mapping.hfr, HFR_UNITS);
   const timeValues = checkColumn(table, 'time', mapping.time, TIME_UNITS);
   const temperatureValues = checkColumn(table, 'temperature', mapping.temperature, TEMPERATURE_UNITS);
+  // In-place conversion is safe only for a column that feeds one quantity.
+  const mappedColumns = [mapping.voltage, mapping.current, mapping.hfr, mapping.time, mapping.temperature].filter((m) => m !== undefined).map((m) => m!.column);
+  const output = (values: Float64Array, column: number): Float64Array =>
+    options.reuseColumns === true && mappedColumns.filter((c) => c === column).length === 1 ? values : new Float64Array(rowCount);
 
   // ---- area
   let areaCm2: number | null = null;
@@ -171,7 +180,7 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
   // ---- voltage
   const voltageUnit = mapping.voltage.unit;
   const voltageScale = voltageFactor(voltageUnit);
-  const v = new Float64Array(rowCount);
+  const v = output(voltageValues, mapping.voltage.column);
   const voltageName = table.header[mapping.voltage.column];
   for (let row = 0; row < rowCount; row++) {
     const volts = voltageValues[row] * voltageScale;
@@ -195,7 +204,7 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const scale = currentDensityFactor(currentUnit, areaCm2);
     const currentName = table.header[mapping.current.column];
     const total = currentUnit === 'A' || currentUnit === 'mA';
-    j = new Float64Array(rowCount);
+    j = output(currentValues, mapping.current.column);
     for (let row = 0; row < rowCount; row++) {
       const density = currentValues[row] * scale;
       if (density < MIN_CURRENT_DENSITY || density > MAX_CURRENT_DENSITY || density !== density) {
@@ -226,7 +235,7 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const hfrUnit = mapping.hfr.unit;
     const scale = hfrFactor(hfrUnit, areaCm2);
     const hfrName = table.header[mapping.hfr.column];
-    const hfr = new Float64Array(rowCount);
+    const hfr = output(hfrValues, mapping.hfr.column);
     for (let row = 0; row < rowCount; row++) {
       const asr = hfrValues[row] * scale;
       if (!(asr >= 0 && asr <= MAX_HFR_OHM_CM2)) {
@@ -248,21 +257,24 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const timeUnit = mapping.time.unit;
     const scale = hoursFactor(timeUnit);
     const timeName = table.header[mapping.time.column];
-    const tHours = new Float64Array(rowCount);
+    const tHours = output(timeValues, mapping.time.column);
     // Epoch seconds (~1.7e9) lose resolution when scaled first: subtract the first value.
     const origin = timeUnit === 'timestamp' ? timeValues[0] : 0;
     let base = (timeValues[0] - origin) * scale;
     let offset = 0;
+    // the file's previous value, kept aside because tHours may overwrite timeValues in place
+    let previousValue = timeValues[0];
     for (let row = 0; row < rowCount; row++) {
-      const raw = (timeValues[row] - origin) * scale;
+      const value = timeValues[row];
+      const raw = (value - origin) * scale;
       if (row > 0) {
-        const previousRaw = (timeValues[row - 1] - origin) * scale;
+        const previousRaw = (previousValue - origin) * scale;
         if (raw < previousRaw) {
           const isRestart = timeUnit !== 'timestamp' && raw >= 0 && raw <= RESTART_FRACTION * previousRaw;
           if (!isRestart) {
             throw new CurveFileError(
               'time-backwards',
-              `line ${lines[row]}, column "${timeName}": time goes back from ${formatValue(timeValues[row - 1])} to ${formatValue(timeValues[row])} ${UNIT_LABEL[timeUnit]}; rows must be in time order (a restart from 0 is allowed)`,
+              `line ${lines[row]}, column "${timeName}": time goes back from ${formatValue(previousValue)} to ${formatValue(value)} ${UNIT_LABEL[timeUnit]}; rows must be in time order (a restart from 0 is allowed)`,
               { line: lines[row], column: timeName },
             );
           }
@@ -275,6 +287,7 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
         }
       }
       tHours[row] = raw - base + offset;
+      previousValue = value;
     }
     if (curve.timeResets.length > 0) {
       notes.push(`time restarted near 0 at ${curve.timeResets.length === 1 ? 'line' : 'lines'} ${curve.timeResets.map((reset) => reset.line).join(', ')}; elapsed hours carried on`);
@@ -286,7 +299,7 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
   if (temperatureValues !== null && mapping.temperature !== undefined) {
     const temperatureUnit = mapping.temperature.unit;
     const temperatureName = table.header[mapping.temperature.column];
-    const temperatureC = new Float64Array(rowCount);
+    const temperatureC = output(temperatureValues, mapping.temperature.column);
     const shift = temperatureUnit === 'K' ? -ZERO_CELSIUS_K : 0;
     for (let row = 0; row < rowCount; row++) {
       const celsius = temperatureValues[row] + shift;

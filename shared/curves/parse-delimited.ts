@@ -184,6 +184,9 @@ class GrowableFloat64 {
     this.data[this.length++] = value;
   }
   toArray(): Float64Array {
+    // A view when little capacity is unused (saves a copy of a big log's column at the
+    // moment memory peaks); a trimmed copy otherwise.
+    if (this.length >= this.data.length * 0.75) return this.data.subarray(0, this.length);
     return this.data.slice(0, this.length);
   }
 }

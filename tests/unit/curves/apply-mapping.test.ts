@@ -113,3 +113,25 @@ describe('applyMapping errors', () => {
     expect(errorOf(() => applyMapping(table, { current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' } }, { kind: 'polarization', areaCm2: -4 })).code).toBe('bad-area');
   });
 });
+
+describe('applyMapping with reuseColumns (in-place conversion for big logs)', () => {
+  it('gives the same curve as the copying path, including a restarted clock', () => {
+    // invented log: minutes with a restart from 0, mA/cm², mV; expected values are the copying path's
+    const text = 'Time (min),j (mA/cm2),U (mV)\n0,200,650\n60,200,649\n120,200,648\n0,200,655\n60,200,654\n';
+    const copy = applyMapping(parseDelimitedText(text), { time: { column: 0, unit: 'min' }, current: { column: 1, unit: 'mA/cm2' }, voltage: { column: 2, unit: 'mV' } }, { kind: 'durability' });
+    const table = parseDelimitedText(text);
+    const inPlace = applyMapping(table, { time: { column: 0, unit: 'min' }, current: { column: 1, unit: 'mA/cm2' }, voltage: { column: 2, unit: 'mV' } }, { kind: 'durability', reuseColumns: true });
+    expect(Array.from(inPlace.tHours!)).toEqual(Array.from(copy.tHours!));
+    expect(Array.from(inPlace.j)).toEqual(Array.from(copy.j));
+    expect(Array.from(inPlace.v)).toEqual(Array.from(copy.v));
+    expect(inPlace.timeResets).toEqual(copy.timeResets);
+    expect(inPlace.v).toBe(table.columns[2]); // converted where it stood, no copy
+  });
+
+  it('copies a column that feeds two quantities', () => {
+    const table = parseDelimitedText('a (V),b (A/cm2)\n0.6,0.2\n0.5,0.4\n');
+    const curve = applyMapping(table, { current: { column: 1, unit: 'A/cm2' }, voltage: { column: 0, unit: 'V' }, hfr: { column: 1, unit: 'ohm*cm2' } }, { kind: 'polarization', reuseColumns: true });
+    expect(Array.from(curve.j)).toEqual([0.2, 0.4]); // input values, derived by hand
+    expect(Array.from(curve.hfr!)).toEqual([0.2, 0.4]);
+  });
+});

@@ -1,0 +1,1 @@
+CREATE INDEX `builds_project_id_idx` ON `builds` (`project_id`,`id`);
