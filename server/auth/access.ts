@@ -58,12 +58,24 @@ export function projectRole(db: Db, user: AuthUser, projectId: number): ProjectR
  * Resolve the user's access to a project and check one action.
  * A project the user cannot see answers 404 (not 403), so partners cannot probe for projects.
  */
+const accessStatements = new WeakMap<object, { projectRole: import('better-sqlite3').Statement }>();
+
+/**
+ * Resolve the user's access to a project and check one action.
+ * A project the user cannot see answers 404 (not 403), so partners cannot probe for projects.
+ */
 export function requireProject(db: Db, user: AuthUser | undefined, projectId: number, action: ProjectAction): ProjectAccess {
   const who = requireUser(user);
-  const project = db.select({ id: projects.id }).from(projects).where(eq(projects.id, projectId)).get();
-  if (!project) throw notFound(`Project ${projectId}`);
+  let statements = accessStatements.get(db.$client);
+  if (!statements) {
+    // asked on every project route: one prepared join, compiled once per database
+    statements = { projectRole: db.$client.prepare('select p.id, m.role from projects p left join memberships m on m.project_id = p.id and m.user_id = ? where p.id = ?') };
+    accessStatements.set(db.$client, statements);
+  }
+  const found = statements.projectRole.get(who.id, projectId) as { id: number; role: ProjectRole | null } | undefined;
+  if (!found) throw notFound(`Project ${projectId}`);
   if (who.isAdmin) return { projectId, role: 'admin', user: who };
-  const role = projectRole(db, who, projectId);
+  const role = found.role;
   if (!role) throw notFound(`Project ${projectId}`);
   if (!ROLE_MATRIX[action].includes(role)) throw forbidden(`Your role (${role}) in this project does not allow: ${describe(action)}.`);
   return { projectId, role, user: who };

@@ -1,8 +1,7 @@
 // Cookie sessions stored in SQLite (revocable) and personal API tokens; resolves req.user.
 import type { Request, Response, NextFunction } from 'express';
-import { and, eq, isNull, gt } from 'drizzle-orm';
 import type { AppContext, AuthUser } from '../context';
-import { apiTokens, labs, sessions, users } from '../db/schema';
+import { sessions } from '../db/schema';
 import { newToken, sha256 } from './tokens';
 import { AppError } from '../lib/errors';
 
@@ -27,15 +26,48 @@ export function setSessionCookie(req: Request, res: Response, token: string, exp
   });
 }
 
-function loadAuthUser(ctx: AppContext, userId: number): AuthUser | null {
-  const row = ctx.db
-    .select({ id: users.id, email: users.email, name: users.name, isAdmin: users.isAdmin, labId: users.labId, labKind: labs.kind, disabledAt: users.disabledAt })
-    .from(users)
-    .leftJoin(labs, eq(labs.id, users.labId))
-    .where(eq(users.id, userId))
-    .get();
-  if (!row || row.disabledAt) return null;
-  return { id: row.id, email: row.email, name: row.name, isAdmin: row.isAdmin, labId: row.labId, labKind: row.labKind ?? null };
+interface AuthRow {
+  id: number;
+  email: string;
+  name: string;
+  isAdmin: number;
+  labId: number | null;
+  labKind: 'home' | 'partner' | null;
+  sessionId?: number;
+  csrfToken?: string;
+  tokenId?: number;
+  lastUsedAt?: string | null;
+}
+
+const USER_COLUMNS = 'u.id, u.email, u.name, u.is_admin as isAdmin, u.lab_id as labId, l.kind as labKind';
+
+/** Every request resolves its caller: one prepared join per way in, compiled once per database. */
+const statements = new WeakMap<object, ReturnType<typeof prepareAuth>>();
+function prepareAuth(ctx: AppContext) {
+  const sqlite = ctx.db.$client;
+  return {
+    session: sqlite.prepare(
+      `select ${USER_COLUMNS}, s.id as sessionId, s.csrf_token as csrfToken from sessions s join users u on u.id = s.user_id left join labs l on l.id = u.lab_id
+       where s.token_hash = ? and s.revoked_at is null and s.expires_at > ? and u.disabled_at is null`,
+    ),
+    token: sqlite.prepare(
+      `select ${USER_COLUMNS}, t.id as tokenId, t.last_used_at as lastUsedAt, u.disabled_at as disabledAt from api_tokens t join users u on u.id = t.user_id left join labs l on l.id = u.lab_id
+       where t.token_hash = ? and t.revoked_at is null`,
+    ),
+    touchToken: sqlite.prepare('update api_tokens set last_used_at = ? where id = ?'),
+  };
+}
+function auth(ctx: AppContext) {
+  let found = statements.get(ctx.db.$client);
+  if (!found) {
+    found = prepareAuth(ctx);
+    statements.set(ctx.db.$client, found);
+  }
+  return found;
+}
+
+function toAuthUser(row: AuthRow): AuthUser {
+  return { id: row.id, email: row.email, name: row.name, isAdmin: Boolean(row.isAdmin), labId: row.labId, labKind: row.labKind ?? null };
 }
 
 /** Reads a Bearer token or the session cookie; never rejects — routes decide. */
@@ -44,31 +76,23 @@ export function authenticate(ctx: AppContext) {
     const header = req.get('authorization');
     const now = new Date().toISOString();
     if (header?.startsWith('Bearer ')) {
-      const token = header.slice(7).trim();
-      const row = ctx.db.select().from(apiTokens).where(and(eq(apiTokens.tokenHash, sha256(token)), isNull(apiTokens.revokedAt))).get();
+      const row = auth(ctx).token.get(sha256(header.slice(7).trim())) as (AuthRow & { disabledAt: string | null }) | undefined;
       if (!row) return next(new AppError(401, 'bad-token', 'The API token is unknown or revoked.'));
-      const user = loadAuthUser(ctx, row.userId);
-      if (!user) return next(new AppError(401, 'bad-token', 'The API token belongs to a disabled account.'));
-      req.user = user;
+      if (row.disabledAt) return next(new AppError(401, 'bad-token', 'The API token belongs to a disabled account.'));
+      req.user = toAuthUser(row);
       req.authVia = 'token';
-      ctx.db.update(apiTokens).set({ lastUsedAt: now }).where(eq(apiTokens.id, row.id)).run();
+      // "last used" to the minute: no write on every request of a busy script
+      if (!row.lastUsedAt || Date.parse(now) - Date.parse(row.lastUsedAt) > 60_000) auth(ctx).touchToken.run(now, row.tokenId);
       return next();
     }
     const cookie = (req.cookies as Record<string, string> | undefined)?.[SESSION_COOKIE];
     if (cookie) {
-      const row = ctx.db
-        .select()
-        .from(sessions)
-        .where(and(eq(sessions.tokenHash, sha256(cookie)), isNull(sessions.revokedAt), gt(sessions.expiresAt, now)))
-        .get();
+      const row = auth(ctx).session.get(sha256(cookie), now) as AuthRow | undefined;
       if (row) {
-        const user = loadAuthUser(ctx, row.userId);
-        if (user) {
-          req.user = user;
-          req.authVia = 'cookie';
-          req.sessionId = row.id;
-          req.csrfToken = row.csrfToken;
-        }
+        req.user = toAuthUser(row);
+        req.authVia = 'cookie';
+        req.sessionId = row.sessionId;
+        req.csrfToken = row.csrfToken;
       }
     }
     next();

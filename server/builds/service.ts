@@ -5,6 +5,7 @@ import type { z } from 'zod';
 import type { AppContext } from '../context';
 import { builds, curves, labs, projects, users } from '../db/schema';
 import { buildCreateSchema, buildUpdateSchema, checkFactorValues } from '../../shared/schemas/build';
+import type { Build } from '../../shared/api-types';
 import { audit } from '../lib/audit';
 import { AppError, conflict, notFound } from '../lib/errors';
 import { requireBuildWrite, requireProject, requireUser, type ProjectAccess } from '../auth/access';
@@ -15,35 +16,8 @@ import { notifyBuildTested } from '../review/notify';
 type BuildRow = typeof builds.$inferSelect;
 const parent = alias(builds, 'parent');
 
-export interface BuildListItem {
-  id: number;
-  projectId: number;
-  code: string;
-  parentId: number | null;
-  parentCode: string | null;
-  changeNote: string | null;
-  factors: Record<string, number | string>;
-  loadingMgCm2: number | null;
-  metalLoadingMgCm2: number | null;
-  areaCm2: number | null;
-  catalystLot: string | null;
-  labId: number | null;
-  labName: string | null;
-  operatorId: number | null;
-  operatorName: string | null;
-  status: BuildRow['status'];
-  builtOn: string | null;
-  testedOn: string | null;
-  replicateOf: number | null;
-  testConditions: BuildRow['testConditions'];
-  responses: Record<string, number>;
-  /** curve metrics (current metrics version) merged with hand-entered responses */
-  values: Record<string, number | null>;
-  curveCount: number;
-  notes: string;
-  createdAt: string;
-  updatedAt: string | null;
-}
+/** A build as the API lists it: one definition, shared/api-types `Build`. */
+export type BuildListItem = Build;
 
 const METRIC_FROM_KIND: Record<string, string[]> = {
   polarization: ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'],
@@ -60,11 +34,9 @@ function selectBuilds(ctx: AppContext) {
     .leftJoin(users, eq(users.id, builds.operatorId));
 }
 
-/** Latest curve of each kind per build gives that build's metric values. */
 function metricValues(ctx: AppContext, buildIds: number[], metricsVersion: number) {
-  const byBuild = new Map<number, { values: Record<string, number | null>; count: number }>();
-  if (buildIds.length === 0) return byBuild;
-  const rows: { buildId: number; kind: string; metrics: Record<string, number | null>; metricsVersion: number }[] = [];
+  if (buildIds.length === 0) return new Map<number, { values: Record<string, number | null>; count: number }>();
+  const rows: CurveMetricRow[] = [];
   for (let i = 0; i < buildIds.length; i += 900) {
     const chunk = buildIds.slice(i, i + 900);
     rows.push(
@@ -73,9 +45,22 @@ function metricValues(ctx: AppContext, buildIds: number[], metricsVersion: numbe
         .from(curves)
         .where(inArray(curves.buildId, chunk))
         .orderBy(asc(curves.id))
-        .all() as never[]),
+        .all() as unknown as CurveMetricRow[]),
     );
   }
+  return summarizeMetrics(rows, metricsVersion);
+}
+
+interface CurveMetricRow {
+  buildId: number;
+  kind: string;
+  metrics: Record<string, number | null>;
+  metricsVersion: number;
+}
+
+/** The latest curve of each kind gives the build's metric values (polarization: current version only). */
+function summarizeMetrics(rows: CurveMetricRow[], metricsVersion: number) {
+  const byBuild = new Map<number, { values: Record<string, number | null>; count: number }>();
   for (const row of rows) {
     const entry = byBuild.get(row.buildId) ?? { values: {}, count: 0 };
     entry.count += 1;
@@ -126,24 +111,66 @@ function projectVersion(ctx: AppContext, projectId: number): number {
   return ctx.db.select({ v: projects.metricsVersion }).from(projects).where(eq(projects.id, projectId)).get()?.v ?? 1;
 }
 
+/**
+ * The builds list is the hottest read (tables, gains, surface, scripts): its two queries are
+ * prepared once per database and take the project, status and page as parameters.
+ */
+const listStatements = new WeakMap<object, ReturnType<typeof prepareList>>();
+
+// Raw prepared SQL (not the query builder) because this list is read on every table view and by
+// partner scripts: building and mapping the query per request cost more than running it.
+const LIST_SQL = `select b.id, b.project_id as projectId, b.code, b.parent_id as parentId, b.change_note as changeNote,
+  b.factor_values as factorValues, b.loading_mg_cm2 as loadingMgCm2, b.metal_loading_mg_cm2 as metalLoadingMgCm2,
+  b.area_cm2 as areaCm2, b.catalyst_lot as catalystLot, b.lab_id as labId, b.operator_id as operatorId,
+  b.test_conditions as testConditions, b.status, b.built_on as builtOn, b.tested_on as testedOn,
+  b.replicate_of as replicateOf, b.response_values as responseValues, b.notes, b.created_by as createdBy,
+  b.created_at as createdAt, b.updated_at as updatedAt,
+  p.code as parentCode, l.name as labName, u.name as operatorName
+  from builds b left join builds p on p.id = b.parent_id left join labs l on l.id = b.lab_id left join users u on u.id = b.operator_id
+  where b.project_id = @projectId and (@status is null or b.status = @status)
+  order by b.id limit @limit offset @offset`;
+
+type RawBuildRow = Omit<BuildRow, 'factorValues' | 'testConditions' | 'responseValues'> & { factorValues: string; testConditions: string; responseValues: string; parentCode: string | null; labName: string | null; operatorName: string | null };
+
+function prepareList(ctx: AppContext) {
+  const sqlite = ctx.db.$client;
+  return {
+    builds: sqlite.prepare(LIST_SQL),
+    // metrics of the curves of exactly that page of builds, in upload order
+    curvesOfPage: sqlite.prepare(
+      `select build_id as buildId, kind, metrics, metrics_version as metricsVersion from curves
+       where build_id in (select id from builds where project_id = @projectId and (@status is null or status = @status) order by id limit @limit offset @offset)
+       order by id`,
+    ),
+    version: sqlite.prepare('select metrics_version as v from projects where id = ?'),
+  };
+}
+
 export function listBuilds(ctx: AppContext, access: ProjectAccess, options: { status?: string; limit?: number; offset?: number } = {}): BuildListItem[] {
-  const where = options.status
-    ? and(eq(builds.projectId, access.projectId), eq(builds.status, options.status as BuildRow['status']))
-    : eq(builds.projectId, access.projectId);
-  let query = selectBuilds(ctx).where(where).orderBy(asc(builds.id)).$dynamic();
-  if (options.limit) query = query.limit(options.limit).offset(options.offset ?? 0);
-  const rows = query.all();
-  const metrics = metricValues(ctx, rows.map((r) => r.b.id), projectVersion(ctx, access.projectId));
-  return rows.map((r) => toItem(r, metrics.get(r.b.id)));
+  let statements = listStatements.get(ctx.db.$client);
+  if (!statements) {
+    statements = prepareList(ctx);
+    listStatements.set(ctx.db.$client, statements);
+  }
+  const params = { projectId: access.projectId, status: options.status ?? null, limit: options.limit ?? -1, offset: options.offset ?? 0 };
+  const rows = statements.builds.all(params) as RawBuildRow[];
+  const curveRows = statements.curvesOfPage.all(params) as { buildId: number; kind: string; metrics: string; metricsVersion: number }[];
+  const version = (statements.version.get(access.projectId) as { v: number } | undefined)?.v ?? 1;
+  const metrics = summarizeMetrics(curveRows.map((r) => ({ ...r, metrics: JSON.parse(r.metrics) as Record<string, number | null> })), version);
+  return rows.map((r) => {
+    const { parentCode, labName, operatorName, ...rest } = r;
+    const b = { ...rest, factorValues: JSON.parse(r.factorValues), testConditions: JSON.parse(r.testConditions), responseValues: JSON.parse(r.responseValues) } as BuildRow;
+    return toItem({ b, parentCode, labName, operatorName }, metrics.get(r.id));
+  });
 }
 
 export function loadBuildRow(ctx: AppContext, buildId: number): BuildRow {
   const row = ctx.db.select().from(builds).where(eq(builds.id, buildId)).get();
-  if (!row) throw notFound(`Build ${buildId}`);
+  if (!row) throw notFound(`BuildListItem ${buildId}`);
   return row;
 }
 
-/** Build and the caller's access to its project (404 when the project is not visible). */
+/** BuildListItem and the caller's access to its project (404 when the project is not visible). */
 export function accessBuild(ctx: AppContext, user: AuthUser | undefined, buildId: number, action: Parameters<typeof requireProject>[3] = 'read') {
   requireUser(user);
   const row = loadBuildRow(ctx, buildId);
@@ -153,7 +180,7 @@ export function accessBuild(ctx: AppContext, user: AuthUser | undefined, buildId
 
 export function getBuildItem(ctx: AppContext, buildId: number): BuildListItem {
   const row = selectBuilds(ctx).where(eq(builds.id, buildId)).get();
-  if (!row) throw notFound(`Build ${buildId}`);
+  if (!row) throw notFound(`BuildListItem ${buildId}`);
   const metrics = metricValues(ctx, [buildId], projectVersion(ctx, row.b.projectId));
   return toItem(row, metrics.get(buildId));
 }
@@ -243,7 +270,7 @@ export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.outp
   validateRelations(ctx, access.projectId, body);
   const code = body.code ?? nextCode(ctx, access.projectId);
   if (db.select({ id: builds.id }).from(builds).where(and(eq(builds.projectId, access.projectId), eq(builds.code, code))).get()) {
-    throw conflict(`Build code ${code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
+    throw conflict(`BuildListItem code ${code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
   }
   const row = db
     .insert(builds)
@@ -284,7 +311,7 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   if (body.factors !== undefined || body.status !== undefined) checkFactors(ctx, before.projectId, factorValues, status);
   validateRelations(ctx, before.projectId, body, before.id);
   if (body.code && body.code !== before.code && db.select({ id: builds.id }).from(builds).where(and(eq(builds.projectId, before.projectId), eq(builds.code, body.code))).get()) {
-    throw conflict(`Build code ${body.code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
+    throw conflict(`BuildListItem code ${body.code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
   }
   const set: Partial<typeof builds.$inferInsert> = { updatedAt: new Date().toISOString() };
   if (body.code !== undefined) set.code = body.code;
