@@ -5,6 +5,14 @@ import type { ColumnMapping, CurveKind, CurveMetrics, FileConditions, MetricMeth
 
 export type { FactorDef, ResponseDef, ProjectSettings, TestConditions, ProjectRole, BuildStatus };
 
+// Feature answers (and their request bodies), one file per feature.
+export type * from './api-types/responses';
+export type * from './api-types/durability';
+export type * from './api-types/doe';
+export type * from './api-types/lineage';
+export type * from './api-types/review';
+export type * from './api-types/uploads';
+
 export interface Me {
   user: { id: number; email: string; name: string; isAdmin: boolean; labId: number | null; labKind: 'home' | 'partner' | null };
   roles: { projectId: number; role: ProjectRole; notify: boolean }[];
@@ -46,6 +54,7 @@ export interface Build {
   replicateOf: number | null;
   testConditions: TestConditions;
   responses: Record<string, number>;
+  /** curve metrics (current metrics version) merged with hand-entered responses */
   values: Record<string, number | null>;
   curveCount: number;
   notes: string;
@@ -80,7 +89,7 @@ export interface LineageNode {
 
 export interface BuildDetail {
   build: Build;
-  lineage: { ancestors: LineageNode[]; children: LineageNode[]; replicates: { id: number; code: string; status: string }[] };
+  lineage: { ancestors: LineageNode[]; children: LineageNode[]; replicates: { id: number; code: string; status: string }[]; changeFromParent: string | null };
   curves: CurveSummary[];
   permissions: { edit: boolean; upload: boolean; review: boolean; comment: boolean };
 }

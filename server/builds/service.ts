@@ -12,6 +12,7 @@ import { requireBuildWrite, requireProject, requireUser, type ProjectAccess } fr
 import type { AuthUser } from '../context';
 import { listFactors, listResponses } from '../projects/service';
 import { notifyBuildTested } from '../review/notify';
+import { describeChanges, diffRecipe } from '../../shared/lineage';
 
 type BuildRow = typeof builds.$inferSelect;
 const parent = alias(builds, 'parent');
@@ -166,11 +167,11 @@ export function listBuilds(ctx: AppContext, access: ProjectAccess, options: { st
 
 export function loadBuildRow(ctx: AppContext, buildId: number): BuildRow {
   const row = ctx.db.select().from(builds).where(eq(builds.id, buildId)).get();
-  if (!row) throw notFound(`BuildListItem ${buildId}`);
+  if (!row) throw notFound(`Build ${buildId}`);
   return row;
 }
 
-/** BuildListItem and the caller's access to its project (404 when the project is not visible). */
+/** Build and the caller's access to its project (404 when the project is not visible). */
 export function accessBuild(ctx: AppContext, user: AuthUser | undefined, buildId: number, action: Parameters<typeof requireProject>[3] = 'read') {
   requireUser(user);
   const row = loadBuildRow(ctx, buildId);
@@ -180,7 +181,7 @@ export function accessBuild(ctx: AppContext, user: AuthUser | undefined, buildId
 
 export function getBuildItem(ctx: AppContext, buildId: number): BuildListItem {
   const row = selectBuilds(ctx).where(eq(builds.id, buildId)).get();
-  if (!row) throw notFound(`BuildListItem ${buildId}`);
+  if (!row) throw notFound(`Build ${buildId}`);
   const metrics = metricValues(ctx, [buildId], projectVersion(ctx, row.b.projectId));
   return toItem(row, metrics.get(buildId));
 }
@@ -207,7 +208,18 @@ export function lineage(ctx: AppContext, build: BuildRow) {
     .from(builds)
     .where(and(eq(builds.projectId, build.projectId), sql`(${builds.replicateOf} = ${build.replicateOf ?? build.id} or ${builds.id} = ${build.replicateOf ?? -1}) and ${builds.id} <> ${build.id}`))
     .all();
-  return { ancestors, children, replicates };
+  return { ancestors, children, replicates, changeFromParent: changeFromParent(ctx, build) };
+}
+
+/** "binder 20 → 30 wt %, activation 2 → 4 h": what changed from the parent, diffed from the records. */
+function changeFromParent(ctx: AppContext, build: BuildRow): string | null {
+  if (build.parentId == null) return null;
+  const parentRow = ctx.db.select().from(builds).where(eq(builds.id, build.parentId)).get();
+  if (!parentRow) return null;
+  const labName = (id: number | null) => (id == null ? null : (ctx.db.select({ name: labs.name }).from(labs).where(eq(labs.id, id)).get()?.name ?? null));
+  const snapshot = (b: BuildRow) => ({ factors: b.factorValues, loadingMgCm2: b.loadingMgCm2, metalLoadingMgCm2: b.metalLoadingMgCm2, catalystLot: b.catalystLot, labName: labName(b.labId), testConditions: b.testConditions });
+  const text = describeChanges(diffRecipe(snapshot(parentRow), snapshot(build), listFactors(ctx, build.projectId)));
+  return text || 'no recorded difference';
 }
 
 function nextCode(ctx: AppContext, projectId: number): string {
@@ -270,7 +282,7 @@ export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.outp
   validateRelations(ctx, access.projectId, body);
   const code = body.code ?? nextCode(ctx, access.projectId);
   if (db.select({ id: builds.id }).from(builds).where(and(eq(builds.projectId, access.projectId), eq(builds.code, code))).get()) {
-    throw conflict(`BuildListItem code ${code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
+    throw conflict(`Build code ${code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
   }
   const row = db
     .insert(builds)
@@ -311,7 +323,7 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   if (body.factors !== undefined || body.status !== undefined) checkFactors(ctx, before.projectId, factorValues, status);
   validateRelations(ctx, before.projectId, body, before.id);
   if (body.code && body.code !== before.code && db.select({ id: builds.id }).from(builds).where(and(eq(builds.projectId, before.projectId), eq(builds.code, body.code))).get()) {
-    throw conflict(`BuildListItem code ${body.code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
+    throw conflict(`Build code ${body.code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
   }
   const set: Partial<typeof builds.$inferInsert> = { updatedAt: new Date().toISOString() };
   if (body.code !== undefined) set.code = body.code;

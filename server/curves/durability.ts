@@ -7,33 +7,7 @@ import { builds, curves, labs } from '../db/schema';
 import { idParam } from '../lib/validate';
 import { requireProject, type ProjectAccess } from '../auth/access';
 import { TYPICAL_DEGRADATION_BAND } from '../../shared/durability';
-
-export interface DurabilityRow {
-  curveId: number;
-  buildId: number;
-  code: string;
-  status: string;
-  labName: string | null;
-  kind: 'durability' | 'hold';
-  label: string;
-  /** µV/h, positive = losing voltage */
-  degradationRate: number | null;
-  low: number | null;
-  high: number | null;
-  hoursRun: number | null;
-  breakInHours: number | null;
-  breakInSource: string | null;
-  voltageLossMv: number | null;
-  hoursToLoss: number | null;
-  projectedHoursToLoss: number | null;
-  lossFraction: number | null;
-  interruptions: number;
-  /** held current density, A/cm² (median of the log) */
-  currentDensity: number | null;
-  /** cell temperature, °C: the log's median, else the build's test conditions */
-  temperatureC: number | null;
-  note: string | null;
-}
+import type { DurabilityComparison, DurabilityRow } from '../../shared/api-types';
 
 const num = (value: unknown): number | null => (typeof value === 'number' && Number.isFinite(value) ? value : null);
 
@@ -94,7 +68,8 @@ export function durabilityRouter(ctx: AppContext): Router {
   const router = Router();
   router.get('/projects/:id/durability', (req, res) => {
     const access = requireProject(ctx.db, req.user, idParam(req.params.id), 'read');
-    res.json({ curves: durabilityComparison(ctx, access), typicalBand: TYPICAL_DEGRADATION_BAND });
+    const answer: DurabilityComparison = { curves: durabilityComparison(ctx, access), typicalBand: TYPICAL_DEGRADATION_BAND };
+    res.json(answer);
   });
   return router;
 }

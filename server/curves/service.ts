@@ -15,6 +15,7 @@ import { audit } from '../lib/audit';
 import { AppError, notFound } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
 import type { ProgressReporter } from '../uploads/progress';
+import type { UploadFields } from '../../shared/api-types';
 import { notifyAfterUpload } from '../review/notify';
 
 /** Give the event loop a turn between the long synchronous steps of a big upload. */
@@ -23,14 +24,8 @@ const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resol
 type BuildRow = typeof builds.$inferSelect;
 type CurveRow = typeof curves.$inferSelect;
 
-export interface UploadOptions {
-  kind?: CurveKind;
-  areaCm2?: number;
-  profileId?: number;
-  mapping?: ColumnMapping;
-  sheet?: string;
-  label?: string;
-  saveProfileAs?: string;
+/** The upload form's fields (the router takes uploadId for progress) plus what the server adds. */
+export interface UploadOptions extends Omit<UploadFields, 'uploadId'> {
   /** only detect and preview; store nothing */
   previewOnly?: boolean;
   /** where to report parsing / measuring / storing progress (large uploads) */

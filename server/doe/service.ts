@@ -8,9 +8,24 @@ import { builds, labs } from '../db/schema';
 import { audit } from '../lib/audit';
 import { AppError } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
-import { createBuild, listBuilds, type BuildListItem } from '../builds/service';
+import { createBuild, listBuilds } from '../builds/service';
 import { listFactors, listResponses, METRIC_KEYS } from '../projects/service';
 import type { FactorDef, ResponseDef } from '../../shared/schemas/project';
+import type {
+  Build,
+  DesignBody,
+  DesignFactorChoice,
+  GeneratedDesign,
+  PlanRun,
+  PlanRunsBody,
+  ProposalItem,
+  ProposalsRequest,
+  ProposalsResult,
+  ResponseInfo,
+  SurfaceRequest,
+  SurfaceResult,
+  SurfaceRun,
+} from '../../shared/api-types';
 import {
   canonicalAnalysis,
   checkExtrapolation,
@@ -19,16 +34,10 @@ import {
   fitSurface,
   generateDesign,
   proposeBuilds,
-  type Design,
   type DesignFactor,
-  type DesignRequest,
   type Factor,
-  type ModelSpec,
   type Observation,
-  type Proposal,
-  type ProposalConstraints,
   type ProposalGoal,
-  type ProposalStrategy,
   type SurfaceFit,
 } from '../../shared/doe/index';
 
@@ -56,17 +65,6 @@ function guard<T>(work: () => T): T {
 
 // ---------------------------------------------------------------------------------------------
 // Designs
-
-export interface DesignFactorChoice {
-  key: string;
-  /** a narrower (or wider) range for this design, in the factor's unit */
-  low?: number;
-  high?: number;
-  /** a subset of the categorical levels */
-  levels?: string[];
-}
-
-export type DesignBody = Omit<DesignRequest, 'factors'> & { factors: (string | DesignFactorChoice)[] };
 
 function designFactors(defs: FactorDef[], chosen: (string | DesignFactorChoice)[]): DesignFactor[] {
   const issues: FieldIssue[] = [];
@@ -98,7 +96,7 @@ function designFactors(defs: FactorDef[], chosen: (string | DesignFactorChoice)[
 }
 
 /** Generates a design over the project's factors (not stored: the client sends runs back to plan them). */
-export function generateProjectDesign(ctx: AppContext, access: ProjectAccess, body: DesignBody): { design: Design; factors: FactorDef[] } {
+export function generateProjectDesign(ctx: AppContext, access: ProjectAccess, body: DesignBody): GeneratedDesign {
   const defs = listFactors(ctx, access.projectId);
   const factors = designFactors(defs, body.factors);
   const design = guard(() => generateDesign({ ...body, factors }));
@@ -108,30 +106,6 @@ export function generateProjectDesign(ctx: AppContext, access: ProjectAccess, bo
 // ---------------------------------------------------------------------------------------------
 // Design runs → planned builds
 
-export interface PlanRun {
-  runOrder: number;
-  block?: number;
-  pointType?: string;
-  standardOrder?: number;
-  actual: Record<string, number | string>;
-}
-
-export interface PlanBody {
-  runs: PlanRun[];
-  parentId?: number | null;
-  /** lab of every run, unless its block has its own entry in labsByBlock */
-  labId?: number | null;
-  /** block number → lab id */
-  labsByBlock?: Record<string, number>;
-  loadingMgCm2?: number | null;
-  areaCm2?: number | null;
-  /** what the design is for, written into each build's change note */
-  note?: string;
-  /** design kind and seed, recorded in each build's notes so the plan can be traced */
-  designKind?: string;
-  seed?: number;
-}
-
 function roundSetting(value: number): number {
   // designs carry 12 significant digits; a lab sheet needs far fewer, and rounding must not
   // push a value across a bound, so the bound check below runs on the rounded value
@@ -139,7 +113,7 @@ function roundSetting(value: number): number {
 }
 
 /** Turns design runs into planned builds in one transaction: every run is checked first, then all are created or none. */
-export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: PlanBody): { builds: BuildListItem[] } {
+export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: PlanRunsBody): { builds: Build[] } {
   const defs = listFactors(ctx, access.projectId);
   const issues: FieldIssue[] = [];
   const runs = [...body.runs].sort((a, b) => a.runOrder - b.runOrder);
@@ -184,7 +158,7 @@ export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: Pla
   }
   const total = runs.length;
   const created = ctx.db.transaction(() => {
-    const out: BuildListItem[] = [];
+    const out: Build[] = [];
     for (const { run, factors } of [...prepared].sort((a, b) => a.run.runOrder - b.run.runOrder)) {
       const block = run.block ?? 1;
       const labId = body.labsByBlock?.[String(block)] ?? body.labId ?? null;
@@ -227,15 +201,6 @@ const METRIC_UNITS: Record<string, string> = {
   tafelSlope: 'mV/dec', hfr: 'Ω·cm²', degradationRate: 'µV/h', breakInHours: 'h',
 };
 
-export interface ResponseInfo {
-  key: string;
-  label: string;
-  unit: string;
-  source: 'curve' | 'hand-entered';
-  goal: 'maximize' | 'minimize' | 'target';
-  target: number | null;
-}
-
 function responseInfo(defs: ResponseDef[], key: string, path = 'response'): ResponseInfo {
   if (METRIC_KEYS.includes(key)) {
     return { key, label: key, unit: METRIC_UNITS[key] ?? '', source: 'curve', goal: MINIMIZED_METRICS.has(key) ? 'minimize' : 'maximize', target: null };
@@ -248,53 +213,18 @@ function responseInfo(defs: ResponseDef[], key: string, path = 'response'): Resp
   return { key, label: def.label, unit: def.unit, source: 'hand-entered', goal: def.goal, target: def.target ?? null };
 }
 
-export interface SurfaceBody {
-  response: string;
-  model: ModelSpec;
-  /** factor keys to fit over; default every factor of the project */
-  factors?: string[];
-  /** builds to leave out of the fit (e.g. a known bad electrode) */
-  exclude?: number[];
-}
-
-export interface SurfaceRun {
-  buildId: number;
-  code: string;
-  labName: string | null;
-  factors: Record<string, number | string>;
-  observed: number;
-  predicted: number;
-  residual: number;
-  leverage: number;
-}
-
-export interface SurfaceResult {
-  response: ResponseInfo;
-  factors: FactorDef[];
-  fit: SurfaceFit;
-  runs: SurfaceRun[];
-  skipped: { buildId: number; code: string; reason: string }[];
-  /** project factors left out of a default fit, with the reason */
-  omittedFactors: { key: string; reason: string }[];
-  canonical: ReturnType<typeof canonicalAnalysis> | null;
-  /** highest observed value per continuous factor over all the project's builds (for safety cautions) */
-  observedMax: Record<string, number>;
-  /** gases used in the fitted builds' tests (e.g. "H2/air") */
-  gases: string[];
-}
-
 interface FitContext {
   response: ResponseInfo;
   defs: FactorDef[];
   chosen: FactorDef[];
   fit: SurfaceFit;
-  used: BuildListItem[];
-  all: BuildListItem[];
+  used: Build[];
+  all: Build[];
   skipped: { buildId: number; code: string; reason: string }[];
   omitted: { key: string; reason: string }[];
 }
 
-function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceBody): FitContext {
+function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest): FitContext {
   const defs = listFactors(ctx, access.projectId);
   const response = responseInfo(listResponses(ctx, access.projectId), body.response);
   const all = listBuilds(ctx, access);
@@ -314,7 +244,7 @@ function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceBody): 
     throw invalid(422, 'too-few-runs', `No factor can be fitted yet${why}.`, [{ path: 'factors', message: 'choose at least one factor' }]);
   }
   const exclude = new Set(body.exclude ?? []);
-  const used: BuildListItem[] = [];
+  const used: Build[] = [];
   const skipped: FitContext['skipped'] = [];
   for (const build of all) {
     if (build.status !== 'tested' && build.status !== 'reviewed') continue;
@@ -347,7 +277,7 @@ function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceBody): 
  * that vary among them (a factor added after the builds were made, or held constant, cannot be
  * estimated). The others are reported, not silently dropped.
  */
-function defaultFactorKeys(defs: FactorDef[], all: BuildListItem[], responseKey: string, omitted: { key: string; reason: string }[]): string[] {
+function defaultFactorKeys(defs: FactorDef[], all: Build[], responseKey: string, omitted: { key: string; reason: string }[]): string[] {
   const candidates = all.filter((b) => (b.status === 'tested' || b.status === 'reviewed') && b.values[responseKey] != null && Number.isFinite(b.values[responseKey]));
   const keys: string[] = [];
   for (const f of defs) {
@@ -365,7 +295,7 @@ function defaultFactorKeys(defs: FactorDef[], all: BuildListItem[], responseKey:
   return keys;
 }
 
-function observedMaxima(defs: FactorDef[], all: BuildListItem[]): Record<string, number> {
+function observedMaxima(defs: FactorDef[], all: Build[]): Record<string, number> {
   const out: Record<string, number> = {};
   for (const f of defs) {
     if (f.kind !== 'continuous') continue;
@@ -378,7 +308,7 @@ function observedMaxima(defs: FactorDef[], all: BuildListItem[]): Record<string,
   return out;
 }
 
-function gasesOf(used: BuildListItem[]): string[] {
+function gasesOf(used: Build[]): string[] {
   const set = new Set<string>();
   for (const b of used) {
     const c = b.testConditions ?? {};
@@ -388,7 +318,7 @@ function gasesOf(used: BuildListItem[]): string[] {
 }
 
 /** Fits the chosen response over the chosen factors on the project's tested and reviewed builds. */
-export function fitProjectSurface(ctx: AppContext, access: ProjectAccess, body: SurfaceBody): SurfaceResult {
+export function fitProjectSurface(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest): SurfaceResult {
   const { response, defs, chosen, fit, used, all, skipped, omitted } = fitContext(ctx, access, body);
   let canonical: SurfaceResult['canonical'] = null;
   if (fit.terms.some((t) => t.includes('^2'))) {
@@ -413,22 +343,6 @@ export function fitProjectSurface(ctx: AppContext, access: ProjectAccess, body: 
 
 // ---------------------------------------------------------------------------------------------
 // Proposals
-
-export interface ProposalsBody extends SurfaceBody {
-  goal?: 'maximize' | 'minimize' | { target: number };
-  count: number;
-  strategy?: ProposalStrategy;
-  constraints?: ProposalConstraints;
-  seed?: number;
-}
-
-export interface ProposalItem extends Proposal {
-  extrapolationReasons: string[];
-  /** nearest observed (fitted) build in coded units, the natural parent of a planned build */
-  nearest: { buildId: number; code: string; distance: number } | null;
-  /** why a safety note applies to this proposal (empty when none) */
-  cautions: string[];
-}
 
 function codedDistance(chosen: FactorDef[], a: Record<string, number | string>, b: Record<string, number | string>): number {
   let sum = 0;
@@ -464,7 +378,7 @@ function cautionsFor(proposal: Record<string, number | string>, defs: FactorDef[
 }
 
 /** Proposes the next builds from a fresh fit of the chosen response. */
-export function proposeProjectBuilds(ctx: AppContext, access: ProjectAccess, body: ProposalsBody): { proposals: ProposalItem[]; response: ResponseInfo; goal: ProposalGoal; strategy: ProposalStrategy; fit: { n: number; r2: number; rmse: number; predR2: number | null; warnings: string[] } } {
+export function proposeProjectBuilds(ctx: AppContext, access: ProjectAccess, body: ProposalsRequest): ProposalsResult {
   const { response, defs, chosen, fit, used, all } = fitContext(ctx, access, body);
   let goal: ProposalGoal;
   if (body.goal !== undefined) goal = body.goal;

@@ -3,19 +3,10 @@
 import type { AppContext } from '../context';
 import type { ProjectAccess } from '../auth/access';
 import { AppError } from '../lib/errors';
-import { listBuilds, type BuildListItem } from '../builds/service';
+import { listBuilds } from '../builds/service';
 import { listFactors, listResponses, METRIC_KEYS } from '../projects/service';
 import { bestPath, buildLineageTree, describeChanges, diffRecipe, groupReplicates, type LineageGoal, type LineageTree, type RecipeChange, type ReplicateGrouping } from '../../shared/lineage';
-
-export interface ResponseInfo {
-  key: string;
-  label: string;
-  /** the internal unit the values are in */
-  unit: string;
-  goal: 'maximize' | 'minimize' | 'target';
-  target: number | null;
-  source: 'curve' | 'hand-entered';
-}
+import type { Build, LineageData, ResponseInfo } from '../../shared/api-types';
 
 const CURVE_RESPONSES: Record<string, Omit<ResponseInfo, 'key' | 'source' | 'target'>> = {
   vAtRef: { label: 'V at j_ref', unit: 'V', goal: 'maximize' },
@@ -53,15 +44,15 @@ export function goalOf(response: ResponseInfo): LineageGoal {
 }
 
 export interface ProjectLineage {
-  builds: BuildListItem[];
-  byId: Map<number, BuildListItem>;
+  builds: Build[];
+  byId: Map<number, Build>;
   grouping: ReplicateGrouping;
   tree: LineageTree;
   /** measured value of the response on one build, null when not measured */
-  valueOf: (build: BuildListItem) => number | null;
+  valueOf: (build: Build) => number | null;
 }
 
-export function valueFor(build: BuildListItem, key: string): number | null {
+export function valueFor(build: Build, key: string): number | null {
   const value = build.values[key];
   return typeof value === 'number' && Number.isFinite(value) ? value : null;
 }
@@ -72,7 +63,7 @@ export function loadLineage(ctx: AppContext, access: ProjectAccess, responseKey:
   const byId = new Map(builds.map((b) => [b.id, b]));
   const grouping = groupReplicates(builds.map((b) => ({ id: b.id, factors: b.factors, loadingMgCm2: b.loadingMgCm2, catalystLot: b.catalystLot, labId: b.labId, replicateOf: b.replicateOf, status: b.status })));
   // Discarded builds show in the tree but carry no value into any summary.
-  const valueOf = (b: BuildListItem) => (b.status === 'discarded' ? null : valueFor(b, responseKey));
+  const valueOf = (b: Build) => (b.status === 'discarded' ? null : valueFor(b, responseKey));
   const tree = buildLineageTree(
     builds.map((b) => ({ id: b.id, code: b.code, parentId: b.parentId, status: b.status, changeNote: b.changeNote, value: valueOf(b) })),
     grouping,
@@ -81,14 +72,14 @@ export function loadLineage(ctx: AppContext, access: ProjectAccess, responseKey:
 }
 
 /** The recipe change of a build from its parent, as data and as text. */
-export function changesFromParent(child: BuildListItem, parent: BuildListItem | undefined, factors: ReturnType<typeof listFactors>): { changes: RecipeChange[]; text: string } | null {
+export function changesFromParent(child: Build, parent: Build | undefined, factors: ReturnType<typeof listFactors>): { changes: RecipeChange[]; text: string } | null {
   if (!parent) return null;
-  const snapshot = (b: BuildListItem) => ({ factors: b.factors, loadingMgCm2: b.loadingMgCm2, metalLoadingMgCm2: b.metalLoadingMgCm2, catalystLot: b.catalystLot, labName: b.labName, testConditions: b.testConditions as Record<string, number | string | null | undefined> });
+  const snapshot = (b: Build) => ({ factors: b.factors, loadingMgCm2: b.loadingMgCm2, metalLoadingMgCm2: b.metalLoadingMgCm2, catalystLot: b.catalystLot, labName: b.labName, testConditions: b.testConditions as Record<string, number | string | null | undefined> });
   const changes = diffRecipe(snapshot(parent), snapshot(child), factors);
   return { changes, text: describeChanges(changes) };
 }
 
-export function lineageView(ctx: AppContext, access: ProjectAccess, responseKey: string) {
+export function lineageView(ctx: AppContext, access: ProjectAccess, responseKey: string): Omit<LineageData, 'responses'> {
   const response = resolveResponse(ctx, access.projectId, responseKey);
   const lineage = loadLineage(ctx, access, response.key);
   const factors = listFactors(ctx, access.projectId);

@@ -7,18 +7,9 @@ import { auditLog, builds, memberships, projects, reviews, users } from '../db/s
 import { audit } from '../lib/audit';
 import { conflict, forbidden } from '../lib/errors';
 import { notifyVerdict } from './notify';
+import type { AuditTrailEntry, ReviewEntry } from '../../shared/api-types';
 
 type BuildRow = typeof builds.$inferSelect;
-
-export interface ReviewEntry {
-  id: number;
-  buildId: number;
-  userId: number;
-  userName: string | null;
-  body: string;
-  verdict: 'approved' | 'needs-work' | null;
-  createdAt: string;
-}
 
 export function listThread(ctx: AppContext, buildId: number): ReviewEntry[] {
   return ctx.db
@@ -60,7 +51,7 @@ export async function giveVerdict(ctx: AppContext, access: ProjectAccess, build:
 }
 
 /** Who changed what on one build, newest first: the build itself, its curves and its reviews. */
-export function buildAuditTrail(ctx: AppContext, build: BuildRow, limit = 200) {
+export function buildAuditTrail(ctx: AppContext, build: BuildRow, limit = 200): AuditTrailEntry[] {
   const reviewIds = ctx.db.select({ id: reviews.id }).from(reviews).where(eq(reviews.buildId, build.id)).all().map((r) => r.id);
   const rows = ctx.db
     .select({ a: auditLog, userName: users.name })

@@ -2,21 +2,7 @@
 // phase and fraction while it parses, measures and stores; the browser polls it by uploadId.
 // Entries belong to the user who sent the file and expire a few minutes after they finish.
 
-export type UploadPhase = 'receiving' | 'parsing' | 'measuring' | 'storing' | 'done' | 'error';
-
-export interface UploadProgress {
-  uploadId: string;
-  phase: UploadPhase;
-  /** fraction of the current phase done, 0–1 (parsing: bytes parsed / file size); null when unknown */
-  fraction: number | null;
-  bytesParsed: number;
-  bytesTotal: number;
-  /** the stored curve, once done */
-  curveId: number | null;
-  /** why it stopped, when phase = error */
-  message: string | null;
-  updatedAt: string;
-}
+import type { UploadPhase, UploadProgress } from '../../shared/api-types';
 
 interface Entry extends UploadProgress {
   userId: number;

@@ -4,6 +4,7 @@ import type { BuildLoading, CurveData, MetricMethod, MetricsResult, ReferencePoi
 import type { CurveMetrics, MetricKey } from './types';
 import { stepAverage } from './step-average';
 import type { CurveStep, CurveSweep, StepAverageOptions } from './step-average';
+import { CompensatedSum } from '../stats/compensated-sum';
 
 export interface PolarizationMetricsOptions {
   step?: StepAverageOptions;
@@ -27,20 +28,6 @@ interface SweepCurve {
 interface Curve {
   j: number[];
   y: number[];
-}
-
-class CompensatedSum {
-  private sum = 0;
-  private compensation = 0;
-  add(value: number): void {
-    const total = this.sum + value;
-    if (Math.abs(this.sum) >= Math.abs(value)) this.compensation += this.sum - total + value;
-    else this.compensation += value - total + this.sum;
-    this.sum = total;
-  }
-  value(): number {
-    return this.sum + this.compensation;
-  }
 }
 
 // A sweep's steps in ascending j; equal j (within round-off) merged by averaging.

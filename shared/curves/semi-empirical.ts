@@ -3,6 +3,7 @@
 import type { CurveData } from './types';
 import { fromCurrentDensity } from '../units/current-density';
 import { fromOhmCm2 } from '../units/area-specific-resistance';
+import { mulberry32 } from '../stats/mulberry32';
 
 /** Gas constant, J/(mol·K) — CODATA 2018 (exact since the 2019 SI redefinition). */
 export const GAS_CONSTANT = 8.314462618;
@@ -79,23 +80,8 @@ export function semiEmpiricalVoltage(params: SemiEmpiricalParams, currentDensity
   return params.e0 - activation - ohmic - massTransport;
 }
 
-/**
- * Seeded pseudo-random numbers in [0, 1): mulberry32, a 32-bit-state generator, enough for
- * reproducible test noise (not for statistics that need long periods).
- * Reference: T. Ettinger, "mulberry32" (public-domain PRNG, 2017).
- * Cost: O(1) per number.
- * @example const random = mulberry32(42); random() // same value on every run
- */
-export function mulberry32(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Seeded uniform numbers in [0, 1): the one mulberry32 (shared/stats/mulberry32), re-exported here for curve callers. */
+export { mulberry32 };
 
 function gaussian(random: () => number): number {
   // Box–Muller; 1 − u keeps the logarithm away from 0

@@ -1,6 +1,7 @@
 // Groups the readings of a polarization curve into current steps, averages each step, splits
 // the steps into up and down sweeps, and flags points past the limiting current.
 import type { CurveData } from './types';
+import { CompensatedSum } from '../stats/compensated-sum';
 
 export interface StepAverageOptions {
   /** readings within this fraction of the step's mean j belong to it; default 0.02 (2 %) */
@@ -48,21 +49,6 @@ export interface StepAverageResult {
   /** number of readings in those steps */
   pastLimitReadings: number;
   notes: string[];
-}
-
-// Neumaier's compensated sum: the error stays at one rounding whatever the number of terms.
-class CompensatedSum {
-  private sum = 0;
-  private compensation = 0;
-  add(value: number): void {
-    const total = this.sum + value;
-    if (Math.abs(this.sum) >= Math.abs(value)) this.compensation += this.sum - total + value;
-    else this.compensation += value - total + this.sum;
-    this.sum = total;
-  }
-  value(): number {
-    return this.sum + this.compensation;
-  }
 }
 
 function finishStep(curve: CurveData, first: number, last: number): CurveStep {

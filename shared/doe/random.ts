@@ -1,6 +1,7 @@
 // Seeded pseudo-random numbers for designed experiments: the same seed must give the same
 // Latin hypercube and the same run order on the server, in the browser and in a year's time,
 // so Math.random (unseeded, engine-specific) is never used for anything that is stored.
+import { mulberry32 as uniformFromSeed } from '../stats/mulberry32';
 
 /** A source of uniform numbers in [0, 1). */
 export type RandomSource = () => number;
@@ -12,25 +13,15 @@ function checkSeed(functionName: string, seed: number): void {
 }
 
 /**
- * mulberry32: a 32-bit-state generator that returns uniform numbers in [0, 1).
- * Each call adds the Weyl constant 0x6D2B79F5 to the state and mixes it with two
- * multiply-xorshift rounds; the result is the top 32 bits scaled by 2⁻³².
- * Reference: the public-domain "mulberry32" generator (period 2³²); good enough for
- * shuffling run orders and drawing Latin hypercubes, NOT for cryptography.
+ * mulberry32 (the one implementation, shared/stats/mulberry32) with this module's seed rule:
+ * uniform numbers in [0, 1), the same for a seed on every platform.
  * Cost: O(1) per draw.
  * @throws RangeError when the seed is not an integer (any integer is reduced modulo 2³²).
  * @example const random = mulberry32(42); random() // same number on every platform
  */
 export function mulberry32(seed: number): RandomSource {
   checkSeed('mulberry32', seed);
-  let state = seed >>> 0;
-  return function next(): number {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let mixed = state;
-    mixed = Math.imul(mixed ^ (mixed >>> 15), mixed | 1);
-    mixed ^= mixed + Math.imul(mixed ^ (mixed >>> 7), mixed | 61);
-    return ((mixed ^ (mixed >>> 14)) >>> 0) / 4294967296;
-  };
+  return uniformFromSeed(seed);
 }
 
 /**

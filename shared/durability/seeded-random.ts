@@ -1,24 +1,17 @@
 // Seeded pseudo-random numbers for synthetic logs and demo seeds: the same seed gives the same log
 // in the browser, the server and the tests.
+import { mulberry32 as uniformFromSeed } from '../stats/mulberry32';
 
 /**
- * mulberry32: a 32-bit-state generator returning uniform numbers in [0, 1).
- * Reference: the public-domain mulberry32 generator (Tommy Ettinger, 2017). Good enough for test
- * data and demo seeds, not for cryptography.
+ * mulberry32 (the one implementation, shared/stats/mulberry32) with this module's seed rule:
+ * uniform numbers in [0, 1); a fractional seed is truncated toward zero, then reduced modulo 2³².
  * Cost: O(1) per draw.
  * @throws RangeError when the seed is not a finite number.
  * @example mulberry32(1)() // same value every time
  */
 export function mulberry32(seed: number): () => number {
   if (!Number.isFinite(seed)) throw new RangeError(`mulberry32: seed must be a finite number, got ${seed}`);
-  let state = Math.trunc(seed) >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  return uniformFromSeed(Math.trunc(seed));
 }
 
 /**

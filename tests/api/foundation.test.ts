@@ -191,6 +191,8 @@ describe('builds', () => {
     expect(res.body.lineage.ancestors.map((a: { code: string }) => a.code)).toEqual(['C-001', 'C-004', 'C-006']);
     expect(res.body.lineage.children.map((a: { code: string }) => a.code)).toEqual(expect.arrayContaining(['C-009', 'C-010']));
     expect(res.body.lineage.replicates.map((a: { code: string }) => a.code)).toEqual(['C-008']);
+    // diffed from the records (demo seed: C-006 has 20 wt %, C-007 30 wt %)
+    expect(res.body.lineage.changeFromParent).toBe('PTFE binder 20 → 30 wt %');
   });
 
   it('records every write in the audit log with before and after', async () => {

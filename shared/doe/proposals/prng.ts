@@ -1,19 +1,15 @@
-// A tiny seeded pseudo-random generator, so the same seed gives the same proposals on the
-// server and in the browser. Not for cryptography.
+// A seeded pseudo-random generator, so the same seed gives the same proposals on the server and
+// in the browser. Not for cryptography.
+import { mulberry32 } from '../../stats/mulberry32';
 
 /**
- * Mulberry32: a 32-bit state generator returning uniform numbers in [0, 1).
- * Reference: T. Ettinger's public-domain mulberry32 (2017); passes gjrand's tests for its size.
+ * Uniform numbers in [0, 1) from mulberry32 (shared/stats/mulberry32), with this module's seed
+ * rule: the seed is floored, reduced modulo 2³², a non-finite seed reads as 0, and a seed of 0
+ * becomes 0x9E3779B9 (so seed 0 does not give the same stream as mulberry32(0)).
  * Cost: O(1) per draw.
+ * @throws never.
  * @example const next = seededUniform(42); next() // 0.6011…
  */
 export function seededUniform(seed: number): () => number {
-  let state = (Math.floor(Number.isFinite(seed) ? seed : 0) >>> 0) || 0x9e3779b9;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  return mulberry32((Math.floor(Number.isFinite(seed) ? seed : 0) >>> 0) || 0x9e3779b9);
 }

@@ -68,6 +68,11 @@ function Lineage({ detail, projectId }: { detail: BuildDetail; projectId: number
         <li className="rounded bg-ink-100 px-1.5 font-semibold text-ink-950">{detail.build.code}</li>
       </ol>
       {ancestors.length === 0 && <p className="text-xs text-ink-500">A baseline: no parent build.</p>}
+      {detail.lineage.changeFromParent && (
+        <p className="text-xs text-ink-700" title="diffed from the recorded recipe, loading, lot, lab and test conditions">
+          <span className="text-ink-500">Changed from {ancestors[ancestors.length - 1]?.code}: </span>{detail.lineage.changeFromParent}
+        </p>
+      )}
       <div>
         <div className="text-xs text-ink-500">Children</div>
         {children.length === 0 ? <p className="text-xs text-ink-500">None yet.</p> : (

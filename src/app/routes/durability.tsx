@@ -15,7 +15,7 @@ const fmt = (value: number | null, digits: number, unit: string) => (value == nu
 function WhiskerChart({ rows, band, title }: { rows: DurabilityRow[]; band: { standard: readonly [number, number]; improved: number }; title: string }) {
   const box = useRef<HTMLDivElement>(null);
   const shown = rows.filter((r) => r.degradationRate != null && r.kind === 'durability');
-  const labels = shown.map((r) => `${r.code} · ${r.label.slice(0, 18)}`);
+  const labels = shown.map((r) => `${r.code} · ${r.label.length > 22 ? `${r.label.slice(0, 21)}…` : r.label}`);
   const conditions = [...new Set(shown.map((r) => `${fmt(r.currentDensity, 2, 'A/cm²')}, ${fmt(r.temperatureC, 0, '°C')}`))].join('; ');
   return (
     <div ref={box}>
@@ -37,6 +37,7 @@ function WhiskerChart({ rows, band, title }: { rows: DurabilityRow[]; band: { st
           xaxis: { title: { text: 'Degradation rate (µV/h, positive = losing voltage)' }, rangemode: 'tozero', gridcolor: '#eeeae2' },
           yaxis: { automargin: true, autorange: 'reversed' },
           height: Math.max(260, 90 + 36 * shown.length),
+          margin: { l: 190, r: 32, t: 64, b: 56 },
           shapes: [
             { type: 'rect', xref: 'x', yref: 'paper', x0: band.standard[0], x1: band.standard[1], y0: 0, y1: 1, fillcolor: 'rgba(213,94,0,0.10)', line: { width: 0 } },
             { type: 'line', xref: 'x', yref: 'paper', x0: band.improved, x1: band.improved, y0: 0, y1: 1, line: { color: '#009E73', width: 1.5, dash: 'dash' } },

@@ -1,8 +1,8 @@
 // Curves: points of one curve, uploads (with progress), previews, profiles, curve options.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api, uploadWithProgress } from '@/lib/api-client';
-import type { CurvePoints, CurveSummary, UploadPreview } from '@shared/api-types';
-import type { ColumnMapping, CurveKind } from '@shared/curves/types';
+import type { CurvePoints, CurveSummary, UploadFields, UploadPreview, UploadProgress } from '@shared/api-types';
+import type { CurveKind } from '@shared/curves/types';
 
 export const curveQueryOptions = (curveId: number, range?: { fromHours?: number; toHours?: number; maxPoints?: number }) =>
   queryOptions({
@@ -18,33 +18,12 @@ export const curveQueryOptions = (curveId: number, range?: { fromHours?: number;
   });
 export const useCurve = (curveId: number, range?: { fromHours?: number; toHours?: number; maxPoints?: number }) => useQuery(curveQueryOptions(curveId, range));
 
-export interface UploadFields {
-  kind?: CurveKind;
-  areaCm2?: number;
-  profileId?: number;
-  mapping?: ColumnMapping;
-  sheet?: string;
-  label?: string;
-  saveProfileAs?: string;
-  /** random id under which the server reports processing progress */
-  uploadId?: string;
-}
-
-export interface UploadProgress {
-  uploadId: string;
-  phase: 'receiving' | 'parsing' | 'measuring' | 'storing' | 'done' | 'error';
-  fraction: number | null;
-  bytesParsed: number;
-  bytesTotal: number;
-  curveId: number | null;
-  message: string | null;
-  known: boolean;
-}
+export type { UploadFields, UploadProgress };
 
 export const newUploadId = () => `u${Date.now().toString(36)}${Math.random().toString(36).slice(2, 10)}`;
 
 export function fetchUploadProgress(uploadId: string) {
-  return api<{ progress: UploadProgress }>(`/uploads/${uploadId}/progress`).then((r) => r.progress);
+  return api<{ progress: UploadProgress & { known: boolean } }>(`/uploads/${uploadId}/progress`).then((r) => r.progress);
 }
 
 function formFor(file: File, fields: UploadFields) {

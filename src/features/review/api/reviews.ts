@@ -1,28 +1,11 @@
 // A build's review thread, comments, verdicts and audit trail.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import type { AuditTrailEntry, ReviewEntry } from '@shared/api-types';
 
-export interface ReviewEntry {
-  id: number;
-  buildId: number;
-  userId: number;
-  userName: string | null;
-  body: string;
-  verdict: 'approved' | 'needs-work' | null;
-  createdAt: string;
-}
-
-export interface AuditEntry {
-  id: number;
-  at: string;
-  userId: number | null;
-  userName: string | null;
-  action: string;
-  entity: string;
-  entityId: number | null;
-  changes: { field: string; from: unknown; to: unknown }[];
-  summary: string;
-}
+/** one line of a build's audit trail */
+export type AuditEntry = AuditTrailEntry;
+export type { ReviewEntry };
 
 export const reviewsQueryOptions = (buildId: number) =>
   queryOptions({ queryKey: ['reviews', buildId], queryFn: () => api<{ reviews: ReviewEntry[]; status: string }>(`/builds/${buildId}/reviews`) });

@@ -3,48 +3,9 @@
 // anywhere (contours, what-if) without another round trip.
 import { keepPreviousData, queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import type { FactorDef } from '@shared/api-types';
-import type { CanonicalAnalysis, ModelSpec, SurfaceFit } from '@shared/doe/model/index';
-import type { Proposal, ProposalConstraints, ProposalGoal, ProposalStrategy } from '@shared/doe/proposals/index';
+import type { ProposalItem, ProposalsRequest, ProposalsResult, ResponseInfo, SurfaceRequest, SurfaceResult } from '@shared/api-types';
 
-export interface SurfaceRequest {
-  response: string;
-  model: ModelSpec;
-  factors?: string[];
-  exclude?: number[];
-}
-
-export interface ResponseInfo {
-  key: string;
-  label: string;
-  unit: string;
-  source: 'curve' | 'hand-entered';
-  goal: 'maximize' | 'minimize' | 'target';
-  target: number | null;
-}
-
-export interface SurfaceRun {
-  buildId: number;
-  code: string;
-  labName: string | null;
-  factors: Record<string, number | string>;
-  observed: number;
-  predicted: number;
-  residual: number;
-  leverage: number;
-}
-
-export interface SurfaceResult {
-  response: ResponseInfo;
-  factors: FactorDef[];
-  fit: SurfaceFit;
-  runs: SurfaceRun[];
-  skipped: { buildId: number; code: string; reason: string }[];
-  omittedFactors: { key: string; reason: string }[];
-  canonical: CanonicalAnalysis | null;
-  observedMax: Record<string, number>;
-  gases: string[];
-}
+export type { ProposalItem, ProposalsRequest, ProposalsResult, ResponseInfo, SurfaceRequest, SurfaceResult };
 
 export const surfaceQueryOptions = (projectId: number, request: SurfaceRequest | null) =>
   queryOptions({
@@ -56,28 +17,6 @@ export const surfaceQueryOptions = (projectId: number, request: SurfaceRequest |
     placeholderData: keepPreviousData,
   });
 export const useSurface = (projectId: number, request: SurfaceRequest | null) => useQuery(surfaceQueryOptions(projectId, request));
-
-export interface ProposalsRequest extends SurfaceRequest {
-  goal?: ProposalGoal;
-  count: number;
-  strategy?: ProposalStrategy;
-  constraints?: ProposalConstraints;
-  seed?: number;
-}
-
-export interface ProposalItem extends Proposal {
-  extrapolationReasons: string[];
-  nearest: { buildId: number; code: string; distance: number } | null;
-  cautions: string[];
-}
-
-export interface ProposalsResult {
-  proposals: ProposalItem[];
-  response: ResponseInfo;
-  goal: ProposalGoal;
-  strategy: ProposalStrategy;
-  fit: { n: number; r2: number; rmse: number; predR2: number | null; warnings: string[] };
-}
 
 export function useProposals(projectId: number) {
   return useMutation({

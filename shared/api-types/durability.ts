@@ -1,0 +1,34 @@
+// Answer of GET /api/projects/:id/durability: every durability / hold curve of a project's builds
+// with its rate, 95 % interval, hours run, break-in and held conditions (from stored summaries).
+
+export interface DurabilityRow {
+  curveId: number;
+  buildId: number;
+  code: string;
+  status: string;
+  labName: string | null;
+  kind: 'durability' | 'hold';
+  label: string;
+  /** µV/h, positive = losing voltage */
+  degradationRate: number | null;
+  low: number | null;
+  high: number | null;
+  hoursRun: number | null;
+  breakInHours: number | null;
+  breakInSource: string | null;
+  voltageLossMv: number | null;
+  hoursToLoss: number | null;
+  projectedHoursToLoss: number | null;
+  lossFraction: number | null;
+  interruptions: number;
+  /** held current density, A/cm² (median of the log) */
+  currentDensity: number | null;
+  /** cell temperature, °C: the log's median, else the build's test conditions */
+  temperatureC: number | null;
+  note: string | null;
+}
+
+export interface DurabilityComparison {
+  curves: DurabilityRow[];
+  typicalBand: { standard: readonly [number, number]; improved: number };
+}
