@@ -3,6 +3,7 @@
 // next builds. The statistics live in shared/doe; this file finds the data, checks the rules
 // and turns input errors from the shared code into 4xx answers.
 import { and, eq, inArray } from 'drizzle-orm';
+import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
 import type { AppContext } from '../context';
 import { builds, labs } from '../db/schema';
 import { audit } from '../lib/audit';
@@ -193,17 +194,11 @@ export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: Pla
 // ---------------------------------------------------------------------------------------------
 // Surface
 
-/** Curve metrics where smaller is better; every other metric is maximised by default. */
-const MINIMIZED_METRICS = new Set(['tafelSlope', 'hfr', 'degradationRate', 'breakInHours']);
-/** Internal units of the curve metrics (product.md: units fixed). */
-const METRIC_UNITS: Record<string, string> = {
-  vAtRef: 'V', vAtRefIrFree: 'V', jAtRef: 'A/cm²', jAtRefIrFree: 'A/cm²', massActivity: 'A/g', peakPower: 'W/cm²', ocv: 'V',
-  tafelSlope: 'mV/dec', hfr: 'Ω·cm²', degradationRate: 'µV/h', breakInHours: 'h',
-};
 
 function responseInfo(defs: ResponseDef[], key: string, path = 'response'): ResponseInfo {
   if (METRIC_KEYS.includes(key)) {
-    return { key, label: key, unit: METRIC_UNITS[key] ?? '', source: 'curve', goal: MINIMIZED_METRICS.has(key) ? 'minimize' : 'maximize', target: null };
+    const info = CURVE_METRIC_INFO[key];
+    return { key, label: key, unit: info?.unit ?? '', source: 'curve', goal: info?.goal ?? 'maximize', target: null };
   }
   const def = defs.find((d) => d.key === key);
   if (!def) {

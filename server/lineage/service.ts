@@ -7,20 +7,9 @@ import { listBuilds } from '../builds/service';
 import { listFactors, listResponses, METRIC_KEYS } from '../projects/service';
 import { bestPath, buildLineageTree, describeChanges, diffRecipe, groupReplicates, type LineageGoal, type LineageTree, type RecipeChange, type ReplicateGrouping } from '../../shared/lineage';
 import type { Build, LineageData, ResponseInfo } from '../../shared/api-types';
+import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
 
-const CURVE_RESPONSES: Record<string, Omit<ResponseInfo, 'key' | 'source' | 'target'>> = {
-  vAtRef: { label: 'V at j_ref', unit: 'V', goal: 'maximize' },
-  vAtRefIrFree: { label: 'iR-free V at j_ref', unit: 'V', goal: 'maximize' },
-  jAtRef: { label: 'j at V_ref', unit: 'A/cm²', goal: 'maximize' },
-  jAtRefIrFree: { label: 'iR-free j at V_ref', unit: 'A/cm²', goal: 'maximize' },
-  massActivity: { label: 'Mass activity', unit: 'A/g', goal: 'maximize' },
-  peakPower: { label: 'Peak power', unit: 'W/cm²', goal: 'maximize' },
-  ocv: { label: 'OCV', unit: 'V', goal: 'maximize' },
-  tafelSlope: { label: 'Tafel slope', unit: 'mV/dec', goal: 'minimize' },
-  hfr: { label: 'HFR', unit: 'Ω·cm²', goal: 'minimize' },
-  degradationRate: { label: 'Degradation rate', unit: 'µV/h', goal: 'minimize' },
-  breakInHours: { label: 'Break-in', unit: 'h', goal: 'minimize' },
-};
+const CURVE_RESPONSES = CURVE_METRIC_INFO;
 
 /** The curve metrics and hand-entered responses a project can chart. */
 export function projectResponses(ctx: AppContext, projectId: number): ResponseInfo[] {
