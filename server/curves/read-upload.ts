@@ -88,25 +88,38 @@ async function readWorkbook(path: string, options: ReadOptions): Promise<ReadRes
     throw new CurveFileError('bad-xlsx', 'The file looks like an .xlsx workbook but could not be read; open and save it again, or export CSV.');
   }
   const sheets = workbook.worksheets.map((w) => w.name);
-  const sheet = options.sheet ? workbook.getWorksheet(options.sheet) : workbook.worksheets.find((w) => w.actualRowCount > 0);
-  if (!sheet) {
-    if (options.sheet) throw new CurveFileError('no-sheet', `The workbook has no sheet named "${options.sheet}"; it has: ${sheets.join(', ')}.`);
-    throw new CurveFileError('empty', 'The workbook has no sheet with data.');
-  }
-  const lines: string[] = [];
-  sheet.eachRow({ includeEmpty: true }, (row) => {
-    const values = row.values as ExcelJS.CellValue[];
-    const cells: string[] = [];
-    for (let c = 1; c < values.length; c++) cells.push(cellText(values[c]).replace(/[\t\r\n]+/g, ' '));
-    lines.push(cells.join('\t'));
-  });
-  const parser = createDelimitedParser({ maxRows: options.maxRows });
-  parser.push(lines.join('\n'));
-  return {
-    table: parser.finish(),
-    sha256: await hashFile(path),
-    contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-    sheets,
-    sheet: sheet.name,
+  const parseSheet = (sheet: ExcelJS.Worksheet) => {
+    const lines: string[] = [];
+    sheet.eachRow({ includeEmpty: true }, (row) => {
+      const values = row.values as ExcelJS.CellValue[];
+      const cells: string[] = [];
+      for (let c = 1; c < values.length; c++) cells.push(cellText(values[c]).replace(/[\t\r\n]+/g, ' '));
+      lines.push(cells.join('\t'));
+    });
+    const parser = createDelimitedParser({ maxRows: options.maxRows });
+    parser.push(lines.join('\n'));
+    return parser.finish();
   };
+  if (options.sheet) {
+    const sheet = workbook.getWorksheet(options.sheet);
+    if (!sheet) throw new CurveFileError('no-sheet', `The workbook has no sheet named "${options.sheet}"; it has: ${sheets.join(', ')}.`);
+    return { table: parseSheet(sheet), sha256: await hashFile(path), contentType: XLSX_TYPE, sheets, sheet: sheet.name };
+  }
+  // No sheet named: the first sheet that holds a table of numbers (a notes sheet in front is common).
+  let firstError: unknown = null;
+  for (const sheet of workbook.worksheets) {
+    if (sheet.actualRowCount === 0) continue;
+    try {
+      return { table: parseSheet(sheet), sha256: await hashFile(path), contentType: XLSX_TYPE, sheets, sheet: sheet.name };
+    } catch (error) {
+      if (!(error instanceof CurveFileError) || error.code === 'too-many-rows') throw error;
+      firstError ??= error;
+    }
+  }
+  if (firstError instanceof CurveFileError) {
+    throw new CurveFileError(firstError.code, `no sheet of the workbook (${sheets.join(', ')}) holds a table of numbers; the first said: ${firstError.message}`, { line: firstError.line, column: firstError.column });
+  }
+  throw new CurveFileError('empty', 'The workbook has no sheet with data.');
 }
+
+const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';

@@ -111,6 +111,10 @@ describe('uploading polarization curves', () => {
     const res = await h.as.researcher.upload(`/api/builds/${buildId}/curves`, { name: 'book.xlsx', content: buffer }, { sheet: 'pol' });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.curve.metrics.vAtRef).toBeCloseTo(vModel, 3); // model value at the 0.2 A/cm² row
+    // without a sheet named, the notes sheet in front is passed over for the one with numbers
+    const guessed = await h.as.researcher.upload(`/api/builds/${buildId}/curves`, { name: 'book.xlsx', content: buffer });
+    expect(guessed.status, JSON.stringify(guessed.body)).toBe(201);
+    expect(guessed.body.curve.summary.sheet).toBe('pol');
     const missing = await h.as.researcher.upload(`/api/builds/${buildId}/curves`, { name: 'book.xlsx', content: buffer }, { sheet: 'nope' });
     expect(missing.status).toBe(422);
     expect(missing.body.error.message).toContain('pol');

@@ -123,7 +123,7 @@ export function useUploadBatch(projectId: number) {
         patch(row.key, { progress: f });
         if (f >= 1 && !polling && row.file.size > 256 * 1024) { polling = true; void poll(); }
       }).finally(() => { finished = true; });
-      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, message: `${result.curve.kind} curve, ${result.curve.pointCount.toLocaleString()} points` });
+      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, message: `${result.curve.kind} curve, ${result.curve.pointCount.toLocaleString()} points${result.curve.summary.sheet ? `, sheet “${String(result.curve.summary.sheet)}”` : ''}` });
       invalidate(row.buildId);
     } catch (error) {
       if (error instanceof ApiError && error.code === 'mapping-needed') {
