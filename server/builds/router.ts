@@ -8,6 +8,7 @@ import { requireProject } from '../auth/access';
 import * as service from './service';
 import { curvesForBuild } from '../curves/service';
 import { can } from '../auth/access';
+import { answerCache, dataVersion } from '../lib/data-version';
 
 const listQuery = z.object({
   status: z.enum(BUILD_STATUSES).optional(),
@@ -19,10 +20,19 @@ export function buildsRouter(ctx: AppContext): Router {
   const router = Router();
   const { db } = ctx;
 
+  // Every member of a project sees the same list, so the serialised answer is shared until the
+  // project's next write (server/lib/data-version.ts).
+  const listCache = answerCache(64);
   router.get('/projects/:id/builds', (req, res) => {
     const access = requireProject(db, req.user, idParam(req.params.id), 'read');
     const query = parseInput(listQuery, req.query, 'query');
-    res.json({ builds: service.listBuilds(ctx, access, query) });
+    const key = `${access.projectId}|${dataVersion(access.projectId)}|${query.status ?? ''}|${query.limit ?? ''}|${query.offset ?? ''}`;
+    let body = listCache.get(key);
+    if (!body) {
+      body = JSON.stringify({ builds: service.listBuilds(ctx, access, query) });
+      listCache.set(key, body);
+    }
+    res.type('application/json').send(body);
   });
 
   router.post('/projects/:id/builds', (req, res) => {

@@ -135,6 +135,7 @@ export function curvesRouter(ctx: AppContext): Router {
     if (Object.keys(options).length) curve = updateCurveOptions(ctx, access, row, options);
     if (label !== undefined) {
       ctx.db.update(curves).set({ label }).where(eq(curves.id, row.id)).run();
+      audit(ctx.db, { userId: access.user.id, action: 'update', entity: 'curve', entityId: row.id, projectId: access.projectId, before: { label: row.label }, after: { label } });
       curve = { ...curve, label };
     }
     res.json({ curve });

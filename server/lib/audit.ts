@@ -1,6 +1,7 @@
 // Every write goes through here: who, when, what, before and after.
 import type { Db } from '../db';
 import { auditLog } from '../db/schema';
+import { bumpDataVersion } from './data-version';
 
 export interface AuditEntry {
   userId: number | null;
@@ -24,6 +25,7 @@ export function audit(db: Db, entry: AuditEntry): void {
       after: entry.after === undefined ? null : stripSecrets(entry.after),
     })
     .run();
+  bumpDataVersion(entry.projectId);
 }
 
 function stripSecrets(value: unknown): unknown {

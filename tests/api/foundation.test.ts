@@ -195,6 +195,20 @@ describe('builds', () => {
     expect(res.body.lineage.changeFromParent).toBe('PTFE binder 20 → 30 wt %');
   });
 
+  it('the (cached) builds list follows every write: edits, uploads and a new reference point', async () => {
+    const url = `/api/projects/${ids.project('C')}/builds`;
+    const find = async (code: string) => (await h.as.viewer.get(url)).body.builds.find((b: { code: string }) => b.code === code);
+    const before = await find('C-017');
+    await h.as.researcher.patch(`/api/builds/${ids.build('C-017')}`, { changeNote: 'supplier check, re-pressed' });
+    expect((await find('C-017')).changeNote).toBe('supplier check, re-pressed');
+    const project = (await h.as.pi.get(`/api/projects/${ids.project('C')}`)).body.project;
+    await h.as.pi.patch(`/api/projects/${ids.project('C')}`, { settings: { ...project.settings, refCurrentDensity: 0.1 } });
+    const moved = await find('C-017');
+    expect(moved.values.vAtRef).toBeGreaterThan(before.values.vAtRef); // a lower j_ref reads a higher voltage on any polarization curve
+    await h.as.pi.patch(`/api/projects/${ids.project('C')}`, { settings: project.settings });
+    expect((await find('C-017')).values.vAtRef).toBeCloseTo(before.values.vAtRef, 9);
+  });
+
   it('records every write in the audit log with before and after', async () => {
     const res = await h.as.researcher.patch(`/api/builds/${ids.build('C-019')}`, { changeNote: 'design centre point, re-made' });
     expect(res.status).toBe(200);
