@@ -1,5 +1,6 @@
 // The frame of every signed-in page: the ink-blue side rail with projects and admin links.
-import { NavLink, Outlet, useNavigate, useParams } from 'react-router-dom';
+import { NavLink, Outlet, useLocation, useNavigate, useParams } from 'react-router-dom';
+import { useEffect, useState } from 'react';
 import type { ReactNode } from 'react';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-in';
@@ -37,10 +38,24 @@ export function AppShell() {
   const signOut = useSignOut();
   const navigate = useNavigate();
   const current = projects?.find((p) => String(p.id) === projectId);
+  const [open, setOpen] = useState(false);
+  const location = useLocation();
+  useEffect(() => setOpen(false), [location.pathname]);
 
   return (
-    <div className="flex min-h-screen">
-      <aside className="sticky top-0 flex h-screen w-60 shrink-0 flex-col bg-ink-900 px-3 py-4" aria-label="Main navigation">
+    <div className="flex min-h-screen flex-col md:flex-row">
+      {/* narrow screens: a top bar whose button opens the rail over the page */}
+      <div className="sticky top-0 z-30 flex items-center justify-between bg-ink-900 px-4 py-2.5 md:hidden">
+        <Logo />
+        <button type="button" className="rounded-md px-2.5 py-1 text-sm text-ink-100 hover:bg-ink-800" aria-expanded={open} aria-controls="main-rail" onClick={() => setOpen((o) => !o)}>
+          {open ? 'Close' : 'Menu'}
+        </button>
+      </div>
+      <aside
+        id="main-rail"
+        className={`${open ? 'fixed inset-y-0 left-0 z-40 flex' : 'hidden'} h-screen w-64 shrink-0 flex-col bg-ink-900 px-3 py-4 shadow-xl md:sticky md:top-0 md:flex md:w-60 md:shadow-none`}
+        aria-label="Main navigation"
+      >
         <div className="mb-5 px-1.5"><Logo /></div>
         <nav className="flex flex-1 flex-col gap-0.5 overflow-y-auto">
           <RailLink to="/" end>Home</RailLink>
@@ -90,7 +105,8 @@ export function AppShell() {
           </div>
         )}
       </aside>
-      <main className="min-w-0 flex-1 px-8 py-6">
+      {open && <div className="fixed inset-0 z-30 bg-ink-950/40 md:hidden" aria-hidden onClick={() => setOpen(false)} />}
+      <main className="min-w-0 flex-1 px-4 py-5 md:px-8 md:py-6">
         <Outlet />
       </main>
     </div>
