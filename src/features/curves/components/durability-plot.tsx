@@ -30,7 +30,8 @@ export function DurabilityPlot({ curve, title }: { curve: CurveSummary; title: s
     annotations.push({ x: i.startHours, y: 1, xref: 'x', yref: 'paper', text: i.kind, showarrow: false, yanchor: 'bottom', font: { size: 10, color: '#8a5a00' } });
   }
   if (breakIn > 0) annotations.push({ x: breakIn / 2, y: 0, xref: 'x', yref: 'paper', text: 'break-in', showarrow: false, yanchor: 'bottom', font: { size: 10, color: '#56668c' } });
-  const traces: Plotly.Data[] = [{ x: t, y: v, type: 'scattergl', mode: 'lines', name: 'cell voltage', line: { color: '#0072B2', width: 1 }, hovertemplate: '%{x:.1f} h<br>%{y:.4f} V<extra></extra>' }];
+  // SVG lines, not WebGL: the server sends at most maxPoints, and WebGL is missing on many lab PCs.
+  const traces: Plotly.Data[] = [{ x: t, y: v, type: 'scatter', mode: 'lines', name: 'cell voltage', line: { color: '#0072B2', width: 1 }, hovertemplate: '%{x:.1f} h<br>%{y:.4f} V<extra></extra>' }];
   const segments = (() => { try { return JSON.parse(String(curve.summary.segments ?? '[]')) as { fromHours: number; toHours: number; startV: number; endV: number }[]; } catch { return []; } })();
   segments.forEach((g, i) => {
     traces.push({ x: [g.fromHours, g.toHours], y: [g.startV, g.endV], type: 'scatter', mode: 'lines', name: 'fit after break-in', showlegend: i === 0, line: { color: '#D55E00', width: 2, dash: 'dash' } });
