@@ -27,7 +27,7 @@ export function DurabilityPlot({ curve, title }: { curve: CurveSummary; title: s
   for (const i of interruptions) {
     const wide = i.endHours - i.startHours > 0;
     shapes.push({ type: wide ? 'rect' : 'line', xref: 'x', yref: 'paper', x0: i.startHours, x1: wide ? i.endHours : i.startHours, y0: 0, y1: 1, fillcolor: 'rgba(230,159,0,0.18)', line: { color: '#E69F00', width: 1, dash: 'dot' } });
-    annotations.push({ x: i.startHours, y: 1, xref: 'x', yref: 'paper', text: i.kind, showarrow: false, yanchor: 'bottom', font: { size: 10, color: '#8a5a00' } });
+    annotations.push({ x: i.startHours, y: 1, xref: 'x', yref: 'paper', text: i.kind, showarrow: false, yanchor: 'top', xanchor: 'left', font: { size: 10, color: '#8a5a00' } });
   }
   if (breakIn > 0) annotations.push({ x: breakIn / 2, y: 0, xref: 'x', yref: 'paper', text: 'break-in', showarrow: false, yanchor: 'bottom', font: { size: 10, color: '#56668c' } });
   // SVG lines, not WebGL: the server sends at most maxPoints, and WebGL is missing on many lab PCs.

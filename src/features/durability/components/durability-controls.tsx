@@ -23,7 +23,14 @@ export function parseList<T>(value: unknown): T[] {
 
 const n = (value: unknown): number | null => (typeof value === 'number' && Number.isFinite(value) ? value : null);
 const rateText = (rate: number | null, low: number | null, high: number | null) =>
-  rate == null ? '—' : `${formatNumber(rate, 1)} µV/h${low != null && high != null ? ` (95 % ${formatNumber(low, 1)} – ${formatNumber(high, 1)})` : ''}`;
+  rate == null ? '—' : `${formatNumber(rate, digitsFor(low, high))} µV/h${low != null && high != null ? ` (95 % ${formatNumber(low, digitsFor(low, high))} – ${formatNumber(high, digitsFor(low, high))})` : ''}`;
+
+/** Enough decimals that a narrow interval does not print as "8.0 – 8.0". */
+function digitsFor(low: number | null, high: number | null): number {
+  if (low == null || high == null) return 1;
+  const width = Math.abs(high - low);
+  return width >= 1 ? 1 : width >= 0.1 ? 2 : 3;
+}
 
 /** Where a rate sits against the typical band, in words (not colour alone). */
 export function bandWord(rate: number | null): string {
