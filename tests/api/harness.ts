@@ -21,6 +21,8 @@ export interface Client {
   put(url: string, body?: object): request.Test;
   delete(url: string): request.Test;
   upload(url: string, file: { name: string; content: string | Buffer }, fields?: Record<string, string>): request.Test;
+  /** a request with the session and CSRF header but no body yet */
+  raw(method: 'get' | 'post' | 'patch' | 'put' | 'delete', url: string): request.Test;
 }
 
 export interface Harness {
@@ -40,6 +42,7 @@ function client(app: Express, who: Client['who'], agent: request.Agent, csrf: st
     patch: (url, body) => withCsrf(agent.patch(url)).send(body ?? {}),
     put: (url, body) => withCsrf(agent.put(url)).send(body ?? {}),
     delete: (url) => withCsrf(agent.delete(url)),
+    raw: (method, url) => withCsrf(agent[method](url)),
     upload: (url, file, fields = {}) => {
       let t = withCsrf(agent.post(url));
       for (const [k, v] of Object.entries(fields)) t = t.field(k, v);
