@@ -2,6 +2,7 @@
 import { createContext } from './bootstrap';
 import { createApp } from './app';
 import { seedIfEmpty } from './seed/seed';
+import { sendDigests } from './review/notify';
 
 const ctx = createContext();
 await seedIfEmpty(ctx);
@@ -9,6 +10,12 @@ const app = createApp(ctx);
 const server = app.listen(ctx.env.PORT, () => {
   ctx.logger.info(`Cellwright listening on http://localhost:${ctx.env.PORT} (database ${ctx.env.databasePath})`);
 });
+
+// The daily digest of notices for people who asked for one; admins can also send it now.
+const digestTimer = setInterval(() => {
+  sendDigests(ctx).catch((error) => ctx.logger.error({ err: error }, 'daily digest failed'));
+}, 24 * 3600 * 1000);
+digestTimer.unref();
 
 function shutdown(signal: string) {
   ctx.logger.info(`${signal}: shutting down`);

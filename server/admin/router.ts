@@ -10,6 +10,7 @@ import { idParam, parseInput } from '../lib/validate';
 import { conflict, forbidden, notFound } from '../lib/errors';
 import { requireUser } from '../auth/access';
 import { audit } from '../lib/audit';
+import { sendDigests } from '../review/notify';
 import type { Request } from 'express';
 
 function requireAdmin(req: Request) {
@@ -91,6 +92,13 @@ export function adminRouter(ctx: AppContext): Router {
     const result = db.update(sessions).set({ revokedAt: new Date().toISOString() }).where(and(eq(sessions.userId, id), sql`${sessions.revokedAt} is null`)).run();
     audit(db, { userId: admin.id, action: 'revoke', entity: 'session', entityId: id, after: { revoked: result.changes } });
     res.json({ revoked: result.changes });
+  });
+
+  router.post('/admin/digests/send', async (req, res) => {
+    const admin = requireAdmin(req);
+    const sent = await sendDigests(ctx);
+    audit(db, { userId: admin.id, action: 'send', entity: 'digest', after: { sent } });
+    res.json({ sent });
   });
 
   router.get('/admin/outbox', (req, res) => {

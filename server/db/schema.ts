@@ -66,8 +66,21 @@ export const memberships = sqliteTable('memberships', {
   userId: integer('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
   role: text('role', { enum: ['pi', 'researcher', 'partner', 'viewer'] }).notNull(),
   notify: integer('notify', { mode: 'boolean' }).notNull().default(true),
+  /** collect this project's notices into one daily e-mail instead of one e-mail each */
+  digest: integer('digest', { mode: 'boolean' }).notNull().default(false),
   createdAt: createdAt(),
 }, (t) => [uniqueIndex('memberships_project_user').on(t.projectId, t.userId)]);
+
+/** Notices waiting for a person's daily digest; sentAt is set when the digest goes out. */
+export const pendingNotices = sqliteTable('pending_notices', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  userId: integer('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  subject: text('subject').notNull(),
+  text: text('text').notNull(),
+  createdAt: createdAt(),
+  sentAt: text('sent_at'),
+}, (t) => [index('pending_notices_user_idx').on(t.userId, t.sentAt)]);
 
 export const factors = sqliteTable('factors', {
   id: integer('id').primaryKey({ autoIncrement: true }),

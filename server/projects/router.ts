@@ -80,8 +80,8 @@ export function projectsRouter(ctx: AppContext): Router {
 
   router.put('/projects/:id/notify', (req, res) => {
     requireUser(req.user);
-    const body = parseInput(z.object({ notify: z.boolean() }), req.body);
-    res.json(projects.setNotify(ctx, requireUser(req.user), idParam(req.params.id), body.notify));
+    const body = parseInput(z.object({ notify: z.boolean(), digest: z.boolean().optional() }), req.body);
+    res.json(projects.setNotify(ctx, requireUser(req.user), idParam(req.params.id), body.notify, body.digest));
   });
 
   router.post('/projects/:id/invitations', async (req, res) => {

@@ -167,7 +167,7 @@ export function addResponse(ctx: AppContext, access: ProjectAccess, body: z.outp
 
 export function listMembers(ctx: AppContext, projectId: number) {
   const members = ctx.db
-    .select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, labId: users.labId, labName: labs.name, notify: memberships.notify })
+    .select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, labId: users.labId, labName: labs.name, notify: memberships.notify, digest: memberships.digest })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .leftJoin(labs, eq(labs.id, users.labId))
@@ -206,13 +206,14 @@ export function removeMember(ctx: AppContext, access: ProjectAccess, userId: num
   return { ok: true };
 }
 
-export function setNotify(ctx: AppContext, user: AuthUser, projectId: number, notify: boolean) {
+export function setNotify(ctx: AppContext, user: AuthUser, projectId: number, notify: boolean, digest?: boolean) {
   const access = requireProject(ctx.db, user, projectId, 'read');
   const row = ctx.db.select().from(memberships).where(and(eq(memberships.projectId, projectId), eq(memberships.userId, user.id))).get();
   if (!row) throw notFound('Your membership');
-  ctx.db.update(memberships).set({ notify }).where(eq(memberships.id, row.id)).run();
-  audit(ctx.db, { userId: user.id, action: 'update', entity: 'membership', entityId: user.id, projectId: access.projectId, before: { notify: row.notify }, after: { notify } });
-  return { notify };
+  const next = { notify, digest: digest ?? row.digest };
+  ctx.db.update(memberships).set(next).where(eq(memberships.id, row.id)).run();
+  audit(ctx.db, { userId: user.id, action: 'update', entity: 'membership', entityId: user.id, projectId: access.projectId, before: { notify: row.notify, digest: row.digest }, after: next });
+  return next;
 }
 
 export async function invite(ctx: AppContext, access: ProjectAccess, body: z.output<typeof inviteCreateSchema>, baseUrl: string) {

@@ -5,7 +5,7 @@
 import { and, eq, inArray, isNull } from 'drizzle-orm';
 import type { AppContext, AuthUser } from '../context';
 import type { ProjectAccess } from '../auth/access';
-import { builds, labs, memberships, projects, users } from '../db/schema';
+import { builds, labs, memberships, pendingNotices, projects, users } from '../db/schema';
 
 type BuildRow = typeof builds.$inferSelect;
 
@@ -24,7 +24,7 @@ function recipients(ctx: AppContext, projectId: number, options: { roles?: ('pi'
     conditions.push(inArray(users.id, options.userIds));
   }
   return ctx.db
-    .select({ id: users.id, email: users.email, name: users.name })
+    .select({ id: users.id, email: users.email, name: users.name, digest: memberships.digest, projectId: memberships.projectId })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(...conditions))
@@ -32,8 +32,13 @@ function recipients(ctx: AppContext, projectId: number, options: { roles?: ('pi'
     .filter((u) => u.id !== options.exclude);
 }
 
-async function sendAll(ctx: AppContext, to: { email: string }[], message: { subject: string; text: string; html: string }) {
+async function sendAll(ctx: AppContext, to: { id: number; email: string; digest: boolean; projectId: number }[], message: { subject: string; text: string; html: string }) {
   for (const person of to) {
+    if (person.digest) {
+      // kept for the person's daily digest instead of an e-mail now
+      ctx.db.insert(pendingNotices).values({ userId: person.id, projectId: person.projectId, subject: message.subject, text: message.text.split('\n\nTo stop these e-mails')[0]! }).run();
+      continue;
+    }
     try {
       await ctx.mailer.send({ to: person.email, ...message });
     } catch (error) {
@@ -115,4 +120,39 @@ export async function notifyVerdict(ctx: AppContext, actor: AuthUser, build: Bui
   } catch (error) {
     ctx.logger.warn({ err: error }, 'verdict notice failed');
   }
+}
+
+/**
+ * The daily digest: every person with waiting notices gets one e-mail listing them (grouped by
+ * project), and the notices are marked sent. Returns how many digests went out.
+ */
+export async function sendDigests(ctx: AppContext): Promise<number> {
+  const waiting = ctx.db
+    .select({ id: pendingNotices.id, userId: pendingNotices.userId, email: users.email, name: users.name, projectName: projects.name, subject: pendingNotices.subject, text: pendingNotices.text, createdAt: pendingNotices.createdAt })
+    .from(pendingNotices)
+    .innerJoin(users, eq(users.id, pendingNotices.userId))
+    .innerJoin(projects, eq(projects.id, pendingNotices.projectId))
+    .where(and(isNull(pendingNotices.sentAt), isNull(users.disabledAt)))
+    .orderBy(pendingNotices.id)
+    .all();
+  const byUser = new Map<number, typeof waiting>();
+  for (const notice of waiting) byUser.set(notice.userId, [...(byUser.get(notice.userId) ?? []), notice]);
+  let sent = 0;
+  for (const notices of byUser.values()) {
+    const first = notices[0]!;
+    const lines = notices.map((n) => `• [${n.projectName}] ${n.subject}\n  ${n.text.replace(/\n+/g, '\n  ')}`);
+    try {
+      await ctx.mailer.send({
+        to: first.email,
+        subject: `Cellwright daily digest: ${notices.length} notice${notices.length === 1 ? '' : 's'}`,
+        text: `Good morning ${first.name},\n\nSince the last digest:\n\n${lines.join('\n\n')}\n\nChoose one e-mail per event instead on each project's settings page.\n`,
+        html: `<p>Good morning ${escapeHtml(first.name)},</p><p>Since the last digest:</p><ul>${notices.map((n) => `<li><b>[${escapeHtml(n.projectName)}]</b> ${escapeHtml(n.subject)}<br><span style="white-space:pre-wrap">${escapeHtml(n.text)}</span></li>`).join('')}</ul>`,
+      });
+      ctx.db.update(pendingNotices).set({ sentAt: new Date().toISOString() }).where(inArray(pendingNotices.id, notices.map((n) => n.id))).run();
+      sent += 1;
+    } catch (error) {
+      ctx.logger.warn({ err: error, to: first.email }, 'digest e-mail could not be sent; kept for the next run');
+    }
+  }
+  return sent;
 }

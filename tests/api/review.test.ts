@@ -133,4 +133,23 @@ describe('notices to PIs', () => {
     expect(mailTo(PI).length).toBe(before);
     await h.as.pi.put(`/api/projects/${ids.project('C')}/notify`, { notify: true }).expect(200);
   });
+
+  it('a daily digest collects the notices into one e-mail instead of one each', async () => {
+    await h.as.pi.put(`/api/projects/${ids.project('C')}/notify`, { notify: true, digest: true }).expect(200);
+    const before = mailTo(PI).length;
+    await h.as.partner.upload(`/api/builds/${ids.build('C-015')}/curves`, { name: 'digest-1.csv', content: CSV }).expect(201);
+    await h.as.partner.upload(`/api/builds/${ids.build('C-016')}/curves`, { name: 'digest-2.csv', content: CSV }).expect(201);
+    expect(mailTo(PI).length).toBe(before); // nothing sent yet: kept for the digest
+    const run = await h.as.admin.post('/api/admin/digests/send').expect(200);
+    expect(run.body.sent).toBeGreaterThanOrEqual(1);
+    const inbox = mailTo(PI);
+    expect(inbox.length).toBe(before + 1);
+    expect(inbox.at(-1)!.subject).toBe('Cellwright daily digest: 2 notices');
+    expect(inbox.at(-1)!.text).toContain('digest-1.csv');
+    expect(inbox.at(-1)!.text).toContain('digest-2.csv');
+    const again = await h.as.admin.post('/api/admin/digests/send').expect(200);
+    expect(mailTo(PI).length).toBe(before + 1); // each notice goes out once
+    expect(again.body.sent).toBe(0);
+    await h.as.pi.put(`/api/projects/${ids.project('C')}/notify`, { notify: true, digest: false }).expect(200);
+  });
 });

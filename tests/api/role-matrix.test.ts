@@ -99,6 +99,7 @@ export const MATRIX: MatrixRow[] = [
   { method: 'get', path: '/api/admin/people', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/people') },
   { method: 'patch', path: '/api/admin/people/{id}', allowed: ['admin'], send: (_h, c) => c.patch(`/api/admin/people/${ids.user('r.castellane@ridgeway.example')}`, { name: 'Rosa Castellane' }) },
   { method: 'post', path: '/api/admin/people/{id}/revoke-sessions', allowed: ['admin'], send: (_h, c) => c.post(`/api/admin/people/${ids.user('r.castellane@ridgeway.example')}/revoke-sessions`) },
+  { method: 'post', path: '/api/admin/digests/send', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/digests/send') },
   { method: 'get', path: '/api/admin/outbox', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/outbox') },
   { method: 'get', path: '/api/admin/audit', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/audit') },
   { method: 'post', path: '/api/builds/{id}/curves', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'matrix.csv', content: CSV }) },

@@ -105,9 +105,18 @@ export default function Settings() {
 
       {mine && (
         <Panel title="My notices">
-          <label className="flex items-center gap-2 text-sm">
-            <input type="checkbox" checked={mine.notify} onChange={(e) => notify.mutate(e.target.checked)} /> E-mail me when a partner lab uploads curves or a build is ready for review in this project
-          </label>
+          <fieldset className="space-y-2 text-sm">
+            <legend className="sr-only">E-mail notices</legend>
+            <label className="flex items-center gap-2">
+              <input type="radio" name="notice" checked={mine.notify && !mine.digest} onChange={() => notify.mutate({ notify: true, digest: false })} /> E-mail me each time a partner lab uploads curves, a build is ready for review, or my build gets a verdict
+            </label>
+            <label className="flex items-center gap-2">
+              <input type="radio" name="notice" checked={mine.notify && mine.digest} onChange={() => notify.mutate({ notify: true, digest: true })} /> Collect them into one daily digest
+            </label>
+            <label className="flex items-center gap-2">
+              <input type="radio" name="notice" checked={!mine.notify} onChange={() => notify.mutate({ notify: false })} /> No e-mail for this project
+            </label>
+          </fieldset>
         </Panel>
       )}
     </div>

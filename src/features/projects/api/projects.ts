@@ -63,7 +63,7 @@ export function useCreateResponse(projectId: number) {
 }
 
 export interface Members {
-  members: { userId: number; name: string; email: string; role: string; labId: number | null; labName: string | null; notify: boolean }[];
+  members: { userId: number; name: string; email: string; role: string; labId: number | null; labName: string | null; notify: boolean; digest: boolean }[];
   pendingInvitations: { id: number; email: string; role: string; expiresAt: string; createdAt: string }[];
 }
 export const membersQueryOptions = (projectId: number) => queryOptions({ queryKey: ['members', projectId], queryFn: () => api<Members>(`/projects/${projectId}/members`) });
@@ -80,7 +80,7 @@ export function useInvite(projectId: number) {
 export function useSetNotify(projectId: number) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (notify: boolean) => api(`/projects/${projectId}/notify`, { method: 'PUT', body: { notify } }),
+    mutationFn: (choice: { notify: boolean; digest?: boolean }) => api(`/projects/${projectId}/notify`, { method: 'PUT', body: choice }),
     onSuccess: () => {
       client.invalidateQueries({ queryKey: ['members', projectId] });
       client.invalidateQueries({ queryKey: ['me'] });
