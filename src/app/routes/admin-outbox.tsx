@@ -1,11 +1,13 @@
 // Admin: every e-mail Cellwright has sent, as the local outbox stored it.
 import { useState } from 'react';
-import { useOutbox } from '@/features/admin/api/admin';
+import { useOutbox, useSendDigests } from '@/features/admin/api/admin';
+import { Button } from '@/components/ui/button';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { formatDateTime } from '@/lib/format';
 
 export default function AdminOutbox() {
   const outbox = useOutbox();
+  const digests = useSendDigests();
   const [open, setOpen] = useState<number | null>(null);
   if (outbox.isLoading) return <Loading />;
   if (outbox.error) return <ErrorNote error={outbox.error} />;
@@ -13,7 +15,12 @@ export default function AdminOutbox() {
   const shown = messages.find((m) => m.id === open) ?? messages[0];
   return (
     <div className="max-w-6xl">
-      <PageHeader eyebrow="Administration" title="Outbox" subtitle="Without an SMTP_URL, e-mail is kept here instead of being sent. With SMTP configured, sent messages are recorded here too." />
+      <PageHeader
+        eyebrow="Administration"
+        title="Outbox"
+        subtitle="Without an SMTP_URL, e-mail is kept here instead of being sent. With SMTP configured, sent messages are recorded here too. The daily digest of notices goes out every 24 h."
+        actions={<Button onClick={() => digests.mutate()} disabled={digests.isPending}>{digests.data ? `${digests.data.sent} digest${digests.data.sent === 1 ? '' : 's'} sent` : 'Send the daily digest now'}</Button>}
+      />
       {messages.length === 0 ? <EmptyState title="No messages yet">Invitations and review notices appear here.</EmptyState> : (
         <div className="grid gap-4 lg:grid-cols-[22rem_minmax(0,1fr)]">
           <Panel bodyClassName="p-0">

@@ -51,3 +51,11 @@ export const auditQueryOptions = (filter: { projectId?: number; entity?: string;
     },
   });
 export const useAudit = (filter: { projectId?: number; entity?: string; entityId?: number }) => useQuery(auditQueryOptions(filter));
+
+export function useSendDigests() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: () => api<{ sent: number }>('/admin/digests/send', { method: 'POST' }),
+    onSuccess: () => client.invalidateQueries({ queryKey: ['admin', 'outbox'] }),
+  });
+}

@@ -102,7 +102,7 @@ export function DesignForm({ factors, busy, onSubmit }: { factors: FactorDef[]; 
         </div>
       )}
       {kind === 'central-composite' && (
-        <div className="grid grid-cols-2 gap-3">
+        <div className="grid grid-cols-1 gap-3">
           <Field label="Variant" hint="circumscribed axial points lie outside the factor ranges">
             {(p) => (
               <Select {...p} value={variant} onChange={(e) => setVariant(e.target.value as typeof variant)}>
