@@ -41,7 +41,19 @@ export function createApp(ctx: AppContext, options: { serveClient?: boolean } = 
       },
     }),
   );
-  if (ctx.env.LOG_LEVEL !== 'silent') app.use(pinoHttp({ logger: ctx.logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  if (ctx.env.LOG_LEVEL !== 'silent') {
+    app.use(
+      pinoHttp({
+        logger: ctx.logger,
+        autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+        // method, path and status only: headers carry session cookies and tokens
+        serializers: {
+          req: (req: { method: string; url: string }) => ({ method: req.method, url: req.url.split('?')[0] }),
+          res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+        },
+      }),
+    );
+  }
   app.use(cookieParser());
   app.use(express.json({ limit: '2mb' }));
 
