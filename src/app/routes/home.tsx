@@ -5,6 +5,24 @@ import { useMe } from '@/features/auth/api/get-me';
 import { PageHeader, Panel, EmptyState, Loading, ErrorNote } from '@/components/ui/panel';
 import { formatDateTime, formatMetric, formatNumber } from '@/lib/format';
 
+/** A short list of builds that wait for someone, linking to each. */
+function BuildList({ title, items }: { title: string; items: { buildId: number; code: string; projectId: number; projectName: string; text: string | null }[] }) {
+  if (items.length === 0) return null;
+  return (
+    <Panel title={title} className="mb-5">
+      <ul className="divide-y divide-line">
+        {items.map((b) => (
+          <li key={b.buildId} className="flex items-center justify-between py-2 text-sm">
+            <Link className="font-medium text-copper-700 hover:underline" to={`/projects/${b.projectId}/builds/${b.buildId}`}>{b.code}</Link>
+            <span className="flex-1 px-3 text-ink-500">{b.text}</span>
+            <span className="text-xs text-ink-500">{b.projectName}</span>
+          </li>
+        ))}
+      </ul>
+    </Panel>
+  );
+}
+
 export default function Home() {
   const { data: me } = useMe();
   const { data, isLoading, error } = useHome();
@@ -15,32 +33,8 @@ export default function Home() {
   return (
     <div className="max-w-6xl">
       <PageHeader eyebrow="Home" title={`Good to see you, ${firstName}`} subtitle="Your projects, the best build in each at its reference point, and what is waiting for you." />
-      {(data.awaitingReview?.length ?? 0) > 0 && (
-        <Panel title="Waiting for my review" className="mb-5">
-          <ul className="divide-y divide-line">
-            {data.awaitingReview!.map((b) => (
-              <li key={b.buildId} className="flex items-center justify-between py-2 text-sm">
-                <Link className="font-medium text-copper-700 hover:underline" to={`/projects/${b.projectId}/builds/${b.buildId}`}>{b.code}</Link>
-                <span className="flex-1 px-3 text-ink-500">{b.changeNote}</span>
-                <span className="text-xs text-ink-500">{b.projectName}</span>
-              </li>
-            ))}
-          </ul>
-        </Panel>
-      )}
-      {(data.needsWork?.length ?? 0) > 0 && (
-        <Panel title="Needs work (my builds)" className="mb-5">
-          <ul className="divide-y divide-line">
-            {data.needsWork!.map((b) => (
-              <li key={b.buildId} className="flex items-center justify-between py-2 text-sm">
-                <Link className="font-medium text-copper-700 hover:underline" to={`/projects/${b.projectId}/builds/${b.buildId}`}>{b.code}</Link>
-                <span className="flex-1 px-3 text-ink-500">{b.comment}</span>
-                <span className="text-xs text-ink-500">{b.projectName}</span>
-              </li>
-            ))}
-          </ul>
-        </Panel>
-      )}
+      <BuildList title="Waiting for my review" items={(data.awaitingReview ?? []).map((b) => ({ ...b, text: b.changeNote }))} />
+      <BuildList title="Needs work (my builds)" items={(data.needsWork ?? []).map((b) => ({ ...b, text: b.comment }))} />
       <div className="grid gap-4 md:grid-cols-2">
         {data.projects.length === 0 && (
           <EmptyState title="No projects yet">Ask a PI to invite you, or create a project from the side rail.</EmptyState>

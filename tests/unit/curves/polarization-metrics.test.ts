@@ -1,18 +1,12 @@
 import { describe, it, expect } from 'vitest';
 import { linearRegression } from 'simple-statistics';
-import { polarizationMetrics, generatePolarizationCurve, semiEmpiricalVoltage, tafelSlopeTheory } from '../../../shared/curves/index';
+import { polarizationMetrics, generatePolarizationCurve, semiEmpiricalVoltage } from '../../../shared/curves/index';
 import type { CurveData, ReferencePoint, SemiEmpiricalParams } from '../../../shared/curves/index';
+import { FIXTURE_MODEL } from '../../fixtures/curves/model-parameters';
 
-// Invented HT-PEM-like model at 160 °C with the theoretical Tafel slope for αn = 1
-// (source of every expected value below: the model itself, evaluated in the test).
-const MODEL: SemiEmpiricalParams = {
-  e0: 0.95,
-  tafelSlope: tafelSlopeTheory(433.15, 1),
-  exchangeCurrentDensity: 1.5e-4,
-  resistance: 0.25,
-  massTransportCoefficient: 0.05,
-  limitingCurrentDensity: 1.6,
-};
+// Invented HT-PEM-like model at 160 °C with the theoretical Tafel slope for αn = 1, the same one
+// the fixture files come from (source of every expected value below: the model itself).
+const MODEL: SemiEmpiricalParams = FIXTURE_MODEL;
 const J_POINTS = [0, 0.005, 0.0075, 0.01, 0.015, 0.02, 0.03, 0.04, 0.05, 0.1, 0.15, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0, 1.1, 1.2];
 const REF: ReferencePoint = { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' };
 const LOADING = { loadingMgCm2: 1.0, metalLoadingMgCm2: 0.4 };
