@@ -2,7 +2,7 @@
 import { Router } from 'express';
 import { desc, eq, inArray } from 'drizzle-orm';
 import type { AppContext } from '../context';
-import { builds, curves, files, projects, users } from '../db/schema';
+import { builds, files, users } from '../db/schema';
 import { requireUser } from '../auth/access';
 import { listProjects } from '../projects/service';
 import { awaitingReview, needsWork } from '../review/service';
@@ -26,23 +26,16 @@ export function homeRouter(ctx: AppContext): Router {
           .limit(8)
           .all()
       : [];
+    // best build per project: highest V at j_ref among current-version polarization metrics
+    const bestOf = db.$client.prepare(
+      `select b.id as buildId, b.code, b.change_note as changeNote, json_extract(c.metrics, '$.vAtRef') as vAtRef
+       from curves c join builds b on b.id = c.build_id join projects p on p.id = b.project_id
+       where b.project_id = ? and c.kind = 'polarization' and c.metrics_version = p.metrics_version
+         and b.status <> 'discarded' and json_extract(c.metrics, '$.vAtRef') is not null
+       order by vAtRef desc limit 1`,
+    );
     const best: Record<number, { buildId: number; code: string; vAtRef: number; changeNote: string | null } | null> = {};
-    for (const p of myProjects) {
-      const version = db.select({ v: projects.metricsVersion }).from(projects).where(eq(projects.id, p.id)).get()!.v;
-      const rows = db
-        .select({ buildId: builds.id, code: builds.code, changeNote: builds.changeNote, status: builds.status, metrics: curves.metrics, metricsVersion: curves.metricsVersion })
-        .from(curves)
-        .innerJoin(builds, eq(builds.id, curves.buildId))
-        .where(eq(builds.projectId, p.id))
-        .all();
-      let top: (typeof best)[number] = null;
-      for (const r of rows) {
-        const v = r.metrics.vAtRef;
-        if (r.metricsVersion !== version || r.status === 'discarded' || v == null) continue;
-        if (!top || v > top.vAtRef) top = { buildId: r.buildId, code: r.code, vAtRef: v, changeNote: r.changeNote };
-      }
-      best[p.id] = top;
-    }
+    for (const p of myProjects) best[p.id] = (bestOf.get(p.id) as (typeof best)[number] | undefined) ?? null;
     res.json({ projects: myProjects.map((p) => ({ ...p, best: best[p.id] })), recentUploads, awaitingReview: awaitingReview(ctx, user), needsWork: needsWork(ctx, user, ids) });
   });
 

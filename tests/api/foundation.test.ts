@@ -221,6 +221,18 @@ describe('builds', () => {
   });
 });
 
+describe('home', () => {
+  it('names each project’s best build: the highest V at j_ref of its builds that are not discarded', async () => {
+    const home = await h.as.pi.get('/api/home');
+    const project = home.body.projects.find((p: { id: number }) => p.id === ids.project('C'));
+    const list = (await h.as.pi.get(`/api/projects/${ids.project('C')}/builds`)).body.builds as { code: string; status: string; values: { vAtRef?: number | null } }[];
+    const top = list.filter((b) => b.status !== 'discarded' && b.values.vAtRef != null).sort((a, b) => b.values.vAtRef! - a.values.vAtRef!)[0]!;
+    expect(project.best.code).toBe(top.code); // the same maximum found from the builds list
+    expect(project.best.vAtRef).toBeCloseTo(top.values.vAtRef!, 12);
+    expect(home.body.recentUploads.length).toBeGreaterThan(0);
+  });
+});
+
 describe('start-up and the OpenAPI document', () => {
   it('documents every route with its request schema', async () => {
     const res = await request(h.app).get('/api/openapi.json');
