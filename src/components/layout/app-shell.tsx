@@ -5,6 +5,7 @@ import type { ReactNode } from 'react';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 import { useProjects } from '@/features/projects/api/projects';
+import { canPlan, canWrite } from '@/features/projects/components/permissions';
 
 function RailLink({ to, children, end, indent }: { to: string; children: ReactNode; end?: boolean; indent?: boolean }) {
   return (
@@ -67,13 +68,13 @@ export function AppShell() {
               </RailLink>
               {current?.id === p.id && (
                 <div className="mb-1 mt-0.5 flex flex-col gap-0.5">
-                  <RailLink to={`/projects/${p.id}/upload`} indent>Upload</RailLink>
+                  {canWrite(p.myRole) && <RailLink to={`/projects/${p.id}/upload`} indent>Upload</RailLink>}
                   <RailLink to={`/projects/${p.id}/compare`} indent>Compare curves</RailLink>
                   <RailLink to={`/projects/${p.id}/lineage`} indent>Lineage</RailLink>
                   <RailLink to={`/projects/${p.id}/gains`} indent>Gains</RailLink>
                   <RailLink to={`/projects/${p.id}/durability`} indent>Durability</RailLink>
-                  <RailLink to={`/projects/${p.id}/surface`} indent>Surface</RailLink>
-                  <RailLink to={`/projects/${p.id}/plan`} indent>Plan</RailLink>
+                  {canPlan(p.myRole) && <RailLink to={`/projects/${p.id}/surface`} indent>Surface</RailLink>}
+                  {canPlan(p.myRole) && <RailLink to={`/projects/${p.id}/plan`} indent>Plan</RailLink>}
                   <RailLink to={`/projects/${p.id}/settings`} indent>Settings</RailLink>
                 </div>
               )}
