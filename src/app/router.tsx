@@ -1,6 +1,6 @@
 // Every page, lazily loaded; the shell and sign-in guard wrap the signed-in ones.
 import { createBrowserRouter } from 'react-router-dom';
-import { AppShell } from '@/components/layout/app-shell';
+import { AppShell } from './app-shell';
 import { RequireAuth } from './require-auth';
 import { RouteError } from './routes/route-error';
 

@@ -9,7 +9,7 @@ import { api, setCsrfToken } from '@/lib/api-client';
 import { Field, Input } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { ErrorNote, Loading } from '@/components/ui/panel';
-import { Logo } from '@/components/layout/app-shell';
+import { Logo } from '@/components/layout/logo';
 
 type Accept = z.input<typeof inviteAcceptSchema>;
 

@@ -9,7 +9,7 @@ import { useMe } from '@/features/auth/api/get-me';
 import { Field, Input } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { ErrorNote } from '@/components/ui/panel';
-import { Logo } from '@/components/layout/app-shell';
+import { Logo } from '@/components/layout/logo';
 
 type LoginInput = z.input<typeof loginSchema>;
 
