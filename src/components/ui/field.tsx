@@ -18,16 +18,19 @@ export function Field({ label, hint, error, children, id }: { label: string; hin
   );
 }
 
-const control = 'w-full rounded-md border border-line bg-white px-2.5 py-1.5 text-sm text-ink-900 placeholder:text-ink-300 aria-[invalid=true]:border-rust-700 focus:border-copper-500 focus:outline-none';
+const control = 'rounded-md border border-line bg-white px-2.5 py-1.5 text-sm text-ink-900 placeholder:text-ink-300 aria-[invalid=true]:border-rust-700 focus:border-copper-500 focus:outline-none';
+
+/** Full width unless the caller sets a width of its own (two width classes would fight). */
+const classes = (className: string) => `${control} ${/(^|\s)(w-|max-w-)/.test(className) ? '' : 'w-full'} ${className}`;
 
 export const Input = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement>>(function Input({ className = '', ...props }, ref) {
-  return <input ref={ref} className={`${control} ${className}`} {...props} />;
+  return <input ref={ref} className={classes(className)} {...props} />;
 });
 
 export const Select = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HTMLSelectElement>>(function Select({ className = '', ...props }, ref) {
-  return <select ref={ref} className={`${control} ${className}`} {...props} />;
+  return <select ref={ref} className={classes(className)} {...props} />;
 });
 
 export const Textarea = forwardRef<HTMLTextAreaElement, TextareaHTMLAttributes<HTMLTextAreaElement>>(function Textarea({ className = '', ...props }, ref) {
-  return <textarea ref={ref} className={`${control} ${className}`} {...props} />;
+  return <textarea ref={ref} className={classes(className)} {...props} />;
 });

@@ -18,7 +18,7 @@ const METRIC_COLUMNS = ['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', '
 function metricCell(key: string, value: number | null | undefined) {
   const info = METRICS[key]!;
   if (value == null) return <span className="text-ink-300">—</span>;
-  return <span className="num">{formatNumber(value * info.scale, info.digits)}</span>;
+  return <span className="num block text-right">{formatNumber(value * info.scale, info.digits)}</span>;
 }
 
 export function BuildsTable({ project, builds, factors, responses, selected, onSelect }: {
@@ -50,20 +50,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
       }),
       column.accessor('parentCode', { header: 'Parent', cell: (c) => c.getValue() ?? <span className="text-ink-300">—</span> }),
       column.accessor('changeNote', { header: 'Change', cell: (c) => <span className="block max-w-[16rem] truncate" title={c.getValue() ?? ''}>{c.getValue() ?? ''}</span> }),
-      ...factors.map((f) =>
-        column.accessor((b) => b.factors[f.key] ?? null, {
-          id: `f_${f.key}`,
-          header: () => <span title={f.label}>{f.label}{f.unit ? <span className="font-normal text-ink-500"> ({f.unit})</span> : null}</span>,
-          cell: (c) => {
-            const v = c.getValue();
-            if (v == null) return <span className="text-ink-300">—</span>;
-            return typeof v === 'number' ? <span className="num">{v}</span> : <span>{v}</span>;
-          },
-          sortUndefined: 'last',
-        }),
-      ),
       column.accessor('status', { header: 'Status', cell: (c) => <StatusBadge status={c.getValue()} />, filterFn: 'equalsString' }),
-      column.accessor('labName', { header: 'Lab', cell: (c) => <span className="whitespace-nowrap">{c.getValue() ?? '—'}</span>, filterFn: 'equalsString' }),
       ...METRIC_COLUMNS.map((key) =>
         column.accessor((b) => b.values[key] ?? null, {
           id: `m_${key}`,
@@ -76,6 +63,19 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
           sortUndefined: 'last',
         }),
       ),
+      ...factors.map((f) =>
+        column.accessor((b) => b.factors[f.key] ?? null, {
+          id: `f_${f.key}`,
+          header: () => <span title={f.label}>{f.label}{f.unit ? <span className="font-normal text-ink-500"> ({f.unit})</span> : null}</span>,
+          cell: (c) => {
+            const v = c.getValue();
+            if (v == null) return <span className="text-ink-300">—</span>;
+            return typeof v === 'number' ? <span className="num">{v}</span> : <span>{v}</span>;
+          },
+          sortUndefined: 'last',
+        }),
+      ),
+      column.accessor('labName', { header: 'Lab', cell: (c) => <span className="whitespace-nowrap">{c.getValue() ?? '—'}</span>, filterFn: 'equalsString' }),
       ...responses.map((r) =>
         column.accessor((b) => b.values[r.key] ?? null, {
           id: `r_${r.key}`,

@@ -155,7 +155,7 @@ export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuil
           <div className="flex items-center gap-3">
             <span className="min-w-0 flex-1 truncate font-medium text-ink-900">{row.file.name}</span>
             {buildChoices && onChooseBuild && (
-              <Select aria-label={`Build for ${row.file.name}`} className="w-36" value={row.buildId ?? ''} onChange={(e) => onChooseBuild(row, Number(e.target.value))} disabled={row.state === 'uploading' || row.state === 'processing' || row.state === 'done'}>
+              <Select aria-label={`Build for ${row.file.name}`} className="w-36 shrink-0" value={row.buildId ?? ''} onChange={(e) => onChooseBuild(row, Number(e.target.value))} disabled={row.state === 'uploading' || row.state === 'processing' || row.state === 'done'}>
                 <option value="">— build —</option>
                 {buildChoices.map((b) => <option key={b.id} value={b.id}>{b.code}</option>)}
               </Select>
