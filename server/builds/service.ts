@@ -1,5 +1,5 @@
 // Builds: create, read, update, list with their current metric values and lineage.
-import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { z } from 'zod';
 import type { AppContext } from '../context';
@@ -348,13 +348,3 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   return getBuildItem(ctx, before.id);
 }
 
-export function recentBuilds(ctx: AppContext, projectIds: number[], limit = 10) {
-  if (projectIds.length === 0) return [];
-  return ctx.db
-    .select({ id: builds.id, code: builds.code, projectId: builds.projectId, status: builds.status, changeNote: builds.changeNote, updatedAt: builds.updatedAt, createdAt: builds.createdAt })
-    .from(builds)
-    .where(inArray(builds.projectId, projectIds))
-    .orderBy(desc(builds.id))
-    .limit(limit)
-    .all();
-}

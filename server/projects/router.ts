@@ -2,7 +2,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import type { AppContext } from '../context';
-import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema, ROLES } from '../../shared/schemas/project';
+import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
 import { inviteCreateSchema, membershipSetSchema } from '../../shared/schemas/auth';
 import { idParam, parseInput } from '../lib/validate';
 import { requireProject, requireUser } from '../auth/access';
@@ -93,4 +93,3 @@ export function projectsRouter(ctx: AppContext): Router {
   return router;
 }
 
-export const roleSchema = z.enum(ROLES);

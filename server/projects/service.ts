@@ -7,6 +7,7 @@ import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseC
 import { inviteCreateSchema } from '../../shared/schemas/auth';
 import type { z } from 'zod';
 import { audit } from '../lib/audit';
+import { escapeHtml } from '../lib/escape-html';
 import { AppError, conflict, forbidden, notFound } from '../lib/errors';
 import { requireProject, type ProjectAccess } from '../auth/access';
 import { newToken, sha256 } from '../auth/tokens';
@@ -238,12 +239,5 @@ export async function invite(ctx: AppContext, access: ProjectAccess, body: z.out
   return { id: row.id, email: row.email, role: row.role, expiresAt };
 }
 
-export function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-}
 
-export function projectIdsForUser(ctx: AppContext, user: AuthUser): number[] {
-  if (user.isAdmin) return ctx.db.select({ id: projects.id }).from(projects).all().map((r) => r.id);
-  return ctx.db.select({ id: memberships.projectId }).from(memberships).where(eq(memberships.userId, user.id)).all().map((r) => r.id);
-}
 

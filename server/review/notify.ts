@@ -6,6 +6,7 @@ import { and, eq, inArray, isNull } from 'drizzle-orm';
 import type { AppContext, AuthUser } from '../context';
 import type { ProjectAccess } from '../auth/access';
 import { builds, labs, memberships, pendingNotices, projects, users } from '../db/schema';
+import { escapeHtml } from '../lib/escape-html';
 
 type BuildRow = typeof builds.$inferSelect;
 
@@ -13,7 +14,6 @@ function appUrl(ctx: AppContext): string {
   return (ctx.env.PUBLIC_URL ?? `http://localhost:${ctx.env.PORT}`).replace(/\/$/, '');
 }
 
-const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 /** Members of a project with one of the roles who want notices, minus the person who acted. */
 function recipients(ctx: AppContext, projectId: number, options: { roles?: ('pi' | 'researcher' | 'partner' | 'viewer')[]; userIds?: number[]; exclude: number | null }) {

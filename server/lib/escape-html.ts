@@ -1,0 +1,4 @@
+// Text into HTML e-mail bodies: the five characters HTML gives meaning to, escaped.
+export function escapeHtml(text: string): string {
+  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
