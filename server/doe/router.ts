@@ -4,7 +4,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import type { AppContext } from '../context';
 import { idParam, parseInput } from '../lib/validate';
-import { requireProject, requireUser } from '../auth/access';
+import { requireProject } from '../auth/access';
 import * as service from './service';
 
 const KINDS = ['full-factorial-2', 'fractional-factorial', 'full-factorial-3', 'central-composite', 'box-behnken', 'latin-hypercube'] as const;
@@ -86,28 +86,24 @@ export function doeRouter(ctx: AppContext): Router {
   const { db } = ctx;
 
   router.post('/projects/:id/designs', (req, res) => {
-    requireUser(req.user);
     const access = requireProject(db, req.user, idParam(req.params.id), 'plan');
     const body = parseInput(designRequestSchema, req.body);
     res.json(service.generateProjectDesign(ctx, access, body));
   });
 
   router.post('/projects/:id/designs/plan', (req, res) => {
-    requireUser(req.user);
     const access = requireProject(db, req.user, idParam(req.params.id), 'plan');
     const body = parseInput(planRunsSchema, req.body);
     res.status(201).json(service.planDesignRuns(ctx, access, body));
   });
 
   router.post('/projects/:id/surface', (req, res) => {
-    requireUser(req.user);
     const access = requireProject(db, req.user, idParam(req.params.id), 'fit');
     const body = parseInput(surfaceRequestSchema, req.body);
     res.json(service.fitProjectSurface(ctx, access, body));
   });
 
   router.post('/projects/:id/proposals', (req, res) => {
-    requireUser(req.user);
     const access = requireProject(db, req.user, idParam(req.params.id), 'fit');
     const body = parseInput(proposalsRequestSchema, req.body);
     res.json(service.proposeProjectBuilds(ctx, access, body));
