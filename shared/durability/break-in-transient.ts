@@ -173,7 +173,7 @@ function slopeOf(times: readonly number[], values: readonly number[]): number {
  * loss; the early hours pin down the transient's shape far better than the short tail could.
  * Reference: the exponential-plus-linear shape of break-in is common practice in the trade; the
  * effective sample size after Santer et al. (2000), J. Geophys. Res. 105, 7337.
- * Cost: O(48 · blocks) for the fit, O(10 · n) for the search.
+ * Cost: O(n) for the block means, O(48 · blocks) for the fit and O(10 · blocks) for the search.
  * @returns null when no transient is visible (or the log is too short to fit one).
  * @throws RangeError on mismatched lengths or options out of range.
  * @example checkBreakInTransient(t, v, 54)?.settledAtHours // e.g. 140 (h)
@@ -220,9 +220,11 @@ export function checkBreakInTransient(t: ArrayLike<number>, v: ArrayLike<number>
   if (!(Math.abs(tStatistic) > significance)) return null;
 
   const transientAt = (time: number): number => fit.amplitude * Math.exp(-(time - t0) / tau);
+  // the rate's standard error from the block means themselves (each block its own point): O(blocks)
+  const blockStarts: number[] = [];
+  for (let b = 1; b < blocks.t.length; b++) if (blocks.segment[b] !== blocks.segment[b - 1]) blockStarts.push(b);
   const assess = (from: number): { bias: number; se: number } | null => {
-    const index = lowerBound(t, from);
-    const trend = fitTrend(t, v, { from: index, to: n, segmentStarts: starts, blockHours });
+    const trend = fitTrend(blocks.t, blocks.v, { from: lowerBound(blocks.t, from), to: blocks.t.length, segmentStarts: blockStarts, blockHours: 0 });
     if (!trend) return null;
     const times: number[] = [];
     const values: number[] = [];
