@@ -6,7 +6,7 @@ import type { CurveData } from './types';
 import { CompensatedSum } from '../stats/compensated-sum';
 
 export interface StepAverageOptions {
-  /** sorted neighbouring currents belong to one set point when within this fraction of the current…; default 0.02 */
+  /** sorted neighbouring currents belong to one set point when within this fraction of the current…; default 0.01 */
   relativeTolerance?: number;
   /** …plus this many A/cm²; default 1e-5 (10 µA/cm²) */
   absoluteToleranceAcm2?: number;
@@ -357,7 +357,7 @@ function plural(count: number, word: string): string {
  * Steps, dwells and sweeps of a polarization curve.
  * - Set point: the current, or the voltage when the station held the voltage (auto: the voltage
  *   sits at ≥ 3 repeated exact values while the current within each varies by more than 5 %).
- * - Steps by set point, whatever the row order: sorted neighbouring values within 2 % of the value
+ * - Steps by set point, whatever the row order: sorted neighbouring values within 1 % of the value
  *   + 10 µA/cm² (voltage: 0.5 mV) share a set point; a group wider than 10 % + 1 mA/cm² (5 mV) is a
  *   continuous sweep and is cut into pieces of that tolerance.
  * - Open circuit: the current set point at 0 (centre below 0.1 mA/cm²; under voltage control,
@@ -381,7 +381,7 @@ function plural(count: number, word: string): string {
  * @example stepAverage({ kind: 'polarization', j: Float64Array.of(0.1, 0.1, 0.2), v: Float64Array.of(0.8, 0.8, 0.7) }).steps.length // 2
  */
 export function stepAverage(curve: CurveData, options: StepAverageOptions = {}): StepAverageResult {
-  const relative = options.relativeTolerance ?? 0.02;
+  const relative = options.relativeTolerance ?? 0.01;
   const absolute = options.absoluteToleranceAcm2 ?? 1e-5;
   const voltageTolerance = options.voltageToleranceV ?? 0.0005;
   const collapseVoltage = options.collapseVoltage ?? 0.05;
@@ -598,7 +598,7 @@ export function stepAverage(curve: CurveData, options: StepAverageOptions = {}):
   const transientDwells = steps.reduce((sum, step) => sum + step.transientDwells, 0);
   const settledRule = `a dwell of ≥ ${MIN_DWELL_FOR_TRANSIENT} readings whose ${byCurrent ? 'voltage' : 'current'} moves between its first and last third by more than ${byCurrent ? '2 mV' : '2 %'} and 4 standard errors is averaged over its last ${Math.round(settledFraction * 100)} % only, other dwells over all their readings`;
   const grouping = byCurrent
-    ? 'readings grouped by current set point (sorted neighbours within 2 % + 10 µA/cm²)'
+    ? 'readings grouped by current set point (sorted neighbours within 1 % + 10 µA/cm²)'
     : 'potentiostatic steps: readings grouped by voltage set point (within 0.5 mV)';
   const orderText = readsAsSweeps
     ? keptApart

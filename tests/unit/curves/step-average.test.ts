@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { stepAverage } from '../../../shared/curves/index';
+import { stepAverage, generatePolarizationCurve, semiEmpiricalVoltage } from '../../../shared/curves/index';
+import { FIXTURE_MODEL } from '../../fixtures/curves/model-parameters';
 import type { CurveData } from '../../../shared/curves/index';
 
 const curveOf = (j: number[], v: number[], hfr?: number[]): CurveData => ({
@@ -10,19 +11,19 @@ const curveOf = (j: number[], v: number[], hfr?: number[]): CurveData => ({
 });
 
 describe('stepAverage', () => {
-  it('groups readings by set point (sorted neighbours within 2 % + 10 µA/cm²) and averages them', () => {
+  it('groups readings by set point (sorted neighbours within 1 % + 10 µA/cm²) and averages them', () => {
     const result = stepAverage(
-      curveOf([0, 0.000005, 0.1, 0.101, 0.099, 0.2, 0.203, 0.198], [0.95, 0.949, 0.72, 0.719, 0.721, 0.65, 0.648, 0.652], [0.2, 0.2, 0.2, 0.2, 0.2, 0.21, 0.21, 0.21]),
+      curveOf([0, 0.000005, 0.1, 0.1005, 0.0995, 0.2, 0.201, 0.199], [0.95, 0.949, 0.72, 0.719, 0.721, 0.65, 0.648, 0.652], [0.2, 0.2, 0.2, 0.2, 0.2, 0.21, 0.21, 0.21]),
     );
     expect(result.steps.length).toBe(3); // three current levels typed above
     expect(result.openCircuitStep).toBe(2); // the zero-current set point, listed after the loaded steps
     expect(result.steps[2].openCircuit).toBe(true);
     expect(result.steps.map((step) => step.readings)).toEqual([3, 3, 2]); // typed above: 3 near 0.1, 3 near 0.2, 2 at 0
-    expect(result.steps[0].j).toBeCloseTo(0.1, 12); // derived by hand: (0.1 + 0.101 + 0.099) / 3
+    expect(result.steps[0].j).toBeCloseTo(0.1, 12); // derived by hand: (0.1 + 0.1005 + 0.0995) / 3
     expect(result.steps[0].v).toBeCloseTo(0.72, 12); // derived by hand: (0.72 + 0.719 + 0.721) / 3
     expect(result.steps[0].vSd).toBeCloseTo(0.001, 12); // derived by hand: deviations −0,−0.001,+0.001 → √(2e-6/2)
     expect(result.steps[1].hfr).toBeCloseTo(0.21, 12); // typed above
-    expect(result.steps[1].vIrFree).toBeCloseTo((0.65 + 0.2 * 0.21 + 0.648 + 0.203 * 0.21 + 0.652 + 0.198 * 0.21) / 3, 12); // derived by hand: mean of V + j·HFR
+    expect(result.steps[1].vIrFree).toBeCloseTo((0.65 + 0.2 * 0.21 + 0.648 + 0.201 * 0.21 + 0.652 + 0.199 * 0.21) / 3, 12); // derived by hand: mean of V + j·HFR
     expect(result.readingsPerStep).toEqual({ min: 2, median: 3, max: 3 }); // derived by hand from the counts 3, 3, 2
     expect(result.loadedSteps).toEqual([0, 1]);
   });
@@ -88,6 +89,21 @@ describe('stepAverage', () => {
     expect(result.steps[0].hfr).toBeCloseTo(0.25, 12); // derived by hand: mean of 0.2 and 0.3 (0 and blank left out)
     expect(result.steps[0].vIrFree).toBeCloseTo(0.73, 12); // derived by hand: mean of the file's 0.72 and 0.74
     expect(result.hfrMissing).toBe(2); // the blank at open circuit and the 0
+  });
+  it('a noisy galvanostatic curve with dense steps stays under current control', () => {
+    // FIXTURE_MODEL, 60 steps 10 mA/cm² apart, 10 readings each, 2 mV noise: neighbouring steps' voltages overlap
+    const jPoints = Array.from({ length: 60 }, (_, index) => 0.01 * (index + 1));
+    const result = stepAverage(generatePolarizationCurve(FIXTURE_MODEL, { jPoints, readingsPerStep: 10, noiseV: 0.002, seed: 5 }));
+    expect(result.control).toBe('current');
+    expect(result.steps.length).toBe(60); // the generator's 60 set points
+    expect(result.sweeps.map((sweep) => sweep.direction)).toEqual(['up']);
+  });
+  it('a continuous current ramp (every reading its own current) reads as one sweep', () => {
+    const j = Array.from({ length: 600 }, (_, index) => 0.001 + index * 0.001);
+    const result = stepAverage(curveOf(j, j.map((value) => semiEmpiricalVoltage(FIXTURE_MODEL, value))));
+    expect(result.order).toBe('sweeps');
+    expect(result.sweeps.length).toBe(1);
+    expect(result.steps.length).toBeGreaterThan(100); // pieces no wider than 1 % + 10 µA/cm² of the current
   });
   it('throws on malformed curves', () => {
     expect(() => stepAverage(curveOf([], []))).toThrow(/no readings/);
