@@ -33,7 +33,7 @@ export function MetricsList({ result, settings }: { result: Pick<MetricsResult, 
             <div key={key} title={methodText(result, key, settings)} className="cursor-help">
               <dt className="text-xs text-ink-500">{METRICS[key]!.label}</dt>
               <dd className="num text-[15px] text-ink-950">{value == null ? <span className="text-ink-300">—</span> : formatMetric(key, value)}</dd>
-              {key === 'massActivity' && value != null && settings.loadingBasis === 'metal' && <dd className="num text-[12px] text-ink-700">= {perMilligram(value)}</dd>}
+              {key === 'massActivity' && value != null && settings.loadingBasis === 'metal' && <dd className="num whitespace-nowrap text-[12px] text-ink-700">{perMilligram(value)}</dd>}
               {note && <dd className={`text-[11px] leading-tight ${value == null ? 'text-amber-700' : 'text-ink-500'}`}>{note}</dd>}
             </div>
           );
