@@ -66,7 +66,7 @@ export function referencePoint(project: typeof projects.$inferSelect): Reference
 
 export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null): MetricsResult {
   if (curve.kind === 'polarization') {
-    return polarizationMetrics(curve, ref, { loadingMgCm2: build.loadingMgCm2, metalLoadingMgCm2: build.metalLoadingMgCm2 });
+    return polarizationMetrics(curve, ref, { loadingMgCm2: build.loadingMgCm2, metalLoadingMgCm2: build.metalLoadingMgCm2 }, { h2CrossoverAcm2: (build.testConditions?.h2CrossoverMAcm2 ?? 0) / 1000 });
   }
   const d = durabilityMetrics(curve, options ?? {});
   return {
@@ -78,8 +78,8 @@ export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: Bui
     metricNotes: d.degradationRate == null ? { degradationRate: d.notes.join(' ') || 'not enough data after break-in' } : {},
     method: {
       degradationRate: {
-        method: 'straight-line fit of voltage vs time after break-in; restarts and gaps fitted as separate segments; 95 % interval from the slope standard error',
-        inputs: { fromHours: d.fitWindow?.fromHours ?? null, toHours: d.fitWindow?.toHours ?? null, breakInRule: d.breakInRule ?? null },
+        method: d.method || 'straight-line fit of voltage vs time after break-in; restarts and gaps fitted as separate segments; 95 % interval from the slope standard error',
+        inputs: { fromHours: d.fitWindow?.fromHours ?? null, toHours: d.fitWindow?.toHours ?? null, breakInRule: d.breakInRule ?? null, assumptions: d.intervalAssumptions, stillInBreakIn: d.stillInBreakIn },
       },
       breakInHours: { method: d.breakInRule ?? 'given by the user', inputs: { breakInHours: d.breakInHours ?? null } },
     },

@@ -29,15 +29,18 @@ export interface FileConditions {
   raw: Record<string, string>;
 }
 
-/** Curve data in internal units, ready for metrics. Arrays have equal length, in file order. */
+/** Curve data in internal units, ready for metrics. Arrays have equal length, in file order.
+ * `v` may hold NaN (all NaN when the file gives only an iR-free voltage). */
 export interface CurveData {
   kind: CurveKind;
   /** current density, A/cm² */
   j: Float64Array;
   /** cell voltage, V */
   v: Float64Array;
-  /** high-frequency resistance, Ω·cm² (area-specific) */
+  /** high-frequency resistance, Ω·cm² (area-specific); NaN where a reading is missing */
   hfr?: Float64Array;
+  /** the file's own iR-free voltage column, V; NaN where missing (then `v` may be all NaN) */
+  vIrFree?: Float64Array;
   /** elapsed time, hours from the first row */
   tHours?: Float64Array;
   /** cell temperature, °C */

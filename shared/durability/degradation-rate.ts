@@ -5,6 +5,7 @@ import type { CurveData } from '../curves/types';
 import { detectBreakIn, type BreakInOptions } from './detect-break-in';
 import { detectInterruptions, type Interruption, type InterruptionOptions } from './detect-interruptions';
 import { fitTrend, type TrendFit } from './trend-fit';
+import { checkBreakInTransient, type TransientCheck } from './break-in-transient';
 import { lowerBound, upperBound } from './sorted-search';
 
 export interface HoursWindow {
@@ -82,12 +83,35 @@ export interface DurabilityMetrics {
   segments: DurabilitySegment[];
   /** lag-1 autocorrelation of the 1 h block residuals and what it did to the standard error */
   autocorrelation: { lag1: number; effectiveN: number; blocks: number; seInflation: number } | null;
+  /**
+   * the straight line checked against its own two halves: slopes of the first and second half of
+   * the fit window (µV/h, positive = losing voltage), and the verdict. 'still-in-break-in' = the
+   * voltage was still settling (no rate given); 'accelerating' = the loss speeds up (rate given, said)
+   */
+  linearity: { firstHalfRate: number; secondHalfRate: number; standardError: number; verdict: 'straight' | 'still-in-break-in' | 'accelerating' } | null;
+  /** the break-in transient fitted over the whole log (line + one exponential), when one is visible */
+  transient: TransientCheck | null;
+  /** true when the voltage is still settling: no rate and no interval are given */
+  stillInBreakIn: boolean;
+  /** the assumptions behind the interval, in words */
+  intervalAssumptions: string;
   /** the method in one sentence, for hover text */
   method: string;
   notes: string[];
 }
 
 const fmt = (value: number, digits: number): string => value.toFixed(digits);
+
+/** How many standard errors apart the two halves' slopes must be to call the line bent. */
+const BEND_STANDARD_ERRORS = 3;
+/** …and by at least this much, V/h (1 µV/h): smaller bends do not matter for a rate. */
+const BEND_MIN_SLOPE = 1e-6;
+
+const INTERVAL_ASSUMPTIONS =
+  'the voltage after break-in is a straight line (one per segment, common slope) plus noise whose 1 h block ' +
+  'means follow an AR(1) process; the lag-1 correlation is estimated from the residuals with its small-sample ' +
+  'bias added back, and the effective number of independent blocks sets the standard error and the t degrees of ' +
+  'freedom; drifts slower than the fit window cannot be told from the slope';
 
 function rateOf(fit: TrendFit | null): { rate: number | null; low: number | null; high: number | null } {
   if (!fit) return { rate: null, low: null, high: null };
@@ -184,6 +208,10 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     interruptions: [],
     segments: [],
     autocorrelation: null,
+    linearity: null,
+    transient: null,
+    stillInBreakIn: false,
+    intervalAssumptions: INTERVAL_ASSUMPTIONS,
     method: '',
     notes: [...notes, reason],
   });
@@ -296,6 +324,42 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     }
   }
 
+  // A transient still under way at the chosen end biases the rate: move the end later (detected or
+  // fallback break-in) or warn (set by the user); when it never settles inside the run, give no rate.
+  const transient = checkBreakInTransient(tFit, vFit, breakInHours, { blockHours, segmentStarts });
+  const transientText = transient
+    ? `a fitted break-in transient (${fmt(transient.amplitudeV * 1000, 1)} mV, time constant ${fmt(transient.tauHours, 0)} h) would bias a rate fitted from ` +
+      `${fmt(breakInHours, 1)} h by ${fmt(transient.biasAtBreakIn, 1)} µV/h (its standard error ${fmt(transient.rateStandardErrorAtBreakIn, 1)} µV/h)`
+    : '';
+  let stillSettling = false;
+  if (transient && transient.settledAtHours !== breakInHours) {
+    if (breakInSource === 'user') {
+      notes.push(`${transientText}; consider a later break-in`);
+    } else if (transient.settledAtHours === null) {
+      stillSettling = true;
+    } else {
+      notes.push(`break-in moved from ${fmt(breakInHours, 1)} h to ${fmt(transient.settledAtHours, 1)} h: ${transientText}`);
+      breakInHours = transient.settledAtHours;
+      breakInRule += '; moved later to where a line-plus-exponential fit of the whole log shows the transient biasing the rate by at most half its standard error';
+    }
+  }
+  if (stillSettling) {
+    const fitFrom = lowerBound(tFit, breakInHours);
+    notes.push(`still in break-in: ${transientText}, and it does not fade enough before the end of the run; no degradation rate is given`);
+    return {
+      ...empty('degradation rate not given: still in break-in', breakInRule),
+      notes,
+      breakInHours,
+      breakInSource,
+      fitWindow: { fromHours: tFit[fitFrom], toHours: tFit[tFit.length - 1] },
+      interruptions,
+      hoursRun,
+      transient,
+      stillInBreakIn: true,
+      method: 'straight line of V against time after break-in, checked against a line-plus-exponential fit of the whole log: the transient has not faded, so no rate',
+    };
+  }
+
   const from = lowerBound(tFit, breakInHours);
   const trend = fitTrend(tFit, vFit, { from, to: tFit.length, segmentStarts, blockHours, confidence });
   const windows: DurabilityWindow[] = (options.windows ?? []).map((window) => {
@@ -341,6 +405,54 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     );
   }
 
+  // The straight line checked against its halves: a break-in still under way bends it.
+  let linearity: DurabilityMetrics['linearity'] = null;
+  const fitFromHours = tFit[from];
+  const fitToHours = tFit[tFit.length - 1];
+  const middle = lowerBound(tFit, fitFromHours + (fitToHours - fitFromHours) / 2);
+  const firstHalf = fitTrend(tFit, vFit, { from, to: middle, segmentStarts, blockHours, confidence });
+  const secondHalf = fitTrend(tFit, vFit, { from: middle, to: tFit.length, segmentStarts, blockHours, confidence });
+  if (firstHalf && secondHalf) {
+    const difference = firstHalf.slope - secondHalf.slope;
+    const standardError = Math.sqrt(firstHalf.slopeSE ** 2 + secondHalf.slopeSE ** 2);
+    const bent = Math.abs(difference) > Math.max(BEND_STANDARD_ERRORS * standardError, BEND_MIN_SLOPE);
+    // A settling transient: the voltage falls faster early on, or rises early on (conditioning gain).
+    const settling = bent && (firstHalf.slope < secondHalf.slope || firstHalf.slope > 0);
+    linearity = {
+      firstHalfRate: -firstHalf.slope * 1e6,
+      secondHalfRate: -secondHalf.slope * 1e6,
+      standardError: standardError * 1e6,
+      verdict: !bent ? 'straight' : settling ? 'still-in-break-in' : 'accelerating',
+    };
+  }
+  const halvesText = linearity
+    ? `first half of the fit window ${fmt(linearity.firstHalfRate, 1)} µV/h, second half ${fmt(linearity.secondHalfRate, 1)} µV/h (±${fmt(linearity.standardError, 1)} µV/h)`
+    : '';
+  if (linearity?.verdict === 'accelerating') notes.push(`the loss accelerates: ${halvesText}; the rate is the average over the fit window`);
+  if (linearity?.verdict === 'still-in-break-in') {
+    notes.push(
+      `still in break-in: the voltage is still settling after ${fmt(breakInHours, 1)} h (${halvesText}, more than ` +
+        `${BEND_STANDARD_ERRORS} standard errors apart), so no degradation rate is given` +
+        (breakInSource === 'user' ? '; set a later break-in or wait for a longer run' : '; the run is too short to separate the break-in from the long-run loss'),
+    );
+    return {
+      ...empty(`degradation rate not given: still in break-in`, breakInRule),
+      notes,
+      breakInHours,
+      breakInSource,
+      fitWindow: { fromHours: fitFromHours, toHours: fitToHours },
+      interruptions,
+      hoursRun,
+      windows,
+      segments,
+      autocorrelation: { lag1: trend.lag1, effectiveN: trend.effectiveN, blocks: trend.blocks, seInflation: trend.slopeSE / trend.slopeSEUncorrected },
+      linearity,
+      transient,
+      stillInBreakIn: true,
+      method: `straight line of V against time after break-in (${fmt(breakInHours, 1)} h) checked against its two halves: they differ, the voltage is still settling`,
+    };
+  }
+
   // Hours to a stated loss, read off the fitted lines inside the data only.
   const target = first.startV * (1 - lossFraction);
   let hoursToLoss: number | null = null;
@@ -371,8 +483,9 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
   const method =
     `straight line of V against time after break-in (${fmt(breakInHours, 1)} h), fitted to ${blockHours} h block means` +
     (segments.length > 1 ? ' with a common slope and a separate intercept per segment' : '') +
-    `; ${fmt(confidence * 100, 0)} % interval from the slope standard error widened for lag-1 autocorrelation ` +
-    `(effective n) and Student's t with ${fmt(trend.df, 1)} df`;
+    `; ${fmt(confidence * 100, 0)} % interval from an AR(1) error model: the slope standard error widened for the ` +
+    `lag-1 autocorrelation of the block residuals (bias-corrected, effective n ${fmt(trend.effectiveN, 0)} of ${trend.blocks} blocks) ` +
+    `and Student's t with ${fmt(trend.df, 1)} df; the line was checked against its two halves`;
 
   return {
     degradationRate: rate,
@@ -392,6 +505,10 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     interruptions,
     segments,
     autocorrelation: { lag1: trend.lag1, effectiveN: trend.effectiveN, blocks: trend.blocks, seInflation },
+    linearity,
+    transient,
+    stillInBreakIn: false,
+    intervalAssumptions: INTERVAL_ASSUMPTIONS,
     method,
     notes,
   };

@@ -15,3 +15,5 @@ export { writeDurabilityCsv, DURABILITY_CSV_HEADER } from './write-durability-cs
 export { mulberry32, normalGenerator } from './seeded-random';
 export { lowerBound, upperBound } from './sorted-search';
 export { TYPICAL_DEGRADATION_BAND } from './typical-band';
+export { checkBreakInTransient } from './break-in-transient';
+export type { TransientCheck, TransientOptions } from './break-in-transient';

@@ -32,6 +32,7 @@ const CONDITION_LABELS: Record<string, { label: string; unit: string }> = {
   backPressureKPa: { label: 'back-pressure', unit: 'kPa' },
   anodeStoich: { label: 'anode stoichiometry', unit: '' },
   cathodeStoich: { label: 'cathode stoichiometry', unit: '' },
+  h2CrossoverMAcm2: { label: 'H₂ crossover', unit: 'mA/cm²' },
 };
 
 const blank = (value: unknown): value is null | undefined | '' => value === null || value === undefined || value === '';

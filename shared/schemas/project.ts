@@ -100,5 +100,7 @@ export const testConditionsSchema = z.object({
   backPressureKPa: z.number().min(0).max(1000).nullish(),
   anodeStoich: z.number().min(0).max(20).nullish(),
   cathodeStoich: z.number().min(0).max(20).nullish(),
+  /** H₂ crossover current density, mA/cm² (e.g. from a linear sweep on H₂/N₂); added to j for the kinetic metrics */
+  h2CrossoverMAcm2: z.number().min(0, 'below 0 mA/cm²').max(50, 'above 50 mA/cm²').nullish(),
 });
 export type TestConditions = z.infer<typeof testConditionsSchema>;

@@ -26,7 +26,8 @@ describe('polarizationMetrics on the noise-free model', () => {
   it('V at j_ref equals the model at a measured step', () => {
     expect(result.metrics.vAtRef).toBeCloseTo(model(0.2), 12); // the model at 0.2 A/cm², a step of the curve
     expect(result.metrics.vAtRefIrFree).toBeCloseTo(model(0.2) + 0.2 * MODEL.resistance, 12); // V + j·HFR with HFR = R
-    expect(result.method.vAtRef?.method).toBe('linear interpolation on step-averaged curve, single sweep');
+    expect(result.method.vAtRef?.method).toMatch(/single up sweep/);
+    expect(result.method.vAtRef?.method).toMatch(/open-circuit reading is never interpolated from/);
   });
   it('V between steps is the linear interpolation of the model points, close to the model', () => {
     const between = polarizationMetrics(curve, { ...REF, refCurrentDensity: 0.25 }, LOADING);
@@ -76,11 +77,11 @@ describe('polarizationMetrics on the noise-free model', () => {
   it('peak note only when the highest power is at the highest current', () => {
     const peakJ = J_POINTS.reduce((best, j) => (j * model(j) > best * model(best) ? j : best), 0);
     expect(peakJ).toBeLessThan(1.2); // the model's power turns over before 1.2 A/cm² (source: the model itself)
-    expect(result.metricNotes.peakPower).toBeUndefined();
+    expect(result.metricNotes.peakPower).toMatch(/^highest measured \(at /); // always labelled as the highest measured point
     const truncated = generatePolarizationCurve(MODEL, { jPoints: J_POINTS.filter((j) => j <= 0.6) });
     const early = polarizationMetrics(truncated, REF, LOADING);
     expect(early.metrics.peakPower).toBeCloseTo(0.6 * model(0.6), 12); // the last point (source: the model)
-    expect(early.metricNotes.peakPower).toBe('peak not reached, highest measured');
+    expect(early.metricNotes.peakPower).toMatch(/^highest measured, at the highest current/);
   });
 });
 
@@ -94,9 +95,10 @@ describe('polarizationMetrics: sweeps, noise, limits', () => {
     expect(result.summary.hysteresisMv).toBeCloseTo(10, 9); // the 10 mV offset given to the generator
     expect(result.summary.hysteresisHigherSweep).toBe('down');
     expect(result.summary.sweeps).toBe(2); // generator: up and down
-    expect(result.summary.steps).toBe(2 * J_POINTS.length - 1); // up steps + down steps, the top held once
+    // loaded up steps + loaded down steps (the top held once) + one open-circuit step (start and end merged)
+    expect(result.summary.steps).toBe(2 * (J_POINTS.length - 1) - 1 + 1);
     expect(result.summary.readingsPerStepMedian).toBe(3); // generator: readingsPerStep 3
-    expect(result.method.vAtRef?.method).toMatch(/both sweeps averaged/);
+    expect(result.method.vAtRef?.method).toMatch(/both sweeps \(up and down\) averaged at common j/);
   });
   it('with noise, V at j_ref stays within 4 σ/√n of the model', () => {
     const noise = 0.002;
@@ -118,18 +120,19 @@ describe('polarizationMetrics: nulls and notes', () => {
   it('never extrapolates V at j_ref', () => {
     const result = polarizationMetrics(curveOf([0, 0.05, 0.1, 0.15], [0.95, 0.8, 0.75, 0.72], [0.2, 0.2, 0.2, 0.2]), REF, LOADING);
     expect(result.metrics.vAtRef).toBeNull();
-    expect(result.metricNotes.vAtRef).toBe('not reached: curve spans 0.00–0.15 A/cm²'); // wording of the brief
+    expect(result.metricNotes.vAtRef).toBe('not reached: curve spans 0.05–0.15 A/cm²'); // loaded steps only (the open-circuit point is not interpolated from)
     expect(result.metrics.jAtRef).toBeNull();
     expect(result.metricNotes.jAtRef).toMatch(/^not reached: lowest voltage 0.720 V/);
   });
-  it('without HFR: iR-free metrics are null with a reason, Tafel uses measured V', () => {
+  it('without HFR: iR-free metrics and the Tafel slope are null with a reason', () => {
     const result = polarizationMetrics(curveOf([0, 0.005, 0.01, 0.02, 0.05, 0.2, 0.4], [0.95, 0.82, 0.79, 0.76, 0.72, 0.62, 0.54]), REF, LOADING);
     expect(result.metrics.vAtRefIrFree).toBeNull();
-    expect(result.metricNotes.vAtRefIrFree).toMatch(/no HFR column/);
+    expect(result.metricNotes.vAtRefIrFree).toMatch(/no HFR or iR-free voltage column/);
     expect(result.metrics.massActivity).toBeNull(); // ref.irFree needs the iR-free crossing
     expect(result.metrics.hfr).toBeNull();
-    expect(result.metrics.tafelSlope).not.toBeNull();
-    expect(result.metricNotes.tafelSlope).toMatch(/measured voltage/);
+    // the Tafel slope is fitted on iR-free voltage only (the measured slope includes the ohmic loss)
+    expect(result.metrics.tafelSlope).toBeNull();
+    expect(result.metricNotes.tafelSlope).toMatch(/no HFR or iR-free voltage column.*5–50 mA\/cm²/);
   });
   it('mass activity worked by hand: 0.05 A/cm² at V_ref on 4.0 mg/cm² → 12.5 A/g', () => {
     const curve = curveOf([0, 0.05, 0.1], [0.9, 0.8, 0.7]);
@@ -149,16 +152,17 @@ describe('polarizationMetrics: nulls and notes', () => {
   it('no open-circuit reading → OCV null; fewer than 3 kinetic points → Tafel null', () => {
     const result = polarizationMetrics(curveOf([0.2, 0.4], [0.65, 0.55]), REF, LOADING);
     expect(result.metrics.ocv).toBeNull();
-    expect(result.metricNotes.ocv).toMatch(/open circuit/);
+    expect(result.metricNotes.ocv).toMatch(/no reading at zero current/);
     expect(result.metrics.tafelSlope).toBeNull();
-    expect(result.metricNotes.tafelSlope).toMatch(/fewer than 3/);
+    expect(result.metricNotes.tafelSlope).toMatch(/no HFR or iR-free/);
   });
-  it('falls back to the lowest decade with 3 points for the Tafel slope', () => {
+  it('never falls back to a higher-current decade for the Tafel slope', () => {
     const j = [0, 0.06, 0.1, 0.3, 0.5];
     const v = j.map(model);
     const result = polarizationMetrics(curveOf(j, v, j.map(() => MODEL.resistance)), REF, LOADING);
-    expect(result.method.tafelSlope?.inputs.window).toBe('0.060–0.600 A/cm²'); // derived by hand: lowest positive j 0.06 A/cm², one decade up to 0.6
-    expect(result.method.tafelSlope?.inputs.points).toBe(4); // 0.06, 0.1, 0.3, 0.5
+    expect(result.metrics.tafelSlope).toBeNull(); // no step in 5–50 mA/cm²
+    expect(result.metricNotes.tafelSlope).toBe('only 0 loaded steps with an iR-free voltage in the kinetic window 5–50 mA/cm²; at least 3 needed');
+    expect(result.method.tafelSlope?.inputs.window).toBe('0.005–0.050 A/cm²');
   });
   it('throws on malformed input', () => {
     const curve = curveOf([0, 0.1], [0.9, 0.8]);

@@ -224,6 +224,9 @@ export function BuildForm({ factors, responses, labs, builds, initial, lockLabId
           <Field label="Cathode stoichiometry" error={errors.testConditions?.cathodeStoich?.message}>
             {(p) => <Input {...p} type="number" step="any" {...register('testConditions.cathodeStoich', { setValueAs: num })} />}
           </Field>
+          <Field label="H₂ crossover (mA/cm²)" hint="Optional. Measured on H₂/N₂ (e.g. a slow linear sweep). Added to the cell current for the Tafel slope, mass activity and iR-free j at V_ref." error={errors.testConditions?.h2CrossoverMAcm2?.message}>
+            {(p) => <Input {...p} type="number" step="any" min={0} {...register('testConditions.h2CrossoverMAcm2', { setValueAs: num })} />}
+          </Field>
         </div>
         {showSafety && (
           <div className="mt-4">

@@ -14,21 +14,35 @@ function methodText(result: Pick<MetricsResult, 'method' | 'metricNotes'>, key: 
   return [m?.method, inputs, `reference point: j_ref ${settings.refCurrentDensity} A/cm², V_ref ${settings.refVoltage} V${settings.irFree ? ', iR-free' : ''}, ${settings.loadingBasis} loading basis`].filter(Boolean).join('\n');
 }
 
-export function MetricsList({ result, settings }: { result: Pick<MetricsResult, 'metrics' | 'metricNotes' | 'method'>; settings: ProjectSettings }) {
+const missing = (value: number | null): number => (value == null ? Number.NaN : value);
+
+/** Mass activity per mg of metal (A/mg) from A/g, three significant digits. */
+function perMilligram(valueAPerG: number): string {
+  return `${Number((valueAPerG / 1000).toPrecision(3))} A/mg metal`;
+}
+
+export function MetricsList({ result, settings }: { result: Pick<MetricsResult, 'metrics' | 'metricNotes' | 'method'> & { summary?: Record<string, unknown> }; settings: ProjectSettings }) {
+  const crossover = typeof result.summary?.h2CrossoverMAcm2 === 'number' ? result.summary.h2CrossoverMAcm2 : null;
   return (
-    <dl className="grid grid-cols-2 gap-x-6 gap-y-2 sm:grid-cols-3">
-      {ORDER.map((key) => {
-        const value = result.metrics[key];
-        const note = result.metricNotes[key];
-        return (
-          <div key={key} title={methodText(result, key, settings)} className="cursor-help">
-            <dt className="text-xs text-ink-500">{METRICS[key]!.label}</dt>
-            <dd className="num text-[15px] text-ink-950">{value == null ? <span className="text-ink-300">—</span> : formatMetric(key, value)}</dd>
-            {note && <dd className="text-[11px] leading-tight text-amber-700">{note}</dd>}
-          </div>
-        );
-      })}
-    </dl>
+    <>
+      <dl className="grid grid-cols-2 gap-x-6 gap-y-2 sm:grid-cols-3">
+        {ORDER.map((key) => {
+          const value = result.metrics[key];
+          const note = result.metricNotes[key];
+          return (
+            <div key={key} title={methodText(result, key, settings)} className="cursor-help">
+              <dt className="text-xs text-ink-500">{METRICS[key]!.label}</dt>
+              <dd className="num text-[15px] text-ink-950">{value == null ? <span className="text-ink-300">—</span> : formatMetric(key, value)}</dd>
+              {key === 'massActivity' && value != null && settings.loadingBasis === 'metal' && <dd className="num whitespace-nowrap text-[12px] text-ink-700">{perMilligram(value)}</dd>}
+              {note && <dd className={`text-[11px] leading-tight ${value == null ? 'text-amber-700' : 'text-ink-500'}`}>{note}</dd>}
+            </div>
+          );
+        })}
+      </dl>
+      {crossover != null && (
+        <p className="mt-2 text-[11px] text-ink-500">H₂ crossover of {crossover} mA/cm² (from the build’s test conditions) added to the cell current for the Tafel slope, mass activity and iR-free j at V_ref.</p>
+      )}
+    </>
   );
 }
 
@@ -36,17 +50,19 @@ export function WhatIfReference({ curve, points, settings, loading }: { curve: C
   const [jRef, setJRef] = useState(settings.refCurrentDensity);
   const [vRef, setVRef] = useState(settings.refVoltage);
   const data = useMemo(
-    () => ({ kind: curve.kind, j: Float64Array.from(points.j ?? []), v: Float64Array.from(points.v), hfr: points.hfr ? Float64Array.from(points.hfr) : undefined }),
+    // JSON carries missing readings as null: keep them missing (NaN), not 0
+    () => ({ kind: curve.kind, j: Float64Array.from(points.j ?? []), v: Float64Array.from(points.v, missing), hfr: points.hfr ? Float64Array.from(points.hfr, missing) : undefined }),
     [curve, points],
   );
   const maxJ = Math.max(0.05, ...Array.from(data.j));
+  const crossoverAcm2 = typeof curve.summary.h2CrossoverMAcm2 === 'number' ? curve.summary.h2CrossoverMAcm2 / 1000 : 0;
   const what = useMemo(() => {
     try {
-      return polarizationMetrics(data, { ...settings, refCurrentDensity: jRef, refVoltage: vRef }, loading);
+      return polarizationMetrics(data, { ...settings, refCurrentDensity: jRef, refVoltage: vRef }, loading, { h2CrossoverAcm2: crossoverAcm2 });
     } catch {
       return null;
     }
-  }, [data, settings, jRef, vRef, loading]);
+  }, [data, settings, jRef, vRef, loading, crossoverAcm2]);
   return (
     <div className="rounded-md border border-line bg-paper/50 p-3">
       <div className="mb-2 text-xs font-semibold text-ink-700">What if the reference point were…</div>
