@@ -3,8 +3,12 @@
 import { DoeInputError } from './errors';
 import type { Factor, Observation, ResolvedFactor } from './types';
 
-/** "row 3 (build 14)": where a bad value is, in words a person can find in the builds table. */
+/**
+ * Where a run is, in words a person can find: "build C-017" when the run carries its build's
+ * code, otherwise its place in the list ("row 3, build 14" for callers that only have ids).
+ */
 export function rowPlace(index: number, row: Observation | undefined): string {
+  if (row && typeof row.label === 'string' && row.label !== '') return `build ${row.label}`;
   const build = row && row.buildId !== undefined ? `, build ${row.buildId}` : '';
   return `row ${index + 1}${build}`;
 }

@@ -21,6 +21,8 @@ export interface Observation {
   factors: Record<string, number | string>;
   y: number;
   buildId?: number;
+  /** how a person names the run (a build code like "C-017"); used in messages instead of row numbers */
+  label?: string;
   block?: number | string;
 }
 
@@ -68,6 +70,8 @@ export interface ModelColumn {
 export interface Coefficient {
   /** column name, e.g. "intercept", "temp", "temp*binder", "temp^2", "gdl[cloth]" */
   term: string;
+  /** the column in words, e.g. "Cell temperature × PTFE binder", "GDL: cloth" */
+  label: string;
   /** estimate in coded units (0 for an aliased column, which was not estimated) */
   coded: number;
   codedSE: number | null;
@@ -95,6 +99,8 @@ export interface AnovaTestRow extends AnovaRow {
 
 export interface AnovaTermRow extends AnovaTestRow {
   term: string;
+  /** the term in words */
+  label: string;
 }
 
 export interface Anova {
