@@ -3,7 +3,7 @@
 import { fUpperP, tTwoSidedP } from '../../stats/distributions';
 import { DoeInputError } from './errors';
 import { encodePoint } from './encode';
-import { checkRows, resolveFactors, rowPlace } from './factors';
+import { checkRows, resolveFactors, rowPlace, settingsKey } from './factors';
 import { compensatedDot, compensatedSum, qrLeastSquares } from './numeric';
 import { buildModelTerms, modelRow } from './terms';
 import { columnLabel, factorName, termLabel } from './labels';
@@ -28,16 +28,6 @@ export interface FitSurfaceInput {
 }
 
 const VIF_LIMIT = 10;
-
-/** Key of a run's factor settings, so replicates (same settings) fall in one group. */
-function settingsKey(factors: ResolvedFactor[], row: Observation): string {
-  const parts: string[] = [];
-  for (const factor of factors) {
-    const value = row.factors[factor.key];
-    parts.push(factor.kind === 'continuous' ? (value as number).toPrecision(12) : `"${String(value)}"`);
-  }
-  return parts.join('|');
-}
 
 /** A number with at most 6 significant digits, for messages. */
 function short(value: number): string {
@@ -408,6 +398,7 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     rmse: Math.sqrt(mse),
     n,
     distinctRuns,
+    replicateGroups: [...groups.values()].filter((members) => members.length > 1).length,
     leverage,
     residuals,
     predicted,

@@ -41,6 +41,8 @@ export interface ResolvedFactor {
   /** continuous only: smallest and largest value seen in the data */
   dataMin?: number;
   dataMax?: number;
+  /** categorical only: the levels at least one run was made at */
+  levelsRun?: string[];
 }
 
 /**
@@ -145,6 +147,8 @@ export interface SurfaceFit {
   rmse: number;
   n: number;
   distinctRuns: number;
+  /** recipes (distinct settings) built more than once */
+  replicateGroups?: number;
   leverage: number[];
   residuals: number[];
   predicted: number[];
