@@ -291,10 +291,10 @@ function responseInfo(defs: ResponseDef[], key: string, path = 'response'): Resp
 }
 
 const MODEL_NAMES: Record<string, string> = {
-  linear: 'The main-effects model',
-  interactions: 'The model with every two-factor interaction',
-  quadratic: 'The full quadratic model',
-  terms: 'Your term list',
+  linear: 'the main-effects model',
+  interactions: 'the model with every two-factor interaction',
+  quadratic: 'the full quadratic model',
+  terms: 'your term list',
 };
 
 interface FitContext {
@@ -387,8 +387,8 @@ function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest
     spec = body.model;
     model = { requested: typeof body.model === 'string' ? body.model : 'terms', terms: [], termLabels: [], choice: null };
   }
-  const requestedName = MODEL_NAMES[model.requested] ?? 'This model';
-  const support = guard(() => checkModelSupport(factors, rows, spec, model.requested === 'auto' ? 'The chosen model' : requestedName));
+  const requestedName = MODEL_NAMES[model.requested] ?? 'this model';
+  const support = guard(() => checkModelSupport(factors, rows, spec, model.requested === 'auto' ? 'the chosen model' : requestedName));
   if (!support.supported) {
     // refused before fitting: the runs cannot tell this model's terms apart
     throw new AppError(422, support.code ?? 'too-few-runs', support.reason, { support });

@@ -31,6 +31,10 @@ export interface ModelSupport {
   aliased: AliasedColumn[];
 }
 
+function capital(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
 /** Which estimated columns an aliased column is made of: least squares of it on them. */
 function partners(x: number[][], estimated: number[], j: number, columns: ModelColumn[], factors: ResolvedFactor[]): string[] {
   const target = x.map((row) => row[j]);
@@ -76,7 +80,7 @@ export function checkModelSupport(factorList: Factor[], rows: Observation[], mod
       ...base,
       supported: false,
       code: 'too-few-runs',
-      reason: `${modelName} has ${p} terms (the constant included) but the builds give only ${d} distinct recipe${d === 1 ? '' : 's'}; it needs at least ${p + 1}. Fit fewer terms, or make builds at new recipes.`,
+      reason: `${capital(modelName)} has ${p} terms (the constant included) but the builds give only ${d} distinct recipe${d === 1 ? '' : 's'}; it needs at least ${p + 1}. Fit fewer terms, or make builds at new recipes.`,
     };
   }
   const x = [...distinct.values()].map((row) => modelRow(columns, encodePoint('checkModelSupport', factors, row.factors)));
