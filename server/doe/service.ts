@@ -628,7 +628,7 @@ export function planProposal(ctx: AppContext, access: ProjectAccess, body: PlanP
   const format = (value: number) => `${roundForText(value, 4)}${response.unit ? ` ${response.unit}` : ''}`;
   const limit = boundPrediction(limitsAt(limits, body.recipe), prediction.value, prediction.piLow, prediction.piHigh, format);
   const flags: string[] = [];
-  if (!support.inside) flags.push(`Outside the builds' support: ${support.reasons.join(' ')}`);
+  if (!support.inside) flags.push(`Outside the builds' support. ${support.reasons.join(' ')}`);
   if (limit.hitsLimit && limit.note) flags.push(limit.note);
   const reason = body.reason?.trim() ?? '';
   if (flags.length > 0 && reason.length < 10) {

@@ -54,7 +54,7 @@ export function checkSupport(fit: SurfaceFit, point: Record<string, number | str
   const leverageLimit = basis.maxLeverage;
   const leverageRatio = leverageLimit > 0 ? leverage / leverageLimit : Infinity;
   if (leverage > leverageLimit * (1 + 1e-9)) {
-    reasons.push(`It is further from the builds than any build made so far (leverage ${roundForText(leverage, 3)}, limit ${roundForText(leverageLimit, 3)}).`);
+    reasons.push(`The recipe is further from the builds than any build made so far (leverage ${roundForText(leverage, 3)}, limit ${roundForText(leverageLimit, 3)}).`);
   }
   return { inside: reasons.length === 0, leverage, leverageLimit, leverageRatio, reasons };
 }

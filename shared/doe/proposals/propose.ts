@@ -457,7 +457,7 @@ export function proposeBuilds(input: ProposeInput): Proposal[] {
     }
     if (notes.length > 0) sentence += ` ${notes.join('; ')}.`;
     const flags: string[] = [];
-    if (!support.inside) flags.push(`Outside the builds' support: ${support.reasons.join(' ')}`);
+    if (!support.inside) flags.push(`Outside the builds' support. ${support.reasons.join(' ')}`);
     if (limit.hitsLimit && limit.note) flags.push(limit.note);
     if (limit.note && !limit.hitsLimit) sentence += ` ${limit.note}`;
     return {
