@@ -142,7 +142,12 @@ export function TwoFactorMap({ result, recipe, onRecipe, subtitle }: { result: S
       z.push(row);
       edge.push(edgeRow);
     }
-    return { xs, ys, z, edge };
+    // every other grid node outside the support gets a stipple dot
+    const stipple = { x: [] as number[], y: [] as number[] };
+    ys.forEach((yv, j) => xs.forEach((xv, i) => {
+      if (i % 2 === 0 && j % 2 === 0 && edge[j]![i]! > 1) { stipple.x.push(xv); stipple.y.push(yv); }
+    }));
+    return { xs, ys, z, edge, stipple };
   }, [fx, fy, recipe, result, d.scale]);
   if (continuous.length < 2) return <p className="text-sm text-ink-500">A map needs two continuous factors in the fit.</p>;
   const held = result.factors.filter((f) => f.key !== xKey && f.key !== yKey).map((f) => `${f.label} ${showSetting(recipe[f.key], f.kind === 'continuous' ? f.unit : null)}`).join(' · ');
@@ -177,7 +182,9 @@ export function TwoFactorMap({ result, recipe, onRecipe, subtitle }: { result: S
             }}
             data={[
               { x: grid.xs, y: grid.ys, z: grid.z, type: 'contour', colorscale: 'Cividis', contours: { coloring: 'heatmap', showlabels: true, labelfont: { size: 10, color: '#ffffff' } }, colorbar: { title: { text: d.unit } }, hovertemplate: `${fx!.label} %{x:.4g}<br>${fy!.label} %{y:.4g}<br>${d.label} %{z:.4g} ${d.unit}<extra></extra>`, name: 'predicted' },
-              { x: grid.xs, y: grid.ys, z: grid.edge, type: 'contour', showscale: false, contours: { start: 1, end: 1, size: 1, coloring: 'none' }, line: { color: '#ffffff', width: 2.5, dash: 'dash' }, hoverinfo: 'skip', name: 'edge of the builds’ support', showlegend: true },
+              // outside the builds' support (leverage above the limit): stippled, its edge dashed
+              { x: grid.stipple.x, y: grid.stipple.y, type: 'scatter', mode: 'markers', marker: { size: 3, color: 'rgba(17,26,46,0.45)' }, hoverinfo: 'skip', name: 'outside the builds’ support (stippled)' },
+              { x: grid.xs, y: grid.ys, z: grid.edge, type: 'contour', showscale: false, contours: { start: 1, end: 1, size: 1, coloring: 'none', showlabels: false }, line: { color: '#111a2e', width: 1.5, dash: 'dash' }, hoverinfo: 'skip', name: 'edge of the builds’ support' },
               { x: runs.map((r) => r.factors[xKey] as number), y: runs.map((r) => r.factors[yKey] as number), text: hover, type: 'scatter', mode: 'markers', name: 'builds (at their own settings)', marker: { color: '#ffffff', size: 8, line: { color: '#111a2e', width: 1.5 }, symbol: 'circle' }, hovertemplate: '%{text}<extra></extra>' },
               { x: [recipe[xKey] as number], y: [recipe[yKey] as number], type: 'scatter', mode: 'markers', name: 'what-if recipe', marker: { color: OKABE_ITO[1], size: 15, symbol: 'star', line: { color: '#111a2e', width: 1 } }, hovertemplate: 'what-if recipe<extra></extra>' },
             ]}
@@ -192,7 +199,7 @@ export function TwoFactorMap({ result, recipe, onRecipe, subtitle }: { result: S
             config={{ displayModeBar: false }}
           />
           <p className="text-xs text-ink-500">
-            White dashes: the edge of the builds' support at these held values (inside it a point is no further from the builds than the most remote build made);
+            Stippled area and dashed line: outside the builds' support at these held values (there a point is further from the builds than the most remote build made, so the colours are extrapolation);
             orange dots: the ranges built so far. Click the map to move the what-if recipe. Builds are drawn at their own settings, which may differ from the held values.
           </p>
           <div>
