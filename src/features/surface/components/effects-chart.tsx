@@ -61,7 +61,7 @@ export function EffectsChart({ result, subtitle }: { result: SurfaceResult; subt
         ]}
         layout={{
           title: { text: `What moves ${d.label}<br><span style="font-size:11px;color:#56668c">${subtitle}</span>` },
-          xaxis: { title: { text: `Effect over the factor's range (${d.unit})` }, zeroline: true, zerolinecolor: '#18233d', zerolinewidth: 1.5, gridcolor: '#eeeae2' },
+          xaxis: { title: { text: `Effect (${d.unit})` }, zeroline: true, zerolinecolor: '#18233d', zerolinewidth: 1.5, gridcolor: '#eeeae2' },
           yaxis: { automargin: true, tickfont: { size: 12 } },
           showlegend: false,
           margin: { l: 16, r: 24, t: 56, b: 52 },

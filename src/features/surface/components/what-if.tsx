@@ -158,7 +158,7 @@ export function TwoFactorMap({ result, recipe, onRecipe, subtitle }: { result: S
   const yTitle = `${fy?.label ?? ''}${fy?.unit ? ` (${fy.unit})` : ''}`;
   const runs = result.runs;
   const hover = runs.map((r) => `${r.code}: measured ${show(r.observed, d)}, fitted ${show(r.predicted, d)}`);
-  const title = `Predicted ${d.label} (${d.unit})<br><span style="font-size:11px;color:#56668c">${[held, subtitle].filter(Boolean).join(' · ')}</span>`;
+  const title = `Predicted ${d.label} (${d.unit})<br><span style="font-size:11px;color:#56668c">${held ? `${held}<br>` : ''}${subtitle}</span>`;
   return (
     <div ref={box} className="flex flex-col gap-3">
       <div className="flex flex-wrap items-end gap-3">
@@ -193,7 +193,7 @@ export function TwoFactorMap({ result, recipe, onRecipe, subtitle }: { result: S
               xaxis: { title: { text: xTitle } },
               yaxis: { title: { text: yTitle } },
               legend: { orientation: 'h', y: -0.22 },
-              margin: { l: 70, r: 40, t: 64, b: 96 },
+              margin: { l: 70, r: 40, t: 84, b: 96 },
               shapes: rx && ry ? [{ type: 'rect', x0: rx.low, x1: rx.high, y0: ry.low, y1: ry.high, line: { color: '#E69F00', width: 1.5, dash: 'dot' } }] : [],
             }}
             config={{ displayModeBar: false }}
