@@ -290,7 +290,7 @@ export function proposeBuilds(input: ProposeInput): Proposal[] {
     const b = Math.min(1, Math.max(0, (high - entry.min) / (entry.max - entry.min)));
     return [a, Math.max(a, b)] as const;
   });
-  if (spanned.some(([a, b]) => a > 0 || b < 1)) {
+  if (spanned.some(([a, b]) => a > 0.05 || b < 0.95)) {
     for (const candidate of candidateSet(plan, random)) {
       candidates.push({ unit: candidate.unit.map((u, d) => spanned[d][0] + u * (spanned[d][1] - spanned[d][0])), levels: candidate.levels });
     }
