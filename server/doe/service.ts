@@ -72,7 +72,9 @@ function guard<T>(work: () => T): T {
       throw new AppError(422, 'design-input', error.message, { fields: [{ path: error.field, message: error.message }] });
     }
     if (error instanceof DoeInputError) {
-      throw new AppError(422, error.code, error.message, error.details);
+      // the shared code names its function first ("fitSurface: …"); people read the rest
+      const message = error.message.replace(/^[a-zA-Z]+: /, '');
+      throw new AppError(422, error.code, message.charAt(0).toUpperCase() + message.slice(1), error.details);
     }
     if (error instanceof RangeError) throw new AppError(422, 'invalid-input', error.message);
     throw error;

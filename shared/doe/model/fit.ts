@@ -355,7 +355,7 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     }
   }
   if (press === null) {
-    warnings.push('A run has leverage 1 (the model passes through it exactly): PRESS and predicted R² are undefined.');
+    warnings.push('A build has leverage 1 (the model passes through it exactly): its left-out error, PRESS and the R² for left-out builds cannot be worked out.');
   }
   for (let f = 0; f < factors.length; f++) {
     const factor = factors[f];
@@ -377,7 +377,7 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
   const blocks = new Set<string>();
   for (const row of rows) if (row.block !== undefined && row.block !== null) blocks.add(String(row.block));
   if (blocks.size > 1) warnings.push(`The runs carry ${blocks.size} blocks; block effects are not part of this model.`);
-  if (ssTotal === 0) warnings.push(`${responseKey ? `Response "${responseKey}"` : 'The response'} does not vary across the runs: nothing to model.`);
+  if (ssTotal === 0) warnings.push('The response does not vary across the builds: nothing to model.');
   if (ssResidual === 0 && ssTotal > 0) warnings.push('The residual error is zero: the model reproduces every run exactly, so standard errors and tests are not meaningful.');
 
   const r2 = ssTotal > 0 ? 1 - ssResidual / ssTotal : 0;

@@ -18,7 +18,7 @@ function describeModel(termLabels: string[], factors: FactorDef[]): string {
   const mains = new Set(factors.map((f) => f.label));
   const main = termLabels.filter((t) => mains.has(t));
   const extra = termLabels.filter((t) => !mains.has(t));
-  const first = main.length === factors.length ? 'every main effect' : main.length === 0 ? 'no main effect' : `main effects of ${main.join(', ')}`;
+  const first = main.length === factors.length ? 'every main effect' : main.length === 0 ? 'no main effect' : main.length === 1 ? `the main effect of ${main[0]}` : `main effects of ${main.join(', ')}`;
   return extra.length ? `${first} + ${extra.join(', ')}` : first;
 }
 
@@ -41,7 +41,7 @@ export function QualitySentence({ result }: { result: SurfaceResult }) {
         {q.looRmse != null ? (
           <>Predicts a new build to <strong className="num">±{showSpread(q.looRmse, d)}</strong> (leave-one-out)</>
         ) : (
-          <>Its error on a left-out build is undefined</>
+          <>Its error on a left-out build cannot be worked out</>
         )}
         {q.replicateSd != null ? (
           <>; builds of the same recipe vary by <strong className="num">±{showSpread(q.replicateSd, d)}</strong> ({q.replicateGroups} recipe{q.replicateGroups === 1 ? '' : 's'} built more than once).</>

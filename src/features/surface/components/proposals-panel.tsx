@@ -150,6 +150,10 @@ export function ProposalsPanel({ projectId, request, result, allFactors, canPlan
   const inside = items.map((p, i) => ({ p, i })).filter(({ p }) => p.kind === 'supported');
   const outside = items.map((p, i) => ({ p, i })).filter(({ p }) => p.kind === 'exploratory');
   const anyCaution = items.some((p) => p.cautions.length > 0);
+  // factors of the fit with no estimated term, and project factors left out of the fit
+  const inTerms = new Set(result.model.terms.flatMap((t) => t.split('*').map((part) => part.replace(/\^\d+$/, ''))));
+  const termless = result.factors.filter((f) => !inTerms.has(f.key));
+  const heldOut = allFactors.filter((f) => !result.factors.some((g) => g.key === f.key));
   const card = ({ p, i }: { p: ProposalItem; i: number }, n: number) => (
     <ProposalCard key={i} index={n + 1} p={p} result={result} allFactors={allFactors} projectId={projectId} request={request} canPlan={canPlan} planned={planned[i]} onPlanned={(b) => setPlanned((s) => ({ ...s, [i]: b }))} />
   );
@@ -181,7 +185,7 @@ export function ProposalsPanel({ projectId, request, result, allFactors, canPlan
         {goal === 'target' && <Field label={`Target (${d.unit})`}>{(p) => <Input {...p} inputMode="decimal" value={target} onChange={(e) => setTarget(e.target.value)} />}</Field>}
       </div>
       <details>
-        <summary className="cursor-pointer text-sm text-copper-700">Limits on the recipe (keep a factor below a value, use one GDL)</summary>
+        <summary className="cursor-pointer text-sm text-copper-700">Limits on the recipe (keep a factor below a value, or use one level)</summary>
         <div className="mt-2 grid grid-cols-1 gap-2 md:grid-cols-2">
           {allFactors.map((f) =>
             f.kind === 'continuous' ? (
@@ -211,6 +215,12 @@ export function ProposalsPanel({ projectId, request, result, allFactors, canPlan
           PTFE-bonded electrodes heat-treated at high temperature can give off toxic fumes, so use a ventilated oven; pressurised gas lines need rated fittings.
           These proposals come from a model, not from a safety review — your lab's procedures, local codes and your safety officer decide.
         </SafetyNote>
+      )}
+      {items.length > 0 && termless.length > 0 && (
+        <p className="text-sm text-ink-500">
+          {termless.map((f) => f.label).join(', ')} {termless.length === 1 ? 'has' : 'have'} no term in the model yet: {termless.length === 1 ? 'its setting varies' : 'their settings vary'} across the proposals so the next fit can tell whether {termless.length === 1 ? 'it matters' : 'they matter'}.
+          {heldOut.length > 0 && ` ${heldOut.map((f) => f.label).join(', ')} ${heldOut.length === 1 ? 'is' : 'are'} not in the fit and held where the best build so far had ${heldOut.length === 1 ? 'it' : 'them'}.`}
+        </p>
       )}
       {inside.length > 0 && <ol className="flex flex-col gap-3" aria-label="Proposals inside the builds' support">{inside.map(card)}</ol>}
       {outside.length > 0 && (

@@ -61,12 +61,12 @@ function statistics(result: SurfaceResult) {
   const figures: [string, string][] = [
     ['Builds in the fit (distinct recipes)', `${fit.n} (${fit.distinctRuns})`],
     ['Residual standard deviation', showSpread(fit.rmse, d)],
-    ['Left-out prediction error, √(PRESS/n)', result.quality.looRmse == null ? 'undefined: a build has leverage 1' : showSpread(result.quality.looRmse, d)],
+    ['Left-out prediction error, √(PRESS/n)', result.quality.looRmse == null ? 'cannot be worked out: a build has leverage 1' : showSpread(result.quality.looRmse, d)],
     ['Spread of builds of one recipe', result.quality.replicateSd == null ? 'no recipe built twice' : showSpread(result.quality.replicateSd, d)],
     ['Share of the variation explained (R²)', fit.r2.toFixed(3)],
     ['R² adjusted for the number of terms', fit.adjR2.toFixed(3)],
-    ['R² for left-out builds (1 − PRESS/SS total)', fit.predR2 == null ? 'undefined: a build has leverage 1' : fit.predR2.toFixed(3)],
-    [`PRESS (${u}²)`, fit.press == null ? 'undefined' : sig(fit.press * s2)],
+    ['R² for left-out builds (1 − PRESS/SS total)', fit.predR2 == null ? 'cannot be worked out: a build has leverage 1' : fit.predR2.toFixed(3)],
+    [`PRESS (${u}²)`, fit.press == null ? 'cannot be worked out' : sig(fit.press * s2)],
   ];
   const termTests = anova.terms.map((t) => [t.label, t.df, sig(t.ss * s2), sig(t.f, 3), pValue(t.p), t.p != null && t.p < 0.05 ? 'yes' : 'no']);
   const wholeModel = [
@@ -83,7 +83,7 @@ function statistics(result: SurfaceResult) {
   const coded = fit.coefficients.map((c) => [c.label === 'Constant' ? 'Constant (centre of every range, first level)' : c.label, c.aliased ? 'not estimated' : sig(c.coded * d.scale), sig(c.codedSE == null ? null : c.codedSE * d.scale), sig(c.t, 3), pValue(c.p), c.vif == null ? '—' : `${sig(c.vif, 3)}${c.vif > 10 ? ' ▲' : ''}`]);
   const actual = fit.coefficients.map((c, j) => [c.label, sig(c.actual * d.scale), sig(c.actualSE == null ? null : c.actualSE * d.scale), coefficientUnit(d.unit, factors, fit.basis.columns[j]!.powers)]);
   const highLeverage = (2 * fit.basis.estimated.length) / Math.max(1, fit.n);
-  const builds = result.runs.map((r) => [r.code, show(r.observed, d), show(r.predicted, d), show(r.residual, d, 1), r.looResidual == null ? 'undefined' : show(r.looResidual, d, 1), `${r.leverage.toFixed(3)}${r.leverage > highLeverage ? ' ◆' : ''}`]);
+  const builds = result.runs.map((r) => [r.code, show(r.observed, d), show(r.predicted, d), show(r.residual, d, 1), r.looResidual == null ? '— (leverage 1)' : show(r.looResidual, d, 1), `${r.leverage.toFixed(3)}${r.leverage > highLeverage ? ' ◆' : ''}`]);
   return { figures, termTests, wholeModel, shape, coded, actual, builds, u, highLeverage };
 }
 
