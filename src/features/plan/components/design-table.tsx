@@ -84,7 +84,7 @@ export function DesignTable({ design, factors, fileName }: { design: Design; fac
         </div>
         <Button className="ml-auto" onClick={() => download(designToCsv(design, { coded, labels: Object.fromEntries(factors.map((f) => [f.key, coded || !f.unit ? f.label : `${f.label} (${f.unit})`])), pointWords: Object.fromEntries(Object.entries(POINT_WORDS).map(([k, v]) => [k, v.one])) }), `${fileName}${coded ? '-scaled' : ''}.csv`)}>Download CSV</Button>
       </div>
-      <div className="max-h-[28rem] overflow-auto rounded-md border border-line">
+      <div className="max-h-[28rem] overflow-auto rounded-md border border-line" tabIndex={0} role="region" aria-label="Design builds, scrollable">
         <table className="w-full text-sm" aria-label="Design runs">
           <thead className="sticky top-0 bg-ink-100 text-left text-xs text-ink-700">
             <tr>
