@@ -58,6 +58,12 @@ export interface Build {
   values: Record<string, number | null>;
   curveCount: number;
   notes: string;
+  /** the design the build was planned from (GET /api/projects/:id/designs), or null */
+  designId: number | null;
+  /** the day it was planned (YYYY-MM-DD), or null for builds recorded without a plan */
+  plannedOn: string | null;
+  /** why a flagged proposal was planned anyway, or null */
+  planReason: string | null;
   createdAt: string;
   updatedAt: string | null;
 }

@@ -103,6 +103,9 @@ function toItem(row: { b: BuildRow; parentCode: string | null; labName: string |
     values: { ...(metrics?.values ?? {}), ...b.responseValues },
     curveCount: metrics?.count ?? 0,
     notes: b.notes,
+    designId: b.designId ?? null,
+    plannedOn: b.plannedOn ?? null,
+    planReason: b.planReason ?? null,
     createdAt: b.createdAt,
     updatedAt: b.updatedAt,
   };
@@ -124,7 +127,8 @@ const LIST_SQL = `select b.id, b.project_id as projectId, b.code, b.parent_id as
   b.factor_values as factorValues, b.loading_mg_cm2 as loadingMgCm2, b.metal_loading_mg_cm2 as metalLoadingMgCm2,
   b.area_cm2 as areaCm2, b.catalyst_lot as catalystLot, b.lab_id as labId, b.operator_id as operatorId,
   b.test_conditions as testConditions, b.status, b.built_on as builtOn, b.tested_on as testedOn,
-  b.replicate_of as replicateOf, b.response_values as responseValues, b.notes, b.created_by as createdBy,
+  b.replicate_of as replicateOf, b.response_values as responseValues, b.notes, b.design_id as designId,
+  b.planned_on as plannedOn, b.plan_reason as planReason, b.created_by as createdBy,
   b.created_at as createdAt, b.updated_at as updatedAt,
   p.code as parentCode, l.name as labName, u.name as operatorName
   from builds b left join builds p on p.id = b.parent_id left join labs l on l.id = b.lab_id left join users u on u.id = b.operator_id
@@ -269,7 +273,7 @@ function checkFactors(ctx: AppContext, projectId: number, values: Record<string,
   }
 }
 
-export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.output<typeof buildCreateSchema>): BuildListItem {
+export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.output<typeof buildCreateSchema>, origin: { designId?: number | null } = {}): BuildListItem {
   const { db } = ctx;
   let labId = body.labId ?? access.user.labId ?? null;
   if (access.role === 'partner') {
@@ -305,6 +309,10 @@ export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.outp
       replicateOf: body.replicateOf ?? null,
       responseValues: body.responses ?? {},
       notes: body.notes ?? '',
+      designId: origin.designId ?? null,
+      // a planned build records the day it was planned
+      plannedOn: body.plannedOn ?? (status === 'planned' ? new Date().toISOString().slice(0, 10) : null),
+      planReason: body.planReason ?? null,
       createdBy: access.user.id,
     })
     .returning()
@@ -342,6 +350,8 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   if (body.testConditions !== undefined) set.testConditions = body.testConditions;
   if (body.responses !== undefined) set.responseValues = { ...before.responseValues, ...body.responses };
   if (body.notes !== undefined) set.notes = body.notes;
+  if (body.plannedOn !== undefined) set.plannedOn = body.plannedOn;
+  if (body.planReason !== undefined) set.planReason = body.planReason;
   const after = db.update(builds).set(set).where(eq(builds.id, before.id)).returning().get();
   audit(db, { userId: access.user.id, action: 'update', entity: 'build', entityId: before.id, projectId: before.projectId, before, after });
   if (after.status === 'tested' && before.status !== 'tested') void notifyBuildTested(ctx, access.user, before, after);

@@ -107,6 +107,21 @@ export const responseDefs = sqliteTable('responses', {
   createdAt: createdAt(),
 }, (t) => [uniqueIndex('responses_project_key').on(t.projectId, t.key)]);
 
+// A design whose runs were turned into planned builds: what was asked for and what came out,
+// so every build made from it can point back to it.
+export const designs = sqliteTable('designs', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  kind: text('kind').notNull(),
+  seed: integer('seed'),
+  /** the design request and summary (variant, α, blocks, factors, held values) */
+  settings: text('settings', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+  runCount: integer('run_count').notNull(),
+  note: text('note').notNull().default(''),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+}, (t) => [index('designs_project_idx').on(t.projectId)]);
+
 export const builds = sqliteTable('builds', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
@@ -127,6 +142,12 @@ export const builds = sqliteTable('builds', {
   replicateOf: integer('replicate_of'),
   responseValues: text('response_values', { mode: 'json' }).$type<Record<string, number>>().notNull(),
   notes: text('notes').notNull().default(''),
+  /** the design this build was planned from, if any */
+  designId: integer('design_id').references(() => designs.id, { onDelete: 'set null' }),
+  /** the date the build was planned (YYYY-MM-DD) */
+  plannedOn: text('planned_on'),
+  /** why a flagged proposal was planned anyway (outside the data's support, at a physical limit) */
+  planReason: text('plan_reason'),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: createdAt(),
   updatedAt: text('updated_at'),

@@ -54,10 +54,12 @@ export const planRunsSchema = z.object({
   note: z.string().trim().max(300).optional(),
   designKind: z.string().max(40).optional(),
   seed: z.number().int().optional(),
+  held: z.record(z.string(), factorValue).optional(),
+  designSettings: z.record(z.string(), z.unknown()).optional(),
 });
 
 const modelSchema = z.union([
-  z.enum(['linear', 'interactions', 'quadratic']),
+  z.enum(['auto', 'linear', 'interactions', 'quadratic']),
   z.object({ terms: z.array(z.string().min(1)).min(1, 'at least one term') }),
 ]);
 
@@ -79,6 +81,14 @@ export const proposalsRequestSchema = surfaceRequestSchema.extend({
     })
     .optional(),
   seed: z.number().int().min(0).max(2 ** 31 - 1).optional(),
+  exploratory: z.number().int().min(0).max(5).optional(),
+});
+
+export const planProposalSchema = surfaceRequestSchema.extend({
+  recipe: z.record(z.string(), factorValue),
+  reason: z.string().trim().max(1000).optional(),
+  parentId: z.number().int().positive().nullish(),
+  changeNote: z.string().trim().max(500).optional(),
 });
 
 export function doeRouter(ctx: AppContext): Router {
@@ -95,6 +105,17 @@ export function doeRouter(ctx: AppContext): Router {
     const access = requireProject(db, req.user, idParam(req.params.id), 'plan');
     const body = parseInput(planRunsSchema, req.body);
     res.status(201).json(service.planDesignRuns(ctx, access, body));
+  });
+
+  router.get('/projects/:id/designs', (req, res) => {
+    const access = requireProject(db, req.user, idParam(req.params.id), 'read');
+    res.json({ designs: service.listProjectDesigns(ctx, access) });
+  });
+
+  router.post('/projects/:id/proposals/plan', (req, res) => {
+    const access = requireProject(db, req.user, idParam(req.params.id), 'plan');
+    const body = parseInput(planProposalSchema, req.body);
+    res.status(201).json(service.planProposal(ctx, access, body));
   });
 
   router.post('/projects/:id/surface', (req, res) => {

@@ -2,10 +2,10 @@
 // planned builds (all or nothing), fit a response surface on the tested builds, and propose the
 // next builds. The statistics live in shared/doe; this file finds the data, checks the rules
 // and turns input errors from the shared code into 4xx answers.
-import { and, eq, inArray } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
 import type { AppContext } from '../context';
-import { builds, labs } from '../db/schema';
+import { builds, designs, labs, users } from '../db/schema';
 import { audit } from '../lib/audit';
 import { AppError } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
@@ -26,17 +26,32 @@ import type {
   SurfaceRequest,
   SurfaceResult,
   SurfaceRun,
+  TrustRegion,
+  StoredDesign,
+  PlanProposalBody,
+  PlanProposalResult,
 } from '../../shared/api-types';
 import {
+  boundPrediction,
   canonicalAnalysis,
-  checkExtrapolation,
+  checkModelSupport,
+  checkSupport,
+  chooseModel,
   DesignInputError,
   DoeInputError,
   fitSurface,
   generateDesign,
+  limitsAt,
+  modelQuality,
+  predict,
   proposeBuilds,
+  roundForText,
+  surfaceEffects,
   type DesignFactor,
   type Factor,
+  type LimitContext,
+  type ModelSpec,
+  type ModelSupport,
   type Observation,
   type ProposalGoal,
   type SurfaceFit,
@@ -57,7 +72,9 @@ function guard<T>(work: () => T): T {
       throw new AppError(422, 'design-input', error.message, { fields: [{ path: error.field, message: error.message }] });
     }
     if (error instanceof DoeInputError) {
-      throw new AppError(422, error.code, error.message, error.details);
+      // the shared code names its function first ("fitSurface: …"); people read the rest
+      const message = error.message.replace(/^[a-zA-Z]+: /, '');
+      throw new AppError(422, error.code, message.charAt(0).toUpperCase() + message.slice(1), error.details);
     }
     if (error instanceof RangeError) throw new AppError(422, 'invalid-input', error.message);
     throw error;
@@ -113,30 +130,61 @@ function roundSetting(value: number): number {
   return Number(value.toPrecision(6));
 }
 
-/** Turns design runs into planned builds in one transaction: every run is checked first, then all are created or none. */
-export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: PlanRunsBody): { builds: Build[] } {
+function checkValue(def: FactorDef, value: number | string, path: string, where: string, issues: FieldIssue[]): number | string | undefined {
+  if (def.kind === 'continuous') {
+    if (typeof value !== 'number' || !Number.isFinite(value)) { issues.push({ path, message: `${where}${def.label} must be a number` }); return undefined; }
+    const rounded = roundSetting(value);
+    if (def.low != null && def.high != null && (rounded < def.low || rounded > def.high)) {
+      issues.push({ path, message: `${where}${def.label} = ${rounded}${def.unit ? ` ${def.unit}` : ''} is outside the factor's range ${def.low}–${def.high}; use an inscribed or face-centred design, a smaller alpha, or widen the range in settings` });
+      return undefined;
+    }
+    return rounded;
+  }
+  if (typeof value !== 'string' || !(def.levels ?? []).includes(value)) { issues.push({ path, message: `${where}${def.label} must be one of ${(def.levels ?? []).join(', ')}` }); return undefined; }
+  return value;
+}
+
+/**
+ * Turns design runs into planned builds in one transaction: every run is checked first, then all
+ * are created or none. Each build carries every project factor — those the design does not vary
+ * at the held values sent, or else at the parent build's values — links to a stored record of
+ * its design, and records the day it was planned.
+ */
+export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: PlanRunsBody): { builds: Build[]; designId: number } {
   const defs = listFactors(ctx, access.projectId);
   const issues: FieldIssue[] = [];
   const runs = [...body.runs].sort((a, b) => a.runOrder - b.runOrder);
+  let parentFactors: Record<string, number | string> = {};
+  if (body.parentId != null) {
+    const parent = ctx.db.select({ id: builds.id, factors: builds.factorValues }).from(builds).where(and(eq(builds.id, body.parentId), eq(builds.projectId, access.projectId))).get();
+    if (!parent) issues.push({ path: 'parentId', message: `build ${body.parentId} is not in this project` });
+    else parentFactors = parent.factors;
+  }
+  const designed = new Set<string>();
+  for (const run of body.runs) for (const key of Object.keys(run.actual)) designed.add(key);
+  const held: Record<string, number | string> = {};
+  for (const [key, value] of Object.entries(body.held ?? {})) {
+    const def = defs.find((f) => f.key === key);
+    if (!def) { issues.push({ path: `held.${key}`, message: `no factor "${key}" in this project` }); continue; }
+    if (designed.has(key)) continue;
+    const checked = checkValue(def, value, `held.${key}`, 'held value: ', issues);
+    if (checked !== undefined) held[key] = checked;
+  }
+  for (const def of defs) {
+    if (designed.has(def.key) || held[def.key] !== undefined) continue;
+    const fromParent = parentFactors[def.key];
+    if (fromParent !== undefined && fromParent !== '') held[def.key] = fromParent;
+    else issues.push({ path: `held.${def.key}`, message: `${def.label} is not in the design: give the value every build should hold it at` });
+  }
   const prepared: { run: PlanRun; factors: Record<string, number | string> }[] = [];
   body.runs.forEach((run, index) => {
-    const factors: Record<string, number | string> = {};
+    const factors: Record<string, number | string> = { ...held };
     for (const [key, value] of Object.entries(run.actual)) {
       const def = defs.find((f) => f.key === key);
       const path = `runs.${index}.actual.${key}`;
       if (!def) { issues.push({ path, message: `no factor "${key}" in this project` }); continue; }
-      if (def.kind === 'continuous') {
-        if (typeof value !== 'number' || !Number.isFinite(value)) { issues.push({ path, message: `${def.label} must be a number` }); continue; }
-        const rounded = roundSetting(value);
-        if (def.low != null && def.high != null && (rounded < def.low || rounded > def.high)) {
-          issues.push({ path, message: `run ${run.runOrder}${run.pointType ? ` (${run.pointType})` : ''}: ${def.label} = ${rounded}${def.unit ? ` ${def.unit}` : ''} is outside the factor's range ${def.low}–${def.high}; use an inscribed or face-centred design, a smaller alpha, or widen the range in settings` });
-          continue;
-        }
-        factors[key] = rounded;
-      } else {
-        if (typeof value !== 'string' || !(def.levels ?? []).includes(value)) { issues.push({ path, message: `${def.label} must be one of ${(def.levels ?? []).join(', ')}` }); continue; }
-        factors[key] = value;
-      }
+      const checked = checkValue(def, value, path, `run ${run.runOrder}${run.pointType ? ` (${run.pointType})` : ''}: `, issues);
+      if (checked !== undefined) factors[key] = checked;
     }
     prepared.push({ run, factors });
   });
@@ -150,15 +198,18 @@ export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: Pla
     const found = new Set(ctx.db.select({ id: labs.id }).from(labs).where(inArray(labs.id, [...labIds])).all().map((l) => l.id));
     for (const id of labIds) if (!found.has(id)) issues.push({ path: 'labId', message: `lab ${id} does not exist` });
   }
-  if (body.parentId != null) {
-    const parent = ctx.db.select({ id: builds.id }).from(builds).where(and(eq(builds.id, body.parentId), eq(builds.projectId, access.projectId))).get();
-    if (!parent) issues.push({ path: 'parentId', message: `build ${body.parentId} is not in this project` });
-  }
   if (issues.length) {
     throw invalid(422, 'plan-invalid', `No builds were planned: ${issues.slice(0, 5).map((i) => `${i.path}: ${i.message}`).join('; ')}${issues.length > 5 ? `; and ${issues.length - 5} more` : ''}`, issues);
   }
   const total = runs.length;
-  const created = ctx.db.transaction(() => {
+  return ctx.db.transaction(() => {
+    const settings: Record<string, unknown> = { ...(body.designSettings ?? {}), factors: [...designed], held };
+    const settingsText = JSON.stringify(settings);
+    const design = ctx.db
+      .insert(designs)
+      .values({ projectId: access.projectId, kind: body.designKind ?? 'design', seed: body.seed ?? null, settings: settingsText.length > 20000 ? { factors: [...designed], held } : settings, runCount: total, note: body.note ?? '', createdBy: access.user.id })
+      .returning()
+      .get();
     const out: Build[] = [];
     for (const { run, factors } of [...prepared].sort((a, b) => a.run.runOrder - b.run.runOrder)) {
       const block = run.block ?? 1;
@@ -172,23 +223,56 @@ export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: Pla
         `run order ${run.runOrder}`,
       ].filter(Boolean).join(', ');
       out.push(
-        createBuild(ctx, access, {
-          status: 'planned',
-          factors,
-          parentId: body.parentId ?? null,
-          labId,
-          changeNote,
-          notes,
-          loadingMgCm2: body.loadingMgCm2 ?? null,
-          areaCm2: body.areaCm2 ?? null,
-          testConditions: {},
-        }),
+        createBuild(
+          ctx,
+          access,
+          {
+            status: 'planned',
+            factors,
+            parentId: body.parentId ?? null,
+            labId,
+            changeNote,
+            notes,
+            loadingMgCm2: body.loadingMgCm2 ?? null,
+            areaCm2: body.areaCm2 ?? null,
+            testConditions: {},
+          },
+          { designId: design.id },
+        ),
       );
     }
-    audit(ctx.db, { userId: access.user.id, action: 'plan', entity: 'design', projectId: access.projectId, after: { designKind: body.designKind ?? null, seed: body.seed ?? null, buildIds: out.map((b) => b.id), codes: out.map((b) => b.code) } });
-    return out;
+    audit(ctx.db, { userId: access.user.id, action: 'plan', entity: 'design', entityId: design.id, projectId: access.projectId, after: { designId: design.id, designKind: body.designKind ?? null, seed: body.seed ?? null, held, buildIds: out.map((b) => b.id), codes: out.map((b) => b.code) } });
+    return { builds: out, designId: design.id };
   });
-  return { builds: created };
+}
+
+/** The designs planned in a project, newest first, each with its builds. */
+export function listProjectDesigns(ctx: AppContext, access: ProjectAccess): StoredDesign[] {
+  const rows = ctx.db
+    .select({ d: designs, createdByName: users.name })
+    .from(designs)
+    .leftJoin(users, eq(users.id, designs.createdBy))
+    .where(eq(designs.projectId, access.projectId))
+    .orderBy(desc(designs.id))
+    .all();
+  if (rows.length === 0) return [];
+  const members = ctx.db
+    .select({ id: builds.id, code: builds.code, status: builds.status, designId: builds.designId })
+    .from(builds)
+    .where(and(eq(builds.projectId, access.projectId), inArray(builds.designId, rows.map((r) => r.d.id))))
+    .orderBy(asc(builds.id))
+    .all();
+  return rows.map(({ d, createdByName }) => ({
+    id: d.id,
+    kind: d.kind,
+    seed: d.seed,
+    runCount: d.runCount,
+    note: d.note,
+    settings: d.settings,
+    createdAt: d.createdAt,
+    createdByName,
+    builds: members.filter((m) => m.designId === d.id).map((m) => ({ id: m.id, code: m.code, status: m.status })),
+  }));
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -198,7 +282,7 @@ export function planDesignRuns(ctx: AppContext, access: ProjectAccess, body: Pla
 function responseInfo(defs: ResponseDef[], key: string, path = 'response'): ResponseInfo {
   if (METRIC_KEYS.includes(key)) {
     const info = CURVE_METRIC_INFO[key];
-    return { key, label: key, unit: info?.unit ?? '', source: 'curve', goal: info?.goal ?? 'maximize', target: null };
+    return { key, label: info?.label ?? key, unit: info?.unit ?? '', source: 'curve', goal: info?.goal ?? 'maximize', target: null };
   }
   const def = defs.find((d) => d.key === key);
   if (!def) {
@@ -207,6 +291,13 @@ function responseInfo(defs: ResponseDef[], key: string, path = 'response'): Resp
   }
   return { key, label: def.label, unit: def.unit, source: 'hand-entered', goal: def.goal, target: def.target ?? null };
 }
+
+const MODEL_NAMES: Record<string, string> = {
+  linear: 'the main-effects model',
+  interactions: 'the model with every two-factor interaction',
+  quadratic: 'the full quadratic model',
+  terms: 'your term list',
+};
 
 interface FitContext {
   response: ResponseInfo;
@@ -217,6 +308,30 @@ interface FitContext {
   all: Build[];
   skipped: { buildId: number; code: string; reason: string }[];
   omitted: { key: string; reason: string }[];
+  model: SurfaceResult['model'];
+  support: ModelSupport;
+  limits: LimitContext;
+}
+
+/** The cell-temperature factor, when the project has one: a °C factor named for the cell. */
+function cellTemperatureFactor(defs: FactorDef[]): FactorDef | undefined {
+  return defs.find((f) => f.kind === 'continuous' && f.unit === '°C' && /cell/i.test(`${f.key} ${f.label}`));
+}
+
+/** The physical limits of a response in this project: cell temperature factor, lowest test temperature, highest OCV measured. */
+function limitContext(defs: FactorDef[], all: Build[], used: Build[], responseKey: string): LimitContext {
+  let lowestTest: number | null = null;
+  for (const b of used) {
+    const t = b.testConditions?.temperatureC;
+    if (typeof t === 'number' && (lowestTest === null || t < lowestTest)) lowestTest = t;
+  }
+  let highestOcv: number | null = null;
+  for (const b of all) {
+    if (b.status !== 'tested' && b.status !== 'reviewed') continue;
+    const v = b.values.ocv;
+    if (typeof v === 'number' && Number.isFinite(v) && (highestOcv === null || v > highestOcv)) highestOcv = v;
+  }
+  return { response: responseKey, cellTemperatureFactor: cellTemperatureFactor(defs)?.key ?? null, testTemperatureC: lowestTest, highestOcvV: highestOcv };
 }
 
 function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest): FitContext {
@@ -224,7 +339,7 @@ function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest
   const response = responseInfo(listResponses(ctx, access.projectId), body.response);
   const all = listBuilds(ctx, access);
   const omitted: { key: string; reason: string }[] = [];
-  const keys = body.factors ?? defaultFactorKeys(defs, all, response.key, omitted);
+  const keys = body.factors ?? defaultFactorKeys(defs, all, response, omitted);
   const issues: FieldIssue[] = [];
   const chosen: FactorDef[] = [];
   keys.forEach((key, index) => {
@@ -245,13 +360,13 @@ function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest
     if (build.status !== 'tested' && build.status !== 'reviewed') continue;
     if (exclude.has(build.id)) { skipped.push({ buildId: build.id, code: build.code, reason: 'left out by you' }); continue; }
     const y = build.values[response.key];
-    if (y == null || !Number.isFinite(y)) { skipped.push({ buildId: build.id, code: build.code, reason: `no ${response.key} value` }); continue; }
+    if (y == null || !Number.isFinite(y)) { skipped.push({ buildId: build.id, code: build.code, reason: `no ${response.label} value` }); continue; }
     const missing = chosen.filter((f) => build.factors[f.key] === undefined || build.factors[f.key] === '');
     if (missing.length) { skipped.push({ buildId: build.id, code: build.code, reason: `no value for ${missing.map((f) => f.label).join(', ')}` }); continue; }
     used.push(build);
   }
   if (used.length === 0) {
-    throw new AppError(422, 'too-few-runs', `No tested or reviewed build has a ${response.key} value and all chosen factors, so there is nothing to fit yet.`, { skipped });
+    throw new AppError(422, 'too-few-runs', `No tested or reviewed build has a ${response.label} value and all chosen factors, so there is nothing to fit yet.`, { skipped });
   }
   const factors: Factor[] = chosen.map((f) =>
     f.kind === 'continuous'
@@ -262,9 +377,30 @@ function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest
     factors: Object.fromEntries(chosen.map((f) => [f.key, b.factors[f.key]!])),
     y: b.values[response.key] as number,
     buildId: b.id,
+    label: b.code,
   }));
-  const fit = guard(() => fitSurface({ factors, rows, model: body.model, responseKey: response.key }));
-  return { response, defs, chosen, fit, used, all, skipped, omitted };
+  let model: FitContext['model'];
+  let spec: ModelSpec;
+  if (body.model === 'auto') {
+    const choice = guard(() => chooseModel({ factors, rows }));
+    spec = { terms: choice.chosen.terms };
+    model = { requested: 'auto', terms: choice.chosen.terms, termLabels: choice.chosen.termLabels, choice };
+  } else {
+    spec = body.model;
+    model = { requested: typeof body.model === 'string' ? body.model : 'terms', terms: [], termLabels: [], choice: null };
+  }
+  const requestedName = MODEL_NAMES[model.requested] ?? 'this model';
+  const support = guard(() => checkModelSupport(factors, rows, spec, model.requested === 'auto' ? 'the chosen model' : requestedName));
+  if (!support.supported) {
+    // refused before fitting: the runs cannot tell this model's terms apart
+    throw new AppError(422, support.code ?? 'too-few-runs', support.reason, { support });
+  }
+  const fit = guard(() => fitSurface({ factors, rows, model: spec, responseKey: response.key }));
+  if (model.requested !== 'auto') {
+    model.terms = fit.terms.slice(1);
+    model.termLabels = fit.anova.terms.map((t) => t.label);
+  }
+  return { response, defs, chosen, fit, used, all, skipped, omitted, model, support, limits: limitContext(defs, all, used, response.key) };
 }
 
 /**
@@ -272,8 +408,8 @@ function fitContext(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest
  * that vary among them (a factor added after the builds were made, or held constant, cannot be
  * estimated). The others are reported, not silently dropped.
  */
-function defaultFactorKeys(defs: FactorDef[], all: Build[], responseKey: string, omitted: { key: string; reason: string }[]): string[] {
-  const candidates = all.filter((b) => (b.status === 'tested' || b.status === 'reviewed') && b.values[responseKey] != null && Number.isFinite(b.values[responseKey]));
+function defaultFactorKeys(defs: FactorDef[], all: Build[], response: ResponseInfo, omitted: { key: string; reason: string }[]): string[] {
+  const candidates = all.filter((b) => (b.status === 'tested' || b.status === 'reviewed') && b.values[response.key] != null && Number.isFinite(b.values[response.key]));
   const keys: string[] = [];
   for (const f of defs) {
     const values = candidates.map((b) => b.factors[f.key]).filter((v) => v !== undefined && v !== '');
@@ -312,9 +448,19 @@ function gasesOf(used: Build[]): string[] {
   return [...set];
 }
 
+function trustRegionOf(fit: SurfaceFit): TrustRegion {
+  const ranges: TrustRegion['ranges'] = [];
+  const levels: TrustRegion['levels'] = [];
+  for (const f of fit.basis.factors) {
+    if (f.kind === 'continuous') ranges.push({ key: f.key, label: f.label ?? f.key, unit: f.unit ?? '', low: f.dataMin ?? (f.low as number), high: f.dataMax ?? (f.high as number) });
+    else levels.push({ key: f.key, label: f.label ?? f.key, levels: f.levelsRun ?? f.levels ?? [] });
+  }
+  return { leverageLimit: fit.basis.maxLeverage, ranges, levels };
+}
+
 /** Fits the chosen response over the chosen factors on the project's tested and reviewed builds. */
 export function fitProjectSurface(ctx: AppContext, access: ProjectAccess, body: SurfaceRequest): SurfaceResult {
-  const { response, defs, chosen, fit, used, all, skipped, omitted } = fitContext(ctx, access, body);
+  const { response, defs, chosen, fit, used, all, skipped, omitted, model, support, limits } = fitContext(ctx, access, body);
   let canonical: SurfaceResult['canonical'] = null;
   if (fit.terms.some((t) => t.includes('^2'))) {
     try {
@@ -323,17 +469,37 @@ export function fitProjectSurface(ctx: AppContext, access: ProjectAccess, body: 
       canonical = null; // not a full quadratic in the continuous factors: nothing to report
     }
   }
-  const runs: SurfaceRun[] = used.map((b, i) => ({
-    buildId: b.id,
-    code: b.code,
-    labName: b.labName,
-    factors: b.factors,
-    observed: b.values[response.key] as number,
-    predicted: fit.predicted[i]!,
-    residual: fit.residuals[i]!,
-    leverage: fit.leverage[i]!,
-  }));
-  return { response, factors: chosen, fit, runs, skipped, omittedFactors: omitted, canonical, observedMax: observedMaxima(defs, all), gases: gasesOf(used) };
+  const runs: SurfaceRun[] = used.map((b, i) => {
+    const oneMinusH = 1 - fit.leverage[i]!;
+    return {
+      buildId: b.id,
+      code: b.code,
+      labName: b.labName,
+      factors: b.factors,
+      observed: b.values[response.key] as number,
+      predicted: fit.predicted[i]!,
+      residual: fit.residuals[i]!,
+      leverage: fit.leverage[i]!,
+      looResidual: oneMinusH > 1e-10 ? fit.residuals[i]! / oneMinusH : null,
+    };
+  });
+  return {
+    response,
+    factors: chosen,
+    fit,
+    runs,
+    skipped,
+    omittedFactors: omitted,
+    canonical,
+    observedMax: observedMaxima(defs, all),
+    gases: gasesOf(used),
+    model,
+    support,
+    quality: modelQuality(fit),
+    effects: surfaceEffects(fit),
+    limits,
+    trustRegion: trustRegionOf(fit),
+  };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -372,33 +538,112 @@ function cautionsFor(proposal: Record<string, number | string>, defs: FactorDef[
   return out;
 }
 
+function goalOf(response: ResponseInfo, requested: ProposalGoal | undefined): ProposalGoal {
+  if (requested !== undefined) return requested;
+  if (response.goal === 'target') {
+    if (response.target == null) throw invalid(400, 'validation', `Invalid body: goal: response "${response.label}" aims at a target but none is set; send goal: {target: number}`, [{ path: 'goal', message: 'a target value is needed' }]);
+    return { target: response.target };
+  }
+  return response.goal;
+}
+
+/** Values for factors the fit does not use: those of the best build so far (by the goal). */
+function heldValues(used: Build[], responseKey: string, goal: ProposalGoal): Record<string, number | string> {
+  let best: Build | undefined;
+  let bestScore = -Infinity;
+  for (const b of used) {
+    const y = b.values[responseKey] as number;
+    const score = goal === 'maximize' ? y : goal === 'minimize' ? -y : -Math.abs(y - goal.target);
+    if (score > bestScore) { bestScore = score; best = b; }
+  }
+  return best ? { ...best.factors } : {};
+}
+
+function projectFactorsForSearch(defs: FactorDef[]): Factor[] {
+  return defs.map((f) =>
+    f.kind === 'continuous'
+      ? { key: f.key, label: f.label, unit: f.unit, kind: 'continuous', low: f.low ?? undefined, high: f.high ?? undefined }
+      : { key: f.key, label: f.label, unit: f.unit, kind: 'categorical', levels: f.levels ?? [] },
+  );
+}
+
 /** Proposes the next builds from a fresh fit of the chosen response. */
 export function proposeProjectBuilds(ctx: AppContext, access: ProjectAccess, body: ProposalsRequest): ProposalsResult {
-  const { response, defs, chosen, fit, used, all } = fitContext(ctx, access, body);
-  let goal: ProposalGoal;
-  if (body.goal !== undefined) goal = body.goal;
-  else if (response.goal === 'target') {
-    if (response.target == null) throw invalid(400, 'validation', `Invalid body: goal: response "${response.key}" aims at a target but none is set; send goal: {target: number}`, [{ path: 'goal', message: 'a target value is needed' }]);
-    goal = { target: response.target };
-  } else goal = response.goal;
+  const { response, defs, chosen, fit, used, all, model, limits } = fitContext(ctx, access, body);
+  const goal = goalOf(response, body.goal);
   const strategy = body.strategy ?? 'balance';
-  const factors: Factor[] = defs.map((f) =>
-    f.kind === 'continuous'
-      ? { key: f.key, kind: 'continuous', low: f.low ?? undefined, high: f.high ?? undefined }
-      : { key: f.key, kind: 'categorical', levels: f.levels ?? [] },
+  const chosenKeys = new Set(chosen.map((f) => f.key));
+  const hold = Object.fromEntries(Object.entries(heldValues(used, response.key, goal)).filter(([key]) => !chosenKeys.has(key)));
+  const format = (value: number) => `${roundForText(value, 4)}${response.unit ? ` ${response.unit}` : ''}`;
+  const proposals = guard(() =>
+    proposeBuilds({
+      fit,
+      factors: projectFactorsForSearch(defs),
+      goal,
+      count: body.count,
+      strategy,
+      constraints: body.constraints ?? {},
+      seed: body.seed ?? 1,
+      exploratory: body.exploratory ?? 0,
+      hold,
+      limits,
+      responseLabel: response.label,
+      format,
+    }),
   );
-  const proposals = guard(() => proposeBuilds({ fit, factors, goal, count: body.count, strategy, constraints: body.constraints ?? {}, seed: body.seed ?? 1 }));
   const observedMax = observedMaxima(defs, all);
   const gases = gasesOf(used);
   const items: ProposalItem[] = proposals.map((p) => {
     const point = Object.fromEntries(chosen.map((f) => [f.key, p.factors[f.key]!]));
-    const check = guard(() => checkExtrapolation(fit, point));
     let nearest: ProposalItem['nearest'] = null;
     for (const b of used) {
       const distance = codedDistance(chosen, point, b.factors);
       if (!nearest || distance < nearest.distance) nearest = { buildId: b.id, code: b.code, distance };
     }
-    return { ...p, extrapolationReasons: check.reasons, nearest, cautions: cautionsFor(p.factors, defs, observedMax, gases) };
+    return { ...p, extrapolationReasons: p.support.reasons, nearest, cautions: cautionsFor(p.factors, defs, observedMax, gases) };
   });
-  return { proposals: items, response, goal, strategy, fit: { n: fit.n, r2: fit.r2, rmse: fit.rmse, predR2: fit.predR2, warnings: fit.warnings } };
+  const quality = modelQuality(fit);
+  return {
+    proposals: items,
+    response,
+    goal,
+    strategy,
+    fit: { n: fit.n, r2: fit.r2, rmse: fit.rmse, predR2: fit.predR2, warnings: fit.warnings },
+    model: { terms: model.terms, termLabels: model.termLabels, looRmse: quality.looRmse },
+  };
+}
+
+/**
+ * Plans one proposal as a build. The server refits the same request and checks the recipe
+ * itself: outside the builds' support or at a physical limit, it is planned only with a written
+ * reason, stored on the build.
+ */
+export function planProposal(ctx: AppContext, access: ProjectAccess, body: PlanProposalBody): PlanProposalResult {
+  const { response, chosen, fit, limits } = fitContext(ctx, access, body);
+  const missing = chosen.filter((f) => body.recipe[f.key] === undefined);
+  if (missing.length) {
+    throw invalid(400, 'validation', `Invalid body: recipe: no value for ${missing.map((f) => f.label).join(', ')}`, missing.map((f) => ({ path: `recipe.${f.key}`, message: 'a value is needed' })));
+  }
+  const point = Object.fromEntries(chosen.map((f) => [f.key, body.recipe[f.key]!]));
+  const support = guard(() => checkSupport(fit, point));
+  const prediction = guard(() => predict(fit, point));
+  const format = (value: number) => `${roundForText(value, 4)}${response.unit ? ` ${response.unit}` : ''}`;
+  const limit = boundPrediction(limitsAt(limits, body.recipe), prediction.value, prediction.piLow, prediction.piHigh, format);
+  const flags: string[] = [];
+  if (!support.inside) flags.push(`Outside the builds' support. ${support.reasons.join(' ')}`);
+  if (limit.hitsLimit && limit.note) flags.push(limit.note);
+  const reason = body.reason?.trim() ?? '';
+  if (flags.length > 0 && reason.length < 10) {
+    throw new AppError(422, 'reason-required', `This recipe is flagged — ${flags.join(' ')} Say in a sentence (reason, at least 10 characters) why it should be built anyway.`, { fields: [{ path: 'reason', message: 'a reason of at least 10 characters is needed for a flagged proposal' }], flags });
+  }
+  const kind = flags.length > 0 ? 'flagged proposal' : 'proposal';
+  const build = createBuild(ctx, access, {
+    status: 'planned',
+    factors: body.recipe,
+    parentId: body.parentId ?? null,
+    changeNote: (body.changeNote ?? `${kind} from the surface (${response.label})`).slice(0, 500),
+    planReason: reason || null,
+    testConditions: {},
+  });
+  return { build, flagged: flags.length > 0, flags, support, limit };
 }

@@ -44,6 +44,8 @@ export interface DemoBuild {
   status: 'planned' | 'built' | 'tested' | 'reviewed' | 'discarded';
   builtOn: string;
   testedOn?: string;
+  /** the day a planned build was planned */
+  plannedOn?: string;
   conditions: TestConditions;
   responses?: Record<string, number>;
   /** a durability log for this build (hours, seeded degradation rate µV/h) */
@@ -101,7 +103,7 @@ function cathodeBuilds(): DemoBuild[] {
     b('C-018', { binder: 30, activationTemp: 350, activationTime: 3, gdl: 'woven carbon', cellTemp: 200 }, { parent: 'C-010', changeNote: 'cell at 200 °C', builtOn: '2026-10-20', testedOn: '2026-10-22' }),
     b('C-019', { binder: 25, activationTemp: 335, activationTime: 2, gdl: 'woven carbon', cellTemp: 175 }, { changeNote: 'design centre point', builtOn: '2026-10-27', testedOn: '2026-10-29' }),
     b('C-020', { binder: 25, activationTemp: 335, activationTime: 2, gdl: 'woven carbon', cellTemp: 175 }, { replicateOf: 'C-019', changeNote: 'design centre point (replicate)', builtOn: '2026-10-27', testedOn: '2026-10-29' }),
-    b('C-021', { binder: 32, activationTemp: 355, activationTime: 3, gdl: 'woven carbon', cellTemp: 185 }, { parent: 'C-010', changeNote: 'next recipe from the surface', status: 'planned', builtOn: '2026-11-24' }),
+    b('C-021', { binder: 32, activationTemp: 355, activationTime: 3, gdl: 'woven carbon', cellTemp: 185 }, { parent: 'C-010', changeNote: 'next recipe from the surface', status: 'planned', builtOn: '2026-11-24', plannedOn: '2026-11-17' }),
   ];
 }
 
@@ -132,7 +134,7 @@ function anodeBuilds(): DemoBuild[] {
     b('A-005', { ...base, ruFraction: 45, cellTemp: 220, anodeLoading: 1.5 }, { parent: 'A-004', changeNote: 'heavier anode', builtOn: '2026-10-22', testedOn: '2026-10-24', responses: { costPerCm2: 1.18 } }),
     b('A-006', { ...base, ruFraction: 45, cellTemp: 220, support: 'graphitised carbon' }, { parent: 'A-004', changeNote: 'graphitised support', builtOn: '2026-10-29', testedOn: '2026-10-31', responses: { costPerCm2: 0.88 } }),
     b('A-007', { ...base, ruFraction: 60, cellTemp: 220 }, { parent: 'A-004', changeNote: 'Ru pushed to 60 at %', builtOn: '2026-11-05', testedOn: '2026-11-07', lab: 'ridgeway', operator: 'partner2', responses: { costPerCm2: 0.74 } }),
-    b('A-008', { ...base, ruFraction: 45, cellTemp: 240, anodeLoading: 1.0 }, { parent: 'A-004', changeNote: 'cell at 240 °C', status: 'planned', builtOn: '2026-11-26' }),
+    b('A-008', { ...base, ruFraction: 45, cellTemp: 240, anodeLoading: 1.0 }, { parent: 'A-004', changeNote: 'cell at 240 °C', status: 'planned', builtOn: '2026-11-26', plannedOn: '2026-11-19' }),
   ];
 }
 

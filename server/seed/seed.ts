@@ -54,6 +54,7 @@ export async function seedDemo(ctx: AppContext): Promise<void> {
             status: b.status,
             builtOn: b.builtOn,
             testedOn: b.testedOn ?? null,
+            plannedOn: b.plannedOn ?? null,
             responseValues: b.responses ?? {},
             createdBy: userIds.get(b.operator)!,
             createdAt: `${b.builtOn}T09:00:00.000Z`,

@@ -3,8 +3,10 @@
 // surface (…/surface) and propose the next builds (…/proposals).
 import type { FactorDef } from '../schemas/project';
 import type { Design, DesignRequest } from '../doe/designs/types';
-import type { CanonicalAnalysis, ModelSpec, SurfaceFit } from '../doe/model/index';
+import type { CanonicalAnalysis, Effect, ModelChoice, ModelQuality, ModelSpec, ModelSupport, SupportCheck, SurfaceFit } from '../doe/model/index';
+import type { BoundedValue, LimitContext } from '../doe/limits/index';
 import type { Proposal, ProposalConstraints, ProposalGoal, ProposalStrategy } from '../doe/proposals/index';
+import type { Build } from '../api-types';
 import type { ResponseInfo } from './responses';
 
 // ---------------------------------------------------------------------------------------------
@@ -50,6 +52,23 @@ export interface PlanRunsBody {
   /** design kind and seed, recorded in each build's notes so the plan can be traced */
   designKind?: string;
   seed?: number;
+  /** values for the project factors the design does not vary, so every build carries every factor */
+  held?: Record<string, number | string>;
+  /** how the design was made (variant, α, centre points, blocks…), kept with the stored design */
+  designSettings?: Record<string, unknown>;
+}
+
+/** A design whose runs were planned as builds (GET /api/projects/:id/designs). */
+export interface StoredDesign {
+  id: number;
+  kind: string;
+  seed: number | null;
+  runCount: number;
+  note: string;
+  settings: Record<string, unknown>;
+  createdAt: string;
+  createdByName: string | null;
+  builds: { id: number; code: string; status: string }[];
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -57,7 +76,8 @@ export interface PlanRunsBody {
 
 export interface SurfaceRequest {
   response: string;
-  model: ModelSpec;
+  /** a model, or "auto": the simplest adequate model the builds support, chosen by leave-one-out error */
+  model: ModelSpec | 'auto';
   /** factor keys to fit over; default every factor of the project */
   factors?: string[];
   /** builds to leave out of the fit (e.g. a known bad electrode) */
@@ -73,6 +93,15 @@ export interface SurfaceRun {
   predicted: number;
   residual: number;
   leverage: number;
+  /** observed − prediction from a fit without this build, e/(1 − h); null when h = 1 */
+  looResidual: number | null;
+}
+
+/** Where the model has support: the ranges and levels built so far and the leverage limit. */
+export interface TrustRegion {
+  leverageLimit: number;
+  ranges: { key: string; label: string; unit: string; low: number; high: number }[];
+  levels: { key: string; label: string; levels: string[] }[];
 }
 
 export interface SurfaceResult {
@@ -88,6 +117,15 @@ export interface SurfaceResult {
   observedMax: Record<string, number>;
   /** gases used in the fitted builds' tests (e.g. "H2/air") */
   gases: string[];
+  /** what was asked for and what was fitted: the chosen model and, for "auto", every candidate */
+  model: { requested: 'auto' | 'linear' | 'interactions' | 'quadratic' | 'terms'; terms: string[]; termLabels: string[]; choice: ModelChoice | null };
+  support: ModelSupport;
+  quality: ModelQuality;
+  /** each term's effect over its factor's range, largest first */
+  effects: Effect[];
+  /** physical limits of the response (for what-if predictions in the browser) */
+  limits: LimitContext;
+  trustRegion: TrustRegion;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -99,6 +137,8 @@ export interface ProposalsRequest extends SurfaceRequest {
   strategy?: ProposalStrategy;
   constraints?: ProposalConstraints;
   seed?: number;
+  /** extra exploratory proposals, outside the trust region and labelled so (default 0) */
+  exploratory?: number;
 }
 
 export interface ProposalItem extends Proposal {
@@ -115,4 +155,23 @@ export interface ProposalsResult {
   goal: ProposalGoal;
   strategy: ProposalStrategy;
   fit: { n: number; r2: number; rmse: number; predR2: number | null; warnings: string[] };
+  /** the model the proposals came from */
+  model: { terms: string[]; termLabels: string[]; looRmse: number | null };
+}
+
+/** "Plan this build" for one proposal: the fit it came from, the recipe, and a reason when it is flagged. */
+export interface PlanProposalBody extends SurfaceRequest {
+  recipe: Record<string, number | string>;
+  /** required (a sentence) when the recipe is outside the builds' support or at a physical limit */
+  reason?: string;
+  parentId?: number | null;
+  changeNote?: string;
+}
+
+export interface PlanProposalResult {
+  build: Build;
+  flagged: boolean;
+  flags: string[];
+  support: SupportCheck;
+  limit: BoundedValue;
 }

@@ -5,3 +5,4 @@ export * from './coding';
 export * from './designs/index';
 export * from './model/index';
 export * from './proposals/index';
+export * from './limits/index';

@@ -25,6 +25,10 @@ export const buildCreateSchema = z.object({
   testConditions: testConditionsSchema.default({}),
   responses: z.record(z.string(), z.number().finite()).optional(),
   notes: z.string().max(5000).optional(),
+  /** the day the build was planned; set to today when a planned build is created without one */
+  plannedOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'a date like 2026-11-30').nullish(),
+  /** why a flagged proposal (outside the data's support, at a physical limit) was planned anyway */
+  planReason: z.string().trim().max(1000).nullish(),
 });
 export type BuildCreate = z.input<typeof buildCreateSchema>;
 

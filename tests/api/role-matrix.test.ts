@@ -119,7 +119,14 @@ export const MATRIX: MatrixRow[] = [
   { method: 'get', path: '/api/uploads/{uploadId}/progress', allowed: ALL, send: (_h, c) => c.get(`/api/uploads/${unique('matrix-upload-')}/progress`) },
   { method: 'get', path: '/api/projects/{id}/durability', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/durability`) },
   { method: 'post', path: '/api/projects/{id}/designs', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/designs`, { kind: 'full-factorial-2', factors: ['binder', 'cellTemp'], seed: 1 }) },
-  { method: 'post', path: '/api/projects/{id}/designs/plan', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/designs/plan`, { runs: [{ runOrder: 1, block: 1, actual: { binder: 25, cellTemp: 180 } }] }) },
+  { method: 'post', path: '/api/projects/{id}/designs/plan', allowed: PLANNERS, send: async (h, c) => {
+    // every factor not in the design needs a held value, including factors added by earlier rows
+    const factors = (await h.as.admin.get(`/api/projects/${C()}/factors`)).body.factors as { key: string; kind: string; low: number | null; levels: string[] | null }[];
+    const held = Object.fromEntries(factors.filter((f) => f.key !== 'binder' && f.key !== 'cellTemp').map((f) => [f.key, f.kind === 'continuous' ? f.low! : f.levels![0]!]));
+    return c.post(`/api/projects/${C()}/designs/plan`, { runs: [{ runOrder: 1, block: 1, actual: { binder: 25, cellTemp: 180 } }], held });
+  } },
+  { method: 'get', path: '/api/projects/{id}/designs', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/designs`) },
+  { method: 'post', path: '/api/projects/{id}/proposals/plan', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/proposals/plan`, { response: 'vAtRef', model: 'linear', recipe: { binder: 30, activationTemp: 350, activationTime: 3, gdl: 'woven carbon', cellTemp: 180 }, reason: 'matrix check of the planning route' }) },
   { method: 'post', path: '/api/projects/{id}/surface', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/surface`, { response: 'vAtRef', model: 'linear' }) },
   { method: 'post', path: '/api/projects/{id}/proposals', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/proposals`, { response: 'vAtRef', model: 'linear', count: 2 }) },
   { method: 'get', path: '/api/projects/{id}/gains', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/gains?response=vAtRef`) },

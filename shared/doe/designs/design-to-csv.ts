@@ -17,7 +17,9 @@ function valueCell(value: number | string | undefined): string {
 }
 
 /**
- * CSV of a design: header `runOrder,standardOrder,block,pointType,<factor keys…>`, then one
+ * CSV of a design: header `runOrder,standardOrder,block,pointType,<factor keys…>` (or, with
+ * options.labels, `build,standard order,block,role in the design,<labels…>` and point kinds in
+ * options.pointWords), then one
  * row per run in run order; numbers as JavaScript prints them (full precision), text quoted
  * when it holds a comma, quote or line break (RFC 4180), lines ending in CRLF.
  * Text starting with = + - @ gets a leading apostrophe so spreadsheets do not run it as a formula.
@@ -26,7 +28,7 @@ function valueCell(value: number | string | undefined): string {
  * @throws RangeError when design has no runs list or options.coded is not a boolean.
  * @example designToCsv(design, { coded: false }).split('\r\n')[0] // "runOrder,standardOrder,block,pointType,binderWt"
  */
-export function designToCsv(design: Design, options: { coded: boolean }): string {
+export function designToCsv(design: Design, options: { coded: boolean; labels?: Record<string, string>; pointWords?: Partial<Record<string, string>> }): string {
   if (design === null || typeof design !== 'object' || !Array.isArray(design.runs) || !Array.isArray(design.factorKeys)) {
     throw new RangeError('designToCsv: design: must be a design returned by generateDesign');
   }
@@ -34,11 +36,16 @@ export function designToCsv(design: Design, options: { coded: boolean }): string
     throw new RangeError('designToCsv: options.coded: must be true or false');
   }
   const lines: string[] = [];
-  lines.push(['runOrder', 'standardOrder', 'block', 'pointType', ...design.factorKeys.map(textCell)].join(','));
+  // with labels, a sheet for people: words and units in the header, point kinds in words
+  const labels = options.labels;
+  const header = labels
+    ? ['build', 'standard order', 'block', 'role in the design', ...design.factorKeys.map((key) => textCell(labels[key] ?? key))]
+    : ['runOrder', 'standardOrder', 'block', 'pointType', ...design.factorKeys.map(textCell)];
+  lines.push(header.join(','));
   const ordered = design.runs.slice().sort((first, second) => first.runOrder - second.runOrder);
   for (const run of ordered) {
     const values = options.coded ? run.coded : run.actual;
-    const cells = [String(run.runOrder), String(run.standardOrder), String(run.block), run.pointType];
+    const cells = [String(run.runOrder), String(run.standardOrder), String(run.block), textCell(options.pointWords?.[run.pointType] ?? run.pointType)];
     for (const key of design.factorKeys) cells.push(valueCell(values[key]));
     lines.push(cells.join(','));
   }

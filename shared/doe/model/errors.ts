@@ -7,6 +7,7 @@ export type DoeErrorCode =
   | 'invalid-row'
   | 'invalid-model'
   | 'too-few-runs'
+  | 'aliased-terms'
   | 'invalid-point'
   | 'invalid-goal'
   | 'invalid-constraint'

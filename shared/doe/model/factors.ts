@@ -3,8 +3,12 @@
 import { DoeInputError } from './errors';
 import type { Factor, Observation, ResolvedFactor } from './types';
 
-/** "row 3 (build 14)": where a bad value is, in words a person can find in the builds table. */
+/**
+ * Where a run is, in words a person can find: "build C-017" when the run carries its build's
+ * code, otherwise its place in the list ("row 3, build 14" for callers that only have ids).
+ */
 export function rowPlace(index: number, row: Observation | undefined): string {
+  if (row && typeof row.label === 'string' && row.label !== '') return `build ${row.label}`;
   const build = row && row.buildId !== undefined ? `, build ${row.buildId}` : '';
   return `row ${index + 1}${build}`;
 }
@@ -50,7 +54,12 @@ export function resolveFactors(fn: string, factors: Factor[], rows: Observation[
         }
         levelSet.add(level);
       }
-      resolved.push({ ...base, kind: 'categorical', levels: [...levels] });
+      const seenLevels = new Set<string>();
+      for (const row of rows) {
+        const value = row?.factors?.[factor.key];
+        if (value !== undefined && value !== null && levelSet.has(String(value))) seenLevels.add(String(value));
+      }
+      resolved.push({ ...base, kind: 'categorical', levels: [...levels], levelsRun: levels.filter((level) => seenLevels.has(level)) });
       continue;
     }
     if (factor.kind !== 'continuous') {
@@ -128,4 +137,14 @@ export function checkRows(fn: string, factors: ResolvedFactor[], rows: Observati
       }
     }
   }
+}
+
+/** Key of a run's factor settings, so replicates (same settings) fall in one group. Cost: O(k). */
+export function settingsKey(factors: ResolvedFactor[], row: Observation): string {
+  const parts: string[] = [];
+  for (const factor of factors) {
+    const value = row.factors[factor.key];
+    parts.push(factor.kind === 'continuous' ? (value as number).toPrecision(12) : `"${String(value)}"`);
+  }
+  return parts.join('|');
 }

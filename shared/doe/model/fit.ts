@@ -3,9 +3,10 @@
 import { fUpperP, tTwoSidedP } from '../../stats/distributions';
 import { DoeInputError } from './errors';
 import { encodePoint } from './encode';
-import { checkRows, resolveFactors, rowPlace } from './factors';
+import { checkRows, resolveFactors, rowPlace, settingsKey } from './factors';
 import { compensatedDot, compensatedSum, qrLeastSquares } from './numeric';
 import { buildModelTerms, modelRow } from './terms';
+import { columnLabel, factorName, termLabel } from './labels';
 import type {
   Anova,
   AnovaTermRow,
@@ -27,16 +28,6 @@ export interface FitSurfaceInput {
 }
 
 const VIF_LIMIT = 10;
-
-/** Key of a run's factor settings, so replicates (same settings) fall in one group. */
-function settingsKey(factors: ResolvedFactor[], row: Observation): string {
-  const parts: string[] = [];
-  for (const factor of factors) {
-    const value = row.factors[factor.key];
-    parts.push(factor.kind === 'continuous' ? (value as number).toPrecision(12) : `"${String(value)}"`);
-  }
-  return parts.join('|');
-}
 
 /** A number with at most 6 significant digits, for messages. */
 function short(value: number): string {
@@ -163,7 +154,7 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
   const { estimated, aliased, beta, rInverse } = ls;
   const rank = estimated.length;
   if (aliased.length > 0) {
-    const names = aliased.map((j) => columns[j].name).join(', ');
+    const names = aliased.map((j) => columnLabel(factors, columns[j])).join(', ');
     warnings.push(`Aliased terms (linear combinations of earlier terms in these runs) were not estimated: ${names}.`);
   }
 
@@ -245,7 +236,7 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     }
     const actualSE = Math.sqrt(mse * actualVariance);
     if (position === undefined) {
-      coefficients.push({ term: columns[k].name, coded: 0, codedSE: null, t: null, p: null, actual, actualSE: finiteOrNull(actualSE), vif: null, aliased: true });
+      coefficients.push({ term: columns[k].name, label: columnLabel(factors, columns[k]), coded: 0, codedSE: null, t: null, p: null, actual, actualSE: finiteOrNull(actualSE), vif: null, aliased: true });
       continue;
     }
     const codedSE = Math.sqrt(mse * cov[position][position]);
@@ -258,10 +249,11 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
       // the non-intercept block of (XᵀX)⁻¹ is the inverse of the centred cross-products,
       // so VIF_j = [(XᵀX)⁻¹]_jj · Σ(x_ij − x̄_j)² = 1/(1 − R_j²)
       vif = cov[position][position] * centredSS;
-      if (vif > VIF_LIMIT) highVif.push(`${columns[k].name} (${vif.toPrecision(3)})`);
+      if (vif > VIF_LIMIT) highVif.push(`${columnLabel(factors, columns[k])} (${short(vif)})`);
     }
     coefficients.push({
       term: columns[k].name,
+      label: columnLabel(factors, columns[k]),
       coded: beta[position],
       codedSE: finiteOrNull(codedSE),
       t: finiteOrNull(t),
@@ -304,7 +296,7 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     const df = positions.length;
     const ms = ss / df;
     const f = ms / mse;
-    termRows.push({ term: term.name, ss, df, ms, f: finiteOrNull(f), p: Number.isFinite(f) ? fUpperP(f, df, dfResidual) : null });
+    termRows.push({ term: term.name, label: termLabel(factors, term), ss, df, ms, f: finiteOrNull(f), p: Number.isFinite(f) ? fUpperP(f, df, dfResidual) : null });
   }
 
   const fModel = dfModel > 0 ? ssModel / dfModel / mse : NaN;
@@ -359,11 +351,11 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     const high: number[] = [];
     for (let i = 0; i < n; i++) if (leverage[i] > leverageLimit) high.push(i);
     if (high.length > 0) {
-      warnings.push(`High-leverage runs (h > 2p/n = ${leverageLimit.toPrecision(3)}), which steer the fit strongly: ${describeRows(high, rows)}.`);
+      warnings.push(`High-leverage runs (leverage above 2p/n = ${short(leverageLimit)}), which steer the fit strongly: ${describeRows(high, rows)}.`);
     }
   }
   if (press === null) {
-    warnings.push('A run has leverage 1 (the model passes through it exactly): PRESS and predicted R² are undefined.');
+    warnings.push('A build has leverage 1 (the model passes through it exactly): its left-out error, PRESS and the R² for left-out builds cannot be worked out.');
   }
   for (let f = 0; f < factors.length; f++) {
     const factor = factors[f];
@@ -374,18 +366,18 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     const dataMin = factor.dataMin as number;
     const dataMax = factor.dataMax as number;
     if (dataMin > low + 0.1 * range || dataMax < high - 0.1 * range) {
-      warnings.push(`Factor ${factor.key}: the runs cover only ${short(dataMin)}–${short(dataMax)} of the range ${short(low)}–${short(high)}; predictions near the range ends are extrapolation.`);
+      warnings.push(`${factorName(factor)}: the runs cover only ${short(dataMin)}–${short(dataMax)} of the range ${short(low)}–${short(high)}${factor.unit ? ` ${factor.unit}` : ''}; predictions near the range ends are extrapolation.`);
     }
     let largestCoded = 0;
     for (const encoded of encodedRows) largestCoded = Math.max(largestCoded, Math.abs(encoded[f] as number));
     if (largestCoded > 2) {
-      warnings.push(`Factor ${factor.key}: some runs lie far outside the range ${low}–${high} (coded up to ${largestCoded.toPrecision(3)}); check the units.`);
+      warnings.push(`${factorName(factor)}: some runs lie far outside the range ${short(low)}–${short(high)}${factor.unit ? ` ${factor.unit}` : ''} (up to ${short(largestCoded)} half-ranges from the centre); check the units.`);
     }
   }
   const blocks = new Set<string>();
   for (const row of rows) if (row.block !== undefined && row.block !== null) blocks.add(String(row.block));
   if (blocks.size > 1) warnings.push(`The runs carry ${blocks.size} blocks; block effects are not part of this model.`);
-  if (ssTotal === 0) warnings.push(`${responseKey ? `Response "${responseKey}"` : 'The response'} does not vary across the runs: nothing to model.`);
+  if (ssTotal === 0) warnings.push('The response does not vary across the builds: nothing to model.');
   if (ssResidual === 0 && ssTotal > 0) warnings.push('The residual error is zero: the model reproduces every run exactly, so standard errors and tests are not meaningful.');
 
   const r2 = ssTotal > 0 ? 1 - ssResidual / ssTotal : 0;
@@ -406,6 +398,7 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     rmse: Math.sqrt(mse),
     n,
     distinctRuns,
+    replicateGroups: [...groups.values()].filter((members) => members.length > 1).length,
     leverage,
     residuals,
     predicted,

@@ -13,3 +13,9 @@ export {
   type DesirabilityGoal,
   type ParetoGoal,
 } from './desirability';
+export { factorName, factorWithUnit, columnLabel, termLabel, roundForText } from './labels';
+export { checkModelSupport, type ModelSupport, type AliasedColumn } from './support';
+export { modelQuality, QUALITY_RATIO_GOOD, QUALITY_RATIO_POOR, type ModelQuality, type QualityVerdict } from './quality';
+export { surfaceEffects, type Effect, type EffectKind } from './effects';
+export { checkSupport, type SupportCheck } from './trust-region';
+export { chooseModel, MODEL_CHOICE_RULE, type ModelChoice, type ModelCandidate, type CandidateName, type ChooseModelInput } from './choose-model';

@@ -3,6 +3,7 @@
 import { tQuantile } from '../../stats/distributions';
 import { encodePoint } from './encode';
 import { modelRow } from './terms';
+import { factorName, roundForText } from './labels';
 import type { FitBasis, SurfaceFit } from './types';
 
 export interface Prediction {
@@ -104,7 +105,7 @@ export function checkExtrapolation(fit: SurfaceFit, point: Record<string, number
     // a relative slack keeps points placed exactly on a bound (or rounded to it) inside
     const slack = 1e-9 * (high - low);
     if (value < low - slack || value > high + slack) {
-      reasons.push(`${factor.key} = ${value} is outside ${low}–${high}.`);
+      reasons.push(`${factorName(factor)} ${roundForText(value)} is outside ${roundForText(low)}–${roundForText(high)}${factor.unit ? ` ${factor.unit}` : ''}.`);
     }
   }
   const leverage = rowLeverage(basis, modelRow(basis.columns, encoded));

@@ -1,6 +1,7 @@
 // Model terms and model-matrix columns for response surfaces: which products of factors are
 // in the model, the hierarchy rule, and treatment (dummy) coding of categorical factors.
 import { DoeInputError } from './errors';
+import { termLabel } from './labels';
 import type { Factor, ModelColumn, ModelSpec, ModelTerm, ResolvedFactor } from './types';
 
 type AnyFactor = Factor | ResolvedFactor;
@@ -173,7 +174,7 @@ export function buildModelTerms(factors: AnyFactor[], model: ModelSpec): ModelTe
       const name = termName(factors, parent);
       if (!byName.has(name)) {
         byName.set(name, parent);
-        added.push({ powers: parent, text: `${name} (for ${termName(factors, powers)})` });
+        added.push({ powers: parent, text: `${termLabel(factors, { powers: parent })} (for ${termLabel(factors, { powers })})` });
       }
     }
   }
@@ -190,7 +191,7 @@ export function buildModelTerms(factors: AnyFactor[], model: ModelSpec): ModelTe
     const name = termName(factors, powers);
     const termColumns = expandColumns(factors, powers, name);
     if (termColumns.length === 0) {
-      warnings.push(`Term ${name} was left out: its categorical factor has a single level.`);
+      warnings.push(`Term ${termLabel(factors, { powers })} was left out: its categorical factor has a single level.`);
       continue;
     }
     terms.push({ name, powers, degree: degreeOf(powers) });

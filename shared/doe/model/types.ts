@@ -21,6 +21,8 @@ export interface Observation {
   factors: Record<string, number | string>;
   y: number;
   buildId?: number;
+  /** how a person names the run (a build code like "C-017"); used in messages instead of row numbers */
+  label?: string;
   block?: number | string;
 }
 
@@ -39,6 +41,8 @@ export interface ResolvedFactor {
   /** continuous only: smallest and largest value seen in the data */
   dataMin?: number;
   dataMax?: number;
+  /** categorical only: the levels at least one run was made at */
+  levelsRun?: string[];
 }
 
 /**
@@ -68,6 +72,8 @@ export interface ModelColumn {
 export interface Coefficient {
   /** column name, e.g. "intercept", "temp", "temp*binder", "temp^2", "gdl[cloth]" */
   term: string;
+  /** the column in words, e.g. "Cell temperature × PTFE binder", "GDL: cloth" */
+  label: string;
   /** estimate in coded units (0 for an aliased column, which was not estimated) */
   coded: number;
   codedSE: number | null;
@@ -95,6 +101,8 @@ export interface AnovaTestRow extends AnovaRow {
 
 export interface AnovaTermRow extends AnovaTestRow {
   term: string;
+  /** the term in words */
+  label: string;
 }
 
 export interface Anova {
@@ -139,6 +147,8 @@ export interface SurfaceFit {
   rmse: number;
   n: number;
   distinctRuns: number;
+  /** recipes (distinct settings) built more than once */
+  replicateGroups?: number;
   leverage: number[];
   residuals: number[];
   predicted: number[];

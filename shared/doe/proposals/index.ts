@@ -7,6 +7,7 @@ export {
   type ProposalStrategy,
   type ProposalReasonKind,
   type ProposalConstraints,
+  type ProposalKind,
 } from './propose';
 export { candidateSet, type Candidate, type CandidatePlan } from './candidates';
 export { seededUniform } from './prng';

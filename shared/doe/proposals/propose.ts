@@ -1,18 +1,27 @@
-// Next-build proposals from a fitted surface: the best predicted recipe (exploit), the recipe
-// the model knows least about (explore, D-optimal augmentation), or a mix of the two
-// (balance, upper confidence bound). Every proposal respects the bounds and fixed values.
+// Next-build proposals from a fitted surface. Two kinds, never mixed up: proposals inside the
+// trust region (recipes the builds already made give the model support for: within the ranges
+// run, at levels run, no more remote than the most remote build) and exploratory proposals, a
+// stated step outside it, labelled as such with their wider uncertainty. Within each kind the
+// choice is the best predicted recipe (exploit), the one the model knows least about (explore,
+// D-optimal augmentation), or a mix (balance, upper confidence bound). Predictions are held
+// inside physical limits (a cell voltage below the reversible voltage, currents ≥ 0), and the
+// search never chases a value past them. Every proposal respects the bounds and fixed values.
 import { tQuantile } from '../../stats/distributions';
 import { DoeInputError } from '../model/errors';
 import { encodePoint } from '../model/encode';
-import { checkExtrapolation, rowLeverage, rowValue } from '../model/predict';
+import { factorName, roundForText } from '../model/labels';
+import { rowLeverage, rowValue } from '../model/predict';
 import { modelRow } from '../model/terms';
+import { checkSupport, type SupportCheck } from '../model/trust-region';
 import type { Factor, ResolvedFactor, SurfaceFit } from '../model/types';
+import { boundPrediction, limitsAt, type BoundedValue, type LimitContext } from '../limits/response-limits';
 import { candidateSet, type Candidate } from './candidates';
 import { seededUniform } from './prng';
 
 export type ProposalGoal = 'maximize' | 'minimize' | { target: number };
 export type ProposalStrategy = 'exploit' | 'explore' | 'balance';
-export type ProposalReasonKind = 'best predicted' | 'most informative' | 'balance (upper confidence bound)';
+export type ProposalReasonKind = 'best predicted' | 'most informative' | 'balance (upper confidence bound)' | 'exploratory';
+export type ProposalKind = 'supported' | 'exploratory';
 
 export interface ProposalConstraints {
   /** factor key → value the proposals must use (a number, or a level for categorical factors) */
@@ -26,10 +35,23 @@ export interface ProposeInput {
   /** the project's factors (bounds and levels); defaults to the factors the fit used */
   factors?: Factor[];
   goal: ProposalGoal;
+  /** proposals inside the trust region */
   count: number;
   strategy: ProposalStrategy;
   constraints?: ProposalConstraints;
   seed?: number;
+  /** where to hold factors the model has no term for (e.g. the best build so far); default mid-range or the first level */
+  hold?: Record<string, number | string>;
+  /** extra exploratory proposals outside the trust region (default 0) */
+  exploratory?: number;
+  /** how far outside an exploratory proposal may go: its leverage at most this multiple of the limit (default 3) */
+  exploreLeverageFactor?: number;
+  /** physical limits of the response (none when absent) */
+  limits?: LimitContext;
+  /** the response in words, for the reason sentences (default: the fit's response key) */
+  responseLabel?: string;
+  /** formats a response value with its unit, for the reason sentences */
+  format?: (value: number) => string;
   /** smallest coded distance between two proposals (default 0.3) */
   minDistance?: number;
   /** multiplier of the standard error in the upper confidence bound (default 1.96) */
@@ -41,14 +63,25 @@ export interface Proposal {
   factors: Record<string, number | string>;
   /** the model factors in coded units (levels for categorical factors) */
   coded: Record<string, number | string>;
+  /** predicted response, held inside the physical limits */
   predicted: number;
-  /** 95 % prediction interval for one build made at this recipe */
+  /** the model's own prediction before the limits */
+  modelPredicted: number;
+  /** 95 % prediction interval for one build made at this recipe (held inside the limits) */
   low: number;
   high: number;
+  kind: ProposalKind;
   reasonKind: ProposalReasonKind;
   /** the kind, then one sentence on why */
   reason: string;
+  /** outside the trust region (same as kind === 'exploratory') */
   extrapolation: boolean;
+  support: SupportCheck;
+  limit: BoundedValue;
+  /** why a person should look twice, in words: outside the support, at a physical limit */
+  flags: string[];
+  /** true when flags is not empty: planning it needs a written reason */
+  flagged: boolean;
 }
 
 interface SearchFactor {
@@ -60,10 +93,13 @@ interface SearchFactor {
   max: number;
   levels: string[];
   fixed: number | string | undefined;
+  label: string;
+  unit: string;
   note?: string;
 }
 
 const MAX_COUNT = 50;
+const MAX_EXPLORATORY = 10;
 
 function isGoal(goal: unknown): goal is ProposalGoal {
   if (goal === 'maximize' || goal === 'minimize') return true;
@@ -71,7 +107,7 @@ function isGoal(goal: unknown): goal is ProposalGoal {
 }
 
 /** Works out, per factor, the allowed range or levels after bounds and fixed values. */
-function searchSpace(fit: SurfaceFit, factors: Factor[] | undefined, constraints: ProposalConstraints): SearchFactor[] {
+function searchSpace(fit: SurfaceFit, factors: Factor[] | undefined, constraints: ProposalConstraints, hold: Record<string, number | string>): SearchFactor[] {
   const fn = 'proposeBuilds';
   const modelFactors = fit.basis.factors;
   const listed: (Factor | ResolvedFactor)[] = [];
@@ -109,7 +145,7 @@ function searchSpace(fit: SurfaceFit, factors: Factor[] | undefined, constraints
         if (!levels.includes(level)) throw new DoeInputError('invalid-constraint', `${fn}: "${level}" is not an allowed level of factor "${factor.key}" (constraints.fixed)`);
         levels = [level];
       }
-      space.push({ key: factor.key, kind: 'categorical', modelIndex, min: NaN, max: NaN, levels, fixed: fixedValue === undefined ? undefined : String(fixedValue) });
+      space.push({ key: factor.key, label: factorName(factor), unit: factor.unit ?? '', kind: 'categorical', modelIndex, min: NaN, max: NaN, levels, fixed: fixedValue === undefined ? undefined : String(fixedValue) });
       continue;
     }
     let min = factor.low ?? modelFactor?.low;
@@ -132,7 +168,7 @@ function searchSpace(fit: SurfaceFit, factors: Factor[] | undefined, constraints
       if ((min !== undefined && fixedValue < min) || (max !== undefined && fixedValue > max)) {
         throw new DoeInputError('invalid-constraint', `${fn}: fixed value ${fixedValue} of factor "${factor.key}" is outside its bounds ${min}–${max} (constraints.fixed)`);
       }
-      space.push({ key: factor.key, kind: 'continuous', modelIndex, min: fixedValue, max: fixedValue, levels: [], fixed: fixedValue });
+      space.push({ key: factor.key, label: factorName(factor), unit: factor.unit ?? '', kind: 'continuous', modelIndex, min: fixedValue, max: fixedValue, levels: [], fixed: fixedValue });
       continue;
     }
     if (min === undefined || max === undefined) {
@@ -141,50 +177,74 @@ function searchSpace(fit: SurfaceFit, factors: Factor[] | undefined, constraints
     if (!(min <= max)) {
       throw new DoeInputError('invalid-constraint', `${fn}: the bounds of factor "${factor.key}" leave nothing to choose from (${min}–${max}; constraints.bounds)`);
     }
-    space.push({ key: factor.key, kind: 'continuous', modelIndex, min, max, levels: [], fixed: undefined });
+    space.push({ key: factor.key, label: factorName(factor), unit: factor.unit ?? '', kind: 'continuous', modelIndex, min, max, levels: [], fixed: undefined });
   }
-  // factors the model does not use are held at a fixed value, the centre, or the first level
+  // factors the model does not use (not a factor of the fit, or no estimated term of it) are
+  // held: at a fixed value, at the caller's held value (e.g. the best build so far), or at
+  // mid-range / the first level
+  const used = new Set<number>();
+  for (const j of fit.basis.estimated) {
+    const column = fit.basis.columns[j];
+    column.powers.forEach((power, f) => {
+      if (power > 0) used.add(f);
+    });
+    for (const indicator of column.indicators) used.add(indicator.factor);
+  }
   for (const entry of space) {
-    if (entry.modelIndex >= 0 || entry.fixed !== undefined) continue;
+    if ((entry.modelIndex >= 0 && used.has(entry.modelIndex)) || entry.fixed !== undefined) continue;
+    if (entry.modelIndex >= 0 && !hold[entry.key]) {
+      // a factor of the fit with no term yet: left free, so its setting varies across the
+      // candidates and the next fit can tell whether it matters
+      entry.note = `${entry.label} has no term in the model yet; its setting is left to vary so the next fit can tell whether it matters`;
+      continue;
+    }
+    const wanted = hold[entry.key];
     if (entry.kind === 'continuous') {
-      entry.fixed = (entry.min + entry.max) / 2;
+      entry.fixed = typeof wanted === 'number' && wanted >= entry.min && wanted <= entry.max ? wanted : (entry.min + entry.max) / 2;
       entry.min = entry.max = entry.fixed;
     } else {
-      entry.fixed = entry.levels[0];
-      entry.levels = [entry.levels[0]];
+      entry.fixed = wanted !== undefined && entry.levels.includes(String(wanted)) ? String(wanted) : entry.levels[0];
+      entry.levels = [entry.fixed];
     }
-    entry.note = `${entry.key} is not in the model and was held at ${String(entry.fixed)}`;
+    entry.note = `${entry.label} ${entry.modelIndex >= 0 ? 'has no term in the model' : 'is not in the model'} and was held at ${typeof entry.fixed === 'number' ? roundForText(entry.fixed) : String(entry.fixed)}${entry.kind === 'continuous' && entry.unit ? ` ${entry.unit}` : ''}`;
   }
   return space;
 }
+
 
 interface Evaluated {
   actual: Record<string, number | string>;
   encoded: (number | string)[];
   row: number[];
   estimatedRow: number[];
-}
-
-function format(value: number): string {
-  if (!Number.isFinite(value)) return String(value);
-  return Number(value.toPrecision(4)).toString();
+  modelPoint: Record<string, number | string>;
+  leverage: number;
+  inside: boolean;
 }
 
 /**
  * Proposes the next builds to make from a fitted surface.
  * Definition: a seeded candidate set (box vertices, grid, random points × categorical levels)
- * inside the bounds and fixed values is scored, the best candidate at least `minDistance`
- * (coded units; a different categorical level counts as 1) from earlier proposals is taken
- * and polished by coordinate search. exploit scores the predicted response (or −|ŷ − target|);
- * explore scores the prediction variance x₀ᵀM⁻¹x₀ and updates M = XᵀX with each pick
- * (greedy D-optimal augmentation, Sherman–Morrison update); balance scores the upper
- * confidence bound ŷ + κ·se (κ = 1.96 by default), with the same update so a batch spreads.
+ * over the allowed box, plus one over the part of it the builds span, is scored; the best
+ * candidate at least `minDistance` (coded units; a different level counts as 1) from earlier
+ * proposals is taken and polished by coordinate search. `count` proposals come from inside
+ * the trust region (checkSupport); `exploratory` more from outside it with leverage at most
+ * exploreLeverageFactor × the limit, each scored by the upper confidence bound. exploit scores
+ * the predicted response (or −|ŷ − target|); explore the prediction variance x₀ᵀM⁻¹x₀ with
+ * M = XᵀX updated after each pick (greedy D-optimal augmentation, Sherman–Morrison); balance
+ * ŷ + κ·se (κ = 1.96 by default) with the same update so a batch spreads. A predicted value
+ * past a physical limit is reflected back (limit − excess), so the search never prefers an
+ * impossible prediction; the reported prediction and interval are held inside the limits.
+ * When no recipe inside the trust region meets the constraints, the remaining proposals are
+ * exploratory and say so.
  * Reference: Atkinson, Donev & Tobias, Optimum Experimental Designs, with SAS (2007), ch. 11–12
  * (D-optimum augmentation, sequential construction); Srinivas et al. (2010), ICML, "Gaussian
- * process optimization in the bandit setting" (upper confidence bound).
- * Cost: O(count·(C + polish)·p²) for C candidates and p model columns.
+ * process optimization in the bandit setting" (upper confidence bound); trust regions in
+ * sequential response-surface work: Myers, Montgomery & Anderson-Cook, Response Surface
+ * Methodology, §6.4 (confidence regions on the optimum, staying near the data).
+ * Cost: O((count + exploratory)·(C + polish)·p²) for C candidates and p model columns.
  * @throws DoeInputError: 'invalid-goal', 'invalid-constraint', 'invalid-factor' for bad input.
- * @example proposeBuilds({ fit, goal: 'maximize', count: 3, strategy: 'balance', seed: 7 })
+ * @example proposeBuilds({ fit, goal: 'maximize', count: 3, strategy: 'balance', seed: 7, exploratory: 1 })
  */
 export function proposeBuilds(input: ProposeInput): Proposal[] {
   const fn = 'proposeBuilds';
@@ -196,6 +256,10 @@ export function proposeBuilds(input: ProposeInput): Proposal[] {
   if (!(Number.isInteger(count) && count >= 1 && count <= MAX_COUNT)) {
     throw new DoeInputError('invalid-goal', `${fn}: count must be a whole number from 1 to ${MAX_COUNT} (count = ${String(count)})`);
   }
+  const exploratoryCount = input.exploratory ?? 0;
+  if (!(Number.isInteger(exploratoryCount) && exploratoryCount >= 0 && exploratoryCount <= MAX_EXPLORATORY)) {
+    throw new DoeInputError('invalid-goal', `${fn}: exploratory must be a whole number from 0 to ${MAX_EXPLORATORY} (exploratory = ${String(exploratoryCount)})`);
+  }
   if (strategy !== 'exploit' && strategy !== 'explore' && strategy !== 'balance') {
     throw new DoeInputError('invalid-goal', `${fn}: strategy must be "exploit", "explore" or "balance" (strategy = ${JSON.stringify(strategy)})`);
   }
@@ -203,18 +267,38 @@ export function proposeBuilds(input: ProposeInput): Proposal[] {
   if (!(Number.isFinite(minDistance) && minDistance >= 0)) throw new DoeInputError('invalid-goal', `${fn}: minDistance must be a number ≥ 0 (minDistance)`);
   const kappa = input.kappa ?? 1.96;
   if (!(Number.isFinite(kappa) && kappa >= 0)) throw new DoeInputError('invalid-goal', `${fn}: kappa must be a number ≥ 0 (kappa)`);
+  const exploreFactor = input.exploreLeverageFactor ?? 3;
+  if (!(Number.isFinite(exploreFactor) && exploreFactor >= 1)) throw new DoeInputError('invalid-goal', `${fn}: exploreLeverageFactor must be a number ≥ 1 (exploreLeverageFactor)`);
   const constraints = input.constraints ?? {};
   if (typeof constraints !== 'object' || constraints === null) throw new DoeInputError('invalid-constraint', `${fn}: constraints must be an object (constraints)`);
 
   const basis = fit.basis;
   const modelFactors = basis.factors;
-  const space = searchSpace(fit, input.factors, constraints);
+  const space = searchSpace(fit, input.factors, constraints, input.hold ?? {});
   const freeContinuous = space.filter((entry) => entry.kind === 'continuous' && entry.fixed === undefined && entry.max > entry.min);
   const freeCategorical = space.filter((entry) => entry.kind === 'categorical' && entry.levels.length > 1);
   const random = seededUniform(input.seed ?? 1);
-  const candidates = candidateSet({ dimensions: freeContinuous.length, levelChoices: freeCategorical.map((entry) => entry.levels) }, random);
+  const plan = { dimensions: freeContinuous.length, levelChoices: freeCategorical.map((entry) => entry.levels) };
+  const candidates = candidateSet(plan, random);
+  // a second set over the part of the allowed box the builds span, so the trust region is
+  // sampled densely even when it is a small corner of the box
+  const spanned = freeContinuous.map((entry) => {
+    const factor = modelFactors[entry.modelIndex] as ResolvedFactor | undefined;
+    const low = factor?.dataMin ?? entry.min;
+    const high = factor?.dataMax ?? entry.max;
+    const a = Math.min(1, Math.max(0, (low - entry.min) / (entry.max - entry.min)));
+    const b = Math.min(1, Math.max(0, (high - entry.min) / (entry.max - entry.min)));
+    return [a, Math.max(a, b)] as const;
+  });
+  if (spanned.some(([a, b]) => a > 0.05 || b < 0.95)) {
+    for (const candidate of candidateSet(plan, random)) {
+      candidates.push({ unit: candidate.unit.map((u, d) => spanned[d][0] + u * (spanned[d][1] - spanned[d][0])), levels: candidate.levels });
+    }
+  }
 
-  const response = fit.response ? fit.response : 'response';
+  const responseLabel = input.responseLabel ?? fit.response ?? 'response';
+  const format = input.format ?? ((value: number) => roundForText(value));
+  const limitContext: LimitContext = input.limits ?? { response: '' };
   const rank = basis.estimated.length;
   const mse = basis.mse;
   const tPrediction = tQuantile(0.975, basis.dfResidual);
@@ -237,6 +321,18 @@ export function proposeBuilds(input: ProposeInput): Proposal[] {
     }
     return Math.max(0, total);
   };
+  const rangeOk = (modelPoint: Record<string, number | string>): boolean => {
+    for (const factor of modelFactors) {
+      const value = modelPoint[factor.key];
+      if (factor.kind === 'continuous') {
+        const low = factor.dataMin ?? (factor.low as number);
+        const high = factor.dataMax ?? (factor.high as number);
+        const slack = 1e-9 * Math.max(1e-12, high - low);
+        if ((value as number) < low - slack || (value as number) > high + slack) return false;
+      } else if (factor.levelsRun && !factor.levelsRun.includes(String(value))) return false;
+    }
+    return true;
+  };
 
   const evaluate = (candidate: Candidate): Evaluated => {
     const actual: Record<string, number | string> = {};
@@ -258,18 +354,27 @@ export function proposeBuilds(input: ProposeInput): Proposal[] {
     for (const factor of modelFactors) modelPoint[factor.key] = actual[factor.key];
     const encoded = encodePoint(fn, modelFactors, modelPoint);
     const row = modelRow(basis.columns, encoded);
-    return { actual, encoded, row, estimatedRow: basis.estimated.map((j) => row[j]) };
+    const leverage = rowLeverage(basis, row);
+    const inside = leverage <= basis.maxLeverage * (1 + 1e-9) && rangeOk(modelPoint);
+    return { actual, encoded, row, estimatedRow: basis.estimated.map((j) => row[j]), modelPoint, leverage, inside };
   };
 
+  /** the prediction the search may chase: past a physical limit it is reflected back */
+  const chased = (point: Evaluated, predicted: number): number => {
+    const limits = limitsAt(limitContext, point.actual);
+    if (limits.upper !== null && predicted > limits.upper) return limits.upper - (predicted - limits.upper);
+    if (limits.lower !== null && predicted < limits.lower) return limits.lower + (limits.lower - predicted);
+    return predicted;
+  };
   const goalScore = (predicted: number): number => {
     if (goal === 'maximize') return predicted;
     if (goal === 'minimize') return -predicted;
     return -Math.abs(predicted - goal.target);
   };
-  const score = (point: Evaluated): number => {
-    if (strategy === 'explore') return quadratic(point.estimatedRow);
-    const predicted = rowValue(basis, point.row);
-    if (strategy === 'exploit') return goalScore(predicted);
+  const scoreFor = (mode: ProposalStrategy) => (point: Evaluated): number => {
+    if (mode === 'explore') return quadratic(point.estimatedRow);
+    const predicted = chased(point, rowValue(basis, point.row));
+    if (mode === 'exploit') return goalScore(predicted);
     return goalScore(predicted) + kappa * Math.sqrt(mse * quadratic(point.estimatedRow));
   };
 
@@ -285,74 +390,100 @@ export function proposeBuilds(input: ProposeInput): Proposal[] {
     return Math.sqrt(sumSquares);
   };
   const farEnough = (point: Evaluated, limit: number): boolean => picked.every((other) => distance(point, other) >= limit);
-
   const evaluatedCandidates = candidates.map((candidate) => ({ candidate, point: evaluate(candidate) }));
-  const proposals: Proposal[] = [];
-  let limit = minDistance;
-  let relaxations = 0;
-  while (proposals.length < count) {
-    let best: { candidate: Candidate; point: Evaluated; value: number } | undefined;
-    for (const entry of evaluatedCandidates) {
-      if (!farEnough(entry.point, limit)) continue;
-      const value = score(entry.point);
-      if (!best || value > best.value) best = { candidate: entry.candidate, point: entry.point, value };
-    }
-    if (!best) {
-      // the allowed region is too small for this spacing: halve it a few times, then stop
-      if (relaxations >= 4 || limit === 0) break;
-      limit /= 2;
-      relaxations++;
-      continue;
-    }
-    const polished = polish(best.candidate, best.value, evaluate, score, (point) => farEnough(point, limit));
-    const chosen = polished.point;
-    picked.push(chosen);
+  const inExploreStep = (point: Evaluated): boolean => !point.inside && point.leverage <= exploreFactor * basis.maxLeverage * (1 + 1e-9);
+  const notes = space.filter((entry) => entry.note).map((entry) => entry.note as string);
 
-    const predicted = rowValue(basis, chosen.row);
-    const leverage = rowLeverage(basis, chosen.row);
+  const proposals: Proposal[] = [];
+  const pick = (kind: ProposalKind, mode: ProposalStrategy, wanted: number, region: (point: Evaluated) => boolean): number => {
+    const score = scoreFor(mode);
+    let made = 0;
+    let limit = minDistance;
+    let relaxations = 0;
+    while (made < wanted) {
+      let best: { candidate: Candidate; point: Evaluated; value: number } | undefined;
+      for (const entry of evaluatedCandidates) {
+        if (!region(entry.point) || !farEnough(entry.point, limit)) continue;
+        const value = score(entry.point);
+        if (!best || value > best.value) best = { candidate: entry.candidate, point: entry.point, value };
+      }
+      if (!best) {
+        // the region is too small for this spacing: halve it a few times, then stop
+        if (relaxations >= 4 || limit === 0) break;
+        limit /= 2;
+        relaxations++;
+        continue;
+      }
+      const polished = polish(best.candidate, best.value, evaluate, score, (point) => region(point) && farEnough(point, limit));
+      const chosen = polished.point;
+      picked.push(chosen);
+      proposals.push(describe(kind, mode, chosen));
+      made++;
+      if (mode !== 'exploit') {
+        // Sherman–Morrison: (M + xxᵀ)⁻¹ = M⁻¹ − M⁻¹x xᵀM⁻¹ / (1 + xᵀM⁻¹x)
+        const x = chosen.estimatedRow;
+        const mx = new Array<number>(rank).fill(0);
+        for (let a = 0; a < rank; a++) for (let b = 0; b < rank; b++) mx[a] += mInverse[a][b] * x[b];
+        const denominator = 1 + quadratic(x);
+        for (let a = 0; a < rank; a++) for (let b = 0; b < rank; b++) mInverse[a][b] -= (mx[a] * mx[b]) / denominator;
+      }
+    }
+    return made;
+  };
+
+  const describe = (kind: ProposalKind, mode: ProposalStrategy, chosen: Evaluated): Proposal => {
+    const modelValue = rowValue(basis, chosen.row);
+    const leverage = chosen.leverage;
     const halfWidth = tPrediction * Math.sqrt(mse * (1 + leverage));
     const se = Math.sqrt(mse * leverage);
-    const modelPoint: Record<string, number | string> = {};
+    const limit = boundPrediction(limitsAt(limitContext, chosen.actual), modelValue, modelValue - halfWidth, modelValue + halfWidth, format);
     const coded: Record<string, number | string> = {};
     modelFactors.forEach((factor, f) => {
-      modelPoint[factor.key] = chosen.actual[factor.key];
       coded[factor.key] = chosen.encoded[f];
     });
-    const extrapolation = checkExtrapolation(fit, modelPoint).extrapolation;
-    const reasonKind: ProposalReasonKind = strategy === 'exploit' ? 'best predicted' : strategy === 'explore' ? 'most informative' : 'balance (upper confidence bound)';
-    const interval = `95 % prediction interval ${format(predicted - halfWidth)} to ${format(predicted + halfWidth)}`;
+    const support = checkSupport(fit, chosen.modelPoint);
+    const reasonKind: ProposalReasonKind = kind === 'exploratory' ? 'exploratory' : mode === 'exploit' ? 'best predicted' : mode === 'explore' ? 'most informative' : 'balance (upper confidence bound)';
+    const interval = `95 % prediction interval ${format(limit.low)} to ${format(limit.high)}`;
     let sentence: string;
-    if (strategy === 'exploit') {
-      const aim = goal === 'maximize' ? `highest predicted ${response}` : goal === 'minimize' ? `lowest predicted ${response}` : `predicted ${response} closest to the target ${format(goal.target)}`;
-      sentence = `${aim} in the allowed region${proposals.length > 0 ? ' away from the earlier proposals' : ''}: ${format(predicted)} (${interval}).`;
-    } else if (strategy === 'explore') {
-      sentence = `the surface is least certain here (standard error of the mean ${format(se)} against an RMSE of ${format(Math.sqrt(mse))}); a build here sharpens the model most, given the runs so far and the earlier proposals. Predicted ${format(predicted)} (${interval}).`;
+    if (kind === 'exploratory') {
+      sentence = `a step outside the builds' support (leverage ${roundForText(leverage, 3)} against a limit of ${roundForText(basis.maxLeverage, 3)}), where the model is optimistic: predicted ${format(limit.value)} but a build could land anywhere in the ${interval}; it tests the model rather than trusting it.`;
+    } else if (mode === 'exploit') {
+      const aim = goal === 'maximize' ? `highest predicted ${responseLabel}` : goal === 'minimize' ? `lowest predicted ${responseLabel}` : `predicted ${responseLabel} closest to the target ${format(goal.target)}`;
+      sentence = `${aim} inside the builds' support${proposals.length > 0 ? ', away from the earlier proposals' : ''}: ${format(limit.value)} (${interval}).`;
+    } else if (mode === 'explore') {
+      sentence = `the surface is least certain here within the builds' support (standard error of the mean ${format(se)} against a residual spread of ${format(Math.sqrt(mse))}); a build here sharpens the model most, given the runs so far and the earlier proposals. Predicted ${format(limit.value)} (${interval}).`;
     } else {
-      sentence = `predicted ${format(predicted)} plus ${format(kappa)} standard errors (${format(se)}) gives the most promising optimistic value, trading the prediction against its uncertainty (${interval}).`;
+      sentence = `predicted ${format(limit.value)} plus ${roundForText(kappa, 3)} standard errors (${format(se)}) gives the most promising optimistic value inside the builds' support (${interval}).`;
     }
-    const notes = space.filter((entry) => entry.note).map((entry) => entry.note as string);
     if (notes.length > 0) sentence += ` ${notes.join('; ')}.`;
-    if (extrapolation) sentence += ' This recipe is outside the region the runs cover: the prediction is an extrapolation.';
-    proposals.push({
+    const flags: string[] = [];
+    if (!support.inside) flags.push(`Outside the builds' support. ${support.reasons.join(' ')}`);
+    if (limit.hitsLimit && limit.note) flags.push(limit.note);
+    if (limit.note && !limit.hitsLimit) sentence += ` ${limit.note}`;
+    return {
       factors: { ...chosen.actual },
       coded,
-      predicted,
-      low: predicted - halfWidth,
-      high: predicted + halfWidth,
+      predicted: limit.value,
+      modelPredicted: modelValue,
+      low: limit.low,
+      high: limit.high,
+      kind,
       reasonKind,
       reason: `${reasonKind}: ${sentence}`,
-      extrapolation,
-    });
+      extrapolation: !support.inside,
+      support,
+      limit,
+      flags,
+      flagged: flags.length > 0,
+    };
+  };
 
-    if (strategy !== 'exploit') {
-      // Sherman–Morrison: (M + xxᵀ)⁻¹ = M⁻¹ − M⁻¹x xᵀM⁻¹ / (1 + xᵀM⁻¹x)
-      const x = chosen.estimatedRow;
-      const mx = new Array<number>(rank).fill(0);
-      for (let a = 0; a < rank; a++) for (let b = 0; b < rank; b++) mx[a] += mInverse[a][b] * x[b];
-      const denominator = 1 + quadratic(x);
-      for (let a = 0; a < rank; a++) for (let b = 0; b < rank; b++) mInverse[a][b] -= (mx[a] * mx[b]) / denominator;
-    }
-  }
+  const inside = pick('supported', strategy, count, (point) => point.inside);
+  // no room inside the support (constraints away from the builds): say so and step outside
+  const outside = exploratoryCount + (count - inside);
+  if (outside > 0) pick('exploratory', 'balance', outside, inExploreStep);
+  // when even the stated step holds nothing, the proposals still asked for go further out, labelled
+  if (proposals.length < count) pick('exploratory', 'balance', count - proposals.length, (point) => !point.inside);
   return proposals;
 }
 

@@ -25,12 +25,27 @@ function Recipe({ detail, factors }: { detail: BuildDetail; factors: FactorDef[]
     ['Active area', withUnit(b.areaCm2, 'cm²')],
     ['Catalyst lot', b.catalystLot ?? '—'],
   ];
+  if (b.plannedOn) rows.push(['Planned on', formatDate(b.plannedOn)]);
   return (
-    <dl className="grid grid-cols-2 gap-x-6 gap-y-2 text-sm">
-      {rows.map(([k, v]) => (
-        <div key={k}><dt className="text-xs text-ink-500">{k}</dt><dd className="num text-ink-950">{v}</dd></div>
-      ))}
-    </dl>
+    <>
+      <dl className="grid grid-cols-2 gap-x-6 gap-y-2 text-sm">
+        {rows.map(([k, v]) => (
+          <div key={k}><dt className="text-xs text-ink-500">{k}</dt><dd className="num text-ink-950">{v}</dd></div>
+        ))}
+      </dl>
+      <PlanOrigin build={b} />
+    </>
+  );
+}
+
+/** Where a planned build came from: its design, and the reason given for planning a flagged proposal. */
+function PlanOrigin({ build }: { build: BuildDetail['build'] }) {
+  if (build.designId == null && !build.planReason) return null;
+  return (
+    <div className="mt-3 flex flex-col gap-1 border-t border-line pt-2 text-sm">
+      {build.designId != null && <p className="text-ink-700">Planned from <Link className="text-copper-700 hover:underline" to={`/projects/${build.projectId}/plan#design-${build.designId}`}>design {build.designId}</Link>.</p>}
+      {build.planReason && <p className="text-amber-700"><span aria-hidden>▲ </span>Planned from a flagged proposal (outside the builds' support or at a physical limit). Reason given: “{build.planReason}”</p>}
+    </div>
   );
 }
 

@@ -45,7 +45,7 @@ describe('buildModelTerms', () => {
   it('adds missing parent terms and says so (hierarchy)', () => {
     const result = buildModelTerms(factors, { terms: ['binder*temp', 'temp^2'] });
     expect(result.terms.map((t) => t.name)).toEqual(['intercept', 'binder', 'temp', 'binder*temp', 'temp^2']);
-    expect(result.warnings.join(' ')).toMatch(/parent terms.*binder \(for binder\*temp\).*temp \(for binder\*temp\)/);
+    expect(result.warnings.join(' ')).toMatch(/parent terms.*binder \(for binder × temp\).*temp \(for binder × temp\)/);
     // a three-factor term pulls in all its two-factor parents too
     const three = buildModelTerms(factors, { terms: ['binder*temp*gdl'] });
     expect(three.terms.map((t) => t.name)).toEqual([

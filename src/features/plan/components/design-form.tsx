@@ -16,6 +16,13 @@ export const KIND_LABELS: Record<DesignKind, string> = {
   'latin-hypercube': 'Latin hypercube',
 };
 
+/** What each central-composite variant does with the ranges, shown with the chosen one. */
+export const VARIANT_HELP: Record<'circumscribed' | 'inscribed' | 'face-centred', string> = {
+  circumscribed: 'Corners at the ends of each range; the axial builds go α beyond them (outside the ranges set in the project), so check they can be made. Five levels per factor.',
+  inscribed: 'The whole design is shrunk so the axial builds sit at the ends of each range and the corners at ±1/α inside them: every build stays in range. Five levels per factor.',
+  'face-centred': 'Axial builds at the middle of each face of the box (α = 1): every build stays in range, three levels per factor, at the cost of rotatability.',
+};
+
 const numberOr = (text: string, fallback: number | undefined) => (text.trim() === '' || !Number.isFinite(Number(text)) ? fallback : Number(text));
 
 export function DesignForm({ factors, busy, onSubmit }: { factors: FactorDef[]; busy: boolean; onSubmit: (body: DesignBody) => void }) {
@@ -103,7 +110,7 @@ export function DesignForm({ factors, busy, onSubmit }: { factors: FactorDef[]; 
       )}
       {kind === 'central-composite' && (
         <div className="grid grid-cols-1 gap-3">
-          <Field label="Variant" hint="circumscribed axial points lie outside the factor ranges">
+          <Field label="Variant" hint={VARIANT_HELP[variant]}>
             {(p) => (
               <Select {...p} value={variant} onChange={(e) => setVariant(e.target.value as typeof variant)}>
                 <option value="circumscribed">circumscribed</option>

@@ -10,7 +10,7 @@ import { Button } from '@/components/ui/button';
 import { ErrorNote } from '@/components/ui/panel';
 import { METRICS } from '@/lib/format';
 import { surfaceQueryOptions, type SurfaceRequest, type SurfaceResult } from '../api/surface';
-import { gridOf, heldLine, type View } from './contour-panel';
+import { gridOf, heldLine, type View } from './map-grid';
 import { displayOf, show } from './display';
 
 interface Goal {
@@ -32,7 +32,11 @@ export function DesirabilityPanel({ projectId, request, base, responses, view }:
   const [goals, setGoals] = useState<Goal[]>([]);
   const [applied, setApplied] = useState<Goal[]>([]);
   const keys = [...Object.keys(METRICS), ...responses.map((r) => r.key)];
-  const labelOf = (key: string) => METRICS[key] ? `${METRICS[key]!.label} (${METRICS[key]!.unit})` : `${responses.find((r) => r.key === key)?.label ?? key} (${responses.find((r) => r.key === key)?.unit ?? ''})`;
+  const labelOf = (key: string) => {
+    if (METRICS[key]) return `${METRICS[key]!.label} (${METRICS[key]!.unit})`;
+    const r = responses.find((entry) => entry.key === key);
+    return r ? `${r.label}${r.unit ? ` (${r.unit})` : ''}` : 'a response of this project';
+  };
   const fits = useQueries({ queries: applied.map((g) => surfaceQueryOptions(projectId, { ...request, response: g.response })) });
   const results = fits.map((f) => f.data).filter((r): r is SurfaceResult => !!r);
   const error = fits.find((f) => f.error)?.error;
@@ -92,18 +96,19 @@ export function DesirabilityPanel({ projectId, request, base, responses, view }:
             <LazyPlot
               fileName="desirability"
               style={{ height: 400 }}
-              data={[{ x: computed.grid.xs, y: computed.grid.ys, z: computed.grid.z, type: 'contour', zmin: 0, zmax: 1, colorscale: 'Cividis', contours: { showlabels: true, coloring: 'heatmap' }, colorbar: { title: { text: 'D (0–1)' } }, hovertemplate: 'D %{z:.2f}<extra></extra>' }]}
+              data={[{ x: computed.grid.xs, y: computed.grid.ys, z: computed.grid.z, type: 'contour', zmin: 0, zmax: 1, colorscale: 'Cividis', contours: { showlabels: true, coloring: 'heatmap' }, colorbar: { title: { text: '0–1' } }, hovertemplate: 'overall desirability %{z:.2f}<extra></extra>' }]}
+              config={{ displayModeBar: false }}
               layout={{
                 title: { text: `Overall desirability (0–1)<br><span style="font-size:11px;color:#56668c">${heldLine(base.factors, view)}</span>` },
-                xaxis: { title: { text: `${computed.grid.fx.label} (${computed.grid.fx.unit})` } },
-                yaxis: { title: { text: `${computed.grid.fy.label} (${computed.grid.fy.unit})` } },
+                xaxis: { title: { text: `${computed.grid.fx.label}${computed.grid.fx.unit ? ` (${computed.grid.fx.unit})` : ''}` } },
+                yaxis: { title: { text: `${computed.grid.fy.label}${computed.grid.fy.unit ? ` (${computed.grid.fy.unit})` : ''}` } },
               }}
             />
           )}
           <div className="overflow-x-auto">
             <table className="w-full text-sm" aria-label="Observed builds by desirability">
               <thead className="text-left text-xs text-ink-700">
-                <tr><th className="py-1">Build</th>{applied.map((g, i) => <th key={i} className="text-right">{labelOf(g.response)}</th>)}<th className="text-right">D</th><th className="pl-2">Pareto set</th></tr>
+                <tr><th className="py-1">Build</th>{applied.map((g, i) => <th key={i} className="text-right">{labelOf(g.response)}</th>)}<th className="text-right">Overall (0–1)</th><th className="pl-2">Pareto set</th></tr>
               </thead>
               <tbody>
                 {computed.rows.map((b) => (

@@ -35,3 +35,32 @@ export function pValue(p: number | null | undefined): string {
   if (p == null || !Number.isFinite(p)) return '—';
   return p < 0.0001 ? '< 0.0001' : p.toFixed(4);
 }
+
+/** Digits for a spread or difference: two significant digits, never more than three decimals. */
+function spreadDigits(scaled: number): number {
+  if (!Number.isFinite(scaled) || scaled === 0) return 0;
+  return Math.min(3, Math.max(0, 1 - Math.floor(Math.log10(Math.abs(scaled)))));
+}
+
+/** A spread (±, SD, interval half-width) in display units with its unit, two significant digits. */
+export function showSpread(value: number | null | undefined, d: Display): string {
+  if (value == null || !Number.isFinite(value)) return '—';
+  const scaled = value * d.scale;
+  return `${formatNumber(scaled, spreadDigits(scaled))}${d.unit ? ` ${d.unit}` : ''}`;
+}
+
+/** A signed difference ("+59 mV", "−7.1 mV") in display units, two significant digits. */
+export function showSigned(value: number, d: Display, digitsFrom?: number): string {
+  const scaled = value * d.scale;
+  const digits = spreadDigits(digitsFrom !== undefined ? digitsFrom * d.scale : scaled);
+  const text = formatNumber(Math.abs(scaled), digits);
+  const sign = Number(text.replace(/,/g, '')) === 0 ? '±' : scaled > 0 ? '+' : '−';
+  return `${sign}${text}${d.unit ? ` ${d.unit}` : ''}`;
+}
+
+/** A factor setting for people: a level as it is, a number rounded to 4 significant digits with its unit. */
+export function showSetting(value: number | string | undefined, unit?: string | null): string {
+  if (value === undefined || value === null || value === '') return '—';
+  if (typeof value === 'string') return value;
+  return `${Number(value.toPrecision(4)).toLocaleString('en-GB', { maximumFractionDigits: 3 })}${unit ? ` ${unit}` : ''}`;
+}
