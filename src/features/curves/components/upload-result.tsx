@@ -134,9 +134,9 @@ function MetricTable({ keys, columns, difference }: { keys: string[]; columns: C
         ))}
       </dl>
       {notes.length > 0 && (
-        <ul className="mt-1 space-y-0.5 text-[11px] leading-snug text-amber-700" aria-label="Why some metrics are missing or limited">
-          {notes.map((n) => <li key={n.key}>{n.text}</li>)}
-        </ul>
+        <div className="mt-1 space-y-0.5 text-[11px] leading-snug text-amber-700" role="note" aria-label="Why some metrics are missing or limited">
+          {notes.map((n) => <p key={n.key}>{n.text}</p>)}
+        </div>
       )}
     </div>
   );
