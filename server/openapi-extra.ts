@@ -6,21 +6,23 @@ import { designRequestSchema, planProposalSchema, planRunsSchema, proposalsReque
 import { gainsQuery } from './gains/router';
 import { lineageQuery } from './lineage/router';
 import { commentSchema, verdictSchema } from './review/router';
+import { recordChoiceSchema } from './builds/router';
 
 const fileField = z.string().describe('the file (CSV, TSV, TXT or XLSX)');
 
 export const extraRoutes: RouteDoc[] = [
-  { method: 'post', path: '/api/builds/{id}/curves', summary: 'Upload a curve file: 201 {curve} or 422 with the reason', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
+  { method: 'post', path: '/api/builds/{id}/curves', summary: 'Upload a curve file: 201 {curve, recordCurve} or 422 with the reason. The first curve of a kind becomes the build’s curve of record (curve.isRecord); a later one is stored beside it and changes no value until chosen (PUT /api/builds/{id}/record); recordCurve is the record of that kind', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
   { method: 'post', path: '/api/builds/{id}/curves/preview', summary: 'Detect columns and units of a file without storing it', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
   { method: 'get', path: '/api/curves/{id}', summary: 'Curve points and metrics (long logs downsampled: maxPoints, fromHours, toHours)', tag: 'curves' },
   { method: 'patch', path: '/api/curves/{id}', summary: 'Relabel a curve or set durability options (break-in, windows, loss fraction)', body: z.object({ label: z.string().optional(), breakInHours: z.number().optional(), windows: z.array(z.object({ fromHours: z.number(), toHours: z.number() })).optional(), lossFraction: z.number().optional() }), tag: 'curves' },
-  { method: 'delete', path: '/api/curves/{id}', summary: 'Remove a curve (the raw file stays)', tag: 'curves' },
+  { method: 'delete', path: '/api/curves/{id}', summary: 'Remove a curve (the raw file stays) → {ok, record}: when it was the curve of record, the oldest remaining curve of its kind takes over (record says which; a reviewed build goes back to review)', tag: 'curves' },
+  { method: 'put', path: '/api/builds/{id}/record', summary: 'Choose the build’s curve of record of one kind → {record: {kind, fromCurveId, toCurveId, changed, status, message}, build, curves}. A reviewed build goes back to review (status tested) and its PIs are told; audited. Partners: their own lab’s builds only', body: recordChoiceSchema, tag: 'builds' },
   { method: 'get', path: '/api/files/{id}/raw', summary: 'The uploaded bytes, unchanged', tag: 'curves' },
   { method: 'get', path: '/api/projects/{id}/import-profiles', summary: 'Saved column/unit mappings', tag: 'curves' },
   { method: 'post', path: '/api/projects/{id}/import-profiles', summary: 'Save a column/unit mapping for a lab’s file shape', body: z.object({ name: z.string(), labId: z.number().nullish(), kind: z.enum(['polarization', 'durability', 'hold']).optional(), mapping: z.record(z.string(), z.object({ header: z.string(), unit: z.string() })) }), tag: 'curves' },
   { method: 'delete', path: '/api/import-profiles/{id}', summary: 'Remove an import profile', tag: 'curves' },
   { method: 'get', path: '/api/uploads/{uploadId}/progress', summary: 'Processing progress of an upload sent with an uploadId field: phase (receiving, parsing, measuring, storing, done, error) and fraction; JSON for polling, or server-sent events with Accept: text/event-stream', tag: 'curves' },
-  { method: 'get', path: '/api/projects/{id}/durability', summary: 'Durability comparison: every durability / hold curve of the project with rate ± 95 % interval (µV/h), hours run, break-in and held conditions', tag: 'curves' },
+  { method: 'get', path: '/api/projects/{id}/durability', summary: 'Durability comparison: every durability / hold curve of the project (isRecord marks each build’s curves of record) with rate ± 95 % interval (µV/h), hours run, break-in and held conditions', tag: 'curves' },
   { method: 'post', path: '/api/projects/{id}/designs', summary: 'Generate a design over the project’s factors (2^k, 2^(k−p), 3^k, central composite, Box–Behnken, Latin hypercube) → runs in coded and actual units with alias structure; not stored', body: designRequestSchema, tag: 'plan' },
   { method: 'post', path: '/api/projects/{id}/designs/plan', summary: 'Turn design runs into planned builds (codes assigned, optional parent, lab per block; factors not in the design at the held values or the parent’s); all or none. The design is stored and each build links to it (designId) with its planned date → {builds, designId}', body: planRunsSchema, tag: 'plan' },
   { method: 'get', path: '/api/projects/{id}/designs', summary: 'Designs whose runs were planned as builds, newest first → {designs: [{id, kind, seed, runCount, note, settings, createdAt, createdByName, builds}]}', tag: 'plan' },

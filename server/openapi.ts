@@ -46,7 +46,7 @@ export const ROUTES: RouteDoc[] = [
   { method: 'delete', path: '/api/projects/{id}/members/{userId}', summary: 'Remove a member', tag: 'projects' },
   { method: 'put', path: '/api/projects/{id}/notify', summary: 'Turn my e-mail notices for this project on or off', body: z.object({ notify: z.boolean(), digest: z.boolean().optional() }), tag: 'projects' },
   { method: 'post', path: '/api/projects/{id}/invitations', summary: 'Invite someone by e-mail (link valid 7 days, once)', body: inviteCreateSchema, tag: 'projects' },
-  { method: 'get', path: '/api/projects/{id}/builds', summary: 'List builds with factor values and current metric values', tag: 'builds' },
+  { method: 'get', path: '/api/projects/{id}/builds', summary: 'List builds with factor values and metric values (from each build’s curves of record: recordCurveIds)', tag: 'builds' },
   { method: 'post', path: '/api/projects/{id}/builds', summary: 'Create a build (factor values checked against bounds and levels)', body: buildCreateSchema, tag: 'builds' },
   { method: 'get', path: '/api/builds/{id}', summary: 'Read a build with lineage, curves and metrics', tag: 'builds' },
   { method: 'patch', path: '/api/builds/{id}', summary: 'Update a build', body: buildUpdateSchema, tag: 'builds' },

@@ -2,6 +2,7 @@
 import type { FactorDef, ProjectSettings, ResponseDef, TestConditions, ProjectRole } from './schemas/project';
 import type { BuildStatus } from './schemas/build';
 import type { ColumnMapping, CurveKind, CurveMetrics, FileConditions, MetricMethod } from './curves/types';
+import type { RecordCurveIds } from './api-types/record';
 
 export type { FactorDef, ResponseDef, ProjectSettings, TestConditions, ProjectRole, BuildStatus };
 
@@ -12,6 +13,7 @@ export type * from './api-types/doe';
 export type * from './api-types/lineage';
 export type * from './api-types/review';
 export type * from './api-types/uploads';
+export type * from './api-types/record';
 
 export interface Me {
   user: { id: number; email: string; name: string; isAdmin: boolean; labId: number | null; labKind: 'home' | 'partner' | null };
@@ -57,6 +59,8 @@ export interface Build {
   /** curve metrics (current metrics version) merged with hand-entered responses */
   values: Record<string, number | null>;
   curveCount: number;
+  /** the curve of record of each kind: the curve whose metrics are in `values` */
+  recordCurveIds: RecordCurveIds;
   notes: string;
   /** the design the build was planned from (GET /api/projects/:id/designs), or null */
   designId: number | null;
@@ -84,6 +88,8 @@ export interface CurveSummary {
   metricsVersion: number;
   options: Record<string, unknown> | null;
   createdAt: string;
+  /** the build's curve of record for this kind (its metrics are the build's values) */
+  isRecord: boolean;
 }
 
 export interface LineageNode {

@@ -7,13 +7,19 @@ import { idParam, parseInput } from '../lib/validate';
 import { requireProject } from '../auth/access';
 import * as service from './service';
 import { curvesForBuild } from '../curves/service';
-import { can } from '../auth/access';
+import { can, requireBuildWrite } from '../auth/access';
+import { chooseRecord } from '../curves/record';
 import { answerCache, dataVersion } from '../lib/data-version';
 
 const listQuery = z.object({
   status: z.enum(BUILD_STATUSES).optional(),
   limit: z.coerce.number().int().min(1).max(100000).optional(),
   offset: z.coerce.number().int().min(0).optional(),
+});
+
+export const recordChoiceSchema = z.object({
+  kind: z.enum(['polarization', 'durability', 'hold']).optional(),
+  curveId: z.number().int().positive(),
 });
 
 export function buildsRouter(ctx: AppContext): Router {
@@ -56,6 +62,15 @@ export function buildsRouter(ctx: AppContext): Router {
         comment: can(access, 'comment'),
       },
     });
+  });
+
+  // Choose the build's curve of record of one kind (partners: their own lab's builds only).
+  router.put('/builds/:id/record', async (req, res) => {
+    const { row, access } = service.accessBuild(ctx, req.user, idParam(req.params.id), 'createBuild');
+    requireBuildWrite(access, row);
+    const body = parseInput(recordChoiceSchema, req.body);
+    const record = await chooseRecord(ctx, access, row, body);
+    res.json({ record, build: service.getBuildItem(ctx, row.id), curves: curvesForBuild(ctx, row.id) });
   });
 
   router.patch('/builds/:id', (req, res) => {

@@ -5,7 +5,8 @@ import type { z } from 'zod';
 import type { AppContext } from '../context';
 import { builds, curves, labs, projects, users } from '../db/schema';
 import { buildCreateSchema, buildUpdateSchema, checkFactorValues } from '../../shared/schemas/build';
-import type { Build } from '../../shared/api-types';
+import type { Build, RecordCurveIds } from '../../shared/api-types';
+import type { CurveKind } from '../../shared/curves/types';
 import { audit } from '../lib/audit';
 import { AppError, conflict, notFound } from '../lib/errors';
 import { requireBuildWrite, requireProject, requireUser, type ProjectAccess } from '../auth/access';
@@ -36,13 +37,13 @@ function selectBuilds(ctx: AppContext) {
 }
 
 function metricValues(ctx: AppContext, buildIds: number[], metricsVersion: number) {
-  if (buildIds.length === 0) return new Map<number, { values: Record<string, number | null>; count: number }>();
+  if (buildIds.length === 0) return new Map<number, BuildMetricSummary>();
   const rows: CurveMetricRow[] = [];
   for (let i = 0; i < buildIds.length; i += 900) {
     const chunk = buildIds.slice(i, i + 900);
     rows.push(
       ...(ctx.db
-        .select({ buildId: curves.buildId, kind: curves.kind, metrics: curves.metrics, metricsVersion: curves.metricsVersion })
+        .select({ id: curves.id, buildId: curves.buildId, kind: curves.kind, isRecord: curves.isRecord, metrics: curves.metrics, metricsVersion: curves.metricsVersion })
         .from(curves)
         .where(inArray(curves.buildId, chunk))
         .orderBy(asc(curves.id))
@@ -53,30 +54,48 @@ function metricValues(ctx: AppContext, buildIds: number[], metricsVersion: numbe
 }
 
 interface CurveMetricRow {
+  id: number;
   buildId: number;
   kind: string;
-  metrics: Record<string, number | null>;
+  isRecord: boolean;
+  /** only read for curves of record */
+  metrics: Record<string, number | null> | null;
   metricsVersion: number;
 }
 
-/** The latest curve of each kind gives the build's metric values (polarization: current version only). */
+interface BuildMetricSummary {
+  values: Record<string, number | null>;
+  count: number;
+  records: RecordCurveIds;
+}
+
+/**
+ * A build's metric values are those of its curves of record, one per kind (polarization only
+ * when measured at the project's current reference point). Other curves are counted, never read:
+ * a later upload changes nothing until someone chooses it as the record.
+ */
 function summarizeMetrics(rows: CurveMetricRow[], metricsVersion: number) {
-  const byBuild = new Map<number, { values: Record<string, number | null>; count: number }>();
+  const byBuild = new Map<number, BuildMetricSummary>();
   for (const row of rows) {
-    const entry = byBuild.get(row.buildId) ?? { values: {}, count: 0 };
+    let entry = byBuild.get(row.buildId);
+    if (!entry) {
+      entry = { values: {}, count: 0, records: {} };
+      byBuild.set(row.buildId, entry);
+    }
     entry.count += 1;
-    if (row.metricsVersion === metricsVersion || row.kind !== 'polarization') {
+    if (!row.isRecord) continue;
+    entry.records[row.kind as CurveKind] = row.id;
+    if (row.metrics && (row.metricsVersion === metricsVersion || row.kind !== 'polarization')) {
       for (const key of METRIC_FROM_KIND[row.kind] ?? []) {
         const v = row.metrics[key];
         if (v !== undefined) entry.values[key] = v;
       }
     }
-    byBuild.set(row.buildId, entry);
   }
   return byBuild;
 }
 
-function toItem(row: { b: BuildRow; parentCode: string | null; labName: string | null; operatorName: string | null }, metrics?: { values: Record<string, number | null>; count: number }): BuildListItem {
+function toItem(row: { b: BuildRow; parentCode: string | null; labName: string | null; operatorName: string | null }, metrics?: BuildMetricSummary): BuildListItem {
   const b = row.b;
   return {
     id: b.id,
@@ -102,6 +121,7 @@ function toItem(row: { b: BuildRow; parentCode: string | null; labName: string |
     responses: b.responseValues,
     values: { ...(metrics?.values ?? {}), ...b.responseValues },
     curveCount: metrics?.count ?? 0,
+    recordCurveIds: metrics?.records ?? {},
     notes: b.notes,
     designId: b.designId ?? null,
     plannedOn: b.plannedOn ?? null,
@@ -141,9 +161,9 @@ function prepareList(ctx: AppContext) {
   const sqlite = ctx.db.$client;
   return {
     builds: sqlite.prepare(LIST_SQL),
-    // metrics of the curves of exactly that page of builds, in upload order
+    // the curves of exactly that page of builds, in upload order; metrics of the records only
     curvesOfPage: sqlite.prepare(
-      `select build_id as buildId, kind, metrics, metrics_version as metricsVersion from curves
+      `select id, build_id as buildId, kind, is_record as isRecord, case when is_record = 1 then metrics end as metrics, metrics_version as metricsVersion from curves
        where build_id in (select id from builds where project_id = @projectId and (@status is null or status = @status) order by id limit @limit offset @offset)
        order by id`,
     ),
@@ -159,9 +179,9 @@ export function listBuilds(ctx: AppContext, access: ProjectAccess, options: { st
   }
   const params = { projectId: access.projectId, status: options.status ?? null, limit: options.limit ?? -1, offset: options.offset ?? 0 };
   const rows = statements.builds.all(params) as RawBuildRow[];
-  const curveRows = statements.curvesOfPage.all(params) as { buildId: number; kind: string; metrics: string; metricsVersion: number }[];
+  const curveRows = statements.curvesOfPage.all(params) as { id: number; buildId: number; kind: string; isRecord: number; metrics: string | null; metricsVersion: number }[];
   const version = (statements.version.get(access.projectId) as { v: number } | undefined)?.v ?? 1;
-  const metrics = summarizeMetrics(curveRows.map((r) => ({ ...r, metrics: JSON.parse(r.metrics) as Record<string, number | null> })), version);
+  const metrics = summarizeMetrics(curveRows.map((r) => ({ ...r, isRecord: r.isRecord === 1, metrics: r.metrics == null ? null : (JSON.parse(r.metrics) as Record<string, number | null>) })), version);
   return rows.map((r) => {
     const { parentCode, labName, operatorName, ...rest } = r;
     const b = { ...rest, factorValues: JSON.parse(r.factorValues), testConditions: JSON.parse(r.testConditions), responseValues: JSON.parse(r.responseValues) } as BuildRow;

@@ -1,5 +1,6 @@
 // Durability comparison of a project's builds: every durability / hold curve with its rate, 95 %
 // interval, hours run, break-in and held conditions, read from the stored summaries (no points).
+// Every log is listed; isRecord marks the one of each kind that stands for its build.
 import { Router } from 'express';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { AppContext } from '../context';
@@ -30,7 +31,7 @@ export function durabilityComparison(ctx: AppContext, access: ProjectAccess): Du
   if (buildRows.length === 0) return [];
   const byId = new Map(buildRows.map((b) => [b.id, b]));
   const rows = ctx.db
-    .select({ id: curves.id, buildId: curves.buildId, kind: curves.kind, label: curves.label, metrics: curves.metrics, metricNotes: curves.metricNotes, summary: curves.summary })
+    .select({ id: curves.id, buildId: curves.buildId, kind: curves.kind, label: curves.label, metrics: curves.metrics, metricNotes: curves.metricNotes, summary: curves.summary, isRecord: curves.isRecord })
     .from(curves)
     .where(and(inArray(curves.buildId, [...byId.keys()]), inArray(curves.kind, ['durability', 'hold'])))
     .orderBy(asc(curves.buildId), asc(curves.id))
@@ -60,6 +61,7 @@ export function durabilityComparison(ctx: AppContext, access: ProjectAccess): Du
       currentDensity: num(s.currentDensity),
       temperatureC: num(s.temperatureC) ?? num(b.testConditions?.temperatureC),
       note: c.metricNotes?.degradationRate ?? null,
+      isRecord: c.isRecord,
     };
   });
 }

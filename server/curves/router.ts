@@ -141,12 +141,13 @@ export function curvesRouter(ctx: AppContext): Router {
     res.json({ curve });
   });
 
-  router.delete('/curves/:id', (req, res) => {
+  router.delete('/curves/:id', async (req, res) => {
     requireUser(req.user);
     const row = loadCurve(ctx, idParam(req.params.id));
     const { access } = accessBuild(ctx, req.user, row.buildId, 'deleteBuild');
-    deleteCurve(ctx, access, row);
-    res.json({ ok: true });
+    // record: null, or which curve took over as the curve of record (and whether review restarted)
+    const record = await deleteCurve(ctx, access, row);
+    res.json({ ok: true, record });
   });
 
   router.get('/files/:id/raw', (req, res) => {

@@ -17,6 +17,7 @@ import type { ProjectAccess } from '../auth/access';
 import type { ProgressReporter } from '../uploads/progress';
 import type { UploadFields } from '../../shared/api-types';
 import { notifyAfterUpload } from '../review/notify';
+import { deleteCurveKeepingRecord, recordOf } from './record';
 
 /** Give the event loop a turn between the long synchronous steps of a big upload. */
 const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
@@ -246,9 +247,12 @@ export async function ingestUpload(
         if (options.saveProfileAs) {
           tx.insert(importProfiles).values({ labId: build.labId, projectId: access.projectId, name: options.saveProfileAs, mapping: mappingToProfile(mapping!, table), kind, createdBy: access.user.id }).run();
         }
+        // the first curve of its kind becomes the record; a later one waits for someone to choose it
+        const isRecord = recordOf(tx, build.id, kind) === null;
         const row = tx
           .insert(curves)
           .values({
+            isRecord,
             buildId: build.id,
             fileId: file.id,
             kind,
@@ -272,9 +276,11 @@ export async function ingestUpload(
         }
         return row;
       });
-      audit(db, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: curve.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length } });
-      await notifyAfterUpload(ctx, access, build, upload.originalName);
-      return { curve: curveView(curve) };
+      audit(db, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: curve.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length, isRecord: curve.isRecord } });
+      await notifyAfterUpload(ctx, access, build, upload.originalName, { kind, isRecord: curve.isRecord });
+      // the build's curve of record of this kind, to set the new curve's metrics beside it
+      const record = curve.isRecord ? curve : db.select(CURVE_COLUMNS_WITHOUT_POINTS).from(curves).where(and(eq(curves.buildId, build.id), eq(curves.kind, kind), eq(curves.isRecord, true))).get();
+      return { curve: curveView(curve), recordCurve: record ? curveView(record) : null };
     } catch (error) {
       if (!existed) fs.rmSync(stored, { force: true });
       throw error;
@@ -321,6 +327,7 @@ export function curveView(row: Omit<CurveRow, 'points'> & { points?: unknown }) 
     metricsVersion: row.metricsVersion,
     options: row.options,
     createdAt: row.createdAt,
+    isRecord: row.isRecord,
   };
 }
 
@@ -328,6 +335,7 @@ const CURVE_COLUMNS_WITHOUT_POINTS = {
   id: curves.id, buildId: curves.buildId, fileId: curves.fileId, kind: curves.kind, label: curves.label, mapping: curves.mapping,
   conditions: curves.conditions, pointCount: curves.pointCount, metrics: curves.metrics, metricNotes: curves.metricNotes,
   method: curves.method, summary: curves.summary, metricsVersion: curves.metricsVersion, options: curves.options, createdAt: curves.createdAt, createdBy: curves.createdBy,
+  isRecord: curves.isRecord,
 };
 
 export function curvesForBuild(ctx: AppContext, buildId: number) {
@@ -421,7 +429,7 @@ export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: 
   return curveView(after);
 }
 
+/** Delete a curve; a deleted record hands over to the oldest remaining curve of its kind (said in the answer). */
 export function deleteCurve(ctx: AppContext, access: ProjectAccess, row: CurveRow) {
-  ctx.db.delete(curves).where(eq(curves.id, row.id)).run();
-  audit(ctx.db, { userId: access.user.id, action: 'delete', entity: 'curve', entityId: row.id, projectId: access.projectId, before: curveView(row) });
+  return deleteCurveKeepingRecord(ctx, access, row, curveView(row));
 }

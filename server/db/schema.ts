@@ -187,9 +187,15 @@ export const curves = sqliteTable('curves', {
   summary: text('summary', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
   metricsVersion: integer('metrics_version').notNull(),
   options: text('options', { mode: 'json' }).$type<Record<string, unknown>>(),
+  /** the one curve of its kind that stands for the build in every table, chart and fit */
+  isRecord: integer('is_record', { mode: 'boolean' }).notNull().default(false),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: createdAt(),
-}, (t) => [index('curves_build_idx').on(t.buildId)]);
+}, (t) => [
+  index('curves_build_idx').on(t.buildId),
+  // at most one curve of record per build and kind
+  uniqueIndex('curves_record_idx').on(t.buildId, t.kind).where(sql`${t.isRecord} = 1`),
+]);
 
 export const importProfiles = sqliteTable('import_profiles', {
   id: integer('id').primaryKey({ autoIncrement: true }),

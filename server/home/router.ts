@@ -26,11 +26,11 @@ export function homeRouter(ctx: AppContext): Router {
           .limit(8)
           .all()
       : [];
-    // best build per project: highest V at j_ref among current-version polarization metrics
+    // best build per project: highest V at j_ref among the polarization curves of record at the current version
     const bestOf = db.$client.prepare(
       `select b.id as buildId, b.code, b.change_note as changeNote, json_extract(c.metrics, '$.vAtRef') as vAtRef
        from curves c join builds b on b.id = c.build_id join projects p on p.id = b.project_id
-       where b.project_id = ? and c.kind = 'polarization' and c.metrics_version = p.metrics_version
+       where b.project_id = ? and c.kind = 'polarization' and c.is_record = 1 and c.metrics_version = p.metrics_version
          and b.status <> 'discarded' and json_extract(c.metrics, '$.vAtRef') is not null
        order by vAtRef desc limit 1`,
     );

@@ -7,6 +7,7 @@ import type { AppContext, AuthUser } from '../context';
 import type { ProjectAccess } from '../auth/access';
 import { builds, labs, memberships, pendingNotices, projects, users } from '../db/schema';
 import { escapeHtml } from '../lib/escape-html';
+import type { CurveKind } from '../../shared/curves/types';
 
 type BuildRow = typeof builds.$inferSelect;
 
@@ -66,7 +67,7 @@ function footer(settingsLink: string) {
  * upload moved the build to "tested" (one e-mail per PI either way). `before` is the build as it
  * was before the upload.
  */
-export async function notifyAfterUpload(ctx: AppContext, access: ProjectAccess, before: BuildRow, fileName: string): Promise<void> {
+export async function notifyAfterUpload(ctx: AppContext, access: ProjectAccess, before: BuildRow, fileName: string, curve?: { kind: CurveKind; isRecord: boolean }): Promise<void> {
   try {
     const becameTested = before.status === 'planned' || before.status === 'built';
     const fromPartner = access.role === 'partner';
@@ -76,11 +77,13 @@ export async function notifyAfterUpload(ctx: AppContext, access: ProjectAccess, 
     if (to.length === 0) return;
     const who = `${access.user.name}${fromPartner && c.lab ? ` (${c.lab})` : ''}`;
     const state = becameTested ? ` ${before.code} is now tested and waiting for your review.` : '';
+    // a later curve of a kind is stored beside the record; the build's values do not move
+    const record = curve && !curve.isRecord ? ` It is not the ${curve.kind} curve of record: ${before.code}'s values are unchanged until someone chooses it on the build page.` : '';
     const f = footer(c.settings);
     await sendAll(ctx, to, {
       subject: `${before.code}: new curves uploaded${becameTested ? ' — ready for review' : ''} (${c.project.name})`,
-      text: `${who} uploaded “${fileName}” to build ${before.code} in “${c.project.name}”.${state}\n\nOpen the build: ${c.link}${f.text}`,
-      html: `<p>${escapeHtml(who)} uploaded “${escapeHtml(fileName)}” to build <b>${escapeHtml(before.code)}</b> in “${escapeHtml(c.project.name)}”.${escapeHtml(state)}</p><p><a href="${c.link}">Open ${escapeHtml(before.code)}</a></p>${f.html}`,
+      text: `${who} uploaded “${fileName}” to build ${before.code} in “${c.project.name}”.${state}${record}\n\nOpen the build: ${c.link}${f.text}`,
+      html: `<p>${escapeHtml(who)} uploaded “${escapeHtml(fileName)}” to build <b>${escapeHtml(before.code)}</b> in “${escapeHtml(c.project.name)}”.${escapeHtml(state)}${escapeHtml(record)}</p><p><a href="${c.link}">Open ${escapeHtml(before.code)}</a></p>${f.html}`,
     });
   } catch (error) {
     ctx.logger.warn({ err: error }, 'upload notice failed');
@@ -101,6 +104,31 @@ export async function notifyBuildTested(ctx: AppContext, actor: AuthUser, before
     });
   } catch (error) {
     ctx.logger.warn({ err: error }, 'tested notice failed');
+  }
+}
+
+/**
+ * A reviewed build's curve of record changed (chosen, or the record deleted): the build is back
+ * to "tested" and its values moved, so the PIs hear of it (each notice, daily digest or none,
+ * as each chose). `build` is the build as it was before the change.
+ */
+export async function notifyRecordChanged(ctx: AppContext, actor: AuthUser, build: BuildRow, change: { kind: CurveKind; fromLabel: string | null; toLabel: string | null }): Promise<void> {
+  try {
+    const c = context(ctx, build);
+    const to = recipients(ctx, build.projectId, { roles: ['pi'], exclude: actor.id });
+    if (to.length === 0) return;
+    const who = `${actor.name}${c.lab && actor.labId === build.labId ? ` (${c.lab})` : ''}`;
+    const from = change.fromLabel ? `“${change.fromLabel}”` : 'none';
+    const now = change.toLabel ? `“${change.toLabel}”` : 'none (no curve of this kind is left)';
+    const f = footer(c.settings);
+    const line = `${who} changed the ${change.kind} curve of record of build ${build.code} in “${c.project.name}”: ${from} → ${now}. The build's values changed, so it is back to tested and waiting for your review.`;
+    await sendAll(ctx, to, {
+      subject: `${build.code}: curve of record changed — back to review (${c.project.name})`,
+      text: `${line}\n\nOpen the build: ${c.link}${f.text}`,
+      html: `<p>${escapeHtml(line)}</p><p><a href="${c.link}">Open ${escapeHtml(build.code)}</a></p>${f.html}`,
+    });
+  } catch (error) {
+    ctx.logger.warn({ err: error }, 'record notice failed');
   }
 }
 

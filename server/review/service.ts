@@ -104,8 +104,12 @@ function changedFields(before: unknown, after: unknown): { field: string; from: 
 
 function summarize(entity: string, action: string, after: unknown): string {
   const a = (after && typeof after === 'object' ? after : {}) as Record<string, unknown>;
-  if (entity === 'curve' && action === 'upload') return `uploaded ${String(a.kind ?? 'curve')} file “${String(a.file ?? '')}” (${String(a.points ?? '?')} points)`;
+  if (entity === 'curve' && action === 'upload') return `uploaded ${String(a.kind ?? 'curve')} file “${String(a.file ?? '')}” (${String(a.points ?? '?')} points)${a.isRecord === false ? ', beside the curve of record' : ''}`;
   if (entity === 'curve' && action === 'delete') return 'removed a curve';
+  if (entity === 'curve' && action === 'record') {
+    const label = a.label ? `“${String(a.label)}”` : 'no curve';
+    return a.cause === 'deleted' ? `the ${String(a.kind)} curve of record was removed; now ${label}` : `made ${label} the ${String(a.kind)} curve of record`;
+  }
   if (entity === 'curve') return 'changed curve options';
   if (entity === 'review' && action === 'verdict') return `verdict: ${String(a.verdict)} — “${String(a.body ?? '')}”`;
   if (entity === 'review') return `commented: “${String(a.body ?? '')}”`;

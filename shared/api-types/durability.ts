@@ -26,6 +26,8 @@ export interface DurabilityRow {
   /** cell temperature, °C: the log's median, else the build's test conditions */
   temperatureC: number | null;
   note: string | null;
+  /** the build's curve of record of this kind; comparisons use these rows */
+  isRecord: boolean;
 }
 
 export interface DurabilityComparison {

@@ -107,6 +107,8 @@ export const MATRIX: MatrixRow[] = [
   { method: 'get', path: '/api/curves/{id}', allowed: ALL, send: async (h, c) => c.get(`/api/curves/${await makeCurve(h)}`) },
   { method: 'patch', path: '/api/curves/{id}', allowed: WRITERS, send: async (h, c) => c.patch(`/api/curves/${await makeCurve(h)}`, { label: 'relabelled' }) },
   { method: 'delete', path: '/api/curves/{id}', allowed: PLANNERS, send: async (h, c) => c.delete(`/api/curves/${await makeCurve(h)}`) },
+  // partners choose only for their own lab's builds (C-014 is Kestrel's); viewers never
+  { method: 'put', path: '/api/builds/{id}/record', allowed: WRITERS, send: async (h, c) => c.put(`/api/builds/${ids.build('C-014')}/record`, { kind: 'polarization', curveId: await makeCurve(h) }) },
   { method: 'get', path: '/api/files/{id}/raw', allowed: ALL, send: async (h, c) => { const id = await makeCurve(h); const curve = await h.as.admin.get(`/api/curves/${id}`); return c.get(`/api/files/${curve.body.curve.fileId}/raw`); } },
   { method: 'get', path: '/api/projects/{id}/import-profiles', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/import-profiles`) },
   { method: 'post', path: '/api/projects/{id}/import-profiles', allowed: WRITERS, send: (_h, c) => c.post(`/api/projects/${C()}/import-profiles`, { name: unique('profile '), mapping: { voltage: { header: 'U (V)', unit: 'V' }, current: { header: 'j (A/cm2)', unit: 'A/cm2' } } }) },
@@ -188,6 +190,9 @@ describe('role × route matrix', () => {
     expect(hiddenBuild.status).toBe(404);
     const upload = await h.as.partner.upload(`/api/builds/${ids.build('C-001')}/curves`, { name: 'x.csv', content: CSV });
     expect(upload.status).toBe(403);
+    const c001 = await h.as.admin.get(`/api/builds/${ids.build('C-001')}`);
+    const record = await h.as.partner.put(`/api/builds/${ids.build('C-001')}/record`, { curveId: c001.body.build.recordCurveIds.polarization });
+    expect(record.status).toBe(403);
     const list = await h.as.partner.get('/api/projects');
     expect(list.body.projects.map((p: { id: number }) => p.id)).toEqual([ids.project('C')]);
   });

@@ -30,7 +30,7 @@ export default async function ({ url, browser, signIn }) {
   assert.match(await results.innerText(), /durability curve, 120,000 points/);
 
   await page.reload();
-  await page.getByRole('tab', { name: /durability/ }).click();
+  await page.getByRole('tab', { name: /durability/i }).click();
   await page.getByText(/showing 2,000 of 120,000 points/).waitFor();
   await page.locator('.js-plotly-plot .scatterlayer path.js-line').first().waitFor();
   const panel = await page.getByText(/µV\/h \(95 %/).first().innerText();

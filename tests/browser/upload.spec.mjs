@@ -1,7 +1,7 @@
 // Journey: a researcher uploads two files shaped like different labs' exports on the project's
 // Upload page; the one without units asks for its columns, the researcher confirms them and
-// saves the mapping as an import profile; metrics then show on the build, in the table and in
-// the compare view. A bad file is refused with its line and column named.
+// saves the mapping as an import profile and makes the new curve C-020's curve of record; its
+// metrics then show in the table and in the compare view. A bad file is refused with its line and column named.
 import assert from 'node:assert/strict';
 import fs from 'node:fs';
 import os from 'node:os';
@@ -36,6 +36,13 @@ export default async function ({ url, browser, signIn }) {
   await page.getByLabel('Profile name').fill('bare two-column export');
   await page.getByRole('button', { name: 'Use these columns' }).click();
   await page.waitForFunction(() => document.querySelectorAll('[aria-label="Upload results"] li').length === 3 && [...document.querySelectorAll('[aria-label="Upload results"] li')].filter((li) => li.textContent.includes('✓ stored')).length === 2);
+
+  // C-020 already had a polarization curve: the new one is stored beside it, and becomes the
+  // build's value only when chosen
+  const c020 = page.getByRole('group', { name: 'Result for C-020_bare.csv' });
+  assert.match(await c020.innerText(), /already has a polarization curve of record/);
+  await c020.getByRole('button', { name: 'Make this the curve of record' }).click();
+  await c020.getByRole('status').getByText(/is now the polarization curve of record of C-020/).waitFor();
 
   // the build now shows its metrics at the reference point
   await page.goto(`${url}/projects/1`);

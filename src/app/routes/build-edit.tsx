@@ -1,5 +1,5 @@
 // Edit a build: the same form, filled with what is stored.
-import { useNavigate, useParams } from 'react-router-dom';
+import { Navigate, useNavigate, useParams } from 'react-router-dom';
 import { useFactors, useProject, useResponses } from '@/features/projects/api/projects';
 import { useBuild, useBuilds, useLabs, useUpdateBuild } from '@/features/builds/api/builds';
 import { BuildForm, buildToForm, cleanBuildInput } from '@/features/builds/components/build-form';
@@ -18,6 +18,8 @@ export default function BuildEdit() {
   const labs = useLabs();
   const { data: me } = useMe();
   const update = useUpdateBuild(buildId, projectId);
+  // edit a build under its own project's address, with that project's factors
+  if (build.data && build.data.build.projectId !== projectId) return <Navigate to={`/projects/${build.data.build.projectId}/builds/${buildId}/edit`} replace />;
   if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading || build.isLoading) return <Loading />;
   const error = project.error ?? factors.error ?? responses.error ?? builds.error ?? labs.error ?? build.error;
   if (error) return <ErrorNote error={error} />;

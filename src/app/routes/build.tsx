@@ -1,11 +1,15 @@
 // One build: recipe, test conditions, lineage, curves with metrics, uploads and the review thread.
-import { Link, useParams } from 'react-router-dom';
-import { useState } from 'react';
+import { Link, Navigate, useParams } from 'react-router-dom';
+import { useQueries } from '@tanstack/react-query';
 import type { CurveSummary, Project, FactorDef, BuildDetail } from '@shared/api-types';
 import { useBuild, useUpdateBuild } from '@/features/builds/api/builds';
 import { useFactors, useProject, useResponses } from '@/features/projects/api/projects';
-import { useCurve } from '@/features/curves/api/curves';
+import { curveQueryOptions, useCurve } from '@/features/curves/api/curves';
 import { PolarizationPlot, curveTitle } from '@/features/curves/components/polarization-plot';
+import { CurveShelf } from '@/features/curves/components/curve-shelf';
+import { CurveReadNotes } from '@/features/curves/components/record-parts';
+import { ApiError } from '@/lib/api-client';
+import { formatDateTime } from '@/lib/format';
 import { MetricsList, WhatIfReference } from '@/features/curves/components/metrics-panel';
 import { DurabilityPlot } from '@/features/curves/components/durability-plot';
 import { DurabilityControls } from '@/features/durability/components/durability-controls';
@@ -104,22 +108,34 @@ function Lineage({ detail, projectId }: { detail: BuildDetail; projectId: number
   );
 }
 
-function CurveView({ curve, project, detail }: { curve: CurveSummary; project: Project; detail: BuildDetail }) {
+/** A curve's name in a plot legend: its label, whether it is the record, and when it was uploaded. */
+function seriesName(c: CurveSummary) {
+  return `${curveTitle(c)}${c.isRecord ? ' (record)' : ''} · ${formatDateTime(c.createdAt)}`;
+}
+
+function CurveView({ curve, overlays, project, detail }: { curve: CurveSummary; overlays: CurveSummary[]; project: Project; detail: BuildDetail }) {
   const { data, isLoading, error } = useCurve(curve.id);
-  if (curve.kind !== 'polarization') return <DurabilityView curve={curve} />;
+  const others = useQueries({ queries: (curve.kind === 'polarization' ? overlays : []).map((o) => curveQueryOptions(o.id)) });
+  if (curve.kind !== 'polarization') return <DurabilityView curve={curve} overlays={overlays} />;
   if (isLoading) return <Loading label="Loading points…" />;
   if (error || !data) return <ErrorNote error={error} />;
   const stale = curve.metricsVersion !== project.metricsVersion;
+  const series = [
+    { name: overlays.length ? seriesName(curve) : detail.build.code, points: data.points },
+    ...others.flatMap((o, i) => (o.data ? [{ name: seriesName(overlays[i]!), points: o.data.points }] : [])),
+  ];
   return (
     <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-      <PolarizationPlot
-        series={[{ name: detail.build.code, points: data.points }]}
-        settings={project.settings}
-        conditions={detail.build.testConditions}
-        title={`${detail.build.code} · ${curveTitle(curve)}`}
-        fileName={`${detail.build.code}-polarization`}
-      />
-      <div className="space-y-3">
+      <div className="min-w-0">
+        <PolarizationPlot
+          series={series}
+          settings={project.settings}
+          conditions={detail.build.testConditions}
+          title={`${detail.build.code} · ${curveTitle(curve)}`}
+          fileName={`${detail.build.code}-polarization`}
+        />
+      </div>
+      <div className="min-w-0 space-y-3">
         {stale && <p className="text-xs text-amber-700">These metrics were computed for an earlier reference point and are being recomputed.</p>}
         <MetricsList result={curve} settings={project.settings} />
         <p className="text-[11px] text-ink-500">
@@ -127,19 +143,34 @@ function CurveView({ curve, project, detail }: { curve: CurveSummary; project: P
           {curve.summary.hysteresisMv != null ? `, hysteresis at j_ref ${formatNumber(Number(curve.summary.hysteresisMv), 1)} mV` : ''} · mapping: {String(curve.summary.mappingSource ?? 'detected')}
           {curve.fileId && <> · <a className="text-copper-700 underline" href={`/api/files/${curve.fileId}/raw`}>raw file</a></>}
         </p>
+        <CurveReadNotes curve={curve} />
         <WhatIfReference curve={curve} points={data.points} settings={project.settings} loading={{ loadingMgCm2: detail.build.loadingMgCm2, metalLoadingMgCm2: detail.build.metalLoadingMgCm2 }} />
       </div>
     </div>
   );
 }
 
-function DurabilityView({ curve }: { curve: CurveSummary }) {
+function DurabilityView({ curve, overlays }: { curve: CurveSummary; overlays: CurveSummary[] }) {
   // the build is already in the query cache; its permissions say whether the options can be edited
   const build = useBuild(curve.buildId);
   return (
     <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-      <DurabilityPlot curve={curve} title={curveTitle(curve)} />
-      <DurabilityControls curve={curve} buildId={curve.buildId} canEdit={Boolean(build.data?.permissions.upload)} />
+      <div className="min-w-0"><DurabilityPlot curve={curve} title={curveTitle(curve)} overlays={overlays} /></div>
+      <div className="min-w-0 space-y-3">
+        <CurveReadNotes curve={curve} />
+        <DurabilityControls curve={curve} buildId={curve.buildId} canEdit={Boolean(build.data?.permissions.upload)} />
+      </div>
+    </div>
+  );
+}
+
+/** No build at this address for this person: it does not exist or is in a project they are not in. */
+function BuildNotFound({ buildId }: { buildId: number }) {
+  return (
+    <div className="max-w-lg">
+      <h1 className="text-lg font-semibold text-ink-950">Build not found</h1>
+      <p className="mt-2 text-sm text-ink-500">There is no build {buildId} that you can open: it does not exist, or it belongs to a project you are not a member of.</p>
+      <Link to="/" className="mt-4 inline-block text-sm font-medium text-copper-700 underline">Back to home</Link>
     </div>
   );
 }
@@ -153,14 +184,15 @@ export default function BuildPage() {
   const responses = useResponses(projectId);
   const update = useUpdateBuild(buildId, projectId);
   const batch = useUploadBatch(projectId);
-  const [active, setActive] = useState<number | null>(null);
+  // a build opened under another project's address moves to its own project's address
+  if (detail.data && detail.data.build.projectId !== projectId) return <Navigate to={`/projects/${detail.data.build.projectId}/builds/${buildId}`} replace />;
+  if (detail.error instanceof ApiError && detail.error.status === 404) return <BuildNotFound buildId={buildId} />;
   if (project.isLoading || detail.isLoading || factors.isLoading || responses.isLoading) return <Loading />;
   const error = project.error ?? detail.error ?? factors.error ?? responses.error;
   if (error || !detail.data || !project.data) return <ErrorNote error={error} />;
   const d = detail.data;
   const b = d.build;
   const curves = d.curves;
-  const shown = curves.find((c) => c.id === active) ?? curves[0];
 
   const addFiles = (files: File[]) => {
     const rows = files.map((file, i) => ({ key: `${Date.now()}-${i}-${file.name}`, file, buildId, state: 'waiting' as const, progress: 0 }));
@@ -201,27 +233,23 @@ export default function BuildPage() {
       {b.notes && (
         <Panel title="Notes" className="mt-4"><p className="whitespace-pre-wrap text-sm text-ink-800">{b.notes}</p></Panel>
       )}
-      <Panel
-        title="Curves and metrics"
-        className="mt-4"
-        actions={curves.length > 1 ? (
-          <div className="flex gap-1" role="tablist" aria-label="Curves">
-            {curves.map((c) => (
-              <button key={c.id} role="tab" aria-selected={shown?.id === c.id} onClick={() => setActive(c.id)} className={`rounded px-2 py-0.5 text-xs ${shown?.id === c.id ? 'bg-ink-800 text-white' : 'bg-ink-100 text-ink-700 hover:bg-ink-300/40'}`}>
-                {c.kind} · {c.label.slice(0, 24)}
-              </button>
-            ))}
-          </div>
-        ) : undefined}
-      >
-        {shown ? <CurveView key={shown.id} curve={shown} project={project.data} detail={d} /> : (
-          <EmptyState title="No curves yet">{d.permissions.upload ? 'Upload a polarization curve to see metrics.' : 'When the build’s curves are uploaded, its polarization plot and metrics show here.'}</EmptyState>
-        )}
+      <Panel title="Curves and metrics" className="mt-4">
+        <CurveShelf
+          curves={curves}
+          build={{ id: b.id, code: b.code, status: b.status }}
+          projectId={projectId}
+          canChoose={d.permissions.upload}
+          renderCurve={(shown, overlays) => <CurveView key={shown.id} curve={shown} overlays={overlays} project={project.data} detail={d} />}
+          empty={<EmptyState title="No curves yet">{d.permissions.upload ? 'Upload a polarization curve to see metrics.' : 'When the build’s curves are uploaded, its polarization plot and metrics show here.'}</EmptyState>}
+        />
         {d.permissions.upload && (
           <div className="mt-4">
             <DropZone onFiles={addFiles} />
             <UploadRows
               rows={batch.rows}
+              projectId={projectId}
+              settings={project.data.settings}
+              buildCodeOf={() => b.code}
               onConfirm={(row, mapping, opts) => batch.send(row, { mapping, kind: opts.kind, saveProfileAs: opts.saveProfileAs, areaCm2: opts.areaCm2, sheet: opts.sheet })}
               onSkip={(row) => batch.patch(row.key, { state: 'error', message: 'Skipped: nothing was stored.' })}
             />

@@ -19,7 +19,8 @@ export default function ComparePage() {
   const builds = useBuilds(projectId);
   const ids = (params.get('builds') ?? '').split(',').map(Number).filter((n) => n > 0);
   const details = useQueries({ queries: ids.map((id) => buildQueryOptions(id)) });
-  const curveIds = details.map((d) => d.data?.curves.find((c) => c.kind === 'polarization')?.id).filter((x): x is number => x != null);
+  // each build's polarization curve of record: the curve its values come from
+  const curveIds = details.map((d) => (d.data?.curves.find((c) => c.kind === 'polarization' && c.isRecord) ?? d.data?.curves.find((c) => c.kind === 'polarization'))?.id).filter((x): x is number => x != null);
   const curves = useQueries({ queries: curveIds.map((id) => curveQueryOptions(id)) });
 
   const series: PlotSeries[] = useMemo(() => curves.flatMap((c) => {

@@ -1,7 +1,7 @@
 // Durability comparison of a project's builds: rate ± 95 % interval against the typical band,
 // hours run, break-in and held conditions, one row per durability or hold log.
 import { Link, useParams } from 'react-router-dom';
-import { useRef } from 'react';
+import { useRef, useState } from 'react';
 import { useProject } from '@/features/projects/api/projects';
 import { useDurability, type DurabilityRow } from '@/features/durability/api/durability';
 import { bandWord } from '@/features/durability/components/durability-controls';
@@ -9,6 +9,7 @@ import { LazyPlot, OKABE_ITO, exportPlot } from '@/components/plot/lazy-plot';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
 import { formatNumber } from '@/lib/format';
+import { RecordMark } from '@/features/curves/components/record-parts';
 
 const fmt = (value: number | null, digits: number, unit: string) => (value == null ? '—' : `${formatNumber(value, digits)} ${unit}`);
 
@@ -56,21 +57,31 @@ export default function DurabilityPage() {
   const projectId = Number(useParams().projectId);
   const project = useProject(projectId);
   const durability = useDurability(projectId);
+  const [everyLog, setEveryLog] = useState(false);
   if (project.isLoading || durability.isLoading) return <Loading />;
   const error = project.error ?? durability.error;
   if (error || !project.data || !durability.data) return <ErrorNote error={error} />;
-  const { curves, typicalBand } = durability.data;
+  const { typicalBand } = durability.data;
+  // each build is compared by its log of record; other logs (repeats, earlier runs) on request
+  const others = durability.data.curves.filter((r) => !r.isRecord).length;
+  const curves = everyLog ? durability.data.curves : durability.data.curves.filter((r) => r.isRecord);
   return (
     <div className="max-w-7xl">
       <PageHeader
         eyebrow={<Link to={`/projects/${projectId}`} className="hover:underline">{project.data.name}</Link>}
         title="Durability"
-        subtitle="Degradation rate of each build’s constant-current log after break-in, with its 95 % interval; open-circuit holds listed apart."
+        subtitle="Degradation rate of each build’s constant-current log of record after break-in, with its 95 % interval; open-circuit holds listed apart."
       />
       {curves.length === 0 ? (
         <EmptyState title="No durability logs yet">Upload a long constant-current log to a build (kind “durability”) to compare builds here.</EmptyState>
       ) : (
         <>
+          {others > 0 && (
+            <label className="mb-3 inline-flex items-center gap-2 text-sm text-ink-700">
+              <input type="checkbox" checked={everyLog} onChange={(e) => setEveryLog(e.target.checked)} />
+              Also show the {others} log{others === 1 ? '' : 's'} that {others === 1 ? 'is' : 'are'} not a build’s curve of record
+            </label>
+          )}
           <Panel title="Rate against the typical band">
             <WhiskerChart rows={curves} band={typicalBand} title={`${project.data.name} · durability`} />
           </Panel>
@@ -87,7 +98,7 @@ export default function DurabilityPage() {
                 {curves.map((r) => (
                   <tr key={r.curveId} className="border-b border-line/60">
                     <td className="px-3 py-1.5"><Link className="font-medium text-copper-700 hover:underline" to={`/projects/${projectId}/builds/${r.buildId}`}>{r.code}</Link>{r.labName && <div className="text-[11px] text-ink-500">{r.labName}</div>}</td>
-                    <td className="px-3 py-1.5 text-xs">{r.kind === 'hold' ? 'open-circuit hold · ' : ''}{r.label}</td>
+                    <td className="px-3 py-1.5 text-xs">{r.kind === 'hold' ? 'open-circuit hold · ' : ''}{r.label}{everyLog && r.isRecord && <RecordMark className="ml-1.5" />}</td>
                     <td className="num whitespace-nowrap px-3 py-1.5 text-right">{r.degradationRate == null ? '—' : formatNumber(r.degradationRate, 1)}</td>
                     <td className="num whitespace-nowrap px-3 py-1.5 text-right text-xs">{r.low == null || r.high == null ? '—' : `${formatNumber(r.low, 1)} – ${formatNumber(r.high, 1)}`}</td>
                     <td className="px-3 py-1.5 text-xs">{r.kind === 'hold' ? 'hold (not compared)' : bandWord(r.degradationRate) || (r.note ?? '—')}</td>

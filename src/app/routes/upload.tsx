@@ -34,6 +34,9 @@ export default function UploadPage() {
         <DropZone onFiles={addFiles} />
         <UploadRows
           rows={batch.rows}
+          projectId={projectId}
+          settings={project.data!.settings}
+          buildCodeOf={(id) => builds.data!.find((b) => b.id === id)?.code ?? `build ${id}`}
           buildChoices={choices}
           onChooseBuild={(row, id) => batch.patch(row.key, { buildId: id })}
           onConfirm={(row, mapping, opts) => batch.send(row, { mapping, kind: opts.kind, saveProfileAs: opts.saveProfileAs, areaCm2: opts.areaCm2, sheet: opts.sheet })}

@@ -1,7 +1,7 @@
 // Curves: points of one curve, uploads (with progress), previews, profiles, curve options.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api, uploadWithProgress } from '@/lib/api-client';
-import type { CurvePoints, CurveSummary, UploadFields, UploadPreview, UploadProgress } from '@shared/api-types';
+import type { Build, CurvePoints, CurveSummary, RecordChange, RecordChoice, UploadFields, UploadPreview, UploadProgress } from '@shared/api-types';
 import type { CurveKind } from '@shared/curves/types';
 
 export const curveQueryOptions = (curveId: number, range?: { fromHours?: number; toHours?: number; maxPoints?: number }) =>
@@ -36,8 +36,15 @@ function formFor(file: File, fields: UploadFields) {
   return form;
 }
 
+/** 201 answer of an upload: the stored curve and the build's curve of record of the same kind. */
+export interface UploadAnswer {
+  curve: CurveSummary;
+  /** the record of that kind: the new curve itself when it is the first of its kind */
+  recordCurve: CurveSummary | null;
+}
+
 export function uploadCurve(buildId: number, file: File, fields: UploadFields, onProgress: (f: number) => void) {
-  return uploadWithProgress<{ curve: CurveSummary }>(`/builds/${buildId}/curves`, formFor(file, fields), onProgress);
+  return uploadWithProgress<UploadAnswer>(`/builds/${buildId}/curves`, formFor(file, fields), onProgress);
 }
 
 export function previewCurve(buildId: number, file: File, fields: UploadFields) {
@@ -46,11 +53,26 @@ export function previewCurve(buildId: number, file: File, fields: UploadFields) 
 
 export function useInvalidateAfterUpload(projectId: number) {
   const client = useQueryClient();
-  return (buildId: number) => {
-    client.invalidateQueries({ queryKey: ['build', buildId] });
-    client.invalidateQueries({ queryKey: ['builds', projectId] });
-    client.invalidateQueries({ queryKey: ['home'] });
-  };
+  // the first curve of a kind becomes the record, so any page reading the build's values may move
+  return (buildId: number) => invalidateBuildValues(client, buildId, projectId);
+}
+
+/** Everything that reads a build's values: refetched after its curve of record changes. */
+function invalidateBuildValues(client: ReturnType<typeof useQueryClient>, buildId: number, projectId: number) {
+  client.invalidateQueries({ queryKey: ['build', buildId] });
+  client.invalidateQueries({ queryKey: ['build-audit', buildId] });
+  client.invalidateQueries({ queryKey: ['builds', projectId] });
+  for (const key of ['home', 'gains', 'lineage', 'surface', 'durability']) client.invalidateQueries({ queryKey: [key] });
+}
+
+/** Choose a build's curve of record of one kind (PUT /api/builds/:id/record). */
+export function useChooseRecord(projectId: number) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: ({ buildId, ...body }: RecordChoice & { buildId: number }) =>
+      api<{ record: RecordChange; build: Build; curves: CurveSummary[] }>(`/builds/${buildId}/record`, { method: 'PUT', body }),
+    onSuccess: (_answer, input) => invalidateBuildValues(client, input.buildId, projectId),
+  });
 }
 
 export function useUpdateCurve(buildId: number) {

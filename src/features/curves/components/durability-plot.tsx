@@ -1,17 +1,23 @@
 // Durability log: voltage against time, downsampled by the server for the browser; zooming
-// fetches finer detail for the visible window. The fit line and break-in period are drawn.
+// fetches finer detail for the visible window. The fit line and break-in period are drawn;
+// other logs of the build can be overlaid on the same time axis.
 import { useRef, useState } from 'react';
+import { useQueries } from '@tanstack/react-query';
 import type { CurveSummary } from '@shared/api-types';
-import { useCurve } from '../api/curves';
+import { curveQueryOptions, useCurve } from '../api/curves';
 import { LazyPlot, exportPlot } from '@/components/plot/lazy-plot';
 import { Button } from '@/components/ui/button';
 import { Loading, ErrorNote } from '@/components/ui/panel';
 import { formatNumber } from '@/lib/format';
 
-export function DurabilityPlot({ curve, title }: { curve: CurveSummary; title: string }) {
+// overlay colours: Okabe–Ito entries not already used by the log, its fit line and interruptions
+const OVERLAY_COLOURS = ['#009E73', '#CC79A7', '#56B4E9', '#000000'];
+
+export function DurabilityPlot({ curve, title, overlays = [] }: { curve: CurveSummary; title: string; overlays?: CurveSummary[] }) {
   const [range, setRange] = useState<{ fromHours?: number; toHours?: number }>({});
   const box = useRef<HTMLDivElement>(null);
   const { data, isLoading, error, isFetching } = useCurve(curve.id, { ...range, maxPoints: 2000 });
+  const others = useQueries({ queries: overlays.map((o) => curveQueryOptions(o.id, { ...range, maxPoints: 2000 })) });
   if (isLoading) return <Loading label="Loading the log…" />;
   if (error || !data) return <ErrorNote error={error} />;
   const t = data.points.tHours ?? [];
@@ -31,7 +37,11 @@ export function DurabilityPlot({ curve, title }: { curve: CurveSummary; title: s
   }
   if (breakIn > 0) annotations.push({ x: breakIn / 2, y: 0, xref: 'x', yref: 'paper', text: 'break-in', showarrow: false, yanchor: 'bottom', font: { size: 10, color: '#56668c' } });
   // SVG lines, not WebGL: the server sends at most maxPoints, and WebGL is missing on many lab PCs.
-  const traces: Plotly.Data[] = [{ x: t, y: v, type: 'scatter', mode: 'lines', name: 'cell voltage', line: { color: '#0072B2', width: 1 }, hovertemplate: '%{x:.1f} h<br>%{y:.4f} V<extra></extra>' }];
+  const traces: Plotly.Data[] = [{ x: t, y: v, type: 'scatter', mode: 'lines', name: overlays.length ? `${curve.label || 'cell voltage'}` : 'cell voltage', line: { color: '#0072B2', width: 1 }, hovertemplate: '%{x:.1f} h<br>%{y:.4f} V<extra></extra>' }];
+  others.forEach((o, i) => {
+    if (!o.data) return;
+    traces.push({ x: o.data.points.tHours ?? [], y: o.data.points.v, type: 'scatter', mode: 'lines', name: overlays[i]!.label || `log ${overlays[i]!.id}`, line: { color: OVERLAY_COLOURS[i % OVERLAY_COLOURS.length], width: 1 }, hovertemplate: '%{x:.1f} h<br>%{y:.4f} V<extra>%{fullData.name}</extra>' });
+  });
   const segments = (() => { try { return JSON.parse(String(curve.summary.segments ?? '[]')) as { fromHours: number; toHours: number; startV: number; endV: number }[]; } catch { return []; } })();
   segments.forEach((g, i) => {
     traces.push({ x: [g.fromHours, g.toHours], y: [g.startV, g.endV], type: 'scatter', mode: 'lines', name: 'fit after break-in', showlegend: i === 0, line: { color: '#D55E00', width: 2, dash: 'dash' } });

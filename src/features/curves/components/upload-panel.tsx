@@ -1,12 +1,13 @@
 // Upload one or more files to a build: progress per file, a column preview to confirm when the
 // file's columns or units are ambiguous, optional saving of the mapping as an import profile.
 import { useState, useCallback } from 'react';
-import type { UploadPreview } from '@shared/api-types';
+import type { ProjectSettings, UploadPreview } from '@shared/api-types';
 import type { ColumnMapping, CurveKind } from '@shared/curves/types';
 import { ApiError } from '@/lib/api-client';
 import { fetchUploadProgress, newUploadId, uploadCurve, useInvalidateAfterUpload, useProfiles, type UploadProgress } from '../api/curves';
 import { Button } from '@/components/ui/button';
 import { Input, Select } from '@/components/ui/field';
+import { UploadResult, type StoredUpload } from './upload-result';
 
 export interface UploadRow {
   key: string;
@@ -20,6 +21,8 @@ export interface UploadRow {
   preview?: UploadPreview;
   curveId?: number;
   kind?: CurveKind;
+  /** the stored curve and the build's record of its kind, once stored */
+  stored?: StoredUpload;
 }
 
 const QUANTITIES = [
@@ -123,7 +126,7 @@ export function useUploadBatch(projectId: number) {
         patch(row.key, { progress: f });
         if (f >= 1 && !polling && row.file.size > 256 * 1024) { polling = true; void poll(); }
       }).finally(() => { finished = true; });
-      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, message: `${result.curve.kind} curve, ${result.curve.pointCount.toLocaleString()} points${result.curve.summary.sheet ? `, sheet “${String(result.curve.summary.sheet)}”` : ''}` });
+      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, stored: { curve: result.curve, recordCurve: result.recordCurve ?? null }, message: result.curve.summary.sheet ? `Read from sheet “${String(result.curve.summary.sheet)}”.` : undefined });
       invalidate(row.buildId);
     } catch (error) {
       if (error instanceof ApiError && error.code === 'mapping-needed') {
@@ -140,8 +143,13 @@ export function useUploadBatch(projectId: number) {
 
 const PHASE_LABEL: Record<UploadProgress['phase'], string> = { receiving: 'server receiving…', parsing: 'parsing', measuring: 'measuring…', storing: 'storing…', done: 'finishing…', error: 'refused' };
 
-export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuild }: {
+export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuild, projectId, settings, buildCodeOf }: {
   rows: UploadRow[];
+  projectId: number;
+  /** the project's reference point, printed with the stored curve's metrics */
+  settings: ProjectSettings | null;
+  /** the build code shown in each stored file's result */
+  buildCodeOf: (buildId: number) => string;
   onConfirm: (row: UploadRow, mapping: ColumnMapping, opts: { kind: CurveKind; saveProfileAs?: string; areaCm2?: number; sheet?: string }) => void;
   onSkip: (row: UploadRow) => void;
   buildChoices?: { id: number; code: string }[];
@@ -152,15 +160,15 @@ export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuil
     <ul className="mt-3 divide-y divide-line rounded-md border border-line bg-white" aria-label="Upload results">
       {rows.map((row) => (
         <li key={row.key} className="px-3 py-2 text-sm">
-          <div className="flex items-center gap-3">
-            <span className="min-w-0 flex-1 truncate font-medium text-ink-900">{row.file.name}</span>
+          <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+            <span className="min-w-0 flex-1 basis-40 truncate font-medium text-ink-900">{row.file.name}</span>
             {buildChoices && onChooseBuild && (
               <Select aria-label={`Build for ${row.file.name}`} className="w-36 shrink-0" value={row.buildId ?? ''} onChange={(e) => onChooseBuild(row, Number(e.target.value))} disabled={row.state === 'uploading' || row.state === 'processing' || row.state === 'done'}>
                 <option value="">— build —</option>
                 {buildChoices.map((b) => <option key={b.id} value={b.id}>{b.code}</option>)}
               </Select>
             )}
-            <span className="w-40">
+            <span className="w-40 max-w-full">
               {row.state === 'uploading' && (
                 <span className="block h-2 overflow-hidden rounded bg-ink-100" role="progressbar" aria-valuenow={Math.round(row.progress * 100)} aria-valuemin={0} aria-valuemax={100} aria-label={`Uploading ${row.file.name}`}>
                   <span className="block h-full bg-copper-500 transition-all" style={{ width: `${Math.max(4, row.progress * 100)}%` }} />
@@ -181,6 +189,9 @@ export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuil
             </span>
           </div>
           {row.message && <p className={`mt-0.5 text-xs ${row.state === 'error' ? 'text-rust-700' : 'text-ink-500'}`}>{row.message}</p>}
+          {row.state === 'done' && row.stored && row.buildId != null && (
+            <UploadResult stored={row.stored} projectId={projectId} buildCode={buildCodeOf(row.buildId)} settings={settings} />
+          )}
           {row.state === 'confirm' && row.preview && (
             <MappingConfirm preview={row.preview} onConfirm={(m, o) => onConfirm(row, m, o)} onCancel={() => onSkip(row)} />
           )}
