@@ -1,0 +1,33 @@
+"""Expected values for the import-shape fixtures (tests/fixtures/curves/shape-*).
+
+The fixtures are written from the semi-empirical polarization model
+    V(j) = E0 - b*log10(j/j0) - R*j - m*ln(1 - j/jL)
+with the invented parameters of tests/fixtures/curves/model-parameters.ts. This script
+recomputes the model with numpy, independently of the TypeScript code under test, and prints
+the values the tests assert. Run: python3 tests/reference/import-shapes.py
+"""
+import numpy as np
+
+R_GAS = 8.314462618      # J/(mol K), CODATA 2018
+FARADAY = 96485.33212    # C/mol, CODATA 2018
+T = 433.15               # K (160 °C)
+E0, J0, R_OHM, M, JL = 0.95, 1.5e-4, 0.25, 0.05, 1.6
+B = np.log(10) * R_GAS * T / FARADAY  # Tafel slope for alpha*n = 1, V/dec
+
+
+def model(j):
+    j = np.asarray(j, dtype=float)
+    act = np.where(j > J0, B * np.log10(np.maximum(j, J0) / J0), 0.0)
+    return E0 - act - R_OHM * j - M * np.log(1 - j / JL)
+
+
+HFR = 0.25  # Ohm cm2, as the fixtures write it
+print(f"tafel slope b = {B * 1000:.6f} mV/dec")
+for j in (0.0, 0.1, 0.2, 0.6):
+    v = float(model(j))
+    print(f"V({j}) = {v:.6f} V; rounded to 4 decimals {round(v, 4):.4f}; iR-free V + j*HFR = {v + j * HFR:.6f} V")
+# the written fixture values are rounded to 4 decimals (V) before the code reads them
+v02 = round(float(model(0.2)), 4)
+print(f"V(0.2) as written = {v02:.4f} V; iR-free as written = {round(float(model(0.2)) + 0.2 * HFR, 4):.4f} V")
+# a curve written as iR-free voltage only: the measured V is V_iR-free - j*HFR
+print(f"V(0.2) recovered from iR-free column = {round(float(model(0.2)) + 0.2 * HFR, 4) - 0.2 * HFR:.6f} V")
