@@ -1,7 +1,7 @@
 // Routes of curves, gains, review, designs, surface and proposals, documented beside the core ones.
 import { z } from 'zod';
 import type { RouteDoc } from './openapi';
-import { uploadFieldsSchema } from './curves/router';
+import { conditionChoiceSchema, uploadFieldsSchema } from './curves/router';
 import { designRequestSchema, planRunsSchema, proposalsRequestSchema, surfaceRequestSchema } from './doe/router';
 import { gainsQuery } from './gains/router';
 import { lineageQuery } from './lineage/router';
@@ -10,10 +10,11 @@ import { commentSchema, verdictSchema } from './review/router';
 const fileField = z.string().describe('the file (CSV, TSV, TXT or XLSX)');
 
 export const extraRoutes: RouteDoc[] = [
-  { method: 'post', path: '/api/builds/{id}/curves', summary: 'Upload a curve file: 201 {curve} or 422 with the reason', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
+  { method: 'post', path: '/api/builds/{id}/curves', summary: 'Upload a curve file: 201 {curve} (curve.summary.importNotes: what was done on the way in; curve.summary.conditionMismatches: file vs build conditions) or 422 naming file, line and column, with nothing stored', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
   { method: 'post', path: '/api/builds/{id}/curves/preview', summary: 'Detect columns and units of a file without storing it', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
   { method: 'get', path: '/api/curves/{id}', summary: 'Curve points and metrics (long logs downsampled: maxPoints, fromHours, toHours)', tag: 'curves' },
   { method: 'patch', path: '/api/curves/{id}', summary: 'Relabel a curve or set durability options (break-in, windows, loss fraction)', body: z.object({ label: z.string().optional(), breakInHours: z.number().optional(), windows: z.array(z.object({ fromHours: z.number(), toHours: z.number() })).optional(), lossFraction: z.number().optional() }), tag: 'curves' },
+  { method: 'post', path: '/api/curves/{id}/conditions', summary: 'Settle a condition on which the file and the build differ (summary.conditionMismatches): chosen "file" makes the build record the file\'s value, "build" keeps it; an area that changes the conversion of total current re-measures the curve. Audited. Answers {curve, build}', body: conditionChoiceSchema, tag: 'curves' },
   { method: 'delete', path: '/api/curves/{id}', summary: 'Remove a curve (the raw file stays)', tag: 'curves' },
   { method: 'get', path: '/api/files/{id}/raw', summary: 'The uploaded bytes, unchanged', tag: 'curves' },
   { method: 'get', path: '/api/projects/{id}/import-profiles', summary: 'Saved column/unit mappings', tag: 'curves' },

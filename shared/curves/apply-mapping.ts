@@ -256,6 +256,9 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
   let vIrFree: Float64Array | null = null;
   if (irFreeValues !== null && mapping.voltageIrFree !== undefined) {
     vIrFree = convertVoltage(irFreeValues, mapping.voltageIrFree, true);
+    if (mapping.voltage !== undefined) {
+      notes.push(`the file's own iR-free voltage "${table.header[mapping.voltageIrFree.column]}" is kept beside the measured "${table.header[mapping.voltage.column]}"`);
+    }
     const blanks = table.missingCells?.[mapping.voltageIrFree.column];
     if (blanks) notes.push(`iR-free voltage "${table.header[mapping.voltageIrFree.column]}" blank or not a number on ${blanks.count} row${blanks.count === 1 ? '' : 's'} (first line ${blanks.firstLine}): read as missing`);
   }

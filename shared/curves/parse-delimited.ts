@@ -3,18 +3,9 @@
 // (no object per row) so a 1,000,000-row durability log parses in a few seconds.
 import { CurveFileError } from './types';
 import type { ColumnKind, Delimiter, FileConditions, ParsedTable } from './types';
-import { readConditions } from './read-conditions';
+import { mergeConditions, readConditions } from './read-conditions';
 import { parseDuration, parseTimestamp } from '../units/parse-timestamp';
 import { lookUpUnit, recogniseHeaderUnit } from '../units/recognise-header-unit';
-
-// Conditions found below the table fill what the lines above it did not state.
-function mergeConditions(target: FileConditions, extra: FileConditions): void {
-  for (const key of ['areaCm2', 'areaStated', 'temperatureC', 'anodeGas', 'cathodeGas', 'backPressureKPa', 'backPressureStated', 'backPressureBasis'] as const) {
-    if (target[key] === undefined && extra[key] !== undefined) (target as unknown as Record<string, unknown>)[key] = extra[key];
-  }
-  for (const [key, value] of Object.entries(extra.raw)) if (!(key in target.raw)) target.raw[key] = value;
-  if (extra.notes && extra.notes.length > 0) target.notes = [...(target.notes ?? []), ...extra.notes];
-}
 
 export interface DelimitedParserOptions {
   /** refuse files with more data rows than this (CurveFileError `too-many-rows`); default 5,000,000 */

@@ -187,7 +187,7 @@ function readPressure(key: string, value: string): PressureReading | null {
 }
 
 // Below this an unmarked back-pressure cannot be absolute for a cell test: it is gauge.
-const LOWEST_ABSOLUTE_KPA = 80;
+export const LOWEST_ABSOLUTE_KPA = 80;
 
 function looksLikeGas(key: string, value: string): boolean {
   if (/^[+-]?\d/.test(value)) return false;
@@ -302,4 +302,39 @@ function setBackPressure(conditions: FileConditions, pressure: PressureReading, 
   }
   conditions.backPressureKPa = pressure.statedKPa;
   return `back-pressure "${stated.trim()}" does not say gauge or absolute; read as absolute (${formatKPa(pressure.statedKPa)} kPa); if it is gauge, the absolute pressure is ${formatKPa(pressure.statedKPa + STANDARD_ATMOSPHERE_KPA)} kPa`;
+}
+
+/**
+ * Fills the conditions `target` does not state from `extra` (conditions below a table, or on a
+ * workbook's key–value sheet): the first statement of each condition wins. Mutates `target`.
+ * Cost: O(keys).
+ * @example mergeConditions(fromHeader, fromSheet)
+ */
+export function mergeConditions(target: FileConditions, extra: FileConditions): string[] {
+  const taken: string[] = [];
+  const areaTaken = target.areaCm2 === undefined && extra.areaCm2 !== undefined;
+  if (areaTaken) {
+    target.areaCm2 = extra.areaCm2;
+    if (extra.areaStated !== undefined) target.areaStated = extra.areaStated;
+    taken.push('active area');
+  }
+  for (const [key, label] of [['temperatureC', 'cell temperature'], ['anodeGas', 'anode gas'], ['cathodeGas', 'cathode gas']] as const) {
+    if (target[key] === undefined && extra[key] !== undefined) {
+      (target as unknown as Record<string, unknown>)[key] = extra[key];
+      taken.push(label);
+    }
+  }
+  // the back-pressure and how it was stated belong together
+  const pressureTaken = target.backPressureKPa === undefined && extra.backPressureKPa !== undefined;
+  if (pressureTaken) {
+    target.backPressureKPa = extra.backPressureKPa;
+    if (extra.backPressureStated !== undefined) target.backPressureStated = extra.backPressureStated;
+    if (extra.backPressureBasis !== undefined) target.backPressureBasis = extra.backPressureBasis;
+    taken.push('back-pressure');
+  }
+  for (const [key, value] of Object.entries(extra.raw)) if (!(key in target.raw)) target.raw[key] = value;
+  // notes about what was taken (area from dimensions, gauge pressure); a skipped specific area is always worth saying
+  const notes = (extra.notes ?? []).filter((note) => (note.includes('area') ? areaTaken || note.includes('not used') : note.includes('back-pressure') ? pressureTaken : true));
+  if (notes.length > 0) target.notes = [...(target.notes ?? []), ...notes];
+  return taken;
 }
