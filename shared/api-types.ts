@@ -98,6 +98,8 @@ export interface CurvePoints {
   j?: number[];
   v: number[];
   hfr?: number[] | null;
+  /** the file's own iR-free voltage, V (null where missing) */
+  vIrFree?: (number | null)[] | null;
   tHours?: number[] | null;
   temperatureC?: number[] | null;
   downsampled: boolean;

@@ -395,6 +395,7 @@ export function curvePoints(row: CurveRow, options: { maxPoints?: number; fromHo
     j: Array.from(data.j),
     v: Array.from(data.v),
     hfr: data.hfr ? Array.from(data.hfr) : null,
+    vIrFree: data.vIrFree ? Array.from(data.vIrFree) : null,
     tHours: data.tHours ? Array.from(data.tHours) : null,
     temperatureC: data.temperatureC ? Array.from(data.temperatureC) : null,
     downsampled: false,

@@ -221,13 +221,13 @@ export function readConditions(lines: readonly string[], delimiter: string): Fil
     if (!(pair.key in conditions.raw)) conditions.raw[pair.key] = pair.value;
     const key = pair.key.toLowerCase();
     if (key.includes('area') || key === 'ecsa') {
-      if (conditions.areaCm2 !== undefined) continue;
       const area = readArea(pair.key, pair.value);
       if (area === null) continue;
       if ('skip' in area) {
         notes.push(area.skip);
         continue;
       }
+      if (conditions.areaCm2 !== undefined) continue;
       conditions.areaCm2 = area.cm2;
       if (area.stated !== null) conditions.areaStated = area.stated;
       if (area.note !== null) notes.push(area.note);

@@ -1,7 +1,7 @@
 """Expected values for the import-shape fixtures (tests/fixtures/curves/shape-*).
 
 The fixtures are written from the semi-empirical polarization model
-    V(j) = E0 - b*log10(j/j0) - R*j - m*ln(1 - j/jL)
+    V(j) = E0 - b*log10(j/j0) - R*j - eta_mt,   eta_mt = -m*ln(1 - j/jL) >= 0
 with the invented parameters of tests/fixtures/curves/model-parameters.ts. This script
 recomputes the model with numpy, independently of the TypeScript code under test, and prints
 the values the tests assert. Run: python3 tests/reference/import-shapes.py
@@ -18,12 +18,13 @@ B = np.log(10) * R_GAS * T / FARADAY  # Tafel slope for alpha*n = 1, V/dec
 def model(j):
     j = np.asarray(j, dtype=float)
     act = np.where(j > J0, B * np.log10(np.maximum(j, J0) / J0), 0.0)
-    return E0 - act - R_OHM * j - M * np.log(1 - j / JL)
+    eta_mt = -M * np.log(1 - j / JL)  # mass-transport loss, positive, subtracted
+    return E0 - act - R_OHM * j - eta_mt
 
 
 HFR = 0.25  # Ohm cm2, as the fixtures write it
 print(f"tafel slope b = {B * 1000:.6f} mV/dec")
-for j in (0.0, 0.1, 0.2, 0.6):
+for j in (0.0, 0.1, 0.2, 0.6, 1.0, 1.4):
     v = float(model(j))
     print(f"V({j}) = {v:.6f} V; rounded to 4 decimals {round(v, 4):.4f}; iR-free V + j*HFR = {v + j * HFR:.6f} V")
 # the written fixture values are rounded to 4 decimals (V) before the code reads them
