@@ -221,7 +221,7 @@ export async function ingestUpload(
       data = applyMapping(table, mapping, { kind, areaCm2, reuseColumns: true });
       checkEnoughData(data);
     } catch (error) {
-      throw asUnprocessable(error, upload.originalName);
+      throw asUnprocessable(placeWholeFileError(error, table, mapping), upload.originalName);
     }
     const notes = importNotes(table, data.notes);
     if (mappingSource.startsWith('profile')) notes.unshift(`columns and units from the import ${mappingSource.replace(/^profile /, 'profile "')}"`);
@@ -236,7 +236,7 @@ export async function ingestUpload(
       if (kind === 'durability') checkHoursAfterBreakIn(data, result.metrics.breakInHours ?? null);
     } catch (error) {
       if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
-      throw asUnprocessable(error, upload.originalName);
+      throw asUnprocessable(placeWholeFileError(error, table, mapping), upload.originalName);
     }
     if (kind === 'polarization') refuseEmptyMetrics(result, data, upload.originalName);
     options.progress?.phase('storing', null);
@@ -300,11 +300,25 @@ function asUnprocessable(error: unknown, fileName: string): unknown {
   if (error instanceof CurveFileError) {
     const where = [error.line != null ? `line ${error.line}` : null, error.column != null ? `column ${typeof error.column === 'number' ? error.column + 1 : `"${error.column}"`}` : null].filter(Boolean).join(', ');
     const prefix = where ? `${fileName}, ${where}: ` : `${fileName}: `;
-    const message = error.message.startsWith('line ') || error.message.includes(fileName) ? `${fileName}: ${error.message}` : prefix + error.message;
+    const message = /^lines? /.test(error.message) || error.message.includes(fileName) ? `${fileName}: ${error.message}` : prefix + error.message;
     const stored = /nothing was stored/.test(message) ? '' : /[.!?]$/.test(message) ? ' Nothing was stored.' : '; nothing was stored.';
     return new AppError(422, error.code, message + stored, { file: fileName, line: error.line ?? null, column: error.column ?? null });
   }
   return error;
+}
+
+/**
+ * A refusal about the whole curve (too few steps, too short a log) names the lines of the data
+ * and the column that falls short: the current for a polarization curve, the time for a log.
+ */
+function placeWholeFileError(error: unknown, table: ParsedTable, mapping: ColumnMapping): unknown {
+  if (!(error instanceof CurveFileError) || error.line != null || !['too-few-steps', 'too-few-points', 'too-short'].includes(error.code)) return error;
+  const entry = error.code === 'too-few-steps' ? mapping.current : (mapping.time ?? mapping.voltage ?? mapping.voltageIrFree);
+  const column = entry === undefined ? undefined : table.header[entry.column];
+  const first = table.dataLines[0];
+  const last = table.dataLines[table.dataLines.length - 1];
+  const lines = first === last ? `line ${first}` : `lines ${first}–${last}`;
+  return new CurveFileError(error.code, `${lines}${column ? `, column "${column}"` : ''}: ${error.message}`, { line: first, column });
 }
 
 const POLARIZATION_METRICS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'] as const;

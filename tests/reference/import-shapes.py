@@ -32,3 +32,11 @@ v02 = round(float(model(0.2)), 4)
 print(f"V(0.2) as written = {v02:.4f} V; iR-free as written = {round(float(model(0.2)) + 0.2 * HFR, 4):.4f} V")
 # a curve written as iR-free voltage only: the measured V is V_iR-free - j*HFR
 print(f"V(0.2) recovered from iR-free column = {round(float(model(0.2)) + 0.2 * HFR, 4) - 0.2 * HFR:.6f} V")
+
+# A total-current file converted with 25 cm², then re-converted with the build's 20 cm²:
+# every step's j grows by 25/20, so j_ref = 0.2 A/cm² falls between the steps written at
+# 0.15 and 0.2 A/cm² (now 0.1875 and 0.25), linearly interpolated there.
+v015, v020 = round(float(model(0.15)), 4), round(float(model(0.2)), 4)
+j_lo, j_hi = 0.15 * 25 / 20, 0.2 * 25 / 20
+v_ref = v015 + (0.2 - j_lo) / (j_hi - j_lo) * (v020 - v015)
+print(f"re-measured on 20 cm2: V(0.2) = {v_ref:.6f} V (between {v015:.4f} V at {j_lo} and {v020:.4f} V at {j_hi} A/cm2)")
