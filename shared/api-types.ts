@@ -130,4 +130,6 @@ export interface UploadPreview {
   sheets?: string[];
   sheet?: string;
   fileName?: string;
+  /** the active area the build records, cm² (pre-filled where the file gives none) */
+  buildAreaCm2?: number | null;
 }

@@ -47,7 +47,7 @@ function mappingNeeded(table: ParsedTable, detection: ReturnType<typeof detectMa
     422,
     'mapping-needed',
     `${fileName}please confirm the columns: ${detection.reasons.join('; ') || 'the columns could not be recognised'}.`,
-    { preview: previewOf(table), detected: detection.mapping, kind: detection.kind, reasons: detection.reasons, ...extra },
+    { preview: { ...previewOf(table), buildAreaCm2: extra.buildAreaCm2 ?? null }, detected: detection.mapping, kind: detection.kind, reasons: detection.reasons, ...extra },
   );
 }
 

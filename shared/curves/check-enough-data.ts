@@ -43,7 +43,7 @@ export function checkEnoughData(curve: CurveData): void {
       const openCircuit = loaded.length < curve.j.length ? ' besides open circuit' : '';
       throw new CurveFileError(
         'too-few-steps',
-        `a polarization curve needs at least ${MIN_POLARIZATION_STEPS} distinct current steps under load; this file has ${found}${openCircuit}. Upload the whole curve, or choose another kind`,
+        `a polarization curve needs at least ${MIN_POLARIZATION_STEPS} distinct current steps under load; this file has ${found}${openCircuit}. Upload the whole curve, or choose another kind.`,
       );
     }
     return;
@@ -55,7 +55,7 @@ export function checkEnoughData(curve: CurveData): void {
     if (finite < MIN_DURABILITY_POINTS) {
       throw new CurveFileError(
         'too-few-points',
-        `a durability log needs at least ${MIN_DURABILITY_POINTS} readings of voltage against time for a degradation rate; this file has ${finite}. Upload the whole log`,
+        `a durability log needs at least ${MIN_DURABILITY_POINTS} readings of voltage against time for a degradation rate; this file has ${finite}. Upload the whole log.`,
       );
     }
   }
@@ -88,7 +88,7 @@ export function checkHoursAfterBreakIn(curve: CurveData, breakInHours: number | 
     const breakIn = breakInHours != null && breakInHours > 0 ? ` after a break-in of ${breakInHours.toFixed(1)} h` : '';
     throw new CurveFileError(
       'too-short',
-      `a durability log needs at least ${MIN_HOURS_AFTER_BREAK_IN} h and ${MIN_DURABILITY_POINTS} readings after break-in for a degradation rate; this one runs ${hoursRun.toFixed(1)} h, leaving ${hoursAfter.toFixed(1)} h and ${after} readings${breakIn}. Upload the whole log`,
+      `a durability log needs at least ${MIN_HOURS_AFTER_BREAK_IN} h and ${MIN_DURABILITY_POINTS} readings after break-in for a degradation rate; this one runs ${hoursRun.toFixed(1)} h, leaving ${hoursAfter.toFixed(1)} h and ${after} readings${breakIn}. Upload the whole log.`,
     );
   }
 }

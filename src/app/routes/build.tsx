@@ -10,6 +10,7 @@ import { MetricsList, WhatIfReference } from '@/features/curves/components/metri
 import { DurabilityPlot } from '@/features/curves/components/durability-plot';
 import { DurabilityControls } from '@/features/durability/components/durability-controls';
 import { DropZone, UploadRows, useUploadBatch } from '@/features/curves/components/upload-panel';
+import { ImportNotes } from '@/features/curves/components/import-notes';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { Button } from '@/components/ui/button';
@@ -202,6 +203,7 @@ export default function BuildPage() {
         {shown ? <CurveView key={shown.id} curve={shown} project={project.data} detail={d} /> : (
           <EmptyState title="No curves yet">{d.permissions.upload ? 'Upload a polarization curve to see metrics.' : 'When the build’s curves are uploaded, its polarization plot and metrics show here.'}</EmptyState>
         )}
+        {shown && <ImportNotes key={`notes-${shown.id}`} curve={shown} buildId={buildId} canChoose={d.permissions.upload} />}
         {d.permissions.upload && (
           <div className="mt-4">
             <DropZone onFiles={addFiles} />
