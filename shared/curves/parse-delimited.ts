@@ -211,6 +211,9 @@ function isMissingCell(cell: string): boolean {
 
 // Comment lines: "#", "//", "%" or "!" first (after blanks), or ";" in files not separated by ";".
 function isCommentLine(text: string, delimiter: Delimiter | null): boolean {
+  const head = text.charCodeAt(0);
+  // fast path: a line starting with a digit, sign or point is data
+  if ((head >= 48 && head <= 57) || head === 45 || head === 43 || head === 46) return false;
   let start = 0;
   while (start < text.length && (text.charCodeAt(start) === 32 || text.charCodeAt(start) === 9)) start++;
   const first = text.charCodeAt(start);
@@ -639,8 +642,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
 
   // Reads one row into `scratch`; returns the error it would raise instead of throwing it, so
   // the caller can decide whether the row is bad data or the first line after the table.
-  function readDataRow(cells: string[], line: number): CurveFileError | null {
-    const count = meaningfulLength(cells);
+  function readDataRow(cells: string[], line: number, count: number): CurveFileError | null {
     const headerCount = header.length;
     if (count > headerCount) {
       return new CurveFileError(
@@ -753,9 +755,10 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
       return;
     }
     const cells = splitLine(text, delimiter);
-    if (meaningfulLength(cells) === 0) return; // ",,," — an empty spreadsheet row
+    const count = meaningfulLength(cells);
+    if (count === 0) return; // ",,," — an empty spreadsheet row
     if (tail !== null) {
-      if (!tail.anotherTable && meaningfulLength(cells) === header.length && readDataRow(cells, line) === null) {
+      if (!tail.anotherTable && count === header.length && readDataRow(cells, line, count) === null) {
         tailWasInside();
         commitRow(cells, line);
         return;
@@ -763,7 +766,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
       addToTail(text, line, cells);
       return;
     }
-    const problem = readDataRow(cells, line);
+    const problem = readDataRow(cells, line, count);
     if (problem === null) {
       commitRow(cells, line);
       return;
