@@ -36,7 +36,7 @@ function MismatchRow({ curve, mismatch, buildId, canChoose }: { curve: CurveSumm
   const open = canChoose && (chosen === undefined || changing);
   const send = (side: 'file' | 'build') => choose.mutate({ curveId: curve.id, field: mismatch.field, chosen: side }, { onSuccess: () => setChanging(false) });
   return (
-    <li className="py-1.5">
+    <div role="listitem" className="py-1.5">
       <div className="grid gap-x-4 gap-y-0.5 sm:grid-cols-[9rem_minmax(0,20rem)_minmax(0,20rem)]">
         <span className="text-xs font-medium text-ink-900">{mismatch.label}</span>
         <span className="text-xs text-ink-800"><span className="text-ink-500">file: </span><span className="num">{sideText(mismatch, 'file')}</span>{chosen === 'file' && <span className="ml-1 text-moss-700">✓ chosen</span>}</span>
@@ -58,12 +58,13 @@ function MismatchRow({ curve, mismatch, buildId, canChoose }: { curve: CurveSumm
         <p className="mt-0.5 text-[11px] text-amber-700">Not settled yet: the uploader, a researcher or a PI chooses which is right.</p>
       )}
       <ErrorNote error={choose.error} />
-    </li>
+    </div>
   );
 }
 
 /**
- * The import notes and condition mismatches of a stored curve. Renders nothing when the file
+ * The import notes and condition mismatches of a stored curve. Its lists are role="list"
+ * blocks rather than <ul>: they sit inside the upload rows' own <li> list. Renders nothing when the file
  * went in as it was and agrees with the build.
  */
 export function ImportNotes({ curve, buildId, canChoose }: { curve: CurveSummary; buildId?: number; canChoose: boolean }) {
@@ -81,17 +82,19 @@ export function ImportNotes({ curve, buildId, canChoose }: { curve: CurveSummary
             <span aria-hidden="true" className="mr-1 text-amber-700">▲</span>
             The file and the build’s record differ{unsettled > 0 ? ` (${unsettled} to settle)` : ''}
           </h3>
-          <ul className="divide-y divide-line">
+          <div role="list" className="divide-y divide-line">
             {mismatches.map((mismatch) => <MismatchRow key={mismatch.field} curve={curve} mismatch={mismatch} buildId={buildId ?? curve.buildId} canChoose={canChoose} />)}
-          </ul>
+          </div>
         </div>
       )}
       {notes.length > 0 && (
         <div>
           <h3 className="text-xs font-semibold text-ink-900">How the file was read</h3>
-          <ul className="mt-0.5 list-disc space-y-0.5 pl-5 text-xs text-ink-700">
-            {shown.map((note, index) => <li key={index} className="break-words">{note}</li>)}
-          </ul>
+          <div role="list" className="mt-0.5 space-y-0.5 text-xs text-ink-700">
+            {shown.map((note, index) => (
+              <p role="listitem" key={index} className="break-words pl-3 -indent-3"><span aria-hidden="true">· </span>{note}</p>
+            ))}
+          </div>
           {notes.length > SHOWN_NOTES && (
             <button type="button" className="mt-0.5 text-[11px] text-copper-700 underline" onClick={() => setAll((value) => !value)}>
               {all ? 'Show fewer' : `Show all ${notes.length} notes`}
