@@ -238,7 +238,7 @@ export async function ingestUpload(
       if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
       throw asUnprocessable(placeWholeFileError(error, table, mapping), upload.originalName);
     }
-    if (kind === 'polarization') refuseEmptyMetrics(result, data, upload.originalName);
+    if (kind === 'polarization') refuseEmptyMetrics(result, data, upload.originalName, table, mapping);
     options.progress?.phase('storing', null);
     await yieldToEventLoop();
     const points = encodePoints(data);
@@ -324,7 +324,7 @@ function placeWholeFileError(error: unknown, table: ParsedTable, mapping: Column
 const POLARIZATION_METRICS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'] as const;
 
 /** A polarization curve from which not one metric can be read is refused, with what the data span. */
-function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: string) {
+function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: string, table: ParsedTable, mapping: ColumnMapping) {
   if (POLARIZATION_METRICS.some((key) => result.metrics[key] != null && Number.isFinite(result.metrics[key] as number))) return;
   const span = (values: Float64Array | undefined, digits: number) => {
     let low = Infinity;
@@ -336,11 +336,16 @@ function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: st
     return low <= high ? `${low.toFixed(digits)} to ${high.toFixed(digits)}` : 'none';
   };
   const reasons = Object.entries(result.metricNotes).map(([key, note]) => `${key}: ${note}`).slice(0, 4).join('; ');
+  const first = table.dataLines[0];
+  const last = table.dataLines[table.dataLines.length - 1];
+  const voltage = mapping.voltage ?? mapping.voltageIrFree;
+  const column = voltage === undefined ? null : table.header[voltage.column];
+  const columns = [mapping.current, voltage].filter((entry) => entry !== undefined).map((entry) => `"${table.header[entry!.column]}"`).join(' and ');
   throw new AppError(
     422,
     'no-metrics',
-    `${fileName}: not one metric can be read from this curve (current density ${span(data.j, 3)} A/cm², voltage ${span(data.v, 3)} V)${reasons ? ` — ${reasons}` : ''}; check the units of the columns. Nothing was stored.`,
-    { file: fileName, line: null, column: null },
+    `${fileName}: lines ${first}–${last}, columns ${columns}: not one metric can be read from this curve (current density ${span(data.j, 3)} A/cm², voltage ${span(data.v, 3)} V)${reasons ? ` — ${reasons}` : ''}; check the units of the columns. Nothing was stored.`,
+    { file: fileName, line: first, column },
   );
 }
 

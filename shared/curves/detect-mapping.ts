@@ -85,14 +85,17 @@ function quoted(table: ParsedTable, index: number): string {
 
 /**
  * Parsed table → a column mapping guess. Header units are believed first
- * (recogniseHeaderUnit); a header with no unit gets one from the values: voltage up to
- * ~2 → V, up to ~2000 → mV; current up to ~4 → A/cm², up to ~4000 → mA/cm² (then
- * `ambiguous`, since a total current in A or mA looks the same); HFR up to ~2 → Ω·cm²,
- * else mΩ·cm² (ambiguous). Two voltage columns (e.g. measured and iR-free) → the measured
- * one, ambiguous. A time column makes the kind `durability` unless `kind` is given — except
- * when the current column steps over a wide range, which is a polarization curve with a
- * clock (then `polarization`, ambiguous). A current column that is ~0 throughout with a
- * time column → `hold`.
+ * (recogniseHeaderUnit); a header with no unit gets one from the values: voltage up to ~2 → V,
+ * up to ~2000 → mV; current and HFR take the one unit (A/cm², mA/cm², and with the area A, mA;
+ * Ω·cm², mΩ·cm², Ω, mΩ) under which the values are a cell's (5 mA/cm²–5 A/cm²; 0.02–3 Ω·cm²),
+ * and ask (`ambiguous`) when several fit. An iR-corrected voltage column ("E_iR-free (V)")
+ * maps to `voltageIrFree`, beside the measured voltage or alone. Two measured voltage columns →
+ * the first, ambiguous. A current column ≤ 0 throughout is marked `negated`; one that changes
+ * sign asks. A time column makes the kind `durability` unless `kind` is given — except when the
+ * current steps through ≥ 4 levels over its range with no level holding half the readings,
+ * which is a polarization curve with a clock (no question); in between, it asks. A current
+ * ≈ 0 throughout with a time column → `hold`. Finally every mapped column is checked for unit
+ * slips (findUnitSlips): the plausible unit is proposed and the detection asks, naming the line.
  * Reference: magnitudes are those of single cells (common practice in the trade):
  * 0–1.2 V, 0–3 A/cm², HFR 0.05–1 Ω·cm².
  * Cost: O(rows × columns).

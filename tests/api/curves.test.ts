@@ -280,6 +280,18 @@ describe('export shapes partner labs send, through the route', () => {
     expect(counts()).toEqual(before);
   });
 
+  it('a curve from which not one metric can be read is refused, naming its lines and columns', async () => {
+    // every step below 50 mV: past the limiting current throughout (a shorted cell, or a wrong column)
+    const content = 'Current density (A/cm2),Voltage (V)\n0.0,0.040\n0.1,0.030\n0.2,0.020\n0.3,0.015\n0.4,0.010\n';
+    const before = counts();
+    const res = await h.as.researcher.upload(`/api/builds/${shapeBuild}/curves`, { name: 'shorted.csv', content });
+    expect(res.status, JSON.stringify(res.body)).toBe(422);
+    expect(res.body.error.code).toBe('no-metrics');
+    expect(res.body.error.message).toMatch(/^shorted\.csv: lines 2–6, columns "Current density \(A\/cm2\)" and "Voltage \(V\)": not one metric/);
+    expect(res.body.error.details).toMatchObject({ file: 'shorted.csv', line: 2, column: 'Voltage (V)' });
+    expect(counts()).toEqual(before);
+  });
+
   it('a current that changes sign, confirmed as it is: refused on the line where it turns negative', async () => {
     const asked = await upload('shape-sign-change.csv');
     const res = await upload('shape-sign-change.csv', { mapping: JSON.stringify(asked.body.error.details.detected) });
