@@ -1,7 +1,7 @@
 // Routes of curves, gains, review, designs, surface and proposals, documented beside the core ones.
 import { z } from 'zod';
 import type { RouteDoc } from './openapi';
-import { uploadFieldsSchema } from './curves/router';
+import { conditionChoiceSchema, uploadFieldsSchema } from './curves/router';
 import { designRequestSchema, planProposalSchema, planRunsSchema, proposalsRequestSchema, surfaceRequestSchema } from './doe/router';
 import { gainsQuery } from './gains/router';
 import { lineageQuery } from './lineage/router';
@@ -11,10 +11,11 @@ import { recordChoiceSchema } from './builds/router';
 const fileField = z.string().describe('the file (CSV, TSV, TXT or XLSX)');
 
 export const extraRoutes: RouteDoc[] = [
-  { method: 'post', path: '/api/builds/{id}/curves', summary: 'Upload a curve file: 201 {curve, recordCurve} or 422 with the reason. The first curve of a kind becomes the build’s curve of record (curve.isRecord); a later one is stored beside it and changes no value until chosen (PUT /api/builds/{id}/record); recordCurve is the record of that kind', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
+  { method: 'post', path: '/api/builds/{id}/curves', summary: 'Upload a curve file: 201 {curve, recordCurve} or 422 naming file, line and column, with nothing stored. The first curve of a kind becomes the build’s curve of record (curve.isRecord); a later one is stored beside it and changes no value until chosen (PUT /api/builds/{id}/record); recordCurve is the record of that kind. curve.summary.importNotes says what was done on the way in; curve.summary.conditionMismatches lists file vs build conditions', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
   { method: 'post', path: '/api/builds/{id}/curves/preview', summary: 'Detect columns and units of a file without storing it', multipart: { file: fileField, ...uploadFieldsSchema.shape }, tag: 'curves' },
   { method: 'get', path: '/api/curves/{id}', summary: 'Curve points and metrics (long logs downsampled: maxPoints, fromHours, toHours)', tag: 'curves' },
   { method: 'patch', path: '/api/curves/{id}', summary: 'Relabel a curve or set durability options (break-in, windows, loss fraction)', body: z.object({ label: z.string().optional(), breakInHours: z.number().optional(), windows: z.array(z.object({ fromHours: z.number(), toHours: z.number() })).optional(), lossFraction: z.number().optional() }), tag: 'curves' },
+  { method: 'post', path: '/api/curves/{id}/conditions', summary: 'Settle a condition on which the file and the build differ (summary.conditionMismatches): chosen "file" makes the build record the file\'s value, "build" keeps it; an area that changes the conversion of total current re-measures the curve. Audited. Answers {curve, build}', body: conditionChoiceSchema, tag: 'curves' },
   { method: 'delete', path: '/api/curves/{id}', summary: 'Remove a curve (the raw file stays) → {ok, record}: when it was the curve of record, the oldest remaining curve of its kind takes over (record says which; a reviewed build goes back to review)', tag: 'curves' },
   { method: 'put', path: '/api/builds/{id}/record', summary: 'Choose the build’s curve of record of one kind → {record: {kind, fromCurveId, toCurveId, changed, status, message}, build, curves}. A reviewed build goes back to review (status tested) and its PIs are told; audited. Partners: their own lab’s builds only', body: recordChoiceSchema, tag: 'builds' },
   { method: 'get', path: '/api/files/{id}/raw', summary: 'The uploaded bytes, unchanged', tag: 'curves' },

@@ -110,6 +110,8 @@ export interface CurvePoints {
   j?: number[];
   v: number[];
   hfr?: number[] | null;
+  /** the file's own iR-free voltage, V (null where missing) */
+  vIrFree?: (number | null)[] | null;
   tHours?: number[] | null;
   temperatureC?: number[] | null;
   downsampled: boolean;
@@ -140,4 +142,6 @@ export interface UploadPreview {
   sheets?: string[];
   sheet?: string;
   fileName?: string;
+  /** the active area the build records, cm² (pre-filled where the file gives none) */
+  buildAreaCm2?: number | null;
 }

@@ -2,7 +2,8 @@
 // Layout: "CWP1" | uint32 pointCount | uint32 columnMask | column arrays in mask order.
 import type { CurveData, CurveKind } from '../../shared/curves/types';
 
-const COLUMNS = ['j', 'v', 'hfr', 'tHours', 'temperatureC'] as const;
+// vIrFree came later: it takes the next bit, so blobs written before it still read.
+const COLUMNS = ['j', 'v', 'hfr', 'tHours', 'temperatureC', 'vIrFree'] as const;
 type ColumnName = (typeof COLUMNS)[number];
 const HEADER = 12;
 
@@ -46,5 +47,7 @@ export function decodePoints(blob: Buffer | Uint8Array, kind: CurveKind): CurveD
       offset += n * 8;
     }
   });
-  return { kind, j: out.j ?? new Float64Array(n), v: out.v ?? new Float64Array(n), hfr: out.hfr, tHours: out.tHours, temperatureC: out.temperatureC };
+  const data: CurveData = { kind, j: out.j ?? new Float64Array(n), v: out.v ?? new Float64Array(n), hfr: out.hfr, tHours: out.tHours, temperatureC: out.temperatureC };
+  if (out.vIrFree) data.vIrFree = out.vIrFree;
+  return data;
 }

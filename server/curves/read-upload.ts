@@ -3,7 +3,7 @@
 import fs from 'node:fs';
 import { createHash } from 'node:crypto';
 import ExcelJS from 'exceljs';
-import { createDelimitedParser, createChunkDecoder, sniffBytes } from '../../shared/curves';
+import { createDelimitedParser, createChunkDecoder, mergeConditions, readConditions, sniffBytes } from '../../shared/curves';
 import { CurveFileError } from '../../shared/curves/types';
 import type { ParsedTable } from '../../shared/curves';
 
@@ -80,6 +80,54 @@ function cellText(value: ExcelJS.CellValue): string {
   return String(value);
 }
 
+// A number kept as text in a cell ("0,652", "1.250,5"): only these can tell the sheet's decimal mark.
+const TEXT_COMMA_DECIMAL = /^[+-]?(?:0|[1-9]\d{0,2}(?:\.\d{3})*|\d+),\d+$/;
+const TEXT_POINT_DECIMAL = /^[+-]?(?:0|[1-9]\d{0,2}(?:,\d{3})*|\d+)\.\d+$/;
+
+/**
+ * A worksheet → tab-separated lines for the delimited parser. Real number cells are written
+ * with the decimal mark the sheet's numbers-as-text use, so a sheet mixing both reads as one.
+ */
+function sheetLines(sheet: ExcelJS.Worksheet): string[] {
+  const rows: ExcelJS.CellValue[][] = [];
+  let textComma = 0;
+  let textPoint = 0;
+  sheet.eachRow({ includeEmpty: true }, (row) => {
+    const values = (row.values as ExcelJS.CellValue[]).slice(1);
+    rows.push(values);
+    for (const value of values) {
+      if (typeof value !== 'string') continue;
+      const text = value.trim();
+      if (TEXT_COMMA_DECIMAL.test(text)) textComma++;
+      else if (TEXT_POINT_DECIMAL.test(text)) textPoint++;
+    }
+  });
+  const commaSheet = textComma > 0 && textComma >= textPoint;
+  return rows.map((values) => {
+    const cells: string[] = [];
+    for (let c = 0; c < values.length; c++) {
+      const value = values[c];
+      const numeric = typeof value === 'number' ? value : value && typeof value === 'object' && 'result' in value && typeof (value as { result: unknown }).result === 'number' ? ((value as { result: number }).result) : null;
+      const text = numeric !== null && commaSheet ? String(numeric).replace('.', ',') : cellText(value ?? null);
+      cells.push(text.replace(/[\t\r\n]+/g, ' '));
+    }
+    return cells.join('\t');
+  });
+}
+
+// A sheet of key–value pairs (conditions, notes): most filled rows have 2–3 cells, the first a word.
+function isKeyValueSheet(lines: readonly string[]): boolean {
+  let filled = 0;
+  let pairs = 0;
+  for (const line of lines) {
+    const cells = line.split('\t').map((cell) => cell.trim()).filter((cell) => cell.length > 0);
+    if (cells.length === 0) continue;
+    filled++;
+    if (cells.length >= 2 && cells.length <= 3 && /^\p{L}/u.test(cells[0])) pairs++;
+  }
+  return filled > 0 && filled <= 200 && pairs * 2 >= filled;
+}
+
 async function readWorkbook(path: string, options: ReadOptions): Promise<ReadResult> {
   const workbook = new ExcelJS.Workbook();
   try {
@@ -88,29 +136,45 @@ async function readWorkbook(path: string, options: ReadOptions): Promise<ReadRes
     throw new CurveFileError('bad-xlsx', 'The file looks like an .xlsx workbook but could not be read; open and save it again, or export CSV.');
   }
   const sheets = workbook.worksheets.map((w) => w.name);
+  const linesOf = new Map<ExcelJS.Worksheet, string[]>();
+  const lines = (sheet: ExcelJS.Worksheet): string[] => {
+    let found = linesOf.get(sheet);
+    if (found === undefined) {
+      found = sheetLines(sheet);
+      linesOf.set(sheet, found);
+    }
+    return found;
+  };
   const parseSheet = (sheet: ExcelJS.Worksheet) => {
-    const lines: string[] = [];
-    sheet.eachRow({ includeEmpty: true }, (row) => {
-      const values = row.values as ExcelJS.CellValue[];
-      const cells: string[] = [];
-      for (let c = 1; c < values.length; c++) cells.push(cellText(values[c]).replace(/[\t\r\n]+/g, ' '));
-      lines.push(cells.join('\t'));
-    });
     const parser = createDelimitedParser({ maxRows: options.maxRows });
-    parser.push(lines.join('\n'));
+    parser.push(lines(sheet).join('\n'));
     return parser.finish();
+  };
+  // Area, temperature, gases and back-pressure on another sheet of key–value pairs fill what
+  // the data sheet does not state.
+  const withOtherSheets = (table: ParsedTable, dataSheet: ExcelJS.Worksheet): ParsedTable => {
+    for (const other of workbook.worksheets) {
+      if (other === dataSheet || other.actualRowCount === 0 || other.actualRowCount > 200) continue;
+      const pairs = lines(other);
+      if (!isKeyValueSheet(pairs)) continue;
+      const taken = mergeConditions(table.conditions, readConditions(pairs, '\t'));
+      if (taken.length > 0) table.conditions.notes = [...(table.conditions.notes ?? []), `${taken.join(', ')} read from the sheet "${other.name}"`];
+    }
+    return table;
   };
   if (options.sheet) {
     const sheet = workbook.getWorksheet(options.sheet);
     if (!sheet) throw new CurveFileError('no-sheet', `The workbook has no sheet named "${options.sheet}"; it has: ${sheets.join(', ')}.`);
-    return { table: parseSheet(sheet), sha256: await hashFile(path), contentType: XLSX_TYPE, sheets, sheet: sheet.name };
+    return { table: withOtherSheets(parseSheet(sheet), sheet), sha256: await hashFile(path), contentType: XLSX_TYPE, sheets, sheet: sheet.name };
   }
   // No sheet named: the first sheet that holds a table of numbers (a notes sheet in front is common).
   let firstError: unknown = null;
-  for (const sheet of workbook.worksheets) {
-    if (sheet.actualRowCount === 0) continue;
+  const withRows = workbook.worksheets.filter((sheet) => sheet.actualRowCount > 0);
+  // a sheet of key–value pairs (conditions, notes) is read for its conditions, not as the table
+  const tables = withRows.filter((sheet) => sheet.actualRowCount > 200 || !isKeyValueSheet(lines(sheet)));
+  for (const sheet of tables.length > 0 ? tables : withRows) {
     try {
-      return { table: parseSheet(sheet), sha256: await hashFile(path), contentType: XLSX_TYPE, sheets, sheet: sheet.name };
+      return { table: withOtherSheets(parseSheet(sheet), sheet), sha256: await hashFile(path), contentType: XLSX_TYPE, sheets, sheet: sheet.name };
     } catch (error) {
       if (!(error instanceof CurveFileError) || error.code === 'too-many-rows') throw error;
       firstError ??= error;

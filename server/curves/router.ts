@@ -12,7 +12,7 @@ import { idParam, parseInput } from '../lib/validate';
 import { AppError, forbidden, notFound } from '../lib/errors';
 import { requireBuildWrite, requireProject, requireUser, can } from '../auth/access';
 import { accessBuild } from '../builds/service';
-import { curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView } from './service';
+import { chooseCondition, curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView } from './service';
 import { audit } from '../lib/audit';
 import { silentProgress, trackUpload, UPLOAD_ID_PATTERN } from '../uploads/progress';
 
@@ -24,12 +24,20 @@ function formatBytes(bytes: number): string {
 }
 
 const unitSpec = z.object({ column: z.number().int().min(0), unit: z.string() });
-const mappingSchema = z.object({
-  current: unitSpec.extend({ unit: z.enum(['A/cm2', 'mA/cm2', 'A', 'mA']) }).optional(),
-  voltage: unitSpec.extend({ unit: z.enum(['V', 'mV']) }),
-  hfr: unitSpec.extend({ unit: z.enum(['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm']) }).optional(),
-  time: unitSpec.extend({ unit: z.enum(['s', 'min', 'h', 'timestamp']) }).optional(),
-  temperature: unitSpec.extend({ unit: z.enum(['C', 'K']) }).optional(),
+const mappingSchema = z
+  .object({
+    current: unitSpec.extend({ unit: z.enum(['A/cm2', 'mA/cm2', 'A', 'mA']), negated: z.boolean().optional() }).optional(),
+    voltage: unitSpec.extend({ unit: z.enum(['V', 'mV']) }).optional(),
+    voltageIrFree: unitSpec.extend({ unit: z.enum(['V', 'mV']) }).optional(),
+    hfr: unitSpec.extend({ unit: z.enum(['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm']) }).optional(),
+    time: unitSpec.extend({ unit: z.enum(['s', 'min', 'h', 'timestamp']) }).optional(),
+    temperature: unitSpec.extend({ unit: z.enum(['C', 'K']) }).optional(),
+  })
+  .refine((mapping) => mapping.voltage !== undefined || mapping.voltageIrFree !== undefined, { message: 'a voltage column is required (voltage or voltageIrFree)', path: ['voltage'] });
+
+export const conditionChoiceSchema = z.object({
+  field: z.enum(['temperatureC', 'areaCm2', 'anodeGas', 'cathodeGas', 'backPressureKPa']),
+  chosen: z.enum(['file', 'build']),
 });
 
 const jsonText = <T extends z.ZodType>(schema: T) =>
@@ -70,7 +78,7 @@ const profileSchema = z.object({
   name: z.string().trim().min(1).max(80),
   labId: z.number().int().positive().nullish(),
   kind: z.enum(['polarization', 'durability', 'hold']).default('polarization'),
-  mapping: z.partialRecord(z.enum(['current', 'voltage', 'hfr', 'time', 'temperature']), z.object({ header: z.string().min(1), unit: z.string().min(1) })),
+  mapping: z.partialRecord(z.enum(['current', 'voltage', 'voltageIrFree', 'hfr', 'time', 'temperature']), z.object({ header: z.string().min(1), unit: z.string().min(1), negated: z.boolean().optional() })),
 });
 
 export function curvesRouter(ctx: AppContext): Router {
@@ -141,6 +149,16 @@ export function curvesRouter(ctx: AppContext): Router {
     res.json({ curve });
   });
 
+  // The uploader settles a condition on which the file and the build's record differ.
+  router.post('/curves/:id/conditions', (req, res) => {
+    requireUser(req.user);
+    const row = loadCurve(ctx, idParam(req.params.id));
+    const { row: build, access } = accessBuild(ctx, req.user, row.buildId, 'createBuild');
+    requireBuildWrite(access, build);
+    const body = parseInput(conditionChoiceSchema, req.body);
+    res.json(chooseCondition(ctx, access, row, build, body.field, body.chosen));
+  });
+
   router.delete('/curves/:id', async (req, res) => {
     requireUser(req.user);
     const row = loadCurve(ctx, idParam(req.params.id));
@@ -178,7 +196,7 @@ export function curvesRouter(ctx: AppContext): Router {
       if (labId != null && labId !== access.user.labId) throw forbidden('Partners may only save profiles for their own lab.');
       labId = access.user.labId;
     }
-    if (!body.mapping.voltage) throw new AppError(400, 'validation', 'mapping.voltage: a profile must say which column is the cell voltage.', { fields: [{ path: 'mapping.voltage', message: 'required' }] });
+    if (!body.mapping.voltage && !body.mapping.voltageIrFree) throw new AppError(400, 'validation', 'mapping.voltage: a profile must say which column is the cell voltage (or the iR-free voltage).', { fields: [{ path: 'mapping.voltage', message: 'required' }] });
     const row = db.insert(importProfiles).values({ name: body.name, labId, projectId: access.projectId, kind: body.kind, mapping: body.mapping, createdBy: access.user.id }).returning().get();
     audit(db, { userId: access.user.id, action: 'create', entity: 'import-profile', entityId: row.id, projectId: access.projectId, after: row });
     res.status(201).json({ profile: row });

@@ -4,12 +4,15 @@ import path from 'node:path';
 import { and, asc, desc, eq, inArray, isNull, or } from 'drizzle-orm';
 import type { AppContext } from '../context';
 import { builds, curves, files, importProfiles, projects } from '../db/schema';
-import { applyMapping, detectMapping, polarizationMetrics } from '../../shared/curves';
+import { applyMapping, checkEnoughData, checkHoursAfterBreakIn, compareConditions, detectMapping, importNotes, polarizationMetrics } from '../../shared/curves';
+import type { ConditionField, ConditionMismatch } from '../../shared/curves';
+import { STANDARD_ATMOSPHERE_KPA } from '../../shared/curves';
 import type { ParsedTable } from '../../shared/curves';
 import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
 import { CurveFileError } from '../../shared/curves/types';
 import type { ColumnMapping, CurveData, CurveKind, MetricsResult, ReferencePoint } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
+import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
 import { readUpload } from './read-upload';
 import { audit } from '../lib/audit';
 import { AppError, notFound } from '../lib/errors';
@@ -41,11 +44,12 @@ export interface DurabilityOptions {
 
 /** Error raised when the columns need a person to confirm them: 422 with a preview. */
 function mappingNeeded(table: ParsedTable, detection: ReturnType<typeof detectMapping>, extra: Record<string, unknown>) {
+  const fileName = typeof extra.fileName === 'string' ? `${extra.fileName}: ` : '';
   return new AppError(
     422,
     'mapping-needed',
-    `Please confirm the columns: ${detection.reasons.join('; ') || 'the columns could not be recognised'}.`,
-    { preview: previewOf(table), detected: detection.mapping, kind: detection.kind, reasons: detection.reasons, ...extra },
+    `${fileName}please confirm the columns: ${detection.reasons.join('; ') || 'the columns could not be recognised'}.`,
+    { preview: { ...previewOf(table), buildAreaCm2: extra.buildAreaCm2 ?? null }, detected: detection.mapping, kind: detection.kind, reasons: detection.reasons, ...extra },
   );
 }
 
@@ -124,22 +128,22 @@ function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<stri
 
 /** Profile mapping is stored by header text; turn it into column indices for this file. */
 function profileToMapping(profile: typeof importProfiles.$inferSelect, table: ParsedTable): ColumnMapping | null {
-  const mapping: Record<string, { column: number; unit: string }> = {};
+  const mapping: Record<string, { column: number; unit: string; negated?: boolean }> = {};
   for (const [quantity, spec] of Object.entries(profile.mapping)) {
     const column = table.header.findIndex((h: string) => h.trim().toLowerCase() === spec.header.trim().toLowerCase());
     if (column < 0) return null;
-    mapping[quantity] = { column, unit: spec.unit };
+    mapping[quantity] = { column, unit: spec.unit, ...(spec.negated !== undefined && { negated: spec.negated }) };
   }
-  return mapping.voltage ? (mapping as unknown as ColumnMapping) : null;
+  return mapping.voltage || mapping.voltageIrFree ? (mapping as unknown as ColumnMapping) : null;
 }
 
 function mappingToProfile(mapping: ColumnMapping, table: ParsedTable) {
-  const out: Record<string, { header: string; unit: string }> = {};
-  for (const [quantity, spec] of Object.entries(mapping)) {
+  const out: Record<string, { header: string; unit: string; negated?: boolean }> = {};
+  for (const [quantity, spec] of Object.entries(mapping) as [string, { column: number; unit: string; negated?: boolean } | undefined][]) {
     if (!spec) continue;
     const header = table.header[spec.column];
     if (header === undefined) throw new AppError(400, 'validation', `mapping.${quantity}.column: column ${spec.column} does not exist (the file has ${table.header.length} columns)`);
-    out[quantity] = { header, unit: spec.unit };
+    out[quantity] = { header, unit: spec.unit, ...(spec.negated !== undefined && { negated: spec.negated }) };
   }
   return out;
 }
@@ -179,8 +183,11 @@ export async function ingestUpload(
       throw asUnprocessable(error, upload.originalName);
     }
     const { table } = read;
-    const detection = detectMapping(table, options.kind);
+    // the area the upload will use: given with it, else the file's, else the build's record
+    const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? build.areaCm2 ?? null;
+    const detection = detectMapping(table, options.kind, { areaCm2 });
     const kind: CurveKind = options.kind ?? detection.kind;
+    const askExtra = { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null };
 
     let mapping: ColumnMapping | null = null;
     let mappingSource = 'detected';
@@ -192,7 +199,7 @@ export async function ingestUpload(
       const profile = db.select().from(importProfiles).where(eq(importProfiles.id, options.profileId)).get();
       if (!profile || (profile.projectId != null && profile.projectId !== access.projectId)) throw notFound(`Import profile ${options.profileId}`);
       mapping = profileToMapping(profile, table);
-      if (!mapping) throw mappingNeeded(table, detection, { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet, profileMismatch: `the file's headers do not match the profile "${profile.name}"` });
+      if (!mapping) throw mappingNeeded(table, detection, { ...askExtra, profileMismatch: `the file's headers do not match the profile "${profile.name}"` });
       mappingSource = `profile ${profile.name}`;
     } else {
       const profile = findMatchingProfile(ctx, access.projectId, build.labId, table);
@@ -205,29 +212,35 @@ export async function ingestUpload(
     }
 
     if (options.previewOnly) {
-      return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet } };
+      return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null } };
     }
-    if (!mapping) throw mappingNeeded(table, detection, { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet });
+    if (!mapping) throw mappingNeeded(table, detection, askExtra);
 
-    const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? build.areaCm2 ?? null;
     options.progress?.phase('measuring', null);
     await yieldToEventLoop();
-    let data: CurveData;
+    let data: ReturnType<typeof applyMapping>;
     try {
       data = applyMapping(table, mapping, { kind, areaCm2, reuseColumns: true });
+      checkEnoughData(data);
     } catch (error) {
-      throw asUnprocessable(error, upload.originalName);
+      throw asUnprocessable(placeWholeFileError(error, table, mapping), upload.originalName);
     }
+    const notes = importNotes(table, data.notes);
+    if (mappingSource.startsWith('profile')) notes.unshift(`columns and units from the import ${mappingSource.replace(/^profile /, 'profile "')}"`);
+    const { mismatches, notes: conditionNotes } = compareConditions(table.conditions, build);
+    notes.push(...conditionNotes);
     // The mapped columns now live in `data` (converted in place); let the rest go before measuring.
     table.columns.fill(null);
     const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
     let result: MetricsResult;
     try {
       result = computeMetrics(data, referencePoint(project), build);
+      if (kind === 'durability') checkHoursAfterBreakIn(data, result.metrics.breakInHours ?? null);
     } catch (error) {
-      if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}`, { file: upload.originalName });
-      throw error;
+      if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
+      throw asUnprocessable(placeWholeFileError(error, table, mapping), upload.originalName);
     }
+    if (kind === 'polarization') refuseEmptyMetrics(result, data, upload.originalName, table, mapping);
     options.progress?.phase('storing', null);
     await yieldToEventLoop();
     const points = encodePoints(data);
@@ -264,7 +277,7 @@ export async function ingestUpload(
             metrics: result.metrics,
             metricNotes: result.metricNotes as Record<string, string>,
             method: result.method as never,
-            summary: { ...result.summary, mappingSource, sheet: read.sheet ?? null },
+            summary: { ...result.summary, mappingSource, sheet: read.sheet ?? null, importNotes: notes, conditionMismatches: mismatches, areaUsedCm2: data.areaCm2 },
             metricsVersion: project.metricsVersion,
             createdBy: access.user.id,
           })
@@ -276,7 +289,7 @@ export async function ingestUpload(
         }
         return row;
       });
-      audit(db, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: curve.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length, isRecord: curve.isRecord } });
+      audit(db, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: curve.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length, isRecord: curve.isRecord, importNotes: notes.length, conditionMismatches: mismatches.map((m) => m.field) } });
       await notifyAfterUpload(ctx, access, build, upload.originalName, { kind, isRecord: curve.isRecord });
       // the build's curve of record of this kind, to set the new curve's metrics beside it
       const record = curve.isRecord ? curve : db.select(CURVE_COLUMNS_WITHOUT_POINTS).from(curves).where(and(eq(curves.buildId, build.id), eq(curves.kind, kind), eq(curves.isRecord, true))).get();
@@ -294,10 +307,54 @@ function asUnprocessable(error: unknown, fileName: string): unknown {
   if (error instanceof CurveFileError) {
     const where = [error.line != null ? `line ${error.line}` : null, error.column != null ? `column ${typeof error.column === 'number' ? error.column + 1 : `"${error.column}"`}` : null].filter(Boolean).join(', ');
     const prefix = where ? `${fileName}, ${where}: ` : `${fileName}: `;
-    const message = error.message.startsWith('line ') || error.message.includes(fileName) ? `${fileName}: ${error.message}` : prefix + error.message;
-    return new AppError(422, error.code, message, { file: fileName, line: error.line ?? null, column: error.column ?? null });
+    const message = /^lines? /.test(error.message) || error.message.includes(fileName) ? `${fileName}: ${error.message}` : prefix + error.message;
+    const stored = /nothing was stored/.test(message) ? '' : /[.!?]$/.test(message) ? ' Nothing was stored.' : '; nothing was stored.';
+    return new AppError(422, error.code, message + stored, { file: fileName, line: error.line ?? null, column: error.column ?? null });
   }
   return error;
+}
+
+/**
+ * A refusal about the whole curve (too few steps, too short a log) names the lines of the data
+ * and the column that falls short: the current for a polarization curve, the time for a log.
+ */
+function placeWholeFileError(error: unknown, table: ParsedTable, mapping: ColumnMapping): unknown {
+  if (!(error instanceof CurveFileError) || error.line != null || !['too-few-steps', 'too-few-points', 'too-short'].includes(error.code)) return error;
+  const entry = error.code === 'too-few-steps' ? mapping.current : (mapping.time ?? mapping.voltage ?? mapping.voltageIrFree);
+  const column = entry === undefined ? undefined : table.header[entry.column];
+  const first = table.dataLines[0];
+  const last = table.dataLines[table.dataLines.length - 1];
+  const lines = first === last ? `line ${first}` : `lines ${first}–${last}`;
+  return new CurveFileError(error.code, `${lines}${column ? `, column "${column}"` : ''}: ${error.message}`, { line: first, column });
+}
+
+// Metrics read off the loaded part of a curve: an OCV or HFR alone does not make a polarization curve.
+const LOADED_METRICS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'tafelSlope'] as const;
+
+/** A polarization curve from which not one loaded-curve metric can be read is refused, with what the data span. */
+function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: string, table: ParsedTable, mapping: ColumnMapping) {
+  if (LOADED_METRICS.some((key) => result.metrics[key] != null && Number.isFinite(result.metrics[key] as number))) return;
+  const span = (values: Float64Array | undefined, digits: number) => {
+    let low = Infinity;
+    let high = -Infinity;
+    for (const value of values ?? []) {
+      if (value < low) low = value;
+      if (value > high) high = value;
+    }
+    return low <= high ? `${low.toFixed(digits)} to ${high.toFixed(digits)}` : 'none';
+  };
+  const reasons = Object.entries(result.metricNotes).map(([key, note]) => `${CURVE_METRIC_INFO[key]?.label ?? key}: ${note}`).slice(0, 4).join('; ');
+  const first = table.dataLines[0];
+  const last = table.dataLines[table.dataLines.length - 1];
+  const voltage = mapping.voltage ?? mapping.voltageIrFree;
+  const column = voltage === undefined ? null : table.header[voltage.column];
+  const columns = [mapping.current, voltage].filter((entry) => entry !== undefined).map((entry) => `"${table.header[entry!.column]}"`).join(' and ');
+  throw new AppError(
+    422,
+    'no-metrics',
+    `${fileName}: lines ${first}–${last}, columns ${columns}: not one metric can be read from this curve (current density ${span(data.j, 3)} A/cm², voltage ${span(data.v, 3)} V)${reasons ? ` — ${reasons}` : ''}; check the units of the columns. Nothing was stored.`,
+    { file: fileName, line: first, column },
+  );
 }
 
 function findMatchingProfile(ctx: AppContext, projectId: number, labId: number | null, table: ParsedTable) {
@@ -367,6 +424,7 @@ export function curvePoints(row: CurveRow, options: { maxPoints?: number; fromHo
     j: Array.from(data.j),
     v: Array.from(data.v),
     hfr: data.hfr ? Array.from(data.hfr) : null,
+    vIrFree: data.vIrFree ? Array.from(data.vIrFree) : null,
     tHours: data.tHours ? Array.from(data.tHours) : null,
     temperatureC: data.temperatureC ? Array.from(data.temperatureC) : null,
     downsampled: false,
@@ -432,4 +490,101 @@ export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: 
 /** Delete a curve; a deleted record hands over to the oldest remaining curve of its kind (said in the answer). */
 export function deleteCurve(ctx: AppContext, access: ProjectAccess, row: CurveRow) {
   return deleteCurveKeepingRecord(ctx, access, row, curveView(row));
+}
+
+const GAUGE_DIGITS = 1;
+
+/** A build's value of one condition, in the units of ConditionMismatch (back-pressure absolute). */
+function buildConditionValue(build: BuildRow, field: ConditionField): number | string | null {
+  if (field === 'areaCm2') return build.areaCm2 ?? null;
+  const recorded = build.testConditions ?? {};
+  if (field === 'backPressureKPa') return recorded.backPressureKPa == null ? null : recorded.backPressureKPa + STANDARD_ATMOSPHERE_KPA;
+  return (recorded[field] as number | string | null | undefined) ?? null;
+}
+
+// Equal as recorded: numbers within the rounding of the shown values (0.1 kPa, 0.1 °C, 0.001 cm²).
+function sameCondition(a: number | string | null, b: number | string): boolean {
+  if (a === null) return false;
+  if (typeof a === 'number' && typeof b === 'number') return Math.abs(a - b) <= 0.06;
+  return String(a).trim().toLowerCase() === String(b).trim().toLowerCase();
+}
+
+/**
+ * The uploader says which value of a mismatched condition is right: the file's (the build's
+ * record takes it) or the build's (kept). An area chosen that differs from the one used to
+ * turn total current or cell resistance into densities re-scales the curve and re-measures it.
+ * Audited; the choice is kept on the curve's mismatch (`chosen`).
+ */
+export function chooseCondition(ctx: AppContext, access: ProjectAccess, row: CurveRow, build: BuildRow, field: ConditionField, chosen: 'file' | 'build') {
+  const { db } = ctx;
+  const summary = { ...(row.summary as Record<string, unknown>) };
+  const mismatches = [...((summary.conditionMismatches as ConditionMismatch[] | undefined) ?? [])];
+  const index = mismatches.findIndex((mismatch) => mismatch.field === field);
+  if (index < 0) {
+    throw new AppError(400, 'validation', `field: curve ${row.id} shows no difference between the file and the build on ${field}; nothing to choose.`, { fields: [{ path: 'field', message: 'no such mismatch on this curve' }] });
+  }
+  const mismatch = mismatches[index];
+  const target = chosen === 'file' ? mismatch.fileValue : mismatch.buildValue;
+
+  // the build's record takes the chosen value (back to its own value when the build was chosen after the file)
+  const buildChanges: Partial<BuildRow> = {};
+  if (!sameCondition(buildConditionValue(build, field), target)) {
+    if (field === 'areaCm2') buildChanges.areaCm2 = Number(target);
+    else {
+      const conditions = { ...(build.testConditions ?? {}) };
+      if (field === 'temperatureC') conditions.temperatureC = Number(target);
+      else if (field === 'backPressureKPa') conditions.backPressureKPa = Number((Number(target) - STANDARD_ATMOSPHERE_KPA).toFixed(GAUGE_DIGITS)) + 0;
+      else conditions[field] = String(target);
+      buildChanges.testConditions = conditions;
+    }
+  }
+
+  // an area other than the one the curve's totals were converted with: re-scale and re-measure
+  let curveChanges: Partial<CurveRow> = {};
+  const usedArea = typeof summary.areaUsedCm2 === 'number' ? summary.areaUsedCm2 : null;
+  const notes = [...((summary.importNotes as string[] | undefined) ?? [])];
+  if (field === 'areaCm2' && usedArea !== null && Math.abs(usedArea - Number(target)) > 1e-9 * Number(target)) {
+    const newArea = Number(target);
+    const data = decodePoints(row.points, row.kind);
+    const mapping = row.mapping;
+    if (mapping?.current && (mapping.current.unit === 'A' || mapping.current.unit === 'mA')) for (let i = 0; i < data.j.length; i++) data.j[i] *= usedArea / newArea;
+    if (mapping?.hfr && data.hfr && (mapping.hfr.unit === 'ohm' || mapping.hfr.unit === 'mohm')) for (let i = 0; i < data.hfr.length; i++) data.hfr[i] *= newArea / usedArea;
+    const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+    const measuredBuild = { ...build, ...buildChanges };
+    let result: MetricsResult;
+    try {
+      result = computeMetrics(data, referencePoint(project), measuredBuild, row.options as DurabilityOptions | null);
+    } catch (error) {
+      if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${error.message.replace(/^\w+: /, '')}; nothing was changed.`);
+      throw error;
+    }
+    notes.push(`active area ${newArea} cm² chosen instead of ${usedArea} cm²: current density and HFR re-scaled and the curve measured again`);
+    Object.assign(summary, result.summary, { areaUsedCm2: newArea });
+    curveChanges = {
+      points: encodePoints(data),
+      metrics: result.metrics,
+      metricNotes: result.metricNotes as Record<string, string>,
+      method: result.method as never,
+      conditions: { ...(row.conditions ?? { raw: {} }), areaCm2: newArea },
+    };
+  }
+  mismatches[index] = { ...mismatch, chosen };
+  summary.conditionMismatches = mismatches;
+  summary.importNotes = notes;
+
+  const updated = db.transaction((tx) => {
+    if (Object.keys(buildChanges).length > 0) tx.update(builds).set({ ...buildChanges, updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
+    return tx.update(curves).set({ ...curveChanges, summary }).where(eq(curves.id, row.id)).returning(CURVE_COLUMNS_WITHOUT_POINTS).get();
+  });
+  audit(db, {
+    userId: access.user.id,
+    action: 'choose-condition',
+    entity: 'curve',
+    entityId: row.id,
+    projectId: access.projectId,
+    before: { field, fileValue: mismatch.fileValue, buildValue: mismatch.buildValue, chosen: mismatch.chosen ?? null, build: Object.keys(buildChanges).length > 0 ? { areaCm2: build.areaCm2, testConditions: build.testConditions } : undefined },
+    after: { field, chosen, build: Object.keys(buildChanges).length > 0 ? buildChanges : undefined, remeasured: curveChanges.metrics !== undefined },
+  });
+  const buildRow = db.select().from(builds).where(eq(builds.id, build.id)).get()!;
+  return { curve: curveView(updated), build: { id: buildRow.id, areaCm2: buildRow.areaCm2, testConditions: buildRow.testConditions } };
 }

@@ -203,7 +203,7 @@ export const importProfiles = sqliteTable('import_profiles', {
   projectId: integer('project_id').references(() => projects.id, { onDelete: 'cascade' }),
   name: text('name').notNull(),
   /** mapping by header text, so it survives column reordering */
-  mapping: text('mapping', { mode: 'json' }).$type<Record<string, { header: string; unit: string }>>().notNull(),
+  mapping: text('mapping', { mode: 'json' }).$type<Record<string, { header: string; unit: string; negated?: boolean }>>().notNull(),
   kind: text('kind', { enum: ['polarization', 'durability', 'hold'] }).notNull().default('polarization'),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: createdAt(),

@@ -7,6 +7,8 @@ import { voltageFactor } from '../units/voltage';
 import { hfrFactor } from '../units/area-specific-resistance';
 import { hoursFactor } from '../units/elapsed-time';
 import { ZERO_CELSIUS_K } from '../units/temperature';
+import { PLAUSIBLE } from './unit-plausibility';
+import { findUnitSlips } from './detect-mapping';
 
 /** Where the time column started again near zero (a station restart); hours are carried on. */
 export interface TimeReset {
@@ -43,14 +45,18 @@ export interface ApplyMappingOptions {
 }
 
 // Limits of what a single cell can show (common practice in the trade): the H2/O2 reversible
-// voltage is ~1.23 V, no cell holds 2 V; 10 A/cm² is several times any PEM limiting current;
+// voltage is ~1.23 V, no cell holds 2 V; ~5 A/cm² is beyond any PEM cell's limiting current;
 // a negative current beyond −50 mA/cm² is a reversed sign, not a crossover current.
-const MAX_CELL_VOLTAGE_V = 2.0;
+const MAX_CELL_VOLTAGE_V = PLAUSIBLE.maxCellVoltageV;
 const MIN_CURRENT_DENSITY = -0.05;
-const MAX_CURRENT_DENSITY = 10;
+const MAX_CURRENT_DENSITY = PLAUSIBLE.maxCurrentDensity;
 const MAX_HFR_OHM_CM2 = 10;
 // A time value this small against the previous one is a restart from zero, not disorder.
 const RESTART_FRACTION = 0.05;
+// Readings of the other sign smaller than this share of the column's largest are noise.
+const SIGN_NOISE = 0.02;
+// |j| up to this is open circuit for the purpose of a missing HFR (there is no current to measure it with).
+const OPEN_CIRCUIT_J = 0.001;
 
 const CURRENT_UNITS: readonly CurrentUnit[] = ['A/cm2', 'mA/cm2', 'A', 'mA'];
 const VOLTAGE_UNITS: readonly VoltageUnit[] = ['V', 'mV'];
@@ -107,20 +113,41 @@ function checkColumn(table: ParsedTable, role: string, entry: { column: number; 
   return values;
 }
 
+// "lines 5, 9, 14 and 3 more"
+function lineList(lines: readonly number[], total: number): string {
+  const shown = lines.slice(0, 5).join(', ');
+  return total > 5 ? `${shown} and ${total - 5} more` : shown;
+}
+
+// The file's own wording of a cell that held no number, for messages.
+function missingCellError(table: ParsedTable, column: number): CurveFileError | null {
+  const entry = table.missingCells?.[column];
+  if (entry === null || entry === undefined) return null;
+  const name = table.header[column];
+  const what = entry.firstText.length === 0 ? 'empty cell' : `not a number ("${entry.firstText}")`;
+  return new CurveFileError('bad-number', `line ${entry.firstLine}, column "${name}": ${what}`, { line: entry.firstLine, column: name });
+}
+
 /**
  * Converts the mapped columns to internal units and checks every value.
- * Current → A/cm² (total A or mA ÷ area), voltage → V, HFR → Ω·cm² (Ω or mΩ × area), time →
- * hours elapsed from the first row, temperature → °C. The area is `options.areaCm2`, else
- * the file's `Active area` line.
- * Refused (CurveFileError, with line and column): |V| > 2 V; j < −0.05 A/cm² or > 10 A/cm²;
- * HFR < 0 or > 10 Ω·cm²; temperature below absolute zero; time going backwards, except a
- * restart near zero (kept, hours carried on from the previous segment, listed in `timeResets`).
+ * Current → A/cm² (total A or mA ÷ area; load current logged negative is flipped: always with
+ * `negated`, and by itself when the column is ≤ 0 throughout), voltage → V, the file's own
+ * iR-free voltage → `vIrFree` (V; with no measured voltage, `v` = vIrFree − j·HFR where HFR
+ * is known, else NaN), HFR → Ω·cm² (Ω or mΩ × area; readings of 0 and blank cells are missing,
+ * NaN), time → hours elapsed from the first row, temperature → °C (blank → NaN). The area is
+ * `options.areaCm2`, else the file's `Active area` line.
+ * Refused (CurveFileError, with line and column): an empty or non-numeric cell in the voltage,
+ * current or time column; |V| > 2 V; j < −0.05 A/cm² or > 5 A/cm²; HFR < 0 or > 10 Ω·cm²; a
+ * column whose values cannot be what its unit says (`unit-slip`: volts under mV, mV under V,
+ * a current no cell carries, an HFR no cell shows — with the likely unit); temperature below
+ * absolute zero; time going backwards, except a restart near zero (kept, hours carried on
+ * from the previous segment, listed in `timeResets`).
  * A polarization curve needs a current column; a hold without one gets j = 0, a durability
  * log without one gets j = NaN (the current is then the build's, not the file's).
  * Reference: limits are common practice in the trade for single PEM cells.
  * Cost: O(rows) time, one Float64Array per mapped quantity.
  * @throws CurveFileError `bad-mapping`, `bad-area`, `area-required`, `missing-current`,
- *   `impossible-value`, `time-backwards`.
+ *   `bad-number`, `impossible-value`, `unit-slip`, `time-backwards`.
  * @example applyMapping(table, { current: { column: 0, unit: 'mA/cm2' }, voltage: { column: 1, unit: 'V' } }, { kind: 'polarization' }).j
  */
 export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options: ApplyMappingOptions): AppliedCurve {
@@ -134,16 +161,28 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
   const rowCount = table.rowCount;
   const lines = table.dataLines;
 
+  if (mapping.voltage === undefined && mapping.voltageIrFree === undefined) {
+    throw new CurveFileError('bad-mapping', 'mapping: a voltage column (measured or iR-free) is required', { line: table.headerLine });
+  }
   const voltageValues = checkColumn(table, 'voltage', mapping.voltage, VOLTAGE_UNITS);
-  if (voltageValues === null) throw new CurveFileError('bad-mapping', 'mapping: a voltage column is required', { line: table.headerLine });
+  const irFreeValues = checkColumn(table, 'iR-free voltage', mapping.voltageIrFree, VOLTAGE_UNITS);
   const currentValues = checkColumn(table, 'current', mapping.current, CURRENT_UNITS);
   const hfrValues = checkColumn(table, 'HFR', mapping.hfr, HFR_UNITS);
   const timeValues = checkColumn(table, 'time', mapping.time, TIME_UNITS);
   const temperatureValues = checkColumn(table, 'temperature', mapping.temperature, TEMPERATURE_UNITS);
   // In-place conversion is safe only for a column that feeds one quantity.
-  const mappedColumns = [mapping.voltage, mapping.current, mapping.hfr, mapping.time, mapping.temperature].filter((m) => m !== undefined).map((m) => m!.column);
+  const mappedColumns = [mapping.voltage, mapping.voltageIrFree, mapping.current, mapping.hfr, mapping.time, mapping.temperature].filter((m) => m !== undefined).map((m) => m!.column);
   const output = (values: Float64Array, column: number): Float64Array =>
     options.reuseColumns === true && mappedColumns.filter((c) => c === column).length === 1 ? values : new Float64Array(rowCount);
+
+  // ---- cells without a number: refused where a value is needed in every row
+  let firstMissing: CurveFileError | null = null;
+  for (const entry of [mapping.voltage, mapping.current, mapping.time]) {
+    if (entry === undefined) continue;
+    const error = missingCellError(table, entry.column);
+    if (error !== null && (firstMissing === null || (error.line ?? 0) < (firstMissing.line ?? 0))) firstMissing = error;
+  }
+  if (firstMissing !== null) throw firstMissing;
 
   // ---- area
   let areaCm2: number | null = null;
@@ -175,45 +214,91 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
       { line: table.headerLine, column: table.header[first.column] },
     );
   }
+  const judgingArea = areaCm2;
   if (needsArea.length === 0) areaCm2 = null;
 
-  // ---- voltage
-  const voltageUnit = mapping.voltage.unit;
-  const voltageScale = voltageFactor(voltageUnit);
-  const v = output(voltageValues, mapping.voltage.column);
-  const voltageName = table.header[mapping.voltage.column];
-  for (let row = 0; row < rowCount; row++) {
-    const volts = voltageValues[row] * voltageScale;
-    if (!(Math.abs(volts) <= MAX_CELL_VOLTAGE_V)) {
-      const raw = voltageValues[row];
-      const hint =
-        voltageUnit === 'V' && Math.abs(raw) <= 2000 ? 'is the column in mV?' : voltageUnit === 'mV' && Math.abs(raw) <= 2e6 ? 'is the column in µV?' : 'is this the right column?';
-      throw new CurveFileError(
-        'impossible-value',
-        `line ${lines[row]}, column "${voltageName}": ${formatValue(raw)} ${UNIT_LABEL[voltageUnit]} is not a possible cell voltage; ${hint}`,
-        { line: lines[row], column: voltageName },
-      );
+  // ---- unit slips, judged on the file's own values before anything is converted
+  const slips = findUnitSlips(table, mapping, kind, judgingArea);
+  if (slips.length > 0) {
+    const slip = slips[0];
+    const entry = mapping[slip.role] as { column: number };
+    const name = table.header[entry.column];
+    throw new CurveFileError('unit-slip', `line ${lines[slip.row]}, column "${name}": ${slip.message}`, { line: lines[slip.row], column: name });
+  }
+
+  // ---- voltage (measured) and the file's iR-free voltage
+  const convertVoltage = (values: Float64Array, entry: { column: number; unit: VoltageUnit }, allowMissing: boolean): Float64Array => {
+    const voltageUnit = entry.unit;
+    const voltageScale = voltageFactor(voltageUnit);
+    const target = output(values, entry.column);
+    const voltageName = table.header[entry.column];
+    for (let row = 0; row < rowCount; row++) {
+      const raw = values[row];
+      if (raw !== raw && allowMissing) {
+        target[row] = Number.NaN;
+        continue;
+      }
+      const volts = raw * voltageScale;
+      if (!(Math.abs(volts) <= MAX_CELL_VOLTAGE_V)) {
+        const hint =
+          voltageUnit === 'V' && Math.abs(raw) <= 2000 ? 'is the column in mV?' : voltageUnit === 'mV' && Math.abs(raw) <= 2e6 ? 'is the column in µV?' : 'is this the right column?';
+        throw new CurveFileError(
+          'impossible-value',
+          `line ${lines[row]}, column "${voltageName}": ${formatValue(raw)} ${UNIT_LABEL[voltageUnit]} is not a possible cell voltage; ${hint}`,
+          { line: lines[row], column: voltageName },
+        );
+      }
+      target[row] = volts;
     }
-    v[row] = volts;
+    return target;
+  };
+  const measured = voltageValues !== null && mapping.voltage !== undefined ? convertVoltage(voltageValues, mapping.voltage, false) : null;
+  let vIrFree: Float64Array | null = null;
+  if (irFreeValues !== null && mapping.voltageIrFree !== undefined) {
+    vIrFree = convertVoltage(irFreeValues, mapping.voltageIrFree, true);
+    if (mapping.voltage !== undefined) {
+      notes.push(`the file's own iR-free voltage "${table.header[mapping.voltageIrFree.column]}" is kept beside the measured "${table.header[mapping.voltage.column]}"`);
+    }
+    const blanks = table.missingCells?.[mapping.voltageIrFree.column];
+    if (blanks) notes.push(`iR-free voltage "${table.header[mapping.voltageIrFree.column]}" blank or not a number on ${blanks.count} row${blanks.count === 1 ? '' : 's'} (first line ${blanks.firstLine}): read as missing`);
   }
 
   // ---- current
   let j: Float64Array;
   if (currentValues !== null && mapping.current !== undefined) {
     const currentUnit = mapping.current.unit;
-    const scale = currentDensityFactor(currentUnit, areaCm2);
     const currentName = table.header[mapping.current.column];
+    let low = Infinity;
+    let high = -Infinity;
+    for (let row = 0; row < rowCount; row++) {
+      const value = currentValues[row];
+      if (value < low) low = value;
+      if (value > high) high = value;
+    }
+    const largest = Math.max(Math.abs(low), Math.abs(high));
+    const allNegative = largest > 0 && low < -SIGN_NOISE * largest && high <= SIGN_NOISE * largest;
+    const negate = mapping.current.negated === true || (mapping.current.negated === undefined && allNegative);
+    const sign = negate ? -1 : 1;
+    if (negate) {
+      notes.push(
+        `current "${currentName}" is logged negative (${formatValue(low)} to ${formatValue(high)} ${UNIT_LABEL[currentUnit]}): read as positive load current (values × −1)`,
+      );
+    }
+    const scale = sign * currentDensityFactor(currentUnit, areaCm2);
     const total = currentUnit === 'A' || currentUnit === 'mA';
     j = output(currentValues, mapping.current.column);
     for (let row = 0; row < rowCount; row++) {
-      const density = currentValues[row] * scale;
+      const raw = currentValues[row];
+      // 0 × −1 is −0: add 0 to keep open circuit a plain zero
+      const density = raw * scale + 0;
       if (density < MIN_CURRENT_DENSITY || density > MAX_CURRENT_DENSITY || density !== density) {
-        const raw = currentValues[row];
         const shown = total ? `${formatValue(raw)} ${UNIT_LABEL[currentUnit]} on ${areaCm2} cm² (${formatValue(density)} A/cm²)` : `${formatValue(raw)} ${UNIT_LABEL[currentUnit]}`;
         const problem =
           density < MIN_CURRENT_DENSITY
-            ? `${shown} is a negative current density below −0.05 A/cm²; is the sign reversed (some stations log load current as negative)?`
-            : `${shown} is above 10 A/cm², more than any cell carries; ${total ? 'is the area right, or the unit mA?' : currentUnit === 'A/cm2' ? 'is the column in mA/cm²?' : 'is this the right column?'}`;
+            ? negate
+              ? `${shown} is read as ${formatValue(density)} A/cm² once the negative logging is undone: the current changes sign mid-curve; check the column`
+              : `${shown} is a negative current density below −0.05 A/cm²; is the sign reversed (some stations log load current as negative)?`
+            : `${shown} is above ${MAX_CURRENT_DENSITY} A/cm², more than any cell carries; ${total ? 'is the area right, or the unit mA?' : currentUnit === 'A/cm2' ? 'is the column in mA/cm²?' : 'is this the right column?'}`;
         throw new CurveFileError('impossible-value', `line ${lines[row]}, column "${currentName}": ${problem}`, { line: lines[row], column: currentName });
       }
       j[row] = density;
@@ -228,18 +313,41 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     notes.push('no current column: j is unknown (NaN); the durability current is the build’s');
   }
 
+  const v = measured ?? new Float64Array(rowCount).fill(Number.NaN);
   const curve: AppliedCurve = { kind, j, v, areaCm2, timeResets: [], dataLines: lines, notes };
+  if (vIrFree !== null) curve.vIrFree = vIrFree;
 
-  // ---- HFR
+  // ---- HFR: 0 and blank are missing readings (NaN), not resistances
   if (hfrValues !== null && mapping.hfr !== undefined) {
     const hfrUnit = mapping.hfr.unit;
     const scale = hfrFactor(hfrUnit, areaCm2);
     const hfrName = table.header[mapping.hfr.column];
     const hfr = output(hfrValues, mapping.hfr.column);
+    const zeroLines: number[] = [];
+    let zeros = 0;
+    let blankAtOpenCircuit = 0;
+    const blankLoadedLines: number[] = [];
+    let blankLoaded = 0;
+    let readingsKept = 0;
     for (let row = 0; row < rowCount; row++) {
-      const asr = hfrValues[row] * scale;
+      const raw = hfrValues[row];
+      if (raw !== raw) {
+        if (Math.abs(j[row]) <= OPEN_CIRCUIT_J) blankAtOpenCircuit++;
+        else {
+          blankLoaded++;
+          if (blankLoadedLines.length < 5) blankLoadedLines.push(lines[row]);
+        }
+        hfr[row] = Number.NaN;
+        continue;
+      }
+      if (raw === 0) {
+        zeros++;
+        if (zeroLines.length < 5) zeroLines.push(lines[row]);
+        hfr[row] = Number.NaN;
+        continue;
+      }
+      const asr = raw * scale;
       if (!(asr >= 0 && asr <= MAX_HFR_OHM_CM2)) {
-        const raw = hfrValues[row];
         const shown = hfrUnit === 'ohm' || hfrUnit === 'mohm' ? `${formatValue(raw)} ${UNIT_LABEL[hfrUnit]} on ${areaCm2} cm² (${formatValue(asr)} Ω·cm²)` : `${formatValue(raw)} ${UNIT_LABEL[hfrUnit]}`;
         const hint = asr < 0 ? 'a resistance cannot be negative' : hfrUnit === 'ohm*cm2' ? 'is the column in mΩ·cm²?' : hfrUnit === 'ohm' ? 'is the column in mΩ?' : 'is this the right column?';
         throw new CurveFileError('impossible-value', `line ${lines[row]}, column "${hfrName}": ${shown} is not a possible HFR (0–10 Ω·cm²); ${hint}`, {
@@ -248,10 +356,32 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
         });
       }
       hfr[row] = asr;
+      readingsKept++;
     }
-    curve.hfr = hfr;
+    if (zeros > 0) notes.push(`HFR "${hfrName}" logged as 0 on ${zeros} row${zeros === 1 ? '' : 's'} (line${zeros === 1 ? '' : 's'} ${lineList(zeroLines, zeros)}): read as missing, not as a resistance`);
+    if (blankLoaded > 0) notes.push(`HFR "${hfrName}" blank on ${blankLoaded} row${blankLoaded === 1 ? '' : 's'} under load (line${blankLoaded === 1 ? '' : 's'} ${lineList(blankLoadedLines, blankLoaded)}): read as missing`);
+    if (blankAtOpenCircuit > 0) notes.push(`HFR blank on ${blankAtOpenCircuit} open-circuit row${blankAtOpenCircuit === 1 ? '' : 's'} (no current to measure it with): read as missing`);
+    if (readingsKept > 0) curve.hfr = hfr;
+    else notes.push(`HFR "${hfrName}" holds no readings: no HFR kept`);
   }
 
+  // ---- a file with only an iR-free voltage: the measured voltage is V_iR-free − j·HFR
+  if (measured === null && vIrFree !== null) {
+    const name = table.header[(mapping.voltageIrFree as { column: number }).column];
+    if (curve.hfr !== undefined) {
+      const hfr = curve.hfr;
+      let derived = 0;
+      for (let row = 0; row < rowCount; row++) {
+        const resistance = hfr[row];
+        if (Math.abs(j[row]) <= OPEN_CIRCUIT_J && resistance !== resistance) v[row] = vIrFree[row];
+        else v[row] = vIrFree[row] - j[row] * resistance;
+        if (v[row] === v[row]) derived++;
+      }
+      notes.push(`the file gives only an iR-free voltage ("${name}"): the cell voltage is computed as V_iR-free − j·HFR (${derived} of ${rowCount} rows; missing where the HFR is)`);
+    } else {
+      notes.push(`the file gives only an iR-free voltage ("${name}") and no HFR: the measured cell voltage is unknown; only iR-free metrics can be read`);
+    }
+  }
   // ---- time
   if (timeValues !== null && mapping.time !== undefined) {
     const timeUnit = mapping.time.unit;
@@ -301,8 +431,14 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const temperatureName = table.header[mapping.temperature.column];
     const temperatureC = output(temperatureValues, mapping.temperature.column);
     const shift = temperatureUnit === 'K' ? -ZERO_CELSIUS_K : 0;
+    const blanks = table.missingCells?.[mapping.temperature.column];
+    if (blanks) notes.push(`temperature "${temperatureName}" blank or not a number on ${blanks.count} row${blanks.count === 1 ? '' : 's'} (first line ${blanks.firstLine}): read as missing`);
     for (let row = 0; row < rowCount; row++) {
       const celsius = temperatureValues[row] + shift;
+      if (celsius !== celsius) {
+        temperatureC[row] = Number.NaN;
+        continue;
+      }
       if (!(celsius >= -ZERO_CELSIUS_K)) {
         throw new CurveFileError(
           'impossible-value',

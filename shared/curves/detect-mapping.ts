@@ -3,6 +3,14 @@
 import type { ColumnMapping, CurrentUnit, CurveKind, HfrUnit, ParsedTable, TemperatureUnit, TimeUnit, VoltageUnit } from './types';
 import { recogniseHeaderUnit } from '../units/recognise-header-unit';
 import type { HeaderQuantity, HeaderUnitMatch } from '../units/recognise-header-unit';
+import { currentSlip, hfrSlip, PLAUSIBLE, unitLabel, voltageSlip } from './unit-plausibility';
+import type { UnitSlip } from './unit-plausibility';
+import { countCurrentLevels } from './current-levels';
+
+export interface DetectMappingOptions {
+  /** the active area the upload will use (form, file or build), cm²: lets totals be judged */
+  areaCm2?: number | null;
+}
 
 /** How one column was read, for the preview. */
 export interface ColumnReading {
@@ -62,10 +70,14 @@ function columnStats(values: Float64Array): ColumnStats {
   return { min, max, maxAbs: Math.max(Math.abs(min), Math.abs(max)), median, mean, sd };
 }
 
-function formatRange(stats: ColumnStats): string {
+function formatRange(stats: ColumnStats, unit?: string | null): string {
   const digits = stats.maxAbs >= 100 ? 0 : stats.maxAbs >= 10 ? 1 : 3;
-  return `${stats.min.toFixed(digits)}–${stats.max.toFixed(digits)}`;
+  const range = `${stats.min.toFixed(digits)} to ${stats.max.toFixed(digits)}`;
+  return unit ? `${range} ${unitLabel(unit)}` : range;
 }
+
+// Share of the column's largest magnitude under which readings of the other sign are noise.
+const SIGN_NOISE = 0.02;
 
 function quoted(table: ParsedTable, index: number): string {
   return `"${table.header[index]}"`;
@@ -73,20 +85,24 @@ function quoted(table: ParsedTable, index: number): string {
 
 /**
  * Parsed table → a column mapping guess. Header units are believed first
- * (recogniseHeaderUnit); a header with no unit gets one from the values: voltage up to
- * ~2 → V, up to ~2000 → mV; current up to ~4 → A/cm², up to ~4000 → mA/cm² (then
- * `ambiguous`, since a total current in A or mA looks the same); HFR up to ~2 → Ω·cm²,
- * else mΩ·cm² (ambiguous). Two voltage columns (e.g. measured and iR-free) → the measured
- * one, ambiguous. A time column makes the kind `durability` unless `kind` is given — except
- * when the current column steps over a wide range, which is a polarization curve with a
- * clock (then `polarization`, ambiguous). A current column that is ~0 throughout with a
- * time column → `hold`.
+ * (recogniseHeaderUnit); a header with no unit gets one from the values: voltage up to ~2 → V,
+ * up to ~2000 → mV; current and HFR take the one unit (A/cm², mA/cm², and with the area A, mA;
+ * Ω·cm², mΩ·cm², Ω, mΩ) under which the values are a cell's (5 mA/cm²–5 A/cm²; 0.02–3 Ω·cm²),
+ * and ask (`ambiguous`) when several fit. An iR-corrected voltage column ("E_iR-free (V)")
+ * maps to `voltageIrFree`, beside the measured voltage or alone. Two measured voltage columns →
+ * the first, ambiguous. A current column ≤ 0 throughout is marked `negated`; one that changes
+ * sign asks. A time column makes the kind `durability` unless `kind` is given — except when the
+ * current steps through ≥ 4 levels over its range with no level holding half the readings,
+ * which is a polarization curve with a clock (no question); in between, it asks. A current
+ * ≈ 0 throughout with a time column → `hold`. Finally every mapped column is checked for unit
+ * slips (findUnitSlips): the plausible unit is proposed and the detection asks, naming the line.
  * Reference: magnitudes are those of single cells (common practice in the trade):
  * 0–1.2 V, 0–3 A/cm², HFR 0.05–1 Ω·cm².
  * Cost: O(rows × columns).
  * @example detectMapping(parseDelimitedText('j (A/cm2),U (V)\n0.2,0.65\n')).mapping // { current: {column:0,unit:'A/cm2'}, voltage: {column:1,unit:'V'} }
  */
-export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDetection {
+export function detectMapping(table: ParsedTable, kind?: CurveKind, options: DetectMappingOptions = {}): MappingDetection {
+  const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? null;
   if (table === null || typeof table !== 'object' || !Array.isArray(table.header) || !Array.isArray(table.columns)) {
     throw new TypeError('detectMapping: table must be a ParsedTable');
   }
@@ -124,17 +140,29 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDete
     return match !== null && match.unitText !== null && match.unit === null && reading.unitSource !== 'cells';
   };
 
-  // ---- voltage
+  // ---- voltage: the measured cell voltage, and an iR-free (iR-corrected) one when named so
   let voltageReading: ColumnReading | null = null;
+  let irFreeReading: ColumnReading | null = null;
   const voltageCandidates = ofQuantity('voltage');
   if (voltageCandidates.length > 0) {
     const measured = voltageCandidates.filter((reading) => !reading.irFree);
-    voltageReading = measured.length > 0 ? measured[0] : voltageCandidates[0];
-    if (voltageCandidates.length > 1) {
+    const corrected = voltageCandidates.filter((reading) => reading.irFree);
+    voltageReading = measured[0] ?? null;
+    irFreeReading = corrected[0] ?? null;
+    if (measured.length > 1) {
       ambiguous = true;
-      const names = voltageCandidates.map((reading) => quoted(table, reading.index)).join(' and ');
-      const which = voltageReading.irFree ? 'the first (all are iR-corrected)' : 'the measured one';
-      reasons.push(`${voltageCandidates.length} voltage columns: ${names}; using ${quoted(table, voltageReading.index)}, ${which}; confirm`);
+      const names = measured.map((reading) => quoted(table, reading.index)).join(' and ');
+      reasons.push(`${measured.length} voltage columns: ${names}; using ${quoted(table, measured[0].index)} as the cell voltage; confirm`);
+    }
+    if (corrected.length > 1) {
+      ambiguous = true;
+      const names = corrected.map((reading) => quoted(table, reading.index)).join(' and ');
+      reasons.push(`${corrected.length} iR-free voltage columns: ${names}; using ${quoted(table, corrected[0].index)}; confirm`);
+    }
+    if (irFreeReading !== null && voltageReading !== null) {
+      reasons.push(`${quoted(table, irFreeReading.index)} is read as the file's own iR-free voltage, ${quoted(table, voltageReading.index)} as the measured cell voltage`);
+    } else if (irFreeReading !== null) {
+      reasons.push(`the only voltage column, ${quoted(table, irFreeReading.index)}, is iR-corrected: read as iR-free voltage, not as the measured cell voltage`);
     }
   } else {
     // Without names, a cell voltage is the column in a voltage range whose smallest value is
@@ -160,21 +188,24 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDete
         voltageReading = { ...best, quantity: 'voltage', unit, unitSource: 'values' };
         readings[best.index] = voltageReading;
         ambiguous = true;
-        reasons.push(`no header names a voltage; ${quoted(table, best.index)} (values ${formatRange(columnStatistics)}) read as cell voltage in ${unit}; confirm`);
+        reasons.push(`no header names a voltage; ${quoted(table, best.index)} (${formatRange(columnStatistics, unit)}) read as the cell voltage; confirm`);
         break;
       }
     }
   }
-  if (voltageReading !== null && voltageReading.unit === null) {
-    const columnStatistics = stats[voltageReading.index];
-    if (columnStatistics !== null) {
-      const unit: VoltageUnit = columnStatistics.maxAbs <= 2 ? 'V' : 'mV';
-      voltageReading = { ...voltageReading, unit, unitSource: 'values' };
-      readings[voltageReading.index] = voltageReading;
-      if (unitTextIgnored(voltageReading) || columnStatistics.maxAbs > 2000) ambiguous = true;
-      reasons.push(`${quoted(table, voltageReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unit}`);
-    }
-  }
+  const unitFromValues = (reading: ColumnReading | null): ColumnReading | null => {
+    if (reading === null || reading.unit !== null) return reading;
+    const columnStatistics = stats[reading.index];
+    if (columnStatistics === null) return reading;
+    const unit: VoltageUnit = columnStatistics.maxAbs <= 2 ? 'V' : 'mV';
+    const filled: ColumnReading = { ...reading, unit, unitSource: 'values' };
+    readings[reading.index] = filled;
+    if (unitTextIgnored(filled) || columnStatistics.maxAbs > 2000) ambiguous = true;
+    reasons.push(`${quoted(table, reading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unit}`);
+    return filled;
+  };
+  voltageReading = unitFromValues(voltageReading);
+  irFreeReading = unitFromValues(irFreeReading);
 
   // ---- current
   let currentReading: ColumnReading | null = null;
@@ -203,15 +234,52 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDete
   if (currentReading !== null && currentReading.unit === null) {
     const columnStatistics = stats[currentReading.index];
     if (columnStatistics !== null) {
-      const unit: CurrentUnit = columnStatistics.maxAbs <= 4 ? 'A/cm2' : 'mA/cm2';
+      // the units under which the largest current is a cell's (5 mA/cm² to 5 A/cm²)
+      const candidates: CurrentUnit[] = areaCm2 !== null && areaCm2 > 0 ? ['A/cm2', 'mA/cm2', 'A', 'mA'] : ['A/cm2', 'mA/cm2'];
+      const plausible = candidates.filter((unit) => {
+        const factor = unit === 'A/cm2' ? 1 : unit === 'mA/cm2' ? 1e-3 : (unit === 'A' ? 1 : 1e-3) / (areaCm2 as number);
+        const peak = columnStatistics.maxAbs * factor;
+        return peak >= PLAUSIBLE.minPolarizationPeak && peak <= PLAUSIBLE.maxCurrentDensity;
+      });
+      const fallback: CurrentUnit = columnStatistics.maxAbs <= 4 ? 'A/cm2' : 'mA/cm2';
+      const unit: CurrentUnit = plausible.length === 1 ? plausible[0] : plausible.includes(fallback) || plausible.length === 0 ? fallback : plausible[0];
       currentReading = { ...currentReading, unit, unitSource: 'values' };
-      ambiguous = true;
-      reasons.push(
-        `${quoted(table, currentReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unit === 'A/cm2' ? 'A/cm²' : 'mA/cm²'} (a total current in A or mA would look the same); confirm`,
-      );
+      if (plausible.length === 1 && areaCm2 !== null) {
+        reasons.push(`${quoted(table, currentReading.index)} has no unit we read; ${formatRange(columnStatistics)} can only be ${unitLabel(unit)} on ${areaCm2} cm² (other units give less than 5 mA/cm² or more than 5 A/cm²)`);
+      } else {
+        ambiguous = true;
+        const others = plausible.filter((other) => other !== unit).map(unitLabel);
+        const alternatives = others.length > 0 ? others.join(' or ') : areaCm2 === null ? 'a total current in A or mA' : 'another unit';
+        reasons.push(`${quoted(table, currentReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unitLabel(unit)} (${alternatives} would look the same); confirm`);
+      }
     }
   }
   if (currentReading !== null) readings[currentReading.index] = currentReading;
+  // Load current logged negative: a column that is ≤ 0 throughout (noise aside) is flipped; one
+  // that changes sign mid-curve is asked about.
+  let currentNegated = false;
+  if (currentReading !== null) {
+    const columnStatistics = stats[currentReading.index];
+    if (columnStatistics !== null && columnStatistics.maxAbs > 0) {
+      const noise = SIGN_NOISE * columnStatistics.maxAbs;
+      if (columnStatistics.min < -noise && columnStatistics.max <= noise) {
+        currentNegated = true;
+        reasons.push(`${quoted(table, currentReading.index)} is negative throughout (${formatRange(columnStatistics, currentReading.unit)}): read as load current logged with a negative sign, values × −1`);
+      } else if (columnStatistics.min < -noise && columnStatistics.max > noise) {
+        ambiguous = true;
+        const values = table.columns[currentReading.index] as Float64Array;
+        let change = -1;
+        for (let row = 1; row < values.length; row++) {
+          if ((values[row] > noise && values[row - 1] < -noise) || (values[row] < -noise && values[row - 1] > noise)) {
+            change = row;
+            break;
+          }
+        }
+        const where = change >= 0 ? ` (first at line ${table.dataLines[change]})` : '';
+        reasons.push(`${quoted(table, currentReading.index)} changes sign mid-curve${where}, from ${formatRange(columnStatistics, currentReading.unit)}; a cell's load current has one sign: say whether the file logs it negative, or choose another column`);
+      }
+    }
+  }
 
   // ---- HFR
   let hfrReading: ColumnReading | null = null;
@@ -225,12 +293,18 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDete
     if (hfrReading.unit === null) {
       const columnStatistics = stats[hfrReading.index];
       if (columnStatistics !== null) {
-        const unit: HfrUnit = Math.abs(columnStatistics.median) <= 2 ? 'ohm*cm2' : 'mohm*cm2';
+        const guess: HfrUnit = Math.abs(columnStatistics.median) <= 2 ? 'ohm*cm2' : 'mohm*cm2';
+        const values = table.columns[hfrReading.index] as Float64Array;
+        const candidates: HfrUnit[] = areaCm2 !== null && areaCm2 > 0 ? ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] : ['ohm*cm2', 'mohm*cm2'];
+        const plausible = candidates.filter((unit) => hfrSlip(values, unit, areaCm2) === null);
+        const unit: HfrUnit = plausible.length === 1 ? plausible[0] : plausible.includes(guess) || plausible.length === 0 ? guess : plausible[0];
         hfrReading = { ...hfrReading, unit, unitSource: 'values' };
-        ambiguous = true;
-        reasons.push(
-          `${quoted(table, hfrReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unit === 'ohm*cm2' ? 'Ω·cm²' : 'mΩ·cm²'} (a cell resistance in Ω or mΩ would need the area); confirm`,
-        );
+        if (plausible.length === 1 && areaCm2 !== null) {
+          reasons.push(`${quoted(table, hfrReading.index)} has no unit we read; ${formatRange(columnStatistics)} can only be ${unitLabel(unit)}${unit === 'ohm' || unit === 'mohm' ? ` on ${areaCm2} cm²` : ''} (other units give no cell's HFR)`);
+        } else {
+          ambiguous = true;
+          reasons.push(`${quoted(table, hfrReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unitLabel(unit)} (a cell resistance in Ω or mΩ would need the area); confirm`);
+        }
       }
     }
     readings[hfrReading.index] = hfrReading;
@@ -270,6 +344,8 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDete
 
   // ---- kind
   let detectedKind: CurveKind;
+  let timeUnitGuessed = false;
+  if (timeReading !== null && timeReading.unitSource === 'values') timeUnitGuessed = true;
   if (kind !== undefined) {
     detectedKind = kind;
   } else if (timeReading !== null) {
@@ -277,16 +353,27 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDete
     const currentStatistics = currentReading === null ? null : stats[currentReading.index];
     if (currentStatistics !== null && currentReading !== null) {
       const hold = currentReading.unit === 'A/cm2' || currentReading.unit === 'A' ? currentStatistics.maxAbs < 0.001 : currentStatistics.maxAbs < 1;
-      const steps = currentStatistics.max - currentStatistics.min > 0.5 * currentStatistics.maxAbs && currentStatistics.sd > 0.25 * Math.abs(currentStatistics.mean);
+      const currentValues = table.columns[currentReading.index] as Float64Array;
+      const { levels, modalShare } = countCurrentLevels(currentValues, { relativeTolerance: 0.03, absoluteTolerance: 0.002 * currentStatistics.maxAbs });
+      const spansRange = currentStatistics.max - currentStatistics.min > 0.5 * currentStatistics.maxAbs;
+      const voltageStatistics = voltageReading !== null ? stats[voltageReading.index] : irFreeReading !== null ? stats[irFreeReading.index] : null;
+      const voltageScale = (voltageReading ?? irFreeReading)?.unit === 'mV' ? 1e-3 : 1;
+      const voltageSpan = voltageStatistics === null ? 0 : (voltageStatistics.max - voltageStatistics.min) * voltageScale;
+      const range = formatRange(currentStatistics, currentReading.unit);
       if (hold) {
         detectedKind = 'hold';
         reasons.push(`time column and current ≈ 0 throughout: read as an open-circuit hold`);
-      } else if (steps) {
+      } else if (spansRange && levels.length >= 4 && modalShare < 0.5 && voltageSpan > 0.1) {
         detectedKind = 'polarization';
-        ambiguous = true;
-        reasons.push(`time column present, but the current steps over ${formatRange(currentStatistics)}: read as a polarization curve; confirm`);
+        reasons.push(`time column present, and the current steps through ${levels.length} levels over ${range}: read as a polarization curve logged against time`);
+      } else if (!spansRange || levels.length <= 2 || modalShare >= 0.8) {
+        reasons.push(`time column present and the current held at one level (${Math.round(modalShare * 100)} % of readings): read as a durability log`);
       } else {
-        reasons.push('time column present and current about constant: read as a durability log');
+        ambiguous = true;
+        detectedKind = modalShare < 0.65 && voltageSpan > 0.1 ? 'polarization' : 'durability';
+        reasons.push(
+          `time column present; the current takes ${levels.length} levels over ${range} with ${Math.round(modalShare * 100)} % of readings at the most common one: read as ${detectedKind === 'polarization' ? 'a polarization curve' : 'a durability log'}; confirm the kind`,
+        );
       }
     } else {
       reasons.push('time column present: read as a durability log');
@@ -294,8 +381,13 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDete
   } else {
     detectedKind = 'polarization';
   }
+  if (timeUnitGuessed && timeReading !== null && detectedKind !== 'polarization') {
+    ambiguous = true;
+    reasons.push(`${quoted(table, timeReading.index)} has no unit we read; read as seconds; confirm`);
+  }
 
-  if (voltageReading === null || voltageReading.unit === null) {
+  const anyVoltage = voltageReading ?? irFreeReading;
+  if (anyVoltage === null || anyVoltage.unit === null) {
     reasons.push('no voltage column found: name it e.g. "Voltage (V)" or "U (mV)", or choose the columns by hand');
     return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
   }
@@ -308,15 +400,61 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind): MappingDete
     return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
   }
 
-  const mapping: ColumnMapping = { voltage: { column: voltageReading.index, unit: voltageReading.unit as VoltageUnit } };
-  if (currentReading !== null && currentReading.unit !== null) mapping.current = { column: currentReading.index, unit: currentReading.unit as CurrentUnit };
+  const mapping: ColumnMapping = {};
+  if (voltageReading !== null && voltageReading.unit !== null) mapping.voltage = { column: voltageReading.index, unit: voltageReading.unit as VoltageUnit };
+  if (irFreeReading !== null && irFreeReading.unit !== null) mapping.voltageIrFree = { column: irFreeReading.index, unit: irFreeReading.unit as VoltageUnit };
+  if (currentReading !== null && currentReading.unit !== null) {
+    mapping.current = { column: currentReading.index, unit: currentReading.unit as CurrentUnit };
+    if (currentNegated) mapping.current.negated = true;
+  }
   if (hfrReading !== null && hfrReading.unit !== null) mapping.hfr = { column: hfrReading.index, unit: hfrReading.unit as HfrUnit };
   if (timeReading !== null && timeReading.unit !== null) mapping.time = { column: timeReading.index, unit: timeReading.unit as TimeUnit };
   if (temperatureReading !== null && temperatureReading.unit !== null) {
     mapping.temperature = { column: temperatureReading.index, unit: temperatureReading.unit as TemperatureUnit };
   }
-  if ((mapping.current?.unit === 'A' || mapping.current?.unit === 'mA' || mapping.hfr?.unit === 'ohm' || mapping.hfr?.unit === 'mohm') && table.conditions.areaCm2 === undefined) {
-    reasons.push('total current or cell resistance: the active area (cm²) is needed, and the file does not state it');
+  if ((mapping.current?.unit === 'A' || mapping.current?.unit === 'mA' || mapping.hfr?.unit === 'ohm' || mapping.hfr?.unit === 'mohm') && areaCm2 === null) {
+    reasons.push('total current or cell resistance: the active area (cm²) is needed, and neither the file nor the build states it');
+  }
+
+  // ---- unit slips: propose the unit that makes the column a cell's, and ask
+  for (const slip of findUnitSlips(table, mapping, detectedKind, areaCm2)) {
+    ambiguous = true;
+    const entry = mapping[slip.role] as { column: number; unit: string };
+    const line = table.dataLines[slip.row];
+    reasons.push(`line ${line}, column ${quoted(table, entry.column)}: ${slip.message}`);
+    if (slip.proposed !== null) entry.unit = slip.proposed;
   }
   return { mapping, ambiguous, reasons, kind: detectedKind, columns: readings };
+}
+
+/**
+ * Every mapped column whose values cannot be what its unit says (see unit-plausibility):
+ * voltage and iR-free voltage, current (sign as the mapping says), HFR.
+ * Cost: O(rows) per mapped column.
+ */
+export function findUnitSlips(table: ParsedTable, mapping: ColumnMapping, kind: CurveKind, areaCm2: number | null): (UnitSlip & { role: keyof ColumnMapping })[] {
+  const slips: (UnitSlip & { role: keyof ColumnMapping })[] = [];
+  const values = (column: number): Float64Array | null => table.columns[column] ?? null;
+  for (const role of ['voltage', 'voltageIrFree'] as const) {
+    const entry = mapping[role];
+    const column = entry === undefined ? null : values(entry.column);
+    if (entry === undefined || column === null) continue;
+    const slip = voltageSlip(column, entry.unit);
+    if (slip !== null) slips.push({ ...slip, role });
+  }
+  if (mapping.current !== undefined) {
+    const column = values(mapping.current.column);
+    if (column !== null) {
+      const slip = currentSlip(column, mapping.current.unit, areaCm2, kind);
+      if (slip !== null) slips.push({ ...slip, role: 'current' });
+    }
+  }
+  if (mapping.hfr !== undefined) {
+    const column = values(mapping.hfr.column);
+    if (column !== null) {
+      const slip = hfrSlip(column, mapping.hfr.unit, areaCm2);
+      if (slip !== null) slips.push({ ...slip, role: 'hfr' });
+    }
+  }
+  return slips;
 }

@@ -2,8 +2,8 @@
 // metadata lines, the header and the numeric rows, and keeps numbers in growable Float64Arrays
 // (no object per row) so a 1,000,000-row durability log parses in a few seconds.
 import { CurveFileError } from './types';
-import type { ColumnKind, Delimiter, ParsedTable } from './types';
-import { readConditions } from './read-conditions';
+import type { ColumnKind, Delimiter, FileConditions, ParsedTable } from './types';
+import { mergeConditions, readConditions } from './read-conditions';
 import { parseDuration, parseTimestamp } from '../units/parse-timestamp';
 import { lookUpUnit, recogniseHeaderUnit } from '../units/recognise-header-unit';
 
@@ -31,6 +31,13 @@ const MESSAGE_CELL_MAX = 40;
 
 const DOT_NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 const COMMA_NUMBER = /^[+-]?(?:\d+(?:,\d*)?|,\d+)(?:[eE][+-]?\d+)?$/;
+// Thousands separators: "1,000.0" / "12,500" (point decimal), "1.000,0" / "12.500" (decimal
+// comma). A leading group never starts with 0, so "0,652" and "0.652" are plain decimals.
+const GROUPED_POINT_DECIMAL = /^[+-]?[1-9]\d{0,2}(?:,\d{3})+(?:\.\d*)?$/;
+const GROUPED_COMMA_DECIMAL = /^[+-]?[1-9]\d{0,2}(?:\.\d{3})+(?:,\d*)?$/;
+// One separator followed by exactly three digits ("1,500", "2.250"): a decimal or a thousands
+// separator, which a single cell cannot tell.
+const GROUP_OR_DECIMAL = /^[+-]?[1-9]\d{0,2}[.,]\d{3}$/;
 const NOT_A_NUMBER_TOKEN = /^(?:nan|na|n\/a|#n\/a|null|none|inf|[+-]inf|infinity|[+-]infinity|#value!|#div\/0!|#num!|-+|—|error|err)$/i;
 const DATE_TOKEN = /^\d{4}[-/]\d{1,2}[-/]\d{1,2}$/;
 const TIME_TOKEN = /^\d{1,2}:\d{2}(?::\d{2}(?:[.,]\d+)?)?(?:Z|[+-]\d{2}:?\d{2})?$/i;
@@ -129,6 +136,8 @@ function classifyCell(raw: string, allowDecimalComma: boolean): CellClass {
   if (cell.length === 0) return 'empty';
   if (DOT_NUMBER.test(cell)) return 'number';
   if (allowDecimalComma && COMMA_NUMBER.test(cell)) return 'number';
+  if (GROUPED_POINT_DECIMAL.test(cell)) return 'number';
+  if (allowDecimalComma && GROUPED_COMMA_DECIMAL.test(cell)) return 'number';
   if (NOT_A_NUMBER_TOKEN.test(cell)) return 'nan';
   const first = cell.charCodeAt(0);
   if (first >= 48 && first <= 57) {
@@ -145,11 +154,19 @@ function classifyCell(raw: string, allowDecimalComma: boolean): CellClass {
 function parseNumberCell(cell: string, decimalComma: boolean): number {
   let text = cell;
   if (decimalComma) {
+    if (text.indexOf('.') >= 0) {
+      const grouped = parseGroupedCell(text, true);
+      if (grouped === grouped) return grouped;
+    }
     const comma = text.indexOf(',');
     if (comma >= 0) text = text.slice(0, comma) + '.' + text.slice(comma + 1);
   }
   const value = +text;
   if (value - value !== 0) {
+    if (!decimalComma && text.indexOf(',') >= 0) {
+      const grouped = parseGroupedCell(text, false);
+      if (grouped === grouped) return grouped;
+    }
     // a quoted number in a whitespace-separated file still reads
     if (text.includes('"')) {
       const unquoted = stripCellQuotes(text);
@@ -165,6 +182,57 @@ function parseNumberCell(cell: string, decimalComma: boolean): number {
     if (next === 0x78 || next === 0x62 || next === 0x6f) return Number.NaN;
   }
   return value;
+}
+
+/**
+ * A number written with thousands separators → value; NaN when the cell is not one.
+ * Decimal-comma files group with points ("1.000,0"), point-decimal files with commas ("1,000.0").
+ */
+function parseGroupedCell(cell: string, decimalComma: boolean): number {
+  const text = stripCellQuotes(cell);
+  if (decimalComma) {
+    if (!GROUPED_COMMA_DECIMAL.test(text)) return Number.NaN;
+    return +text.replace(/\./g, '').replace(',', '.');
+  }
+  if (!GROUPED_POINT_DECIMAL.test(text)) return Number.NaN;
+  return +text.replace(/,/g, '');
+}
+
+function isGroupedCell(cell: string, decimalComma: boolean): boolean {
+  const text = stripCellQuotes(cell);
+  return decimalComma ? text.includes('.') && GROUPED_COMMA_DECIMAL.test(text) : text.includes(',') && GROUPED_POINT_DECIMAL.test(text);
+}
+
+// Cells that hold no value: blank, or a not-a-number word of a spreadsheet or station.
+function isMissingCell(cell: string): boolean {
+  const text = stripCellQuotes(cell);
+  return text.length === 0 || NOT_A_NUMBER_TOKEN.test(text);
+}
+
+// Comment lines: "#", "//", "%" or "!" first (after blanks), or ";" in files not separated by ";".
+function isCommentLine(text: string, delimiter: Delimiter | null): boolean {
+  const head = text.charCodeAt(0);
+  // fast path: a line starting with a digit, sign or point is data
+  if ((head >= 48 && head <= 57) || head === 45 || head === 43 || head === 46) return false;
+  let start = 0;
+  while (start < text.length && (text.charCodeAt(start) === 32 || text.charCodeAt(start) === 9)) start++;
+  const first = text.charCodeAt(start);
+  if (first === 35 || first === 37 || first === 33) return true; // # % !
+  if (first === 47 && text.charCodeAt(start + 1) === 47) return true; // //
+  return first === 59 && delimiter !== null && delimiter !== ';'; // ;
+}
+
+// A rule line such as "-----", "=====", "*****" or "~~~" between blocks.
+function isRuleLine(text: string): boolean {
+  const trimmed = text.trim();
+  return trimmed.length >= 3 && /^[-=*~_+#.\s]+$/.test(trimmed) && !/\d/.test(trimmed);
+}
+
+// A cell that reads as words ("End of test", "Peak power"), not as a mistyped number ("0.6x").
+function isWordCell(cell: string): boolean {
+  const text = stripCellQuotes(cell);
+  if (text.length === 0) return false;
+  return /^[^\d+\-.,]/.test(text) && /\p{L}{2}/u.test(text);
 }
 
 function shortCell(cell: string): string {
@@ -229,6 +297,7 @@ interface Layout {
   unitCells: string[] | null;
   exactRows: number;
   firstDataBalance: number;
+  decimalMarkAmbiguous: boolean;
 }
 
 function readRow(cells: string[], allowDecimalComma: boolean): SplitRow {
@@ -258,16 +327,31 @@ function isHeaderRow(row: SplitRow): boolean {
   return row.count >= 2 && row.dataLike === 0 && row.texts >= 2;
 }
 
+// Units of columns we do not read (humidity, flows, pressures, power) still make a unit row.
+const OTHER_UNIT = /^[([]?\s*(?:%|%\s*rh|rh|rpm|sccm|slpm|slm|nlpm|ml\/min|l\/min|nl\/min|kpa[ag]?|bar[ag]?|mbar|psi[ag]?|pa|atm|w|mw|w\/cm2|w\/cm²|mw\/cm2|mw\/cm²|a\.u\.|au|#|no\.?|1|-|–|—|n\/a|hz|khz|deg|°)\s*[)\]]?$/i;
+
+// The row under a header is a unit row when every filled cell is a unit ("A/cm²", "[V]",
+// "mΩ·cm²", or one of columns we do not read: "%", "sccm") and one of them is a unit we read.
 function isUnitRow(cells: readonly string[], count: number, headerCount: number): boolean {
   if (count === 0 || count > headerCount) return false;
+  let filled = 0;
   let units = 0;
+  let ours = 0;
   for (let index = 0; index < count; index++) {
     const cell = stripCellQuotes(cells[index]);
-    if (cell.length === 0 || cell === '-') continue;
-    if (lookUpUnit(cell) === null) return false;
-    units++;
+    if (cell.length === 0) continue;
+    filled++;
+    if (DOT_NUMBER.test(cell) || COMMA_NUMBER.test(cell)) return false;
+    if (lookUpUnit(cell) !== null) {
+      units++;
+      ours++;
+    } else if (OTHER_UNIT.test(cell)) {
+      units++;
+    } else {
+      return false;
+    }
   }
-  return units >= 1;
+  return ours >= 1 && units === filled;
 }
 
 // Alternative header splits for whitespace files, whose names may contain spaces:
@@ -341,24 +425,45 @@ function findLayout(lines: readonly BufferedLine[]): Layout | null {
         unitCells: unitIndex === null ? null : rows[unitIndex].cells,
         exactRows,
         firstDataBalance: firstData.numbers - firstData.texts,
+        decimalMarkAmbiguous: false,
       };
       if (best === null || compareLayouts(layout, best) > 0) best = layout;
     }
   }
   if (best === null) return null;
   if (best.delimiter !== ',') {
-    // decimal comma when numbers in the data rows use a comma and none uses a point
+    // Decimal comma when the data rows' numbers say so. Cells that cannot be a grouped number
+    // ("0,652", "12,5", "1.000,5") decide; "1,500" could be 1.5 or 1500 and only breaks a tie.
     let commaCells = 0;
     let pointCells = 0;
+    let eitherCommaCells = 0;
     const firstDataIndex = (best.unitIndex ?? best.headerIndex) + 1;
     for (let index = firstDataIndex; index < lines.length && index < firstDataIndex + DETECTION_DATA_ROWS; index++) {
       for (const raw of splitLine(lines[index].text, best.delimiter)) {
         const cell = stripCellQuotes(raw);
-        if (cell.includes(',') && COMMA_NUMBER.test(cell)) commaCells++;
-        else if (cell.includes('.') && DOT_NUMBER.test(cell)) pointCells++;
+        const hasComma = cell.includes(',');
+        const hasPoint = cell.includes('.');
+        if (hasComma && hasPoint) {
+          if (GROUPED_COMMA_DECIMAL.test(cell)) commaCells++;
+          else if (GROUPED_POINT_DECIMAL.test(cell)) pointCells++;
+        } else if (GROUP_OR_DECIMAL.test(cell)) {
+          if (hasComma) eitherCommaCells++;
+        } else if (hasComma && (COMMA_NUMBER.test(cell) || GROUPED_COMMA_DECIMAL.test(cell))) {
+          commaCells++;
+        } else if (hasComma && GROUPED_POINT_DECIMAL.test(cell)) {
+          pointCells++;
+        } else if (hasPoint && DOT_NUMBER.test(cell)) {
+          pointCells++;
+        }
       }
     }
-    best.decimalComma = commaCells > 0 && commaCells >= pointCells;
+    if (commaCells > 0 || pointCells > 0) {
+      best.decimalComma = commaCells > 0 && commaCells >= pointCells;
+    } else if (eitherCommaCells > 0) {
+      // nothing decides: read "1,500" as 1.5 (as a decimal-comma file writes it), and say so
+      best.decimalComma = true;
+      best.decimalMarkAmbiguous = true;
+    }
   }
   return best;
 }
@@ -495,6 +600,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
   // data phase
   let delimiter: Delimiter = ',';
   let decimalComma = false;
+  let decimalMarkAmbiguous = false;
   let headerLine = 0;
   let unitLine: number | null = null;
   let headerText = '';
@@ -509,19 +615,37 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
   const preview: string[][] = [];
   let rowCount = 0;
 
+  // per stored column: cells without a value (stored as NaN), and cells with thousands separators
+  let missing: ({ count: number; firstLine: number; firstText: string } | null)[] = [];
+  let grouped: number[] = [];
+  let scratch = new Float64Array(0);
+  // Lines after the table: once a line that is not data starts a tail, everything up to the end
+  // is left out, unless data of the table's shape comes back (then the tail was text inside it).
+  interface Tail {
+    firstLine: number;
+    lastLine: number;
+    lineCount: number;
+    samples: string[];
+    texts: string[];
+    lines: number[];
+    /** a header-like line in the tail: the rows under it belong to another table */
+    anotherTable: boolean;
+  }
+  let tail: Tail | null = null;
+  const afterTableTexts: string[] = [];
+  let afterTable: ParsedTable['afterTable'] = null;
+  const skipped = { count: 0, lines: [] as number[], samples: [] as string[] };
+
   function cellError(line: number, column: number, what: string): CurveFileError {
     return new CurveFileError('bad-number', `line ${line}, column "${header[column]}": ${what}`, { line, column: header[column] });
   }
 
-  function acceptDataLine(text: string, line: number): void {
-    if (text.length === 0 || isBlankText(text)) return;
-    if (text.charCodeAt(0) === 35) return;
-    if (text === headerText || text === unitText) return;
-    const cells = splitLine(text, delimiter);
-    const count = meaningfulLength(cells);
+  // Reads one row into `scratch`; returns the error it would raise instead of throwing it, so
+  // the caller can decide whether the row is bad data or the first line after the table.
+  function readDataRow(cells: string[], line: number, count: number): CurveFileError | null {
     const headerCount = header.length;
     if (count > headerCount) {
-      throw new CurveFileError(
+      return new CurveFileError(
         'ragged-row',
         `line ${line}: ${count} cells, but the header (line ${headerLine}) has ${headerCount}; cells are separated by ${delimiterLabel(delimiter)}`,
         { line },
@@ -530,16 +654,13 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     if (cells.length < headerCount) {
       for (let index = 0; index < storedColumns.length; index++) {
         if (storedColumns[index] >= cells.length) {
-          throw new CurveFileError(
+          return new CurveFileError(
             'ragged-row',
             `line ${line}: ${cells.length} cells, but the header (line ${headerLine}) has ${headerCount}; column "${header[storedColumns[index]]}" is missing`,
             { line, column: header[storedColumns[index]] },
           );
         }
       }
-    }
-    if (rowCount >= maxRows) {
-      throw new CurveFileError('too-many-rows', `line ${line}: more than ${maxRows} data rows; the limit is ${maxRows} rows per file`, { line });
     }
     for (let index = 0; index < storedColumns.length; index++) {
       const column = storedColumns[index];
@@ -549,46 +670,126 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
       if (kind === 'number') {
         value = parseNumberCell(cell, decimalComma);
         if (value !== value) {
-          if (isBlankText(cell)) throw cellError(line, column, 'empty cell');
-          const shown = shortCell(cell);
-          const hint = !decimalComma && /^[+-]?\d+,\d+$/.test(shown) ? ' (decimal comma in a file that uses a decimal point)' : '';
-          throw cellError(line, column, `not a number ("${shown}")${hint}`);
+          if (!isMissingCell(cell)) {
+            const shown = shortCell(cell);
+            const hint = !decimalComma && /^[+-]?\d+,\d+$/.test(shown) ? ' (decimal comma in a file that uses a decimal point)' : '';
+            return cellError(line, column, `not a number ("${shown}")${hint}`);
+          }
         }
       } else if (kind === 'timestamp') {
         const seconds = parseTimestamp(stripCellQuotes(cell));
         if (seconds === null) {
-          if (isBlankText(cell)) throw cellError(line, column, 'empty cell');
-          throw cellError(line, column, `not a date-time ("${shortCell(cell)}"); expected e.g. 2024-05-01 10:00:00 or 2024-05-01T10:00:00Z`);
+          if (isBlankText(cell)) return cellError(line, column, 'empty cell');
+          return cellError(line, column, `not a date-time ("${shortCell(cell)}"); expected e.g. 2024-05-01 10:00:00 or 2024-05-01T10:00:00Z`);
         }
         value = seconds;
       } else {
         const seconds = parseDuration(stripCellQuotes(cell));
         if (seconds === null) {
-          if (isBlankText(cell)) throw cellError(line, column, 'empty cell');
-          throw cellError(line, column, `not an elapsed time ("${shortCell(cell)}"); expected H:MM:SS`);
+          if (isBlankText(cell)) return cellError(line, column, 'empty cell');
+          return cellError(line, column, `not an elapsed time ("${shortCell(cell)}"); expected H:MM:SS`);
         }
         value = seconds;
+      }
+      scratch[index] = value;
+    }
+    return null;
+  }
+
+  function commitRow(cells: string[], line: number): void {
+    if (rowCount >= maxRows) {
+      throw new CurveFileError('too-many-rows', `line ${line}: more than ${maxRows} data rows; the limit is ${maxRows} rows per file`, { line });
+    }
+    for (let index = 0; index < storedColumns.length; index++) {
+      const value = scratch[index];
+      if (value !== value) {
+        const cell = cells[storedColumns[index]];
+        const entry = missing[index];
+        if (entry === null) missing[index] = { count: 1, firstLine: line, firstText: shortCell(cell ?? '') };
+        else entry.count++;
+      } else if (storedKinds[index] === 'number') {
+        const cell = cells[storedColumns[index]];
+        // cheap test first: only cells holding both marks, or the other mark, can be grouped
+        if ((decimalComma ? cell.indexOf('.') >= 0 : cell.indexOf(',') >= 0) && isGroupedCell(cell, decimalComma)) grouped[index]++;
       }
       growable[index].push(value);
     }
     dataLines.push(line);
     if (rowCount < previewRows) {
       const row: string[] = [];
-      for (let column = 0; column < headerCount; column++) row.push(column < cells.length ? stripCellQuotes(cells[column]) : '');
+      for (let column = 0; column < header.length; column++) row.push(column < cells.length ? stripCellQuotes(cells[column]) : '');
       preview.push(row);
     }
     rowCount++;
   }
 
+  function addToTail(text: string, line: number, cells: string[]): void {
+    if (tail === null) {
+      tail = { firstLine: line, lastLine: line, lineCount: 0, samples: [], texts: [], lines: [], anotherTable: false };
+    }
+    tail.lastLine = line;
+    tail.lineCount++;
+    if (tail.samples.length < 3) tail.samples.push(shortCell(text));
+    if (tail.texts.length < 200) {
+      tail.texts.push(text);
+      tail.lines.push(line);
+    }
+    if (isHeaderRow(readRow(cells, decimalComma && delimiter !== ','))) tail.anotherTable = true;
+  }
+
+  // Data of the table's shape after a tail: the tail lines were text inside the data.
+  function tailWasInside(): void {
+    const inside = tail as Tail;
+    skipped.count += inside.lineCount;
+    for (let index = 0; index < inside.lines.length && skipped.lines.length < 20; index++) skipped.lines.push(inside.lines[index]);
+    for (let index = 0; index < inside.samples.length && skipped.samples.length < 3; index++) skipped.samples.push(inside.samples[index]);
+    tail = null;
+  }
+
+  function acceptDataLine(text: string, line: number): void {
+    if (text.length === 0 || isBlankText(text)) return;
+    if (isCommentLine(text, delimiter)) return;
+    if (text === headerText || text === unitText) {
+      // a repeated header: the table goes on below it (exports that write one block per sweep)
+      if (tail !== null) tailWasInside();
+      return;
+    }
+    const cells = splitLine(text, delimiter);
+    const count = meaningfulLength(cells);
+    if (count === 0) return; // ",,," — an empty spreadsheet row
+    if (tail !== null) {
+      if (!tail.anotherTable && count === header.length && readDataRow(cells, line, count) === null) {
+        tailWasInside();
+        commitRow(cells, line);
+        return;
+      }
+      addToTail(text, line, cells);
+      return;
+    }
+    const problem = readDataRow(cells, line, count);
+    if (problem === null) {
+      commitRow(cells, line);
+      return;
+    }
+    // a row that reads as words or a rule line, after some data: the table may have ended here
+    const first = cells.find((cell) => !isBlankText(cell)) ?? '';
+    if (rowCount > 0 && (isWordCell(first) || isRuleLine(text))) {
+      addToTail(text, line, cells);
+      return;
+    }
+    throw problem;
+  }
+
   function endDetection(): void {
     detecting = false;
-    const nonEmpty = buffered.filter((entry) => !isBlankText(entry.text) && entry.text.charCodeAt(0) !== 35);
+    const nonEmpty = buffered.filter((entry) => !isBlankText(entry.text) && !isCommentLine(entry.text, null));
     const nonEmptyWithComments = buffered.filter((entry) => !isBlankText(entry.text));
     if (nonEmptyWithComments.length === 0) throw new CurveFileError('empty', 'the file is empty (no text, or only blank lines)');
     const layout = nonEmpty.length === 0 ? null : findLayout(nonEmpty);
     if (layout === null) throw explainMissingLayout(nonEmpty.length > 0 ? nonEmpty : nonEmptyWithComments);
     delimiter = layout.delimiter;
     decimalComma = layout.decimalComma;
+    decimalMarkAmbiguous = layout.decimalMarkAmbiguous;
     const headerEntry = nonEmpty[layout.headerIndex];
     headerLine = headerEntry.line;
     headerText = headerEntry.text;
@@ -611,9 +812,13 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     const firstDataLine = unitLine ?? headerLine;
     const sample: string[][] = [];
     for (const entry of nonEmpty) {
-      if (entry.line <= firstDataLine || entry.text.charCodeAt(0) === 35) continue;
+      if (entry.line <= firstDataLine || isCommentLine(entry.text, delimiter)) continue;
       if (sample.length >= KIND_SAMPLE_ROWS) break;
-      sample.push(splitLine(entry.text, delimiter));
+      const cells = splitLine(entry.text, delimiter);
+      // the sample ends where the table does: summary lines below it say nothing of its columns
+      const first = cells.find((cell) => !isBlankText(cell)) ?? '';
+      if (sample.length > 0 && !isDataRow(readRow(cells, decimalComma && delimiter !== ',')) && (isWordCell(first) || isRuleLine(entry.text))) break;
+      sample.push(cells);
     }
     kinds = decideColumnKinds(sample, header, decimalComma, delimiter);
     storedColumns = [];
@@ -625,6 +830,9 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
       }
     }
     growable = storedColumns.map(() => new GrowableFloat64());
+    missing = storedColumns.map(() => null);
+    grouped = storedColumns.map(() => 0);
+    scratch = new Float64Array(storedColumns.length);
     for (const entry of buffered) {
       if (entry.line > firstDataLine) acceptDataLine(entry.text, entry.line);
     }
@@ -712,10 +920,22 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
           throw new CurveFileError('header-only', `line ${headerLine}: a header but no data rows under it`, { line: headerLine });
         }
         const columns: (Float64Array | null)[] = header.map(() => null);
-        for (let index = 0; index < storedColumns.length; index++) columns[storedColumns[index]] = growable[index].toArray();
+        const missingCells: NonNullable<ParsedTable['missingCells']> = header.map(() => null);
+        const groupedCells: number[] = header.map(() => 0);
+        for (let index = 0; index < storedColumns.length; index++) {
+          columns[storedColumns[index]] = growable[index].toArray();
+          missingCells[storedColumns[index]] = missing[index];
+          groupedCells[storedColumns[index]] = grouped[index];
+        }
         const ignoredColumns: number[] = [];
         for (let column = 0; column < kinds.length; column++) if (columns[column] === null) ignoredColumns.push(column);
         const lines = dataLines.toArray();
+        const finalTail = tail as Tail | null;
+        if (finalTail !== null) {
+          afterTable = { firstLine: finalTail.firstLine, lastLine: finalTail.lastLine, lineCount: finalTail.lineCount, samples: finalTail.samples };
+          for (const text of finalTail.texts) afterTableTexts.push(text);
+          mergeConditions(conditions, readConditions(afterTableTexts, delimiter === 'whitespace' ? '' : delimiter));
+        }
         return {
           delimiter,
           decimalComma,
@@ -730,6 +950,11 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
           firstDataLine: lines[0],
           dataLines: lines,
           preview,
+          missingCells,
+          afterTable,
+          skippedLines: skipped.count > 0 ? skipped : null,
+          groupedCells,
+          decimalMarkAmbiguous,
         };
       });
     },

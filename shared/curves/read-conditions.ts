@@ -81,14 +81,50 @@ function readNumberWithUnit(value: string): { number: number; unit: string } | n
   return { number, unit: match[2].trim() };
 }
 
-// Area in cm²; mm² and m² are converted; anything else is read as cm², the trade's unit.
-function readArea(value: string): number | null {
-  const reading = readNumberWithUnit(value);
+// 1 atm = 101.325 kPa exactly (the standard atmosphere, BIPM SI Brochure 9th ed., table 8):
+// the ambient pressure a gauge reading is taken to sit on when the file gives no barometer.
+export const STANDARD_ATMOSPHERE_KPA = 101.325;
+
+const LENGTH_TO_CM: Readonly<Record<string, number>> = { mm: 0.1, cm: 1, m: 100 };
+// "5 cm x 5 cm", "5x5 cm", "5 × 5 cm²", "50 mm * 50 mm", "2,24 x 2,24 cm"
+const DIMENSIONS = /^([+-]?\d+(?:[.,]\d+)?)\s*(mm|cm|m)?\s*[x×*]\s*(\d+(?:[.,]\d+)?)\s*(mm|cm|m)?\s*(?:2|²|\^2)?(?:\s|$|[;,(])/i;
+// A specific surface area or electrochemical area is not the cell's geometric area.
+const SPECIFIC_AREA_UNIT = /\/\s*(?:m?g|kg)\b|per\s+(?:m?g|gram)|m\s*(?:2|²)\s*(?:\/|per)|cm\s*(?:2|²)\s*_?\s*(?:pt|metal|cat)/i;
+const SPECIFIC_AREA_KEY = /ecsa|electrochem|specific|bet\b|surface area|roughness|catalyst area|pt area|metal area|active site/i;
+
+function number(text: string): number {
+  return Number(text.replace(',', '.'));
+}
+
+type AreaReading = { cm2: number; stated: string | null; note: string | null } | { skip: string };
+
+// Area in cm²: a plain number (mm² and m² converted; no unit means cm², the trade's unit), or
+// two lengths multiplied ("5 cm x 5 cm" = 25 cm²). A value per gram is a specific area: skipped.
+function readArea(key: string, value: string): AreaReading | null {
+  const text = value.trim();
+  if (SPECIFIC_AREA_KEY.test(key) || SPECIFIC_AREA_UNIT.test(text)) {
+    return { skip: `"${key}: ${text}" is a specific or electrochemical surface area, not the cell's geometric area; not used as the active area` };
+  }
+  const dimensions = DIMENSIONS.exec(text);
+  if (dimensions !== null) {
+    const unitA = (dimensions[2] ?? dimensions[4] ?? 'cm').toLowerCase();
+    const unitB = (dimensions[4] ?? dimensions[2] ?? 'cm').toLowerCase();
+    const a = number(dimensions[1]) * LENGTH_TO_CM[unitA];
+    const b = number(dimensions[3]) * LENGTH_TO_CM[unitB];
+    if (!(a > 0 && b > 0)) return null;
+    const cm2 = a * b;
+    return { cm2, stated: text, note: `active area ${formatArea(cm2)} cm² from the dimensions "${text}"` };
+  }
+  const reading = readNumberWithUnit(text);
   if (reading === null || reading.number <= 0) return null;
   const unit = reading.unit.normalize('NFKC').toLowerCase().replace(/[\s^]/g, '');
-  if (unit.startsWith('mm2')) return reading.number / 100;
-  if (unit.startsWith('m2')) return reading.number * 1e4;
-  return reading.number;
+  if (unit.startsWith('mm2')) return { cm2: reading.number / 100, stated: text, note: null };
+  if (unit.startsWith('m2')) return { cm2: reading.number * 1e4, stated: text, note: null };
+  return { cm2: reading.number, stated: null, note: null };
+}
+
+function formatArea(cm2: number): string {
+  return String(Number(cm2.toPrecision(6)));
 }
 
 // Temperature in °C; K and °F are converted.
@@ -105,21 +141,53 @@ function readTemperature(value: string): number | null {
   }
 }
 
-// Pressure in kPa. Reference: 1 bar = 100 kPa (exact), 1 atm = 101.325 kPa (exact),
-// 1 psi = 6.894757 kPa (NIST SP 811, appendix B.8).
-function readPressure(value: string): number | null {
+interface PressureReading {
+  /** as written, in kPa, before any gauge/absolute conversion */
+  statedKPa: number;
+  basis: 'absolute' | 'gauge' | 'unstated';
+  /** the key, not the unit, said gauge or absolute */
+  basisFromKey: boolean;
+}
+
+// Pressure in kPa and whether it is gauge or absolute ("50 kPag", "150 kPa(a)", "1.5 barg",
+// "2 bar abs", "15 psig"; the key may say it too: "Back pressure (gauge)").
+// Reference: 1 bar = 100 kPa (exact), 1 atm = 101.325 kPa (exact), 1 psi = 6.894757 kPa
+// (NIST SP 811, appendix B.8).
+function readPressure(key: string, value: string): PressureReading | null {
   const reading = readNumberWithUnit(value);
   if (reading === null) return null;
-  const unit = reading.unit.toLowerCase().replace(/[\s()]/g, '');
-  if (unit.startsWith('mbar')) return reading.number * 0.1;
-  if (unit.startsWith('bar')) return reading.number * 100;
-  if (unit.startsWith('kpa')) return reading.number;
-  if (unit.startsWith('mpa')) return reading.number * 1000;
-  if (unit.startsWith('pa')) return reading.number / 1000;
-  if (unit.startsWith('psi')) return reading.number * 6.894757;
-  if (unit.startsWith('atm')) return reading.number * 101.325;
-  return reading.number;
+  const written = reading.unit.toLowerCase();
+  const unit = written.replace(/[\s()[\]._-]/g, '');
+  let factor: number;
+  let rest: string;
+  const prefixes: readonly [string, number][] = [['mbar', 0.1], ['bar', 100], ['kpa', 1], ['mpa', 1000], ['pa', 0.001], ['psi', 6.894757], ['atm', 101.325]];
+  const found = prefixes.find(([prefix]) => unit.startsWith(prefix));
+  if (found === undefined) {
+    factor = 1;
+    rest = unit;
+  } else {
+    factor = found[1];
+    rest = unit.slice(found[0].length);
+  }
+  const keyText = key.toLowerCase();
+  let basis: PressureReading['basis'] = 'unstated';
+  let basisFromKey = false;
+  if (/^(?:g|gauge|gage)/.test(rest)) basis = 'gauge';
+  else if (/^(?:a|abs|absolute)/.test(rest)) basis = 'absolute';
+  else if (/gauge|gage|\(g\)|\bg\b|relative|overpressure/.test(keyText)) {
+    basis = 'gauge';
+    basisFromKey = true;
+  } else if (/absolute|\babs\b|\(a\)/.test(keyText)) {
+    basis = 'absolute';
+    basisFromKey = true;
+  }
+  // atm is absolute by definition unless marked otherwise
+  if (found !== undefined && found[0] === 'atm' && basis === 'unstated') basis = 'absolute';
+  return { statedKPa: reading.number * factor, basis, basisFromKey };
 }
+
+// Below this an unmarked back-pressure cannot be absolute for a cell test: it is gauge.
+export const LOWEST_ABSOLUTE_KPA = 80;
 
 function looksLikeGas(key: string, value: string): boolean {
   if (/^[+-]?\d/.test(value)) return false;
@@ -129,8 +197,12 @@ function looksLikeGas(key: string, value: string): boolean {
 }
 
 /**
- * Metadata lines above the header → FileConditions: active area (cm²), cell temperature (°C),
- * anode and cathode gas, back pressure (kPa), and every key/value pair as text in `raw`.
+ * Metadata lines (above the header, below the table, or a workbook's key–value sheet) →
+ * FileConditions: active area (cm²; "5 cm x 5 cm" multiplied; a specific or electrochemical
+ * surface area such as "45 m2/g" is never taken; an area outside 0.5–1,000 cm² is noted),
+ * cell temperature (°C), anode and cathode gas, back-pressure (stored absolute in kPa: gauge
+ * readings such as "50 kPag" or "1.5 barg" get the standard atmosphere added; what was written
+ * is kept in `backPressureStated`), and every key/value pair as text in `raw`.
  * A key naming the cell ("Cell temperature") wins over a plain "Temperature"; other
  * temperatures (dew point, humidifier, oven) are kept only in `raw`.
  * Reference: none — a reading of how lab exports write their headers (common practice).
@@ -139,6 +211,8 @@ function looksLikeGas(key: string, value: string): boolean {
  */
 export function readConditions(lines: readonly string[], delimiter: string): FileConditions {
   const conditions: FileConditions = { raw: {} };
+  const notes: string[] = [];
+  let pressureNote: string | null = null;
   let temperatureFromCellKey = false;
   let pressureFromBackKey = false;
   for (const line of lines) {
@@ -146,9 +220,20 @@ export function readConditions(lines: readonly string[], delimiter: string): Fil
     if (pair === null) continue;
     if (!(pair.key in conditions.raw)) conditions.raw[pair.key] = pair.value;
     const key = pair.key.toLowerCase();
-    if (key.includes('area')) {
-      const area = readArea(pair.value);
-      if (area !== null && conditions.areaCm2 === undefined) conditions.areaCm2 = area;
+    if (key.includes('area') || key === 'ecsa') {
+      const area = readArea(pair.key, pair.value);
+      if (area === null) continue;
+      if ('skip' in area) {
+        notes.push(area.skip);
+        continue;
+      }
+      if (conditions.areaCm2 !== undefined) continue;
+      conditions.areaCm2 = area.cm2;
+      if (area.stated !== null) conditions.areaStated = area.stated;
+      if (area.note !== null) notes.push(area.note);
+      if (area.cm2 < AREA_RANGE_CM2[0] || area.cm2 > AREA_RANGE_CM2[1]) {
+        notes.push(`the file's active area ${formatArea(area.cm2)} cm² ("${pair.value}") is outside the ${AREA_RANGE_CM2[0]}–${AREA_RANGE_CM2[1].toLocaleString('en-US')} cm² of single test cells; check it`);
+      }
       continue;
     }
     if (key.includes('temp') || key === 't' || key === 't_cell' || key === 'tcell') {
@@ -165,9 +250,9 @@ export function readConditions(lines: readonly string[], delimiter: string): Fil
     if (key.includes('pressure') || key === 'p_back' || key === 'pback') {
       const isBackKey = key.includes('back');
       if (conditions.backPressureKPa !== undefined && (pressureFromBackKey || !isBackKey)) continue;
-      const pressure = readPressure(pair.value);
+      const pressure = readPressure(pair.key, pair.value);
       if (pressure !== null) {
-        conditions.backPressureKPa = pressure;
+        pressureNote = setBackPressure(conditions, pressure, pair.value);
         pressureFromBackKey = isBackKey;
       }
       continue;
@@ -186,5 +271,70 @@ export function readConditions(lines: readonly string[], delimiter: string): Fil
       conditions.cathodeGas = pair.value;
     }
   }
+  if (pressureNote !== null) notes.push(pressureNote);
+  if (notes.length > 0) conditions.notes = notes;
   return conditions;
+}
+
+/** Active areas of single test cells (common practice in the trade: 1–100 cm², a few up to a few hundred). */
+export const AREA_RANGE_CM2: readonly [number, number] = [0.5, 1000];
+
+function formatKPa(value: number): string {
+  return String(Number(value.toFixed(1)));
+}
+
+// Stores the absolute pressure and what was stated; returns the sentence saying how it was read.
+function setBackPressure(conditions: FileConditions, pressure: PressureReading, stated: string): string | null {
+  // keep what the file said, with the basis when only the key carried it ("Back pressure (gauge): 50 kPa")
+  conditions.backPressureStated = pressure.basisFromKey ? `${stated.trim()} (${pressure.basis})` : stated.trim();
+  conditions.backPressureBasis = pressure.basis;
+  if (pressure.basis === 'absolute') {
+    conditions.backPressureKPa = pressure.statedKPa;
+    return null;
+  }
+  if (pressure.basis === 'gauge') {
+    conditions.backPressureKPa = pressure.statedKPa + STANDARD_ATMOSPHERE_KPA;
+    return `back-pressure "${stated.trim()}" is gauge: stored as ${formatKPa(conditions.backPressureKPa)} kPa absolute (plus the standard atmosphere, 101.325 kPa)`;
+  }
+  if (pressure.statedKPa < LOWEST_ABSOLUTE_KPA) {
+    conditions.backPressureKPa = pressure.statedKPa + STANDARD_ATMOSPHERE_KPA;
+    return `back-pressure "${stated.trim()}" does not say gauge or absolute; below ${LOWEST_ABSOLUTE_KPA} kPa it can only be gauge: stored as ${formatKPa(conditions.backPressureKPa)} kPa absolute`;
+  }
+  conditions.backPressureKPa = pressure.statedKPa;
+  return `back-pressure "${stated.trim()}" does not say gauge or absolute; read as absolute (${formatKPa(pressure.statedKPa)} kPa); if it is gauge, the absolute pressure is ${formatKPa(pressure.statedKPa + STANDARD_ATMOSPHERE_KPA)} kPa`;
+}
+
+/**
+ * Fills the conditions `target` does not state from `extra` (conditions below a table, or on a
+ * workbook's key–value sheet): the first statement of each condition wins. Mutates `target`.
+ * Cost: O(keys).
+ * @example mergeConditions(fromHeader, fromSheet)
+ */
+export function mergeConditions(target: FileConditions, extra: FileConditions): string[] {
+  const taken: string[] = [];
+  const areaTaken = target.areaCm2 === undefined && extra.areaCm2 !== undefined;
+  if (areaTaken) {
+    target.areaCm2 = extra.areaCm2;
+    if (extra.areaStated !== undefined) target.areaStated = extra.areaStated;
+    taken.push('active area');
+  }
+  for (const [key, label] of [['temperatureC', 'cell temperature'], ['anodeGas', 'anode gas'], ['cathodeGas', 'cathode gas']] as const) {
+    if (target[key] === undefined && extra[key] !== undefined) {
+      (target as unknown as Record<string, unknown>)[key] = extra[key];
+      taken.push(label);
+    }
+  }
+  // the back-pressure and how it was stated belong together
+  const pressureTaken = target.backPressureKPa === undefined && extra.backPressureKPa !== undefined;
+  if (pressureTaken) {
+    target.backPressureKPa = extra.backPressureKPa;
+    if (extra.backPressureStated !== undefined) target.backPressureStated = extra.backPressureStated;
+    if (extra.backPressureBasis !== undefined) target.backPressureBasis = extra.backPressureBasis;
+    taken.push('back-pressure');
+  }
+  for (const [key, value] of Object.entries(extra.raw)) if (!(key in target.raw)) target.raw[key] = value;
+  // notes about what was taken (area from dimensions, gauge pressure); a skipped specific area is always worth saying
+  const notes = (extra.notes ?? []).filter((note) => (note.includes('area') ? areaTaken || note.includes('not used') : note.includes('back-pressure') ? pressureTaken : true));
+  if (notes.length > 0) target.notes = [...(target.notes ?? []), ...notes];
+  return taken;
 }

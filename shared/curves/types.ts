@@ -9,22 +9,41 @@ export type HfrUnit = 'ohm*cm2' | 'mohm*cm2' | 'ohm' | 'mohm';
 export type TimeUnit = 's' | 'min' | 'h' | 'timestamp';
 export type TemperatureUnit = 'C' | 'K';
 
-/** Which column (0-based index into the header) holds which quantity, and in what unit. */
+/**
+ * Which column (0-based index into the header) holds which quantity, and in what unit.
+ * A curve needs a cell voltage (`voltage`) or an iR-free voltage (`voltageIrFree`), or both.
+ */
 export interface ColumnMapping {
-  current?: { column: number; unit: CurrentUnit };
-  voltage: { column: number; unit: VoltageUnit };
+  /**
+   * `negated`: the file logs load current as negative and every value is multiplied by −1;
+   * left out, a column that is entirely ≤ 0 is flipped (and said so), one that is not stays.
+   */
+  current?: { column: number; unit: CurrentUnit; negated?: boolean };
+  /** the measured cell voltage */
+  voltage?: { column: number; unit: VoltageUnit };
+  /** a voltage the file has already corrected for the ohmic loss (V + j·HFR) */
+  voltageIrFree?: { column: number; unit: VoltageUnit };
   hfr?: { column: number; unit: HfrUnit };
   time?: { column: number; unit: TimeUnit };
   temperature?: { column: number; unit: TemperatureUnit };
 }
 
-/** Conditions read from metadata lines above the header, when present. */
+/** Conditions read from a file's metadata lines (or a workbook's key–value sheet), when present. */
 export interface FileConditions {
   areaCm2?: number;
+  /** the area as written when it was not a plain number of cm² (e.g. "5 cm x 5 cm") */
+  areaStated?: string;
   temperatureC?: number;
   anodeGas?: string;
   cathodeGas?: string;
+  /** back-pressure, kPa ABSOLUTE (a gauge reading plus the standard atmosphere, 101.325 kPa) */
   backPressureKPa?: number;
+  /** the back-pressure as written, e.g. "50 kPag", "150 kPa(a)", "1.5 barg" */
+  backPressureStated?: string;
+  /** what the file said the reading is; `unstated` readings are assumed (see `notes`) */
+  backPressureBasis?: 'absolute' | 'gauge' | 'unstated';
+  /** how the conditions were read, in sentences (dimensions multiplied, gauge converted, …) */
+  notes?: string[];
   /** every "key: value" / "key,value" pair found above the header, as text */
   raw: Record<string, string>;
 }
@@ -149,4 +168,17 @@ export interface ParsedTable {
   dataLines: Int32Array;
   /** the first data rows as text cells (trimmed), one array per row, header-length each */
   preview: string[][];
+  /**
+   * per header column: cells that held no number (blank, NaN, n/a, …) and are stored as NaN;
+   * null when there were none. Whether that is allowed depends on the quantity (applyMapping).
+   */
+  missingCells?: ({ count: number; firstLine: number; firstText: string } | null)[];
+  /** lines after the end of the table (summary blocks, end-of-test lines), left out */
+  afterTable?: { firstLine: number; lastLine: number; lineCount: number; samples: string[] } | null;
+  /** text lines inside the data (not comments, not data), skipped */
+  skippedLines?: { count: number; lines: number[]; samples: string[] } | null;
+  /** per header column: how many cells were written with thousands separators ("1.000,0", "1,000.0") */
+  groupedCells?: number[];
+  /** the decimal mark was decided on cells that could also be thousands separators ("1,500") */
+  decimalMarkAmbiguous?: boolean;
 }

@@ -158,11 +158,18 @@ function readName(name: string): NameReading {
   const lower = tokens.map((token) => token.toLowerCase());
   const joined = lower.join('');
   const has = (word: string): boolean => lower.includes(word);
-  const irFree = /ir(free|corr|comp|less)/.test(joined) || (has('ir') && (has('free') || has('corrected') || has('compensated')));
+  // "E_iR-free", "V_iR-corrected", "IR-free voltage", "iR-compensated potential", "HFR-free voltage"
+  const irFree =
+    /(?:ir|hfr|ohmic)(?:free|corr|comp|less)/.test(joined) ||
+    ((has('ir') || has('hfr') || has('ohmic')) && (has('free') || has('corrected') || has('compensated') || has('corr')));
+  const namesVoltage = joined.includes('volt') || joined.includes('potential') || has('ecell') || has('ucell') || has('vcell');
   let quantity: HeaderQuantity | null = null;
   let impliedTimeUnit: TimeUnit | null = null;
 
-  if (joined.includes('hfr') || joined.includes('resistance') || has('asr') || has('rhf') || has('rohm') || joined.includes('impedance') || (has('r') && has('hf'))) {
+  if (irFree && (namesVoltage || (tokens.length > 0 && tokens[0].length === 1 && FIRST_LETTER_QUANTITY[tokens[0]] === 'voltage') || lower.length <= 3)) {
+    // an iR-corrected voltage, even when its name mentions the HFR it was corrected with
+    quantity = 'voltage';
+  } else if (joined.includes('hfr') || joined.includes('resistance') || has('asr') || has('rhf') || has('rohm') || joined.includes('impedance') || (has('r') && has('hf'))) {
     quantity = 'hfr';
   } else if (joined.includes('power')) {
     quantity = 'power';
@@ -269,9 +276,11 @@ function acceptsBareUnit(name: string, unitText: string, unit: UnitEntry): boole
 export function recogniseHeaderUnit(header: string): HeaderUnitMatch {
   const split = splitHeader(String(header));
   const nameReading = readName(split.name);
+  // "Voltage (iR-free)": the correction may sit where a unit would
+  const wholeReading = split.unit === null && split.unitText !== null ? readName(String(header)) : nameReading;
   const unitQuantity = split.unit === null ? null : split.unit[0];
-  const quantity = unitQuantity ?? nameReading.quantity;
-  const base: HeaderUnitBase = { name: split.name, unitText: split.unitText, irFree: nameReading.irFree };
+  const quantity = unitQuantity ?? (wholeReading.irFree ? wholeReading.quantity : nameReading.quantity);
+  const base: HeaderUnitBase = { name: split.name, unitText: split.unitText, irFree: nameReading.irFree || wholeReading.irFree };
   if (quantity === null) return { ...base, quantity: null, unit: null };
   let unit: string | null = split.unit !== null && unitQuantity === quantity ? split.unit[1] : null;
   if (quantity === 'time' && unit === null) unit = nameReading.impliedTimeUnit;

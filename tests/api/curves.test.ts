@@ -182,3 +182,174 @@ describe('bad files get a 422 naming the problem, and nothing is stored', () => 
     );
   });
 });
+
+// Export shapes partner labs send (tests/fixtures/curves/shape-*, generated from the
+// semi-empirical model of model-parameters.ts). Expected values from tests/reference/import-shapes.py
+// (numpy): V(0.2 A/cm²) = 0.6247 V as written, HFR 0.25 Ω·cm²; re-measured on 20 cm² instead of
+// 25 cm²: V(0.2) = 0.6447 V.
+describe('export shapes partner labs send, through the route', () => {
+  const V_AT_02 = 0.6247; // tests/reference/import-shapes.py
+  let shapeBuild: number;
+  const upload = (name: string, fields: Record<string, string> = {}, build = shapeBuild) => h.as.researcher.upload(`/api/builds/${build}/curves`, { name, content: fixture(name) }, fields);
+  const newBuild = async (body: Record<string, unknown>) => (await h.as.researcher.post(`/api/projects/${ids.project('C')}/builds`, { status: 'built', factors: { binder: 20, activationTemp: 340, activationTime: 2, gdl: 'woven carbon', cellTemp: 160 }, loadingMgCm2: 2.0, ...body })).body.build.id as number;
+
+  beforeAll(async () => {
+    shapeBuild = await newBuild({ areaCm2: 25, testConditions: { temperatureC: 160, anodeGas: 'H2', cathodeGas: 'air', backPressureKPa: 0 } });
+  });
+
+  it.each([
+    ['shape-negative-current.csv', /logged negative.*values × −1/, 0.25],
+    ['shape-summary-after-table.csv', /table ends at line 16: lines 18–22 below it/, 0.25],
+    ['shape-comments-inside.txt', /text line inside the data skipped \(line 14\)/, 0.25],
+    ['shape-thousands-decimal-comma.csv', /thousands separators/, 0.25],
+    ['shape-thousands-point.tsv', /thousands separators/, null],
+    ['shape-time-stepped-polarization.csv', null, null],
+    ['shape-area-dimensions.txt', /25 cm² from the dimensions "5 cm x 5 cm"/, null],
+    ['shape-irfree-only-with-hfr.csv', /computed as V_iR-free − j·HFR/, 0.25],
+    ['shape-irfree-and-measured.csv', /own iR-free voltage "V_iR-corrected \(V\)" is kept/, null],
+    ['shape-hfr-zeros-blank-ocv.csv', /logged as 0 on 14 rows/, 0.25],
+    ['shape-workbook-two-row-header.xlsx', /read from the sheet "Test conditions"/, 0.25],
+  ] as const)('%s goes straight in with V at j_ref from the model', async (name, note, hfr) => {
+    const res = await upload(name);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const curve = res.body.curve;
+    expect(curve.kind).toBe('polarization');
+    expect(curve.metrics.vAtRef).toBeCloseTo(V_AT_02, 4); // tests/reference/import-shapes.py: the 0.2 A/cm² step as written
+    if (hfr !== null) expect(curve.metrics.hfr).toBeCloseTo(hfr, 6); // model-parameters.ts HFR
+    expect(Array.isArray(curve.summary.importNotes)).toBe(true);
+    if (note) expect(curve.summary.importNotes.join(' ')).toMatch(note);
+    expect(Array.isArray(curve.summary.conditionMismatches)).toBe(true);
+  });
+
+  it('a workbook: title rows, two-row header, numbers as text, conditions from a key–value sheet', async () => {
+    const res = await upload('shape-workbook-two-row-header.xlsx');
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.curve.summary.sheet).toBe('Curve');
+    expect(res.body.curve.conditions).toMatchObject({ areaCm2: 25, temperatureC: 160, anodeGas: 'H2', cathodeGas: 'air', backPressureStated: '50 kPag', backPressureBasis: 'gauge' });
+    expect(res.body.curve.conditions.backPressureKPa).toBeCloseTo(151.325, 9); // 50 kPa gauge + 101.325 kPa (standard atmosphere)
+    // 50 kPa(g) against the build's 0 kPa(g): a mismatch to settle
+    expect(res.body.curve.summary.conditionMismatches.map((m: { field: string }) => m.field)).toEqual(['backPressureKPa']);
+  });
+
+  it('a summary block after the data states 180 °C; the build records 160 °C: a mismatch in the upload result', async () => {
+    const res = await upload('shape-summary-after-table.csv');
+    expect(res.body.curve.summary.conditionMismatches).toEqual([{ field: 'temperatureC', label: 'Cell temperature', fileValue: 180, buildValue: 160, unit: '°C' }]);
+  });
+
+  it.each([
+    ['shape-volts-under-mV.csv', 'voltage', 'mV', 'V', 2, 'U (mV)'],
+    ['shape-mV-under-V.csv', 'voltage', 'V', 'mV', 2, 'U (V)'],
+    ['shape-total-current-as-A.csv', 'current', 'A', 'mA', 17, 'I (A)'],
+    ['shape-hfr-ohmcm2-as-mohmcm2.csv', 'hfr', 'mohm*cm2', 'ohm*cm2', 9, 'HFR (mOhm cm2)'],
+  ] as const)('%s: asks with the %s unit corrected; refused as stated (422 naming line and column); stored as corrected', async (name, role, stated, proposed, line, column) => {
+    const before = counts();
+    const asked = await upload(name);
+    expect(asked.status, JSON.stringify(asked.body)).toBe(422);
+    expect(asked.body.error.code).toBe('mapping-needed');
+    expect(asked.body.error.message).toContain(name);
+    expect(asked.body.error.message).toContain(`line ${line}, column "${column}"`);
+    expect(asked.body.error.details.detected[role].unit).toBe(proposed);
+    expect(asked.body.error.details.buildAreaCm2).toBe(25);
+    expect(counts()).toEqual(before);
+    const asStated = structuredClone(asked.body.error.details.detected);
+    asStated[role].unit = stated;
+    const refused = await upload(name, { mapping: JSON.stringify(asStated) });
+    expect(refused.status, JSON.stringify(refused.body)).toBe(422);
+    expect(refused.body.error.code).toBe('unit-slip');
+    expect(refused.body.error.details).toMatchObject({ file: name, line, column });
+    expect(refused.body.error.message).toMatch(new RegExp(`^${name.replace(/[.]/g, '\\.')}: line ${line}, column "`));
+    expect(counts()).toEqual(before);
+    const stored = await upload(name, { mapping: JSON.stringify(asked.body.error.details.detected) });
+    expect(stored.status, JSON.stringify(stored.body)).toBe(201);
+    expect(stored.body.curve.metrics.vAtRef).toBeCloseTo(V_AT_02, 4); // tests/reference/import-shapes.py
+  });
+
+  it.each([
+    ['shape-sign-change.csv', 'mapping-needed', 11, null],
+    ['shape-too-few-steps.csv', 'too-few-steps', 2, 'Current density (A/cm2)'],
+    ['shape-durability-few-points.csv', 'too-few-points', 2, 'Time (h)'],
+    ['shape-durability-two-hours.csv', 'too-short', 2, 'Time (min)'],
+  ] as const)('%s is refused (%s) naming the file, line %i and the column; nothing is stored', async (name, code, line, column) => {
+    const before = counts();
+    const res = await upload(name);
+    expect(res.status, JSON.stringify(res.body)).toBe(422);
+    expect(res.body.error.code).toBe(code);
+    expect(res.body.error.message).toContain(name);
+    expect(res.body.error.message).toContain(`line${code === 'mapping-needed' ? '' : 's'} ${line}`);
+    if (column) expect(res.body.error.details).toMatchObject({ file: name, line, column });
+    expect(counts()).toEqual(before);
+  });
+
+  it('a curve from which not one metric can be read is refused, naming its lines and columns', async () => {
+    // every step below 50 mV: past the limiting current throughout (a shorted cell, or a wrong column)
+    const content = 'Current density (A/cm2),Voltage (V)\n0.0,0.040\n0.1,0.030\n0.2,0.020\n0.3,0.015\n0.4,0.010\n';
+    const before = counts();
+    const res = await h.as.researcher.upload(`/api/builds/${shapeBuild}/curves`, { name: 'shorted.csv', content });
+    expect(res.status, JSON.stringify(res.body)).toBe(422);
+    expect(res.body.error.code).toBe('no-metrics');
+    expect(res.body.error.message).toMatch(/^shorted\.csv: lines 2–6, columns "Current density \(A\/cm2\)" and "Voltage \(V\)": not one metric/);
+    expect(res.body.error.details).toMatchObject({ file: 'shorted.csv', line: 2, column: 'Voltage (V)' });
+    expect(counts()).toEqual(before);
+  });
+
+  it('a current that changes sign, confirmed as it is: refused on the line where it turns negative', async () => {
+    const asked = await upload('shape-sign-change.csv');
+    const res = await upload('shape-sign-change.csv', { mapping: JSON.stringify(asked.body.error.details.detected) });
+    expect(res.status).toBe(422);
+    expect(res.body.error.details).toMatchObject({ file: 'shape-sign-change.csv', line: 11, column: 'Current density (A/cm2)' }); // the 0.3 A/cm² row, written −0.3
+  });
+
+  it('a saved import profile is applied the next time without asking', async () => {
+    const asked = await upload('shape-volts-under-mV.csv');
+    const saved = await upload('shape-volts-under-mV.csv', { mapping: JSON.stringify(asked.body.error.details.detected), saveProfileAs: 'Bench V (volts under a mV header)' });
+    expect(saved.status).toBe(201);
+    const again = await upload('shape-volts-under-mV.csv');
+    expect(again.status, JSON.stringify(again.body)).toBe(201);
+    expect(again.body.curve.summary.mappingSource).toBe('profile Bench V (volts under a mV header)');
+    expect(again.body.curve.summary.importNotes[0]).toBe('columns and units from the import profile "Bench V (volts under a mV header)"');
+    expect(again.body.curve.metrics.vAtRef).toBeCloseTo(V_AT_02, 4);
+  });
+
+  it('conditions that differ from the build: shown on upload and on the build page; the uploader chooses; audited', async () => {
+    const build = await newBuild({ areaCm2: 25, testConditions: { temperatureC: 170, anodeGas: 'H2', cathodeGas: 'air', backPressureKPa: 0 } });
+    const res = await upload('shape-conditions-mismatch.csv', {}, build);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const mismatches = res.body.curve.summary.conditionMismatches;
+    // 180 °C vs 170 °C; O2 vs air; 50 kPa(g) = 151.3 kPa absolute vs 0 kPa(g) = 101.3 kPa; the 5 cm × 5 cm area and "hydrogen" agree
+    expect(mismatches.map((m: { field: string }) => m.field)).toEqual(['temperatureC', 'cathodeGas', 'backPressureKPa']);
+    const page = await h.as.pi.get(`/api/builds/${build}`);
+    expect(page.body.curves[0].summary.conditionMismatches).toHaveLength(3);
+
+    const file = await h.as.researcher.post(`/api/curves/${res.body.curve.id}/conditions`, { field: 'temperatureC', chosen: 'file' });
+    expect(file.status, JSON.stringify(file.body)).toBe(200);
+    expect(file.body.build.testConditions.temperatureC).toBe(180);
+    expect(file.body.curve.summary.conditionMismatches[0].chosen).toBe('file');
+    const kept = await h.as.researcher.post(`/api/curves/${res.body.curve.id}/conditions`, { field: 'cathodeGas', chosen: 'build' });
+    expect(kept.body.build.testConditions.cathodeGas).toBe('air');
+    const pressure = await h.as.researcher.post(`/api/curves/${res.body.curve.id}/conditions`, { field: 'backPressureKPa', chosen: 'file' });
+    expect(pressure.body.build.testConditions.backPressureKPa).toBe(50); // 151.325 − 101.325 kPa, back to gauge as the build records it
+    const after = await h.as.pi.get(`/api/builds/${build}`);
+    expect(after.body.build.testConditions).toMatchObject({ temperatureC: 180, cathodeGas: 'air', backPressureKPa: 50 });
+    const audited = h.ctx.db.$client.prepare("select count(*) n from audit_log where action = 'choose-condition' and entity_id = ?").get(res.body.curve.id) as { n: number };
+    expect(audited.n).toBe(3);
+    const none = await h.as.researcher.post(`/api/curves/${res.body.curve.id}/conditions`, { field: 'areaCm2', chosen: 'file' });
+    expect(none.status).toBe(400);
+    const bad = await h.as.researcher.post(`/api/curves/${res.body.curve.id}/conditions`, { field: 'colour', chosen: 'file' });
+    expect(bad.status).toBe(400);
+  });
+
+  it('the build’s area chosen over the file’s re-scales a total-current curve and measures it again', async () => {
+    const build = await newBuild({ areaCm2: 20 });
+    const res = await upload('shape-area-dimensions.txt', {}, build);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.curve.metrics.vAtRef).toBeCloseTo(V_AT_02, 4); // converted with the file's 25 cm²
+    expect(res.body.curve.summary.conditionMismatches).toEqual([{ field: 'areaCm2', label: 'Active area', fileValue: 25, buildValue: 20, unit: 'cm²', fileStated: '5 cm x 5 cm' }]);
+    const chosen = await h.as.researcher.post(`/api/curves/${res.body.curve.id}/conditions`, { field: 'areaCm2', chosen: 'build' });
+    expect(chosen.status, JSON.stringify(chosen.body)).toBe(200);
+    expect(chosen.body.curve.metrics.vAtRef).toBeCloseTo(0.6447, 4); // tests/reference/import-shapes.py: re-measured on 20 cm²
+    expect(chosen.body.curve.conditions.areaCm2).toBe(20);
+    expect(chosen.body.build.areaCm2).toBe(20);
+    const points = await h.as.researcher.get(`/api/curves/${res.body.curve.id}`);
+    expect(points.body.points.j[8]).toBeCloseTo(0.25, 12); // the 5 A row: 5 A / 20 cm²
+  });
+});

@@ -31,8 +31,11 @@ async function freshAgent(h: Harness, who: Who) {
   return { agent, csrf: res.body.csrfToken as string };
 }
 
-async function makeCurve(h: Harness) {
-  const res = await h.as.admin.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'fixture.csv', content: CSV });
+// the same curve with a cell temperature no demo build records: a condition to settle
+const MISMATCH_CSV = `Cell temperature: 95 °C\n${CSV}`;
+
+async function makeCurve(h: Harness, content = CSV) {
+  const res = await h.as.admin.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'fixture.csv', content });
   if (res.status !== 201) throw new Error(`fixture upload failed: ${JSON.stringify(res.body)}`);
   return res.body.curve.id as number;
 }
@@ -106,6 +109,7 @@ export const MATRIX: MatrixRow[] = [
   { method: 'post', path: '/api/builds/{id}/curves/preview', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves/preview`, { name: 'matrix.csv', content: CSV }) },
   { method: 'get', path: '/api/curves/{id}', allowed: ALL, send: async (h, c) => c.get(`/api/curves/${await makeCurve(h)}`) },
   { method: 'patch', path: '/api/curves/{id}', allowed: WRITERS, send: async (h, c) => c.patch(`/api/curves/${await makeCurve(h)}`, { label: 'relabelled' }) },
+  { method: 'post', path: '/api/curves/{id}/conditions', allowed: WRITERS, send: async (h, c) => c.post(`/api/curves/${await makeCurve(h, MISMATCH_CSV)}/conditions`, { field: 'temperatureC', chosen: 'build' }) },
   { method: 'delete', path: '/api/curves/{id}', allowed: PLANNERS, send: async (h, c) => c.delete(`/api/curves/${await makeCurve(h)}`) },
   // partners choose only for their own lab's builds (C-014 is Kestrel's); viewers never
   { method: 'put', path: '/api/builds/{id}/record', allowed: WRITERS, send: async (h, c) => c.put(`/api/builds/${ids.build('C-014')}/record`, { kind: 'polarization', curveId: await makeCurve(h) }) },

@@ -7,13 +7,13 @@ import { useFactors, useProject, useResponses } from '@/features/projects/api/pr
 import { curveQueryOptions, useCurve } from '@/features/curves/api/curves';
 import { PolarizationPlot, curveTitle } from '@/features/curves/components/polarization-plot';
 import { CurveShelf } from '@/features/curves/components/curve-shelf';
-import { CurveReadNotes } from '@/features/curves/components/record-parts';
 import { ApiError } from '@/lib/api-client';
 import { formatDateTime } from '@/lib/format';
 import { MetricsList, WhatIfReference } from '@/features/curves/components/metrics-panel';
 import { DurabilityPlot } from '@/features/curves/components/durability-plot';
 import { DurabilityControls } from '@/features/durability/components/durability-controls';
 import { DropZone, UploadRows, useUploadBatch } from '@/features/curves/components/upload-panel';
+import { ImportNotes } from '@/features/curves/components/import-notes';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { Button } from '@/components/ui/button';
@@ -143,7 +143,7 @@ function CurveView({ curve, overlays, project, detail }: { curve: CurveSummary; 
           {curve.summary.hysteresisMv != null ? `, hysteresis at j_ref ${formatNumber(Number(curve.summary.hysteresisMv), 1)} mV` : ''} · mapping: {String(curve.summary.mappingSource ?? 'detected')}
           {curve.fileId && <> · <a className="text-copper-700 underline" href={`/api/files/${curve.fileId}/raw`}>raw file</a></>}
         </p>
-        <CurveReadNotes curve={curve} />
+        <ImportNotes curve={curve} canChoose={detail.permissions.upload} />
         <WhatIfReference curve={curve} points={data.points} settings={project.settings} loading={{ loadingMgCm2: detail.build.loadingMgCm2, metalLoadingMgCm2: detail.build.metalLoadingMgCm2 }} />
       </div>
     </div>
@@ -157,7 +157,7 @@ function DurabilityView({ curve, overlays }: { curve: CurveSummary; overlays: Cu
     <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <div className="min-w-0"><DurabilityPlot curve={curve} title={curveTitle(curve)} overlays={overlays} /></div>
       <div className="min-w-0 space-y-3">
-        <CurveReadNotes curve={curve} />
+        <ImportNotes curve={curve} canChoose={Boolean(build.data?.permissions.upload)} />
         <DurabilityControls curve={curve} buildId={curve.buildId} canEdit={Boolean(build.data?.permissions.upload)} />
       </div>
     </div>

@@ -75,20 +75,26 @@ describe('applyMapping errors', () => {
     expect(error.message).toBe('line 5, column "U (V)": 700 V is not a possible cell voltage; is the column in mV?'); // wording of the brief
   });
   it('current density out of range → impossible-value', () => {
-    const table = parseDelimitedText('j (A/cm2),U (V)\n-0.3,0.95\n');
+    // a column that changes sign is not flipped: its negative reading is refused
+    const table = parseDelimitedText('j (A/cm2),U (V)\n-0.3,0.95\n0.2,0.7\n');
     expect(errorOf(() => applyMapping(table, { current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' } }, { kind: 'polarization' })).message).toMatch(
       /^line 2, column "j \(A\/cm2\)": -0.3 A\/cm² is a negative current density below −0.05 A\/cm²/,
     );
-    const high = parseDelimitedText('j (A/cm2),U (V)\n200,0.95\n');
-    expect(errorOf(() => applyMapping(high, { current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' } }, { kind: 'polarization' })).message).toMatch(
-      /above 10 A\/cm².*mA\/cm²\?/,
-    );
+    const high = parseDelimitedText('j (A/cm2),U (V)\n0.2,0.95\n200,0.65\n');
+    const slip = errorOf(() => applyMapping(high, { current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' } }, { kind: 'polarization' }));
+    expect(slip.code).toBe('unit-slip');
+    expect(slip.message).toMatch(/^line 3, column "j \(A\/cm2\)": 200 A\/cm² is 200 A\/cm², more than any cell carries.*is the unit mA\/cm²\?/);
   });
   it('HFR out of range → impossible-value', () => {
     const table = parseDelimitedText('j (A/cm2),U (V),HFR (Ohm cm2)\n0,0.95,210\n');
     const error = errorOf(() => applyMapping(table, { current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' }, hfr: { column: 2, unit: 'ohm*cm2' } }, { kind: 'polarization' }));
-    expect(error.code).toBe('impossible-value');
-    expect(error.message).toMatch(/^line 2, column "HFR \(Ohm cm2\)": 210 Ω·cm² is not a possible HFR.*mΩ·cm²\?/);
+    expect(error.code).toBe('unit-slip');
+    expect(error.message).toMatch(/^line 2, column "HFR \(Ohm cm2\)": the typical HFR 210 Ω·cm² is 210 Ω·cm², outside what any cell shows.*is the unit mΩ·cm²\?/);
+    // one stray reading among plausible ones is still refused on its own line
+    const stray = parseDelimitedText('j (A/cm2),U (V),HFR (Ohm cm2)\n0,0.95,0.2\n0.1,0.8,0.2\n0.2,0.7,21\n');
+    const strayError = errorOf(() => applyMapping(stray, { current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' }, hfr: { column: 2, unit: 'ohm*cm2' } }, { kind: 'polarization' }));
+    expect(strayError.code).toBe('impossible-value');
+    expect(strayError.message).toMatch(/^line 4, column "HFR \(Ohm cm2\)": 21 Ω·cm² is not a possible HFR/);
   });
   it('time going backwards (not a restart) → time-backwards', () => {
     const table = parseDelimitedText('Time (h),U (V)\n0,0.65\n10,0.65\n6,0.65\n');

@@ -24,8 +24,8 @@ describe('detectMapping from header units', () => {
 
 describe('detectMapping from magnitudes', () => {
   it('reads a unit-less voltage column in V or mV by its values', () => {
-    expect(detect('Current density (A/cm2),Voltage\n0,0.95\n0.2,0.65\n').mapping?.voltage.unit).toBe('V'); // 0.65–0.95: volts (common practice)
-    expect(detect('Current density (A/cm2),Voltage\n0,950\n0.2,650\n').mapping?.voltage.unit).toBe('mV'); // 650–950: millivolts
+    expect(detect('Current density (A/cm2),Voltage\n0,0.95\n0.2,0.65\n').mapping?.voltage?.unit).toBe('V'); // 0.65–0.95: volts (common practice)
+    expect(detect('Current density (A/cm2),Voltage\n0,950\n0.2,650\n').mapping?.voltage?.unit).toBe('mV'); // 650–950: millivolts
   });
   it('reads a unit-less current column by its values, but asks the user to confirm', () => {
     const small = detect('Current,Voltage (V)\n0,0.95\n0.2,0.65\n1.2,0.4\n');
@@ -49,11 +49,17 @@ describe('detectMapping from magnitudes', () => {
 });
 
 describe('detectMapping: ambiguities and kinds', () => {
-  it('two voltage columns → measured one, ambiguous', () => {
+  it('a measured and an iR-free voltage column → both mapped, no question', () => {
     const result = detect('j (A/cm2),E_cell (V),E_iR-free (V)\n0,0.95,0.95\n0.2,0.65,0.7\n');
-    expect(result.mapping?.voltage.column).toBe(1); // "E_cell (V)" is column 1
+    expect(result.mapping?.voltage?.column).toBe(1); // "E_cell (V)" is column 1
+    expect(result.mapping?.voltageIrFree).toEqual({ column: 2, unit: 'V' }); // "E_iR-free (V)" is column 2
+    expect(result.ambiguous).toBe(false);
+  });
+  it('two measured voltage columns → the first, ambiguous', () => {
+    const result = detect('j (A/cm2),E_cell (V),E_anode (V)\n0,0.95,0.01\n0.2,0.65,0.05\n');
+    expect(result.mapping?.voltage?.column).toBe(1); // "E_cell (V)" is column 1
     expect(result.ambiguous).toBe(true);
-    expect(result.reasons[0]).toMatch(/"E_cell \(V\)" and "E_iR-free \(V\)"/);
+    expect(result.reasons[0]).toMatch(/"E_cell \(V\)" and "E_anode \(V\)"/);
   });
   it('a time column with constant current → durability', () => {
     const result = detect('Time (h),Current density (A/cm2),Voltage (V)\n0,0.2,0.65\n1,0.2,0.6499\n2,0.2,0.6498\n');
@@ -64,10 +70,10 @@ describe('detectMapping: ambiguities and kinds', () => {
     expect(detect('Time (h),Voltage (V)\n0,0.65\n1,0.649\n').kind).toBe('durability');
     expect(detect('Time (h),Voltage (V)\n0,0.95\n1,0.949\n', 'hold').kind).toBe('hold');
   });
-  it('a time column with stepping current → polarization, ambiguous', () => {
+  it('a time column with a current stepping over its whole range → polarization, without asking', () => {
     const result = detect('Time (s),I (A/cm2),U (V)\n0,0,0.95\n30,0.1,0.72\n60,0.2,0.65\n90,0.4,0.55\n120,0.6,0.48\n');
     expect(result.kind).toBe('polarization');
-    expect(result.ambiguous).toBe(true);
+    expect(result.ambiguous).toBe(false);
   });
   it('a time column with current ≈ 0 → hold', () => {
     expect(detect('Time (h),j (A/cm2),U (V)\n0,0,0.95\n1,0.0001,0.949\n').kind).toBe('hold');

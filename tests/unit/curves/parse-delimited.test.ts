@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { createDelimitedParser, parseDelimitedText, CurveFileError } from '../../../shared/curves/index';
+import { createDelimitedParser, parseDelimitedText, applyMapping, CurveFileError } from '../../../shared/curves/index';
 import type { ParsedTable } from '../../../shared/curves/index';
 
 function codeOf(action: () => unknown): string {
@@ -176,9 +176,11 @@ describe('parseDelimitedText: errors', () => {
   it('numbers without a header → no-header', () => {
     expect(codeOf(() => parseDelimitedText('0.1,0.8\n0.2,0.7\n'))).toBe('no-header');
   });
-  it('a blank numeric cell names line and column', () => {
+  it('a blank numeric cell is kept as missing, and refused by the mapping where a value is needed', () => {
+    const table = parseDelimitedText('j (A/cm2),Voltage (V),HFR (Ohm cm2)\n0.1,0.8,0.2\n0.2,,0.2\n');
+    expect(table.missingCells?.[1]).toEqual({ count: 1, firstLine: 3, firstText: '' }); // the blank voltage on line 3
     try {
-      parseDelimitedText('j (A/cm2),Voltage (V),HFR (Ohm cm2)\n0.1,0.8,0.2\n0.2,,0.2\n');
+      applyMapping(table, { current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' } }, { kind: 'polarization' });
       expect.unreachable();
     } catch (error) {
       expect(error).toBeInstanceOf(CurveFileError);

@@ -25,7 +25,18 @@ function runChain(text: string, areaCm2?: number): string {
     const detection = detectMapping(table);
     if (detection.mapping === null) return 'no-mapping';
     const curve = applyMapping(table, detection.mapping, { kind: detection.kind, areaCm2 });
-    if (detection.kind === 'polarization') polarizationMetrics(curve, REF, { loadingMgCm2: 1 });
+    if (detection.kind === 'polarization') {
+      try {
+        polarizationMetrics(curve, REF, { loadingMgCm2: 1 });
+      } catch (error) {
+        // A file with only an iR-free voltage leaves the measured voltage NaN where the HFR is
+        // missing (all NaN without HFR), by design; metrics that do not read vIrFree refuse such
+        // a curve with a RangeError (the route answers 422).
+        const someNaN = curve.vIrFree !== undefined && curve.v.some((value) => value !== value);
+        if (!(someNaN && error instanceof RangeError)) throw error;
+        return 'irfree-only';
+      }
+    }
     return 'ok';
   } catch (error) {
     if (error instanceof CurveFileError) return error.code;

@@ -58,6 +58,23 @@ describe('recogniseHeaderUnit', () => {
     expect(recogniseHeaderUnit('V iR-corrected [mV]')).toMatchObject({ quantity: 'voltage', irFree: true });
     expect(recogniseHeaderUnit('E_cell (V)').irFree).toBe(false);
   });
+  it.each([
+    ['E_iR-free (V)', 'V'],
+    ['V_iR-corrected', null],
+    ['IR-free voltage', null],
+    ['IR-free voltage (mV)', 'mV'],
+    ['Voltage (iR-free)', null],
+    ['HFR-free voltage (V)', 'V'],
+    ['iR-compensated potential / V', 'V'],
+    ['U_iRfree [V]', 'V'],
+  ])('"%s" is an iR-free voltage (unit %s), not an HFR', (header, unit) => {
+    expect(recogniseHeaderUnit(header)).toMatchObject({ quantity: 'voltage', unit, irFree: true });
+  });
+  it('an HFR column and a measured voltage stay what they are', () => {
+    expect(recogniseHeaderUnit('HFR (mOhm cm2)')).toMatchObject({ quantity: 'hfr', irFree: false });
+    expect(recogniseHeaderUnit('Cell voltage (V)')).toMatchObject({ quantity: 'voltage', irFree: false });
+    expect(recogniseHeaderUnit('Air flow (sccm)').quantity).toBeNull();
+  });
   it('lets the unit win over a contradicting name', () => {
     expect(recogniseHeaderUnit('Voltage (A)').quantity).toBe('current');
   });

@@ -51,7 +51,7 @@ export function WhatIfReference({ curve, points, settings, loading }: { curve: C
   const [vRef, setVRef] = useState(settings.refVoltage);
   const data = useMemo(
     // JSON carries missing readings as null: keep them missing (NaN), not 0
-    () => ({ kind: curve.kind, j: Float64Array.from(points.j ?? []), v: Float64Array.from(points.v, missing), hfr: points.hfr ? Float64Array.from(points.hfr, missing) : undefined }),
+    () => ({ kind: curve.kind, j: Float64Array.from(points.j ?? []), v: Float64Array.from(points.v, missing), hfr: points.hfr ? Float64Array.from(points.hfr, missing) : undefined, vIrFree: points.vIrFree ? Float64Array.from(points.vIrFree, missing) : undefined }),
     [curve, points],
   );
   const maxJ = Math.max(0.05, ...Array.from(data.j));

@@ -46,11 +46,3 @@ export function RecordMark({ className = '' }: { className?: string }) {
   );
 }
 
-/**
- * Where notes on how the curve's file was read (left-out lines, sign or unit corrections,
- * conditions that differ from the build's) are shown, on the upload result and the build page.
- * Renders nothing until those notes have a component of their own.
- */
-export function CurveReadNotes(_props: { curve: CurveSummary }) {
-  return null;
-}

@@ -28,6 +28,7 @@ export interface UploadRow {
 const QUANTITIES = [
   { key: 'current', label: 'Current', units: ['A/cm2', 'mA/cm2', 'A', 'mA'] },
   { key: 'voltage', label: 'Cell voltage', units: ['V', 'mV'] },
+  { key: 'voltageIrFree', label: 'iR-free voltage', units: ['V', 'mV'] },
   { key: 'hfr', label: 'HFR', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
   { key: 'time', label: 'Time', units: ['s', 'min', 'h', 'timestamp'] },
   { key: 'temperature', label: 'Temperature', units: ['C', 'K'] },
@@ -35,18 +36,25 @@ const QUANTITIES = [
 
 const UNIT_LABEL: Record<string, string> = { 'A/cm2': 'A/cm²', 'mA/cm2': 'mA/cm²', A: 'A (total)', mA: 'mA (total)', V: 'V', mV: 'mV', 'ohm*cm2': 'Ω·cm²', 'mohm*cm2': 'mΩ·cm²', ohm: 'Ω (total)', mohm: 'mΩ (total)', s: 's', min: 'min', h: 'h', timestamp: 'date/time', C: '°C', K: 'K' };
 
+type MappingEntry = { column: number; unit: string; negated?: boolean };
+
 export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: UploadPreview; onConfirm: (m: ColumnMapping, opts: { kind: CurveKind; saveProfileAs?: string; areaCm2?: number; sheet?: string }) => void; onCancel: () => void }) {
   const start = (preview.detected ?? {}) as Partial<ColumnMapping>;
-  const [mapping, setMapping] = useState<Record<string, { column: number; unit: string } | undefined>>({ ...start } as never);
+  const [mapping, setMapping] = useState<Record<string, MappingEntry | undefined>>({ ...start } as never);
   const [kind, setKind] = useState<CurveKind>(preview.kind);
   const [profileName, setProfileName] = useState('');
-  const [area, setArea] = useState<string>(preview.conditions?.areaCm2 ? String(preview.conditions.areaCm2) : '');
+  // the file's own area first, else the area the build records
+  const fileArea = preview.conditions?.areaCm2 ?? null;
+  const buildArea = preview.buildAreaCm2 ?? null;
+  const [area, setArea] = useState<string>(fileArea != null ? String(fileArea) : buildArea != null ? String(buildArea) : '');
   const [sheet, setSheet] = useState(preview.sheet ?? '');
   const needsArea = ['A', 'mA'].includes(mapping.current?.unit ?? '') || ['ohm', 'mohm'].includes(mapping.hfr?.unit ?? '');
+  const areaSource = area === '' ? null : fileArea != null && Number(area) === fileArea ? 'from the file' : buildArea != null && Number(area) === buildArea ? 'the build’s recorded area' : 'entered here';
+  const hasVoltage = Boolean(mapping.voltage || mapping.voltageIrFree);
   return (
     <div className="mt-2 rounded-md border border-copper-500/40 bg-copper-100/40 p-3">
       <p className="text-sm font-medium text-ink-900">Confirm the columns of {preview.fileName ?? 'this file'}</p>
-      {preview.reasons.length > 0 && <ul className="mt-1 list-disc pl-5 text-xs text-amber-700">{preview.reasons.map((r) => <li key={r}>{r}</li>)}</ul>}
+      {preview.reasons.length > 0 && <ul className="mt-1 list-disc pl-5 text-xs text-amber-800" aria-label="What needs confirming">{preview.reasons.map((r) => <li key={r} className="break-words">{r}</li>)}</ul>}
       <div className="mt-2 overflow-x-auto">
         <table className="text-xs">
           <thead><tr>{preview.header.map((h, i) => <th key={i} className="border-b border-line px-2 py-1 text-left font-semibold">{h}</th>)}</tr></thead>
@@ -68,21 +76,27 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
         {QUANTITIES.map((q) => (
           <div key={q.key} className="flex items-end gap-1">
             <label className="flex-1 text-xs text-ink-700">{q.label} column
-              <Select aria-label={`${q.label} column`} value={mapping[q.key]?.column ?? ''} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: e.target.value === '' ? undefined : { column: Number(e.target.value), unit: m[q.key]?.unit ?? q.units[0] } }))}>
+              <Select aria-label={`${q.label} column`} value={mapping[q.key]?.column ?? ''} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: e.target.value === '' ? undefined : { ...m[q.key], column: Number(e.target.value), unit: m[q.key]?.unit ?? q.units[0] } }))}>
                 <option value="">— none —</option>
                 {preview.header.map((h, i) => <option key={i} value={i}>{h}</option>)}
               </Select>
             </label>
             <label className="w-28 text-xs text-ink-700">unit
-              <Select aria-label={`${q.label} unit`} value={mapping[q.key]?.unit ?? q.units[0]} disabled={!mapping[q.key]} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: { column: m[q.key]!.column, unit: e.target.value } }))}>
+              <Select aria-label={`${q.label} unit`} value={mapping[q.key]?.unit ?? q.units[0]} disabled={!mapping[q.key]} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: { ...m[q.key]!, unit: e.target.value } }))}>
                 {q.units.map((u) => <option key={u} value={u}>{UNIT_LABEL[u]}</option>)}
               </Select>
             </label>
           </div>
         ))}
+        {mapping.current && (
+          <label className="flex items-center gap-2 self-end text-xs text-ink-700">
+            <input type="checkbox" checked={mapping.current.negated === true} onChange={(e) => setMapping((m) => ({ ...m, current: { ...m.current!, negated: e.target.checked } }))} />
+            The file logs load current as negative (multiply by −1)
+          </label>
+        )}
         {needsArea && (
-          <label className="text-xs text-ink-700">Active area (cm²) — needed for total current or Ω
-            <Input type="number" step="any" value={area} onChange={(e) => setArea(e.target.value)} aria-label="Active area" />
+          <label className="text-xs text-ink-700">Active area (cm²) — needed for total current or Ω{areaSource && <span className="text-ink-500">, {areaSource}</span>}
+            <Input type="number" step="any" min="0" value={area} onChange={(e) => setArea(e.target.value)} aria-label="Active area" />
           </label>
         )}
         <label className="text-xs text-ink-700">Save as import profile (optional)
@@ -90,7 +104,7 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
         </label>
       </div>
       <div className="mt-3 flex gap-2">
-        <Button variant="primary" disabled={!mapping.voltage} onClick={() => onConfirm(Object.fromEntries(Object.entries(mapping).filter(([, v]) => v)) as unknown as ColumnMapping, { kind, saveProfileAs: profileName || undefined, areaCm2: area ? Number(area) : undefined, sheet: sheet || undefined })}>
+        <Button variant="primary" disabled={!hasVoltage} onClick={() => onConfirm(Object.fromEntries(Object.entries(mapping).filter(([, v]) => v)) as unknown as ColumnMapping, { kind, saveProfileAs: profileName || undefined, areaCm2: area ? Number(area) : undefined, sheet: sheet || undefined })}>
           Use these columns
         </Button>
         <Button onClick={onCancel}>Skip this file</Button>
@@ -188,7 +202,7 @@ export function UploadRows({ rows, onConfirm, onSkip, buildChoices, onChooseBuil
               {row.state === 'waiting' && <span className="text-ink-500">waiting</span>}
             </span>
           </div>
-          {row.message && <p className={`mt-0.5 text-xs ${row.state === 'error' ? 'text-rust-700' : 'text-ink-500'}`}>{row.message}</p>}
+          {row.message && row.state !== 'confirm' && <p className={`mt-0.5 text-xs ${row.state === 'error' ? 'text-rust-700' : 'text-ink-500'}`}>{row.message}</p>}
           {row.state === 'done' && row.stored && row.buildId != null && (
             <UploadResult stored={row.stored} projectId={projectId} buildCode={buildCodeOf(row.buildId)} settings={settings} />
           )}

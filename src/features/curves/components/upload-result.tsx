@@ -8,7 +8,8 @@ import { ApiError } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';
 import { METRICS, formatMetric } from '@/lib/format';
 import { useChooseRecord } from '../api/curves';
-import { COMPARED, CurveReadNotes, KIND_WORD, RecordMark, formatDifference, referenceLine } from './record-parts';
+import { COMPARED, KIND_WORD, RecordMark, formatDifference, referenceLine } from './record-parts';
+import { ImportNotesFor } from './import-notes';
 
 export interface StoredUpload {
   curve: CurveSummary;
@@ -63,7 +64,7 @@ export function UploadResult({ stored, projectId, buildCode, settings }: { store
         {settings ? `At the project’s reference point: ${referenceLine(settings)}.` : null}
         {!sameReference && <span className="text-amber-700"> The two were measured at different reference points; the record is being re-measured.</span>}
       </p>
-      <CurveReadNotes curve={curve} />
+      <ImportNotesFor curveId={curve.id} buildId={curve.buildId} canChoose />
       {!isFirst && !decision && (
         <div className="mt-2 flex flex-wrap gap-2">
           <Button variant="primary" disabled={choose.isPending} onClick={makeRecord}>Make this the curve of record</Button>
