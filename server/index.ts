@@ -3,9 +3,12 @@ import { createContext } from './bootstrap';
 import { createApp } from './app';
 import { seedIfEmpty } from './seed/seed';
 import { sendDigests } from './review/notify';
+import { remeasureOutdatedCurves } from './curves/service';
 
 const ctx = createContext();
 await seedIfEmpty(ctx);
+const remeasured = remeasureOutdatedCurves(ctx);
+if (remeasured > 0) ctx.logger.info(`measured ${remeasured} curve(s) again under the current metric rules`);
 const app = createApp(ctx);
 const server = app.listen(ctx.env.PORT, () => {
   ctx.logger.info(`Cellwright listening on http://localhost:${ctx.env.PORT} (database ${ctx.env.databasePath})`);

@@ -13,6 +13,7 @@ import { requireBuildWrite, requireProject, requireUser, type ProjectAccess } fr
 import type { AuthUser } from '../context';
 import { listFactors, listResponses } from '../projects/service';
 import { notifyBuildTested } from '../review/notify';
+import { recomputeBuildMetrics } from '../curves/service';
 import { describeChanges, diffRecipe } from '../../shared/lineage';
 
 type BuildRow = typeof builds.$inferSelect;
@@ -374,6 +375,10 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   if (body.planReason !== undefined) set.planReason = body.planReason;
   const after = db.update(builds).set(set).where(eq(builds.id, before.id)).returning().get();
   audit(db, { userId: access.user.id, action: 'update', entity: 'build', entityId: before.id, projectId: before.projectId, before, after });
+  // loading and H₂ crossover enter the curve metrics: measure the build's curves again
+  if (after.loadingMgCm2 !== before.loadingMgCm2 || after.metalLoadingMgCm2 !== before.metalLoadingMgCm2 || (after.testConditions?.h2CrossoverMAcm2 ?? 0) !== (before.testConditions?.h2CrossoverMAcm2 ?? 0)) {
+    recomputeBuildMetrics(ctx, before.id);
+  }
   if (after.status === 'tested' && before.status !== 'tested') void notifyBuildTested(ctx, access.user, before, after);
   return getBuildItem(ctx, before.id);
 }

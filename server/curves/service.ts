@@ -69,7 +69,20 @@ export function referencePoint(project: typeof projects.$inferSelect): Reference
   return project.settings;
 }
 
+/**
+ * Bumped whenever the way metrics are read off a curve changes (step grouping, windows, intervals):
+ * curves measured by an older rule are measured again at start-up, so no stored number predates
+ * the rules the README states.
+ */
+export const METRICS_ALGORITHM = 2;
+
 export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null): MetricsResult {
+  const result = measure(curve, ref, build, options);
+  result.summary.metricsAlgorithm = METRICS_ALGORITHM;
+  return result;
+}
+
+function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null): MetricsResult {
   if (curve.kind === 'polarization') {
     return polarizationMetrics(curve, ref, { loadingMgCm2: build.loadingMgCm2, metalLoadingMgCm2: build.metalLoadingMgCm2 }, { h2CrossoverAcm2: (build.testConditions?.h2CrossoverMAcm2 ?? 0) / 1000 });
   }
@@ -123,6 +136,10 @@ function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<stri
     segments: JSON.stringify((d.segments ?? []).map((g) => ({ fromHours: g.fromHours, toHours: g.toHours, startV: g.startV, endV: g.endV, rate: g.rate }))),
     method: d.method,
     notes: (d.notes ?? []).join(' '),
+    stillInBreakIn: d.stillInBreakIn,
+    linearityVerdict: d.linearity?.verdict ?? null,
+    firstHalfRate: d.linearity?.firstHalfRate ?? null,
+    secondHalfRate: d.linearity?.secondHalfRate ?? null,
   };
 }
 
@@ -432,26 +449,62 @@ export function curvePoints(row: CurveRow, options: { maxPoints?: number; fromHo
   };
 }
 
-/** Re-measure every curve of a project at its current reference point (after settings change). */
-export function recomputeProjectMetrics(ctx: AppContext, projectId: number): number {
+/** Measure stored curves again with their build and project as they are now, in one transaction. */
+function remeasure(ctx: AppContext, rows: CurveRow[]): number {
   const { db } = ctx;
-  const project = db.select().from(projects).where(eq(projects.id, projectId)).get();
-  if (!project) return 0;
-  const ref = referencePoint(project);
-  const buildRows = db.select().from(builds).where(eq(builds.projectId, projectId)).all();
-  if (buildRows.length === 0) return 0;
-  const byId = new Map(buildRows.map((b) => [b.id, b]));
-  const rows = db.select().from(curves).where(and(inArray(curves.buildId, [...byId.keys()]), eq(curves.kind, 'polarization'))).all();
+  if (rows.length === 0) return 0;
+  const buildIds = [...new Set(rows.map((row) => row.buildId))];
+  const buildRows = db.select().from(builds).where(inArray(builds.id, buildIds)).all();
+  const byBuild = new Map(buildRows.map((b) => [b.id, b]));
+  const projectRows = db.select().from(projects).where(inArray(projects.id, [...new Set(buildRows.map((b) => b.projectId))])).all();
+  const byProject = new Map(projectRows.map((p) => [p.id, p]));
+  let count = 0;
   db.transaction((tx) => {
     for (const row of rows) {
-      const result = computeMetrics(decodePoints(row.points, row.kind), ref, byId.get(row.buildId)!, row.options as DurabilityOptions);
+      const build = byBuild.get(row.buildId);
+      const project = build && byProject.get(build.projectId);
+      if (!build || !project) continue;
+      let result: MetricsResult;
+      try {
+        result = computeMetrics(decodePoints(row.points, row.kind), referencePoint(project), build, row.options as DurabilityOptions | null);
+      } catch (error) {
+        if (error instanceof RangeError) continue; // stored curves were measurable once; keep what they have
+        throw error;
+      }
       tx.update(curves)
         .set({ metrics: result.metrics, metricNotes: result.metricNotes as Record<string, string>, method: result.method as never, summary: { ...row.summary, ...result.summary }, metricsVersion: project.metricsVersion })
         .where(eq(curves.id, row.id))
         .run();
+      count++;
     }
   });
-  return rows.length;
+  return count;
+}
+
+/** Re-measure every polarization curve of a project at its current reference point (after settings change). */
+export function recomputeProjectMetrics(ctx: AppContext, projectId: number): number {
+  const { db } = ctx;
+  const buildIds = db.select({ id: builds.id }).from(builds).where(eq(builds.projectId, projectId)).all().map((b) => b.id);
+  if (buildIds.length === 0) return 0;
+  return remeasure(ctx, db.select().from(curves).where(and(inArray(curves.buildId, buildIds), eq(curves.kind, 'polarization'))).all());
+}
+
+/** Re-measure a build's polarization curves after its loading or H₂ crossover changed. */
+export function recomputeBuildMetrics(ctx: AppContext, buildId: number): number {
+  return remeasure(ctx, ctx.db.select().from(curves).where(and(eq(curves.buildId, buildId), eq(curves.kind, 'polarization'))).all());
+}
+
+/** Curves measured by an older metrics rule are measured again (called at start-up). */
+export function remeasureOutdatedCurves(ctx: AppContext): number {
+  const ids = ctx.db.$client
+    .prepare(`select id from curves where coalesce(json_extract(summary, '$.metricsAlgorithm'), 0) < ?`)
+    .all(METRICS_ALGORITHM) as { id: number }[];
+  let count = 0;
+  // a few at a time: long logs are large
+  for (let i = 0; i < ids.length; i += 20) {
+    count += remeasure(ctx, ctx.db.select().from(curves).where(inArray(curves.id, ids.slice(i, i + 20).map((r) => r.id))).all());
+  }
+  return count;
 }
 
 /** Re-measure one curve with new options (e.g. a break-in the user set by hand). */
