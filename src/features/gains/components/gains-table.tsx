@@ -2,6 +2,7 @@
 // and its CSV export in display units.
 import { Link } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
+import { downloadText } from '@/components/plot/export';
 import { formatNumber } from '@/lib/format';
 import type { GainsData } from '../api/get-gains';
 import { displayOf, showGain, showValue } from './display';
@@ -32,17 +33,6 @@ export function gainsCsv(data: GainsData): string {
   const rows = data.steps.map((st, k) => [k === 0 ? 'baseline' : String(k), st.code, st.replicates.join(' '), st.changeNote ?? '', st.changeText ?? '', num(st.value), num(st.sd), st.n, num(st.gain), num(st.low), num(st.high), st.withinNoise == null ? '' : st.withinNoise ? 'yes' : 'no', st.note ?? '']);
   rows.push(['total', `${data.steps[0].code} → ${data.steps[data.steps.length - 1].code}`, '', '', '', num(data.total.value), '', '', num(data.total.gain), num(data.total.low), num(data.total.high), data.total.withinNoise == null ? '' : data.total.withinNoise ? 'yes' : 'no', data.total.note ?? '']);
   return [header, ...rows].map((r) => r.map(csvCell).join(',')).join('\n') + '\n';
-}
-
-export function downloadText(text: string, fileName: string, type = 'text/csv') {
-  const url = URL.createObjectURL(new Blob([text], { type }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = fileName;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
 
 /** The method note in display units (the server's note carries internal units). */

@@ -6,6 +6,7 @@ import type { FactorDef } from '@shared/api-types';
 import { predict } from '@shared/doe/model/index';
 import type { SurfaceFit } from '@shared/doe/model/index';
 import { LazyPlot, exportPlot } from '@/components/plot/lazy-plot';
+import { Plot3D } from '@/components/plot/plot-3d';
 import { Button } from '@/components/ui/button';
 import { Field, Select } from '@/components/ui/field';
 import type { SurfaceResult } from '../api/surface';
@@ -117,7 +118,7 @@ export function ContourPanel({ result, view, subtitle }: { result: SurfaceResult
           layout={{ title: { text: title }, xaxis: { title: { text: xTitle } }, yaxis: { title: { text: yTitle } } }}
         />
       ) : (
-        <LazyPlot
+        <Plot3D
           fileName={`surface3d-${result.response.key}`}
           style={{ height: 520 }}
           data={[
