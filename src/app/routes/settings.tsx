@@ -14,6 +14,8 @@ import { Field, Input, Select } from '@/components/ui/field';
 import { useMe } from '@/features/auth/api/get-me';
 import { formatDate } from '@/lib/format';
 
+const GOAL_WORD: Record<string, string> = { maximize: 'higher is better', minimize: 'lower is better', target: 'closest to a target' };
+
 export default function Settings() {
   const projectId = Number(useParams().projectId);
   const project = useProject(projectId);
@@ -55,13 +57,14 @@ export default function Settings() {
 
       <Panel title="Factors">
         <table className="mb-4 w-full text-sm">
-          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Key</th><th>Label</th><th>Kind</th><th>Range or levels</th><th /></tr></thead>
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Label</th><th>Kind</th><th>Range or levels</th><th>API key</th><th><span className="sr-only">Actions</span></th></tr></thead>
           <tbody className="divide-y divide-line">
             {factors.data!.map((f) => (
               <tr key={f.id}>
-                <td className="num py-1.5">{f.key}</td><td>{f.label}</td><td>{f.kind}</td>
+                <td className="py-1.5">{f.label}</td><td>{f.kind}</td>
                 <td className="num">{f.kind === 'continuous' ? `${f.low} – ${f.high} ${f.unit}` : (f.levels ?? []).join(' · ')}</td>
-                <td className="text-right">{canEditFactors(p.myRole) && <Button variant="ghost" onClick={() => setEditing(f)}>Edit</Button>}</td>
+                <td><code className="num text-xs text-ink-700">{f.key}</code></td>
+                <td className="text-right">{canEditFactors(p.myRole) && <Button variant="ghost" onClick={() => setEditing(f)} aria-label={`Edit ${f.label}`}>Edit</Button>}</td>
               </tr>
             ))}
           </tbody>
@@ -76,10 +79,10 @@ export default function Settings() {
       </Panel>
 
       <Panel title="Hand-entered responses">
-        <p className="mb-3 text-xs text-ink-500">Numbers measured outside the curves (cost, thickness, …). Curve metrics such as vAtRef are always available and need no definition.</p>
+        <p className="mb-3 text-xs text-ink-500">Numbers measured outside the curves (cost, thickness, …). Curve metrics such as V at j_ref are always available and need no definition. The API key is the name scripts use.</p>
         <table className="mb-4 w-full text-sm">
-          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Key</th><th>Label</th><th>Unit</th><th>Goal</th></tr></thead>
-          <tbody className="divide-y divide-line">{responses.data!.map((r) => <tr key={r.id}><td className="num py-1.5">{r.key}</td><td>{r.label}</td><td>{r.unit}</td><td>{r.goal}</td></tr>)}</tbody>
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Label</th><th>Unit</th><th>Goal</th><th>API key</th></tr></thead>
+          <tbody className="divide-y divide-line">{responses.data!.map((r) => <tr key={r.id}><td className="py-1.5">{r.label}</td><td>{r.unit}</td><td>{GOAL_WORD[r.goal] ?? r.goal}</td><td><code className="num text-xs text-ink-700">{r.key}</code></td></tr>)}</tbody>
         </table>
         {canEditFactors(p.myRole) && <ResponseForm pending={createResponse.isPending} error={createResponse.error} onSubmit={(v) => createResponse.mutate(v)} />}
       </Panel>

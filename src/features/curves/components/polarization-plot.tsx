@@ -44,16 +44,16 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
     const v = s.points.v;
     const name = (what: string) => (single ? what : `${s.name}: ${what}`);
     for (const x of v) if (x > maxV) maxV = x;
-    traces.push({ x: j, y: v, type: 'scatter', mode: 'lines+markers', name: single ? 'cell voltage' : `${s.name}${showPower || irFree ? ': V' : ''}`, legendgroup: s.name, line: { color: look.v, width: QUANTITY_STYLE.voltage.width, dash: QUANTITY_STYLE.voltage.dash }, marker: { size: 4, color: look.v, symbol: 'circle' }, hovertemplate: 'j %{x:.1f} mA/cm²<br>V %{y:.3f} V<extra>%{fullData.name}</extra>' });
+    traces.push({ x: j, y: v, type: 'scatter', mode: 'lines+markers', name: single ? 'cell voltage' : `${s.name}${showPower || irFree ? ': V' : ''}`, legendgroup: single ? undefined : s.name, line: { color: look.v, width: QUANTITY_STYLE.voltage.width, dash: QUANTITY_STYLE.voltage.dash }, marker: { size: 4, color: look.v, symbol: 'circle' }, hovertemplate: 'j %{x:.1f} mA/cm²<br>V %{y:.3f} V<extra>%{fullData.name}</extra>' });
     if (irFree && s.points.hfr) {
       const vIr = v.map((vv, k) => vv + (s.points.j![k]! * s.points.hfr![k]!));
       for (const x of vIr) if (x > maxV) maxV = x;
-      traces.push({ x: j, y: vIr, type: 'scatter', mode: 'lines', name: name('iR-free V'), legendgroup: s.name, line: { color: look.ir, width: QUANTITY_STYLE.irFree.width, dash: QUANTITY_STYLE.irFree.dash }, hovertemplate: 'j %{x:.1f} mA/cm²<br>iR-free V %{y:.3f} V<extra>%{fullData.name}</extra>' });
+      traces.push({ x: j, y: vIr, type: 'scatter', mode: 'lines', name: name('iR-free V'), legendgroup: single ? undefined : s.name, line: { color: look.ir, width: QUANTITY_STYLE.irFree.width, dash: QUANTITY_STYLE.irFree.dash }, hovertemplate: 'j %{x:.1f} mA/cm²<br>iR-free V %{y:.3f} V<extra>%{fullData.name}</extra>' });
     }
     if (showPower) {
       const p = v.map((vv, k) => vv * s.points.j![k]! * 1000);
       for (const x of p) if (x > maxP) maxP = x;
-      traces.push({ x: j, y: p, type: 'scatter', mode: 'lines', yaxis: 'y2', name: name('power density'), legendgroup: s.name, line: { color: look.p, width: QUANTITY_STYLE.power.width, dash: QUANTITY_STYLE.power.dash }, hovertemplate: 'j %{x:.1f} mA/cm²<br>P %{y:.0f} mW/cm²<extra>%{fullData.name}</extra>' });
+      traces.push({ x: j, y: p, type: 'scatter', mode: 'lines', yaxis: 'y2', name: name('power density'), legendgroup: single ? undefined : s.name, line: { color: look.p, width: QUANTITY_STYLE.power.width, dash: QUANTITY_STYLE.power.dash }, hovertemplate: 'j %{x:.1f} mA/cm²<br>P %{y:.0f} mW/cm²<extra>%{fullData.name}</extra>' });
     }
   });
   const jRef = settings.refCurrentDensity * 1000;
