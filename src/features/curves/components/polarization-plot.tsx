@@ -24,7 +24,7 @@ export function conditionsLine(c: TestConditions | null | undefined, settings: P
   return parts.join(' · ');
 }
 
-export function PolarizationPlot({ series, settings, conditions, title, fileName }: { series: PlotSeries[]; settings: ProjectSettings; conditions?: TestConditions | null; title: string; fileName: string }) {
+export function PolarizationPlot({ series, settings, conditions, title, fileName, subtitle }: { series: PlotSeries[]; settings: ProjectSettings; conditions?: TestConditions | null; title: string; fileName: string; subtitle?: string }) {
   const [irFree, setIrFree] = useState(false);
   const [showPower, setShowPower] = useState(series.length <= 2);
   const box = useRef<HTMLDivElement>(null);
@@ -75,7 +75,7 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
         data={traces}
         style={{ height: 400 + 20 * Math.ceil(traces.length / 2) }}
         title={title}
-        subtitle={conditionsLine(conditions, settings)}
+        subtitle={subtitle ?? conditionsLine(conditions, settings)}
         layout={{
           xaxis: { title: { text: 'Current density j (mA/cm²)' }, zeroline: false, rangemode: 'tozero' },
           yaxis: { title: { text: 'Cell voltage V (V)' }, range: vAxis.range, dtick: vAxis.dtick, tick0: 0 },

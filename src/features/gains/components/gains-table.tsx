@@ -10,11 +10,11 @@ import { displayOf, showGain, showValue } from './display';
 function NoiseMark({ withinNoise }: { withinNoise: boolean | null }) {
   if (withinNoise === null) return <span className="text-ink-500">no interval</span>;
   return withinNoise ? (
-    <span className="inline-flex items-center gap-1 rounded-full bg-ink-100 px-2 py-0.5 text-xs text-ink-700">
+    <span className="inline-flex items-center gap-1 whitespace-nowrap rounded-full bg-ink-100 px-2 py-0.5 text-xs text-ink-700">
       <svg aria-hidden width="10" height="10" viewBox="0 0 10 10"><path d="M1 5h8" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" /></svg>within noise
     </span>
   ) : (
-    <span className="inline-flex items-center gap-1 rounded-full bg-moss-100 px-2 py-0.5 text-xs text-moss-700">
+    <span className="inline-flex items-center gap-1 whitespace-nowrap rounded-full bg-moss-100 px-2 py-0.5 text-xs text-moss-700">
       <svg aria-hidden width="10" height="10" viewBox="0 0 10 10"><path d="M1.5 5.2 4 7.8 8.8 2.2" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" /></svg>beyond noise
     </span>
   );
@@ -74,12 +74,12 @@ export function GainsTable({ data, projectId, fileName }: { data: GainsData; pro
                     </>
                   )}
                 </td>
-                <td className="num pr-3 text-right">
+                <td className="num whitespace-nowrap pr-3 text-right">
                   {showValue(d, st.value)}
-                  <div className="text-[11px] text-ink-500">{st.sd != null ? `SD ${formatNumber(st.sd * d.scale, d.gainDigits)}, ` : ''}n = {st.n}</div>
+                  <div className="whitespace-nowrap text-[11px] text-ink-500">{st.sd != null ? `SD ${formatNumber(st.sd * d.scale, d.gainDigits)}, ` : ''}n = {st.n}</div>
                 </td>
-                <td className={`num pr-3 text-right font-medium ${st.gain == null ? '' : st.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{k === 0 ? '—' : showGain(d, st.gain)}</td>
-                <td className="num pr-3 text-right text-ink-700">{st.low == null || st.high == null ? '—' : `${showGain(d, st.low)} … ${showGain(d, st.high)}`}</td>
+                <td className={`num whitespace-nowrap pr-3 text-right font-medium ${st.gain == null ? '' : st.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{k === 0 ? '—' : showGain(d, st.gain)}</td>
+                <td className="num whitespace-nowrap pr-3 text-right text-ink-700">{st.low == null || st.high == null ? '—' : `${showGain(d, st.low)} … ${showGain(d, st.high)}`}</td>
                 <td className="pr-3">{k === 0 ? '' : <NoiseMark withinNoise={st.withinNoise} />}</td>
                 <td className="text-xs text-ink-500">{k === 0 ? '' : methodText(data, st.method, st.note)}</td>
               </tr>
@@ -88,8 +88,8 @@ export function GainsTable({ data, projectId, fileName }: { data: GainsData; pro
               <td className="py-1.5 pr-3">Total</td>
               <td className="pr-3 text-ink-700">{data.steps[0].code} → {data.steps[data.steps.length - 1].code}</td>
               <td className="num pr-3 text-right">{showValue(d, data.total.value)}</td>
-              <td className={`num pr-3 text-right ${data.total.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{showGain(d, data.total.gain)}</td>
-              <td className="num pr-3 text-right text-ink-700">{data.total.low == null || data.total.high == null ? '—' : `${showGain(d, data.total.low)} … ${showGain(d, data.total.high)}`}</td>
+              <td className={`num whitespace-nowrap pr-3 text-right ${data.total.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{showGain(d, data.total.gain)}</td>
+              <td className="num whitespace-nowrap pr-3 text-right text-ink-700">{data.total.low == null || data.total.high == null ? '—' : `${showGain(d, data.total.low)} … ${showGain(d, data.total.high)}`}</td>
               <td className="pr-3">{data.steps.length > 1 && <NoiseMark withinNoise={data.total.withinNoise} />}</td>
               <td className="text-xs font-normal text-ink-500">{methodText(data, data.total.method, data.total.note)}</td>
             </tr>
