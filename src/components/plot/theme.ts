@@ -154,7 +154,7 @@ export function themedLayout(layout: Obj | undefined, { width, title, subtitle }
   const titleText = isObj(given.title) ? (given.title.text as string | undefined) : typeof given.title === 'string' ? given.title : undefined;
   const parts = title || subtitle ? { title, subtitle } : splitTitle(titleText);
   const heading = parts.title || parts.subtitle ? titleMarkup(parts, width || 800, compact) : null;
-  const top = heading ? Math.round(18 + heading.lines * (compact ? 15 : 17)) : compact ? 16 : 24;
+  const top = heading ? Math.round(26 + heading.lines * (compact ? 15 : 17)) : compact ? 16 : 24;
   const axis = axisTheme(compact);
   const base: Obj = {
     font: { family: PLOT_FONT, size: compact ? 11 : 12, color: PLOT_COLORS.ink },
@@ -177,7 +177,7 @@ export function themedLayout(layout: Obj | undefined, { width, title, subtitle }
   if (isObj(given.scene)) base.scene = { xaxis: { ...axis, automargin: undefined }, yaxis: { ...axis, automargin: undefined }, zaxis: { ...axis, automargin: undefined } };
   const { title: _omit, ...rest } = given;
   const merged = merge(base, rest);
-  if (heading) merged.title = { text: heading.text, x: 0, xref: 'container', xanchor: 'left', y: 1, yref: 'container', yanchor: 'top', pad: { l: compact ? 8 : 12, t: 10 }, font: { family: PLOT_FONT, size: compact ? 13 : 14, color: PLOT_COLORS.ink } };
+  if (heading) merged.title = { text: heading.text, x: 0, xref: 'container', xanchor: 'left', y: 1, yref: 'container', yanchor: 'top', pad: { l: compact ? 8 : 12, t: 16 }, font: { family: PLOT_FONT, size: compact ? 13 : 14, color: PLOT_COLORS.ink } };
   // the caller's margins may only grow the top to fit the title block
   // a caller that places the legend itself in plot coordinates keeps them
   const legend = isObj(given.legend) ? given.legend : null;
