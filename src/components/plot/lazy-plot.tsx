@@ -4,7 +4,7 @@
 import { lazy, Suspense, useLayoutEffect, useRef, useState, type ComponentType, type CSSProperties, type LazyExoticComponent } from 'react';
 import type { PlotParams } from 'react-plotly.js/factory';
 import { Loading } from '@/components/ui/panel';
-import { PLOT_CONFIG, merge, themedLayout } from './theme';
+import { PLOT_CONFIG, merge, themedData, themedLayout } from './theme';
 
 export { OKABE_ITO } from './theme';
 export { exportPlot, exportPlotCsv } from './export';
@@ -51,7 +51,7 @@ function useWidth() {
 }
 
 export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & { component: LazyExoticComponent<ComponentType<PlotParams>>; bundle: '2d' | '3d' }) {
-  const { fileName = 'cellwright-plot', config, layout, style, title, subtitle, onInitialized, onUpdate, ...rest } = props;
+  const { fileName = 'cellwright-plot', config, layout, style, title, subtitle, onInitialized, onUpdate, data, ...rest } = props;
   const [box, width] = useWidth();
   const height = typeof style?.height === 'number' ? style.height : 420;
   return (
@@ -61,6 +61,7 @@ export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & {
           <Chart
             useResizeHandler
             style={{ width: '100%', height: 420, ...style }}
+            data={themedData(data, width)}
             layout={themedLayout(layout, { width, title, subtitle })}
             config={merge({ ...PLOT_CONFIG, toImageButtonOptions: { format: 'png', filename: fileName, scale: 2 } }, config)}
             onInitialized={(figure, graph) => { unlink(graph); onInitialized?.(figure, graph); }}

@@ -93,7 +93,7 @@ function axisTheme(compact: boolean): Obj {
 }
 
 /** Width in characters a title line may take in a chart `width` px wide at `size` px. */
-const charsFor = (width: number, size: number) => Math.max(16, Math.floor((width - 24) / (size * 0.56)));
+export const charsFor = (width: number, size: number) => Math.max(16, Math.floor((width - 24) / (size * 0.56)));
 
 /** Breaks one line of text at spaces (or after " · ") so no line is longer than `max` characters. */
 export function wrapLine(text: string, max: number): string[] {
@@ -138,6 +138,16 @@ export function titleMarkup({ title, subtitle }: TitleParts, width: number, comp
     ...sub.map((l) => `<span style="font-size:${subSize}px;color:${PLOT_COLORS.muted}">${l.replace(/&/g, '&amp;').replace(/</g, '&lt;')}</span>`),
   ].join('<br>');
   return { text, lines: main.length * 1.25 + sub.length };
+}
+
+/** Legend names wrapped so no entry is wider than the chart (the legend is never clipped). */
+export function themedData(data: unknown[], width: number): unknown[] {
+  if (!(width > 0)) return data;
+  const max = Math.max(14, charsFor(width, 11) - 6);
+  return data.map((trace) => {
+    if (!isObj(trace) || typeof trace.name !== 'string' || trace.name.length <= max || trace.name.includes('<br>')) return trace;
+    return { ...trace, name: wrapLine(trace.name, max).join('<br>') };
+  });
 }
 
 export interface ThemeOptions {

@@ -10,7 +10,7 @@ export function Hint({ hint, children, className = '', role }: { hint: ReactNode
       <div
         id={id}
         role="tooltip"
-        className="pointer-events-none invisible absolute left-0 top-full z-20 mt-1 w-72 max-w-[80vw] whitespace-pre-line rounded-md border border-line bg-white px-3 py-2 text-xs leading-snug text-ink-800 opacity-0 shadow-lg transition-opacity group-hover:visible group-hover:opacity-100 group-focus-visible:visible group-focus-visible:opacity-100"
+        className="pointer-events-none absolute left-0 top-full z-20 mt-1 hidden w-72 max-w-[70vw] whitespace-pre-line rounded-md border border-line bg-white px-3 py-2 text-xs leading-snug text-ink-800 shadow-lg group-hover:block group-focus-visible:block"
       >
         {hint}
       </div>
