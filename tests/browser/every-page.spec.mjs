@@ -87,6 +87,12 @@ export default async function ({ url, browser, signIn }) {
   await dialog.waitFor();
   assert.match(await dialog.innerText(), /Discard/);
   await checkA11y(page, 'discard dialog');
+  // focus starts on the safe choice and stays inside the dialog however far one tabs
+  assert.equal(await page.evaluate(() => document.activeElement?.textContent), 'Cancel');
+  for (let i = 0; i < 5; i++) {
+    await page.keyboard.press('Tab');
+    assert.ok(await page.evaluate(() => Boolean(document.activeElement?.closest('dialog'))), 'focus stays in the dialog');
+  }
   await page.keyboard.press('Escape');
   await dialog.waitFor({ state: 'hidden' });
   assert.equal(await page.getByRole('button', { name: 'Discard' }).count(), 1, 'Esc keeps the build');
