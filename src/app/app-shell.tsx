@@ -35,6 +35,13 @@ export function AppShell() {
   const [open, setOpen] = useState(false);
   const location = useLocation();
   useEffect(() => setOpen(false), [location.pathname]);
+  // the folded rail closes with Esc, like any overlay
+  useEffect(() => {
+    if (!open) return;
+    const onKey = (e: KeyboardEvent) => { if (e.key === 'Escape') setOpen(false); };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [open]);
 
   return (
     <div className="flex min-h-screen flex-col md:flex-row">
@@ -53,7 +60,7 @@ export function AppShell() {
         <div className="mb-5 px-1.5"><Logo /></div>
         <nav className="flex flex-1 flex-col gap-0.5 overflow-y-auto">
           <RailLink to="/" end>Home</RailLink>
-          <div className="mb-1 mt-4 px-2.5 text-[11px] font-semibold uppercase tracking-wider text-ink-500">Projects</div>
+          <div className="mb-1 mt-4 px-2.5 text-[11px] font-semibold uppercase tracking-wider text-ink-300">Projects</div>
           {projects?.map((p) => (
             <div key={p.id}>
               <RailLink to={`/projects/${p.id}`} end>
@@ -76,7 +83,7 @@ export function AppShell() {
           {me && me.user.labKind !== 'partner' && <RailLink to="/projects/new">+ New project</RailLink>}
           {me?.user.isAdmin && (
             <>
-              <div className="mb-1 mt-4 px-2.5 text-[11px] font-semibold uppercase tracking-wider text-ink-500">Administration</div>
+              <div className="mb-1 mt-4 px-2.5 text-[11px] font-semibold uppercase tracking-wider text-ink-300">Administration</div>
               <RailLink to="/admin/people">People</RailLink>
               <RailLink to="/admin/labs">Labs</RailLink>
               <RailLink to="/admin/outbox">Outbox</RailLink>

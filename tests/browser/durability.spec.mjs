@@ -2,6 +2,7 @@
 // sees it stored, opens it, and reads the degradation rate with its interval beside a drawn plot;
 // then sets the break-in by hand and sees the rate recomputed.
 import assert from 'node:assert/strict';
+import { checkPage } from './lib.mjs';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -24,6 +25,7 @@ export default async function ({ url, browser, signIn }) {
   await signIn(page, 'researcher');
   await page.goto(`${url}/projects/1/builds/12`);
   await page.getByRole('heading', { name: /C-012/ }).waitFor();
+  await checkPage(page, 'build C-012');
   await page.getByLabel('Choose curve files').setInputFiles(file);
   const results = page.getByRole('list', { name: 'Upload results' });
   await results.getByText('✓ stored').waitFor({ timeout: 60000 });
@@ -36,9 +38,11 @@ export default async function ({ url, browser, signIn }) {
   const panel = await page.getByText(/µV\/h \(95 %/).first().innerText();
   const rate = Number(panel.match(/([\d.]+) µV\/h/)[1]);
   assert.ok(rate > 7 && rate < 9, `rate ${rate} µV/h should be near the invented 8 µV/h`);
+  await checkPage(page, 'durability log on the build page');
 
   await page.getByLabel('Break-in ends at (h)').fill('200');
   await page.getByRole('button', { name: 'Set break-in' }).click();
   await page.getByText('(set by hand)').waitFor();
+  await checkPage(page, 'durability log with a break-in set by hand');
   fs.rmSync(dir, { recursive: true, force: true });
 }

@@ -4,6 +4,7 @@
 // plans proposals: one inside the builds' support directly, one exploratory only with a reason,
 // which the planned build then shows. No text on either page reads "undefined" or a factor key.
 import assert from 'node:assert/strict';
+import { checkPage } from './lib.mjs';
 
 const KEY_LIKE = /\b[a-z]{2,}[A-Z][a-z]+/;
 
@@ -41,6 +42,7 @@ export default async function ({ url, browser, signIn, artifacts }) {
   await page.getByRole('heading', { name: 'Plan', exact: true }).waitFor();
   const queue = page.getByRole('table', { name: 'Planned builds' });
   await queue.getByRole('link', { name: 'C-021' }).waitFor();
+  await checkPage(page, 'plan queue');
   await page.getByLabel('Centre points').fill('2');
   await page.getByLabel('Seed').fill('42');
   await page.getByText('Axial builds at the middle of each face').first().waitFor();
@@ -113,6 +115,7 @@ export default async function ({ url, browser, signIn, artifacts }) {
   await page.getByRole('table', { name: /Shape check against repeated recipes/ }).waitFor();
   await assertNoDeveloperText(page, factorKeys, 'surface page with statistics open');
   if (artifacts) await page.screenshot({ path: `${artifacts}/surface-journey.png`, fullPage: true });
+  await checkPage(page, 'surface with a fit');
 
   // the planned build shows the reason in its recipe area
   await planned.getByRole('link').click();

@@ -3,6 +3,7 @@
 // saves the mapping as an import profile and makes the new curve C-020's curve of record; its
 // metrics then show in the table and in the compare view. A bad file is refused with its line and column named.
 import assert from 'node:assert/strict';
+import { checkPage } from './lib.mjs';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -20,6 +21,7 @@ export default async function ({ url, browser, signIn }) {
   await signIn(page, 'researcher');
   await page.goto(`${url}/projects/1/upload`);
   await page.getByRole('heading', { name: 'Upload curves' }).waitFor();
+  await checkPage(page, 'upload');
   await page.getByLabel('Choose curve files').setInputFiles([good, bare, bad]);
   // files named after a build code are matched to it
   assert.equal(await page.getByLabel('Build for C-019_lab-c.csv').inputValue() !== '', true);
@@ -30,6 +32,7 @@ export default async function ({ url, browser, signIn }) {
   await results.getByText('? confirm columns').waitFor();
   await results.getByText(/700 V is not a possible cell voltage/).waitFor();
   assert.match(await results.innerText(), /line \d+/);
+  await checkPage(page, 'upload results with a column check');
 
   // confirm the ambiguous file: current is in mA/cm², voltage in V; keep it as a profile
   await page.getByLabel('Current unit').selectOption('mA/cm2');
@@ -50,9 +53,11 @@ export default async function ({ url, browser, signIn }) {
   const row = page.getByRole('row').filter({ hasText: 'C-020' });
   await row.waitFor();
   assert.match(await row.innerText(), /62\d/); // V at 0.2 A/cm² = 0.62 V from the file, in mV
+  await checkPage(page, 'builds table after uploads');
 
   await page.goto(`${url}/projects/1/compare?builds=19,20`);
   await page.getByRole('table').getByText('C-020').waitFor();
   await page.locator('.js-plotly-plot').first().waitFor();
+  await checkPage(page, 'compare');
   fs.rmSync(dir, { recursive: true, force: true });
 }

@@ -3,6 +3,7 @@ import { useState } from 'react';
 import { useCreateToken, useRevokeSession, useRevokeToken, useSessions, useTokens } from '@/features/auth/api/account';
 import { PageHeader, Panel, Loading, ErrorNote } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
+import { useConfirm } from '@/components/ui/confirm-dialog';
 import { Field, Input } from '@/components/ui/field';
 import { formatDateTime } from '@/lib/format';
 
@@ -14,9 +15,11 @@ export default function Account() {
   const revokeToken = useRevokeToken();
   const [name, setName] = useState('');
   const [fresh, setFresh] = useState<string | null>(null);
+  const [confirm, confirmDialog] = useConfirm();
   if (sessions.isLoading || tokens.isLoading) return <Loading />;
   return (
     <div className="max-w-4xl space-y-5">
+      {confirmDialog}
       <PageHeader eyebrow="Account" title="Sessions and API tokens" subtitle="Scripts at partner labs use a personal token: send it as “Authorization: Bearer <token>”. The API is described at /api/openapi.json." />
       <Panel title="Where I am signed in">
         <table className="w-full text-sm" aria-label="Sessions">
@@ -27,7 +30,7 @@ export default function Account() {
                 <td className="num py-1.5">{formatDateTime(s.createdAt)}</td>
                 <td className="max-w-xs truncate text-ink-700" title={s.userAgent ?? ''}>{s.current ? <b>this browser</b> : (s.userAgent ?? '—')}</td>
                 <td className="num text-ink-500">{formatDateTime(s.expiresAt)}</td>
-                <td className="text-right">{!s.current && <Button variant="ghost" onClick={() => revokeSession.mutate(s.id)}>Sign out there</Button>}</td>
+                <td className="text-right">{!s.current && <Button variant="ghost" onClick={async () => { if (await confirm({ title: 'Sign out of that browser?', message: 'Whoever uses it will have to sign in again.', confirmLabel: 'Sign out there' })) revokeSession.mutate(s.id); }}>Sign out there</Button>}</td>
               </tr>
             ))}
           </tbody>
@@ -38,9 +41,9 @@ export default function Account() {
           <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Name</th><th>Created</th><th>Last used</th><th /></tr></thead>
           <tbody className="divide-y divide-line">
             {tokens.data!.map((t) => (
-              <tr key={t.id} className={t.revokedAt ? 'text-ink-300' : ''}>
+              <tr key={t.id} className={t.revokedAt ? 'text-ink-500' : ''}>
                 <td className="py-1.5">{t.name}</td><td className="num">{formatDateTime(t.createdAt)}</td><td className="num">{formatDateTime(t.lastUsedAt)}</td>
-                <td className="text-right">{t.revokedAt ? 'revoked' : <Button variant="danger" onClick={() => { if (window.confirm(`Revoke “${t.name}”? Scripts using it stop working.`)) revokeToken.mutate(t.id); }}>Revoke</Button>}</td>
+                <td className="text-right">{t.revokedAt ? 'revoked' : <Button variant="danger" aria-label={`Revoke ${t.name}`} onClick={async () => { if (await confirm({ title: `Revoke “${t.name}”?`, message: 'Scripts that use this token stop working at once. A revoked token cannot be restored; create a new one if you need it again.', confirmLabel: 'Revoke token' })) revokeToken.mutate(t.id); }}>Revoke</Button>}</td>
               </tr>
             ))}
           </tbody>

@@ -4,18 +4,18 @@ import { useAudit } from '@/features/admin/api/admin';
 import { useProjects } from '@/features/projects/api/projects';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
 import { Select } from '@/components/ui/field';
-import { formatDateTime } from '@/lib/format';
+import { fieldLabel, formatDateTime, formatFieldValue } from '@/lib/format';
 
 const SKIP = new Set(['updatedAt', 'createdAt', 'id', 'projectId']);
 
+/** What an entry changed, in words: new records by their main fields, updates as before → after. */
 function changed(before: unknown, after: unknown): string {
-  if (!before && after && typeof after === 'object') {
-    return Object.entries(after as Record<string, unknown>).filter(([k, v]) => !SKIP.has(k) && v != null && v !== '').slice(0, 5).map(([k, v]) => `${k}: ${typeof v === 'object' ? JSON.stringify(v).slice(0, 60) : String(v)}`).join('; ');
-  }
-  if (before && !after && typeof before === 'object') return `removed ${Object.entries(before as Record<string, unknown>).filter(([k]) => !SKIP.has(k)).slice(0, 3).map(([k, v]) => `${k}: ${String(v)}`).join('; ')}`;
+  const fields = (o: unknown) => Object.entries(o as Record<string, unknown>).filter(([k, v]) => !SKIP.has(k) && v != null && v !== '');
+  if (!before && after && typeof after === 'object') return fields(after).slice(0, 5).map(([k, v]) => `${fieldLabel(k)}: ${formatFieldValue(v).slice(0, 80)}`).join('; ');
+  if (before && !after && typeof before === 'object') return `removed ${fields(before).slice(0, 3).map(([k, v]) => `${fieldLabel(k)}: ${formatFieldValue(v).slice(0, 60)}`).join('; ')}`;
   if (!before || !after || typeof before !== 'object' || typeof after !== 'object') return '';
   const b = before as Record<string, unknown>, a = after as Record<string, unknown>;
-  return Object.keys(a).filter((k) => !SKIP.has(k) && JSON.stringify(a[k]) !== JSON.stringify(b[k])).map((k) => `${k}: ${JSON.stringify(b[k])} → ${JSON.stringify(a[k])}`).join('; ');
+  return Object.keys(a).filter((k) => !SKIP.has(k) && JSON.stringify(a[k]) !== JSON.stringify(b[k])).map((k) => `${fieldLabel(k)}: ${formatFieldValue(b[k])} → ${formatFieldValue(a[k])}`).join('; ');
 }
 
 export default function AdminAudit() {

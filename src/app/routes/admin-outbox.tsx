@@ -37,7 +37,7 @@ export default function AdminOutbox() {
           </Panel>
           {shown && (
             <Panel title={shown.subject}>
-              <dl className="mb-3 text-xs text-ink-500"><div>To: {shown.to}</div><div>Via: {shown.transport} · {formatDateTime(shown.createdAt)}</div></dl>
+              <dl className="mb-3 grid grid-cols-[auto_1fr] gap-x-2 text-xs text-ink-500"><dt>To</dt><dd>{shown.to}</dd><dt>Via</dt><dd>{shown.transport} · {formatDateTime(shown.createdAt)}</dd></dl>
               <pre className="whitespace-pre-wrap font-sans text-sm text-ink-900">{shown.text}</pre>
             </Panel>
           )}

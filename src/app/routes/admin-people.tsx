@@ -5,6 +5,7 @@ import { useLabs } from '@/features/builds/api/builds';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
 import { Select } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
+import { useConfirm } from '@/components/ui/confirm-dialog';
 
 export default function AdminPeople() {
   const people = usePeople();
@@ -12,11 +13,13 @@ export default function AdminPeople() {
   const labs = useLabs();
   const update = useUpdatePerson();
   const setRole = useSetRole();
+  const [confirm, confirmDialog] = useConfirm();
   if (people.isLoading || projects.isLoading || labs.isLoading) return <Loading />;
   if (people.error) return <ErrorNote error={people.error} />;
   return (
     <div className="max-w-7xl">
       <PageHeader eyebrow="Administration" title="People" subtitle="Labs, site administrators and project roles. New people join through a project invitation (Settings → People)." />
+      {confirmDialog}
       <ErrorNote error={update.error ?? setRole.error} />
       <div className="overflow-x-auto rounded-lg border border-line bg-panel">
         <table className="w-full text-sm" aria-label="People">
@@ -38,14 +41,14 @@ export default function AdminPeople() {
                   const role = person.roles.find((r) => r.projectId === p.id)?.role ?? 'none';
                   return (
                     <td key={p.id} className="px-2">
-                      <Select aria-label={`Role of ${person.name} in ${p.name}`} className="w-32" value={role} onChange={(e) => setRole.mutate({ projectId: p.id, userId: person.id, role: e.target.value })}>
+                      <Select aria-label={`Role of ${person.name} in ${p.name}`} className="w-32" value={role} onChange={async (e) => { const next = e.target.value; if (next !== 'none' || await confirm({ title: `Remove ${person.name} from ${p.name}?`, message: 'They lose access to the project at once; their builds, curves and comments stay. You can add them again.', confirmLabel: 'Remove from project' })) setRole.mutate({ projectId: p.id, userId: person.id, role: next }); }}>
                         {['none', 'pi', 'researcher', 'partner', 'viewer'].map((r) => <option key={r} value={r}>{r}</option>)}
                       </Select>
                     </td>
                   );
                 })}
                 <td className="px-2 text-right">
-                  <Button variant={person.disabledAt ? 'secondary' : 'danger'} onClick={() => { if (person.disabledAt || window.confirm(`Disable ${person.name}? They are signed out everywhere; you can enable them again.`)) update.mutate({ id: person.id, disabled: !person.disabledAt }); }}>
+                  <Button variant={person.disabledAt ? 'secondary' : 'danger'} aria-label={`${person.disabledAt ? 'Enable' : 'Disable'} ${person.name}`} onClick={async () => { if (person.disabledAt || await confirm({ title: `Disable ${person.name}?`, message: 'They are signed out everywhere and cannot sign in until you enable them again. Their builds and comments stay.', confirmLabel: `Disable ${person.name}` })) update.mutate({ id: person.id, disabled: !person.disabledAt }); }}>
                     {person.disabledAt ? 'Enable' : 'Disable'}
                   </Button>
                 </td>

@@ -16,7 +16,8 @@ import { DropZone, UploadRows, useUploadBatch } from '@/features/curves/componen
 import { ImportNotes } from '@/features/curves/components/import-notes';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { Button } from '@/components/ui/button';
+import { Button, LinkButton } from '@/components/ui/button';
+import { useConfirm } from '@/components/ui/confirm-dialog';
 import { formatDate, formatNumber, withUnit } from '@/lib/format';
 import { ReviewThread } from '@/features/review/components/review-thread';
 
@@ -184,6 +185,7 @@ export default function BuildPage() {
   const responses = useResponses(projectId);
   const update = useUpdateBuild(buildId, projectId);
   const batch = useUploadBatch(projectId);
+  const [confirm, confirmDialog] = useConfirm();
   // a build opened under another project's address moves to its own project's address
   if (detail.data && detail.data.build.projectId !== projectId) return <Navigate to={`/projects/${detail.data.build.projectId}/builds/${buildId}`} replace />;
   if (detail.error instanceof ApiError && detail.error.status === 404) return <BuildNotFound buildId={buildId} />;
@@ -209,14 +211,15 @@ export default function BuildPage() {
         actions={
           <>
             {d.permissions.edit && b.status !== 'discarded' && (
-              <Button variant="danger" onClick={() => { if (window.confirm(`Discard ${b.code}? It stays in the records and can be restored.`)) update.mutate({ status: 'discarded' }); }}>Discard</Button>
+              <Button variant="danger" onClick={async () => { if (await confirm({ title: `Discard ${b.code}?`, message: 'It leaves the gains, fits and proposals but stays in the records, and can be restored from this page.', confirmLabel: `Discard ${b.code}` })) update.mutate({ status: 'discarded' }); }}>Discard</Button>
             )}
             {d.permissions.edit && b.status === 'discarded' && <Button onClick={() => update.mutate({ status: 'tested' })}>Restore</Button>}
-            {d.permissions.edit && <Link to={`/projects/${projectId}/builds/new?parent=${b.id}`}><Button>New child build</Button></Link>}
-            {d.permissions.edit && <Link to={`/projects/${projectId}/builds/${b.id}/edit`}><Button variant="primary">Edit</Button></Link>}
+            {d.permissions.edit && <LinkButton to={`/projects/${projectId}/builds/new?parent=${b.id}`}>New child build</LinkButton>}
+            {d.permissions.edit && <LinkButton variant="primary" to={`/projects/${projectId}/builds/${b.id}/edit`}>Edit</LinkButton>}
           </>
         }
       />
+      {confirmDialog}
       <ErrorNote error={update.error} />
       <div className="grid gap-4 lg:grid-cols-3">
         <Panel title="Recipe"><Recipe detail={d} factors={factors.data!} /></Panel>

@@ -5,9 +5,10 @@ import { useRef, useState } from 'react';
 import { useProject } from '@/features/projects/api/projects';
 import { useDurability, type DurabilityRow } from '@/features/durability/api/durability';
 import { bandWord } from '@/features/durability/components/durability-controls';
-import { LazyPlot, OKABE_ITO, exportPlot } from '@/components/plot/lazy-plot';
+import { LazyPlot } from '@/components/plot/lazy-plot';
+import { PlotActions } from '@/components/plot/plot-actions';
+import { OKABE_ITO, PLOT_FONT } from '@/components/plot/theme';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
-import { Button } from '@/components/ui/button';
 import { formatNumber } from '@/lib/format';
 import { RecordMark } from '@/features/curves/components/record-parts';
 
@@ -20,12 +21,12 @@ function WhiskerChart({ rows, band, title }: { rows: DurabilityRow[]; band: { st
   const conditions = [...new Set(shown.map((r) => `${fmt(r.currentDensity, 2, 'A/cm²')}, ${fmt(r.temperatureC, 0, '°C')}`))].join('; ');
   return (
     <div ref={box}>
-      <div className="mb-2 flex justify-end gap-1.5">
-        <Button onClick={() => exportPlot(box.current, 'png', title)}>PNG</Button>
-        <Button onClick={() => exportPlot(box.current, 'svg', title)}>SVG</Button>
-      </div>
+      <div className="mb-2 flex justify-end"><PlotActions target={box} fileName={title} label="degradation chart" /></div>
       <LazyPlot
         fileName={title}
+        style={{ height: Math.max(260, 120 + 36 * shown.length) }}
+        title={title}
+        subtitle={`constant-current logs after break-in · ${conditions || 'conditions not logged'} · band: typical HT-PEM (common practice)`}
         data={[{
           type: 'scatter', mode: 'markers', orientation: 'h', name: 'rate ± 95 % interval',
           x: shown.map((r) => r.degradationRate!), y: labels,
@@ -34,11 +35,10 @@ function WhiskerChart({ rows, band, title }: { rows: DurabilityRow[]; band: { st
           hovertemplate: '%{y}<br>%{x:.1f} µV/h<extra></extra>',
         }]}
         layout={{
-          title: { text: `${title}<br><span style="font-size:11px;color:#56668c">constant-current logs after break-in · ${conditions || 'conditions not logged'} · band: typical HT-PEM (common practice)</span>` },
-          xaxis: { title: { text: 'Degradation rate (µV/h, positive = losing voltage)' }, rangemode: 'tozero', gridcolor: '#eeeae2' },
-          yaxis: { automargin: true, autorange: 'reversed' },
-          height: Math.max(260, 90 + 36 * shown.length),
-          margin: { l: 190, r: 32, t: 64, b: 56 },
+          xaxis: { title: { text: 'Degradation rate (µV/h, positive = losing voltage)' }, rangemode: 'tozero' },
+          yaxis: { autorange: 'reversed', tickfont: { family: PLOT_FONT, size: 11 }, showgrid: false },
+          height: Math.max(260, 120 + 36 * shown.length),
+          showlegend: false,
           shapes: [
             { type: 'rect', xref: 'x', yref: 'paper', x0: band.standard[0], x1: band.standard[1], y0: 0, y1: 1, fillcolor: 'rgba(213,94,0,0.10)', line: { width: 0 } },
             { type: 'line', xref: 'x', yref: 'paper', x0: band.improved, x1: band.improved, y0: 0, y1: 1, line: { color: '#009E73', width: 1.5, dash: 'dash' } },

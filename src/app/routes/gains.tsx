@@ -11,7 +11,7 @@ import { GainsTable } from '@/features/gains/components/gains-table';
 import { ChainEditor } from '@/features/gains/components/chain-editor';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Field, Select } from '@/components/ui/field';
-import { formatNumber } from '@/lib/format';
+import { formatNumber, responseDisplay } from '@/lib/format';
 import type { Build, ProjectSettings } from '@shared/api-types';
 
 function conditionsText(responseKey: string, settings: ProjectSettings, chainBuilds: Build[]): string {
@@ -84,10 +84,10 @@ export default function GainsPage() {
         </Panel>
         <div className="space-y-4">
           <Panel title="Response">
-            <Field label="Response" hint={data ? `Values in ${data.unit} internally; shown in display units.` : undefined}>
+            <Field label="Response" hint="The chain's measured value at the project's reference point; each step's gain is the change from the step before.">
               {(props) => (
                 <Select {...props} value={response} onChange={(e) => setQuery({ response: e.target.value })}>
-                  {(responses.length ? responses : [{ key: response, label: response, unit: '' }]).map((r) => <option key={r.key} value={r.key}>{r.label}{r.unit ? ` (${r.unit})` : ''}</option>)}
+                  {(responses.length ? responses : [{ key: response, label: responseDisplay({ key: response, label: 'V at j_ref', unit: '' }).label, unit: '' }]).map((r) => { const d = responseDisplay(r); return <option key={r.key} value={r.key}>{d.label}{d.unit ? ` (${d.unit})` : ''}</option>; })}
                 </Select>
               )}
             </Field>

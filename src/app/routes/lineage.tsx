@@ -6,7 +6,8 @@ import { useLineage } from '@/features/lineage/api/get-lineage';
 import { LineageTree } from '@/features/lineage/components/lineage-tree';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Field, Select } from '@/components/ui/field';
-import { Button } from '@/components/ui/button';
+import { LinkButton } from '@/components/ui/button';
+import { responseDisplay } from '@/lib/format';
 
 export default function LineagePage() {
   const projectId = Number(useParams().projectId);
@@ -26,7 +27,7 @@ export default function LineagePage() {
         eyebrow={<Link to={`/projects/${projectId}`} className="hover:underline">{project.data.name}</Link>}
         title="Lineage"
         subtitle="Every build under the build it was derived from; replicates (same recipe, or marked as replicates) share one row, with their mean, SD and n."
-        actions={best ? <Link to={`/projects/${projectId}/gains?response=${encodeURIComponent(response)}&builds=${best.buildIds.join(',')}`}><Button variant="primary">Show the best path as gains</Button></Link> : undefined}
+        actions={best ? <LinkButton variant="primary" to={`/projects/${projectId}/gains?response=${encodeURIComponent(response)}&builds=${best.buildIds.join(',')}`}>Show the best path as gains</LinkButton> : undefined}
       />
       <Panel
         title={<span>Tree by {data.response.label}</span>}
@@ -35,7 +36,7 @@ export default function LineagePage() {
             <Field label="Response">
               {(props) => (
                 <Select {...props} value={response} onChange={(e) => { const p = new URLSearchParams(params); p.set('response', e.target.value); setParams(p); }}>
-                  {data.responses.map((r) => <option key={r.key} value={r.key}>{r.label}{r.unit ? ` (${r.unit})` : ''}</option>)}
+                  {data.responses.map((r) => { const d = responseDisplay(r); return <option key={r.key} value={r.key}>{d.label}{d.unit ? ` (${d.unit})` : ''}</option>; })}
                 </Select>
               )}
             </Field>

@@ -1,11 +1,11 @@
 // A project's builds table, with shortcuts to create a build, upload curves and compare.
-import { Link, useNavigate, useParams } from 'react-router-dom';
+import { useNavigate, useParams } from 'react-router-dom';
 import { useState } from 'react';
 import { useProject, useFactors, useResponses } from '@/features/projects/api/projects';
 import { useBuilds } from '@/features/builds/api/builds';
 import { BuildsTable } from '@/features/builds/components/builds-table';
 import { PageHeader, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
-import { Button } from '@/components/ui/button';
+import { Button, LinkButton } from '@/components/ui/button';
 import { canWrite } from '@/features/projects/components/permissions';
 
 export default function ProjectBuilds() {
@@ -33,13 +33,13 @@ export default function ProjectBuilds() {
             {selected.size > 0 && (
               <Button onClick={() => navigate(`/projects/${projectId}/compare?builds=${[...selected].join(',')}`)}>Compare {selected.size} selected</Button>
             )}
-            {canWrite(role) && <Link to={`/projects/${projectId}/upload`}><Button>Upload curves</Button></Link>}
-            {canWrite(role) && <Link to={`/projects/${projectId}/builds/new`}><Button variant="primary">New build</Button></Link>}
+            {canWrite(role) && <LinkButton to={`/projects/${projectId}/upload`}>Upload curves</LinkButton>}
+            {canWrite(role) && <LinkButton variant="primary" to={`/projects/${projectId}/builds/new`}>New build</LinkButton>}
           </>
         }
       />
       {builds.data!.length === 0 ? (
-        <EmptyState title="No builds yet" action={canWrite(role) ? <Link to={`/projects/${projectId}/builds/new`}><Button variant="primary">Record the first build</Button></Link> : undefined}>
+        <EmptyState title="No builds yet" action={canWrite(role) ? <LinkButton variant="primary" to={`/projects/${projectId}/builds/new`}>Record the first build</LinkButton> : undefined}>
           Record an electrode build with its recipe, then upload its polarization curve to see metrics.
         </EmptyState>
       ) : (

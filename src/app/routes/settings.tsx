@@ -14,6 +14,8 @@ import { Field, Input, Select } from '@/components/ui/field';
 import { useMe } from '@/features/auth/api/get-me';
 import { formatDate } from '@/lib/format';
 
+const GOAL_WORD: Record<string, string> = { maximize: 'higher is better', minimize: 'lower is better', target: 'closest to a target' };
+
 export default function Settings() {
   const projectId = Number(useParams().projectId);
   const project = useProject(projectId);
@@ -54,18 +56,21 @@ export default function Settings() {
       </Panel>
 
       <Panel title="Factors">
-        <table className="mb-4 w-full text-sm">
-          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Key</th><th>Label</th><th>Kind</th><th>Range or levels</th><th /></tr></thead>
+        <div className="mb-4 overflow-x-auto">
+        <table className="w-full text-sm">
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Label</th><th>Kind</th><th>Range or levels</th><th>API key</th><th><span className="sr-only">Actions</span></th></tr></thead>
           <tbody className="divide-y divide-line">
             {factors.data!.map((f) => (
               <tr key={f.id}>
-                <td className="num py-1.5">{f.key}</td><td>{f.label}</td><td>{f.kind}</td>
+                <td className="py-1.5">{f.label}</td><td>{f.kind}</td>
                 <td className="num">{f.kind === 'continuous' ? `${f.low} – ${f.high} ${f.unit}` : (f.levels ?? []).join(' · ')}</td>
-                <td className="text-right">{canEditFactors(p.myRole) && <Button variant="ghost" onClick={() => setEditing(f)}>Edit</Button>}</td>
+                <td><code className="num text-xs text-ink-700">{f.key}</code></td>
+                <td className="text-right">{canEditFactors(p.myRole) && <Button variant="ghost" onClick={() => setEditing(f)} aria-label={`Edit ${f.label}`}>Edit</Button>}</td>
               </tr>
             ))}
           </tbody>
         </table>
+        </div>
         {canEditFactors(p.myRole) && (
           editing ? (
             <FactorForm key={editing.id} initial={{ ...editing, low: editing.low, high: editing.high, levels: editing.levels }} pending={saveFactor.isPending} error={saveFactor.error} onCancel={() => setEditing(null)} onSubmit={(v) => saveFactor.mutate({ ...v, id: editing.id }, { onSuccess: () => setEditing(null) })} />
@@ -76,15 +81,18 @@ export default function Settings() {
       </Panel>
 
       <Panel title="Hand-entered responses">
-        <p className="mb-3 text-xs text-ink-500">Numbers measured outside the curves (cost, thickness, …). Curve metrics such as vAtRef are always available and need no definition.</p>
-        <table className="mb-4 w-full text-sm">
-          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Key</th><th>Label</th><th>Unit</th><th>Goal</th></tr></thead>
-          <tbody className="divide-y divide-line">{responses.data!.map((r) => <tr key={r.id}><td className="num py-1.5">{r.key}</td><td>{r.label}</td><td>{r.unit}</td><td>{r.goal}</td></tr>)}</tbody>
+        <p className="mb-3 text-xs text-ink-500">Numbers measured outside the curves (cost, thickness, …). Curve metrics such as V at j_ref are always available and need no definition. The API key is the name scripts use.</p>
+        <div className="mb-4 overflow-x-auto">
+        <table className="w-full text-sm">
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Label</th><th>Unit</th><th>Goal</th><th>API key</th></tr></thead>
+          <tbody className="divide-y divide-line">{responses.data!.map((r) => <tr key={r.id}><td className="py-1.5">{r.label}</td><td>{r.unit}</td><td>{GOAL_WORD[r.goal] ?? r.goal}</td><td><code className="num text-xs text-ink-700">{r.key}</code></td></tr>)}</tbody>
         </table>
+        </div>
         {canEditFactors(p.myRole) && <ResponseForm pending={createResponse.isPending} error={createResponse.error} onSubmit={(v) => createResponse.mutate(v)} />}
       </Panel>
 
       <Panel title="People">
+        <div className="overflow-x-auto">
         <table className="w-full text-sm">
           <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Name</th><th>E-mail</th><th>Lab</th><th>Role</th></tr></thead>
           <tbody className="divide-y divide-line">
@@ -92,6 +100,7 @@ export default function Settings() {
             {members.data!.pendingInvitations.map((i) => <tr key={`i${i.id}`} className="text-ink-500"><td className="py-1.5 italic">invited</td><td>{i.email}</td><td /><td>{i.role} · until {formatDate(i.expiresAt)}</td></tr>)}
           </tbody>
         </table>
+        </div>
         {canEditSettings(p.myRole) && (
           <form className="mt-4 grid gap-3 md:grid-cols-4" aria-label="Invite form" onSubmit={(e) => { e.preventDefault(); invite.mutate({ email: inviteForm.email, role: inviteForm.role, labId: inviteForm.labId ? Number(inviteForm.labId) : null }, { onSuccess: () => { setInviteForm({ email: '', role: 'researcher', labId: '' }); setMessage('Invitation sent: it is in the outbox.'); } }); }}>
             <Field label="Invite by e-mail">{(fp) => <Input {...fp} type="email" required value={inviteForm.email} onChange={(e) => setInviteForm({ ...inviteForm, email: e.target.value })} />}</Field>

@@ -35,7 +35,7 @@ export default function SignIn() {
           </svg>
           <p className="max-w-sm text-lg leading-snug text-white">Every electrode build, its curves and its numbers at stated conditions — and the next build worth making.</p>
         </div>
-        <p className="text-xs text-ink-500">HT-PEM and PGM-free electrode development</p>
+        <p className="text-xs text-ink-300">HT-PEM and PGM-free electrode development</p>
       </div>
       <div className="flex flex-1 items-center justify-center p-6">
         <form

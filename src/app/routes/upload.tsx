@@ -1,10 +1,11 @@
 // Project upload page: drop several files, pick the build for each, watch each one's progress
 // and result; ambiguous files ask for their columns to be confirmed.
-import { useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { useProject } from '@/features/projects/api/projects';
 import { useBuilds } from '@/features/builds/api/builds';
 import { DropZone, UploadRows, useUploadBatch } from '@/features/curves/components/upload-panel';
 import { PageHeader, Panel, Loading, ErrorNote } from '@/components/ui/panel';
+import { StatusBadge } from '@/components/ui/status-badge';
 import { Button } from '@/components/ui/button';
 import { useMe } from '@/features/auth/api/get-me';
 
@@ -26,6 +27,9 @@ export default function UploadPage() {
     batch.setRows((r) => [...rows, ...r]);
   };
   const waiting = batch.rows.filter((r) => r.state === 'waiting' || r.state === 'error');
+  // what the page shows before any file is chosen: the builds still without curves
+  const mine = new Set(choices.map((c) => c.id));
+  const withoutCurves = builds.data!.filter((b) => mine.has(b.id) && b.curveCount === 0 && b.status !== 'planned');
 
   return (
     <div className="max-w-5xl">
@@ -48,6 +52,25 @@ export default function UploadPage() {
           </div>
         )}
       </Panel>
+      {batch.rows.length === 0 && (
+        <Panel title="Builds without curves yet" className="mt-4">
+          {withoutCurves.length === 0 ? (
+            <p className="text-sm text-ink-500">Every {partner ? 'build of your lab' : 'built or tested build'} has at least one curve. Files for a build are matched by its code in the file name (e.g. “{choices[0]?.code ?? 'C-012'}_polarization.csv”), or chosen per file.</p>
+          ) : (
+            <>
+              <p className="mb-2 text-sm text-ink-500">A file whose name holds a build’s code (e.g. “{withoutCurves[0]!.code}_polarization.csv”) is matched to that build; any other file asks which build it belongs to.</p>
+              <ul className="flex flex-wrap gap-2" aria-label="Builds without curves">
+                {withoutCurves.slice(0, 24).map((b) => (
+                  <li key={b.id} className="flex items-center gap-2 rounded-md border border-line bg-white px-2 py-1 text-sm">
+                    <Link className="font-medium text-copper-700 hover:underline" to={`/projects/${projectId}/builds/${b.id}`}>{b.code}</Link>
+                    <StatusBadge status={b.status} />
+                  </li>
+                ))}
+              </ul>
+            </>
+          )}
+        </Panel>
+      )}
     </div>
   );
 }

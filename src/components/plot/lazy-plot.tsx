@@ -1,48 +1,82 @@
-// Lazy plot with Cellwright's plot conventions: Okabe–Ito colours, units on axes, PNG/SVG export.
-import { lazy, Suspense, type ComponentProps } from 'react';
+// Every 2-D chart of Cellwright: the cartesian plotting bundle loaded lazily, the Cellwright
+// theme applied (./theme.ts), no library toolbar, no outside links, titles wrapped to the chart's
+// width. Plot3D (./plot-3d.tsx) takes the same props for 3-D views.
+import { lazy, Suspense, useLayoutEffect, useRef, useState, type ComponentType, type CSSProperties, type LazyExoticComponent } from 'react';
+import type { PlotParams } from 'react-plotly.js/factory';
 import { Loading } from '@/components/ui/panel';
+import { PLOT_CONFIG, merge, themedData, themedLayout } from './theme';
 
-const Plot = lazy(() => import('./plotly'));
+export { OKABE_ITO } from './theme';
+export { exportPlot, exportPlotCsv } from './export';
 
-/** Okabe–Ito colour-blind-safe qualitative palette. */
-export const OKABE_ITO = ['#0072B2', '#E69F00', '#009E73', '#D55E00', '#56B4E9', '#CC79A7', '#F0E442', '#000000'];
+const Cartesian = lazy(() => import('./plotly'));
 
-export type PlotProps = ComponentProps<typeof Plot>;
+export type PlotProps = Omit<PlotParams, 'layout' | 'config' | 'data'> & {
+  data: unknown[];
+  layout?: Record<string, unknown>;
+  config?: Record<string, unknown>;
+  /** name of exported images and CSV files, without extension */
+  fileName?: string;
+  /** chart title and a subtitle for conditions; or give layout.title as before */
+  title?: string;
+  subtitle?: string;
+  style?: CSSProperties;
+};
 
-export function LazyPlot(props: PlotProps & { fileName?: string }) {
-  const { fileName = 'cellwright-plot', config, layout, style, ...rest } = props;
+/** Replaces any link the library drew inside the chart with plain text: data stays in the lab. */
+function unlink(graph: HTMLElement) {
+  for (const a of graph.querySelectorAll('a[href]')) {
+    const href = a.getAttribute('href') ?? '';
+    if (/^(https?:)?\/\//i.test(href) && !href.startsWith(location.origin)) {
+      a.removeAttribute('href');
+      a.removeAttribute('target');
+    }
+  }
+}
+
+/** The chart's laid-out width in px, rounded so small resizes do not re-theme. */
+function useWidth() {
+  const ref = useRef<HTMLDivElement>(null);
+  const [width, setWidth] = useState(0);
+  useLayoutEffect(() => {
+    const node = ref.current;
+    if (!node) return;
+    const measure = () => setWidth(Math.round(node.getBoundingClientRect().width / 20) * 20);
+    measure();
+    const observer = new ResizeObserver(measure);
+    observer.observe(node);
+    return () => observer.disconnect();
+  }, []);
+  return [ref, width] as const;
+}
+
+export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & { component: LazyExoticComponent<ComponentType<PlotParams>>; bundle: '2d' | '3d' }) {
+  const { fileName = 'cellwright-plot', config, layout, style, title, subtitle, onInitialized, onUpdate, data, ...rest } = props;
+  const [box, width] = useWidth();
+  const height = typeof style?.height === 'number' ? style.height : 420;
   return (
-    <Suspense fallback={<Loading label="Loading the plot…" />}>
-      <Plot
-        useResizeHandler
-        style={{ width: '100%', height: 420, ...style }}
-        layout={{
-          font: { family: 'IBM Plex Sans Variable, sans-serif', size: 12, color: '#18233d' },
-          paper_bgcolor: '#ffffff',
-          plot_bgcolor: '#ffffff',
-          colorway: OKABE_ITO,
-          margin: { l: 64, r: 64, t: 48, b: 52 },
-          hoverlabel: { font: { family: 'IBM Plex Mono, monospace' } },
-          legend: { orientation: 'h', y: -0.2 },
-          ...(layout as object),
-        }}
-        config={{
-          displaylogo: false,
-          responsive: true,
-          toImageButtonOptions: { format: 'png', filename: fileName, scale: 2 },
-          modeBarButtonsToRemove: ['lasso2d', 'select2d'],
-          ...(config as object),
-        }}
-        {...rest}
-      />
-    </Suspense>
+    <div ref={box} data-plot-bundle={bundle} className="min-w-0">
+      {width > 0 && (
+        <Suspense fallback={<div style={{ height }}><Loading label="Loading the plot…" /></div>}>
+          <Chart
+            useResizeHandler
+            style={{ width: '100%', height: 420, ...style }}
+            data={themedData(data, width)}
+            layout={themedLayout(layout, { width, title, subtitle })}
+            config={merge({ ...PLOT_CONFIG, toImageButtonOptions: { format: 'png', filename: fileName, scale: 2 } }, config)}
+            onInitialized={(figure, graph) => { unlink(graph); onInitialized?.(figure, graph); }}
+            onUpdate={(figure, graph) => { unlink(graph); onUpdate?.(figure, graph); }}
+            {...rest}
+          />
+        </Suspense>
+      )}
+    </div>
   );
 }
 
-/** Export the plot in a container as PNG or SVG through plotly's own image export. */
-export async function exportPlot(container: HTMLElement | null, format: 'png' | 'svg', fileName: string) {
-  const node = container?.querySelector('.js-plotly-plot') as HTMLElement | null;
-  if (!node) return;
-  const { Plotly } = await import('./plotly');
-  await Plotly.downloadImage(node, { format, filename: fileName, width: 1200, height: 700, scale: format === 'png' ? 2 : 1 });
+/** A 2-D chart (lines, markers, bars, contours, heatmaps) in the Cellwright theme. */
+export function LazyPlot(props: PlotProps) {
+  return <ThemedPlot component={Cartesian} bundle="2d" {...props} />;
 }
+
+export { LazyPlot as Plot };

@@ -1,5 +1,7 @@
 // Buttons: one copper primary, quiet secondary, and a danger variant for destructive actions.
-import type { ButtonHTMLAttributes } from 'react';
+// LinkButton is a link that looks like a button (never a button inside a link).
+import type { ComponentProps } from 'react';
+import { Link, type LinkProps } from 'react-router-dom';
 
 type Variant = 'primary' | 'secondary' | 'danger' | 'ghost';
 
@@ -10,12 +12,12 @@ const styles: Record<Variant, string> = {
   ghost: 'text-ink-700 hover:bg-ink-100 disabled:opacity-50',
 };
 
-export function Button({ variant = 'secondary', className = '', ...props }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant }) {
-  return (
-    <button
-      type="button"
-      className={`inline-flex items-center justify-center gap-1.5 rounded-md px-3 py-1.5 text-sm font-medium transition-colors disabled:cursor-not-allowed ${styles[variant]} ${className}`}
-      {...props}
-    />
-  );
+const base = 'inline-flex items-center justify-center gap-1.5 rounded-md px-3 py-1.5 text-sm font-medium transition-colors focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-copper-500';
+
+export function Button({ variant = 'secondary', className = '', ...props }: ComponentProps<'button'> & { variant?: Variant }) {
+  return <button type="button" className={`${base} disabled:cursor-not-allowed ${styles[variant]} ${className}`} {...props} />;
+}
+
+export function LinkButton({ variant = 'secondary', className = '', ...props }: LinkProps & { variant?: Variant }) {
+  return <Link className={`${base} ${styles[variant]} ${className}`} {...props} />;
 }

@@ -18,7 +18,7 @@ export function Field({ label, hint, error, children, id }: { label: string; hin
   );
 }
 
-const control = 'rounded-md border border-line bg-white px-2.5 py-1.5 text-sm text-ink-900 placeholder:text-ink-300 aria-[invalid=true]:border-rust-700 focus:border-copper-500 focus:outline-none';
+const control = 'rounded-md border border-line bg-white px-2.5 py-1.5 text-sm text-ink-900 placeholder:text-ink-500 aria-[invalid=true]:border-rust-700 focus:border-copper-500 focus-visible:outline-2 focus-visible:outline-offset-1 focus-visible:outline-copper-500';
 
 /** Full width unless the caller sets a width of its own (two width classes would fight). */
 const classes = (className: string) => `${control} ${/(^|\s)(w-|max-w-)/.test(className) ? '' : 'w-full'} ${className}`;

@@ -17,7 +17,7 @@ const METRIC_COLUMNS = ['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', '
 
 function metricCell(key: string, value: number | null | undefined) {
   const info = METRICS[key]!;
-  if (value == null) return <span className="text-ink-300">—</span>;
+  if (value == null) return <span className="text-ink-500">—</span>;
   return <span className="num block text-right">{formatNumber(value * info.scale, info.digits)}</span>;
 }
 
@@ -48,7 +48,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
         header: 'Build',
         cell: (c) => <Link to={`/projects/${project.id}/builds/${c.row.original.id}`} className="font-medium text-copper-700 hover:underline">{c.getValue()}</Link>,
       }),
-      column.accessor('parentCode', { header: 'Parent', cell: (c) => c.getValue() ?? <span className="text-ink-300">—</span> }),
+      column.accessor('parentCode', { header: 'Parent', cell: (c) => c.getValue() ?? <span className="text-ink-500">—</span> }),
       column.accessor('changeNote', { header: 'Change', cell: (c) => <span className="block max-w-[16rem] truncate" title={c.getValue() ?? ''}>{c.getValue() ?? ''}</span> }),
       column.accessor('status', { header: 'Status', cell: (c) => <StatusBadge status={c.getValue()} />, filterFn: 'equalsString' }),
       ...METRIC_COLUMNS.map((key) =>
@@ -69,7 +69,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
           header: () => <span title={f.label}>{f.label}{f.unit ? <span className="font-normal text-ink-500"> ({f.unit})</span> : null}</span>,
           cell: (c) => {
             const v = c.getValue();
-            if (v == null) return <span className="text-ink-300">—</span>;
+            if (v == null) return <span className="text-ink-500">—</span>;
             return typeof v === 'number' ? <span className="num">{v}</span> : <span>{v}</span>;
           },
           sortUndefined: 'last',
@@ -80,7 +80,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
         column.accessor((b) => b.values[r.key] ?? null, {
           id: `r_${r.key}`,
           header: () => <span>{r.label}{r.unit ? <span className="font-normal text-ink-500"> ({r.unit})</span> : null}</span>,
-          cell: (c) => (c.getValue() == null ? <span className="text-ink-300">—</span> : <span className="num">{formatNumber(c.getValue(), 2)}</span>),
+          cell: (c) => (c.getValue() == null ? <span className="text-ink-500">—</span> : <span className="num">{formatNumber(c.getValue(), 2)}</span>),
           sortUndefined: 'last',
         }),
       ),
@@ -161,7 +161,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
           </thead>
           <tbody className="divide-y divide-line">
             {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} className={`hover:bg-paper/70 ${row.original.status === 'discarded' ? 'opacity-60' : ''}`}>
+              <tr key={row.id} className={`hover:bg-paper/70 ${row.original.status === 'discarded' ? 'bg-paper/60 text-ink-500' : ''}`}>
                 {row.getVisibleCells().map((cell) => (
                   <td key={cell.id} className="whitespace-nowrap px-3 py-1.5 text-ink-900">{flexRender(cell.column.columnDef.cell, cell.getContext())}</td>
                 ))}

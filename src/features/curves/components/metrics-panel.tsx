@@ -4,14 +4,17 @@ import { useMemo, useState } from 'react';
 import type { CurvePoints, CurveSummary, ProjectSettings } from '@shared/api-types';
 import type { CurveMetrics, MetricsResult } from '@shared/curves/types';
 import { polarizationMetrics } from '@shared/curves';
-import { METRICS, formatMetric } from '@/lib/format';
+import { METRICS, formatMetric, formatNumber, formatQuantity } from '@/lib/format';
+import { Hint } from '@/components/ui/hint';
 
 const ORDER = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'] as const;
 
-function methodText(result: Pick<MetricsResult, 'method' | 'metricNotes'>, key: string, settings: ProjectSettings) {
+/** How a metric was obtained, for people: the method, its inputs with units, the reference point. */
+export function methodText(result: Pick<MetricsResult, 'method' | 'metricNotes'>, key: string, settings: ProjectSettings) {
   const m = result.method[key as keyof CurveMetrics];
-  const inputs = m ? Object.entries(m.inputs).map(([k, v]) => `${k} = ${v}`).join(', ') : '';
-  return [m?.method, inputs, `reference point: j_ref ${settings.refCurrentDensity} A/cm², V_ref ${settings.refVoltage} V${settings.irFree ? ', iR-free' : ''}, ${settings.loadingBasis} loading basis`].filter(Boolean).join('\n');
+  const inputs = m ? Object.entries(m.inputs).map(([k, v]) => formatQuantity(k, v)).join(' · ') : '';
+  const reference = `reference point: j_ref ${formatNumber(settings.refCurrentDensity, 3)} A/cm², V_ref ${formatNumber(settings.refVoltage, 3)} V${settings.irFree ? ', iR-free' : ''}, ${settings.loadingBasis} loading basis`;
+  return [m?.method ? `${m.method[0]!.toUpperCase()}${m.method.slice(1)}.` : null, inputs, reference].filter(Boolean).join('\n');
 }
 
 const missing = (value: number | null): number => (value == null ? Number.NaN : value);
@@ -25,20 +28,20 @@ export function MetricsList({ result, settings }: { result: Pick<MetricsResult, 
   const crossover = typeof result.summary?.h2CrossoverMAcm2 === 'number' ? result.summary.h2CrossoverMAcm2 : null;
   return (
     <>
-      <dl className="grid grid-cols-2 gap-x-6 gap-y-2 sm:grid-cols-3">
+      <div className="grid grid-cols-2 gap-x-6 gap-y-2 sm:grid-cols-3" role="list" aria-label="Metrics at the reference point">
         {ORDER.map((key) => {
           const value = result.metrics[key];
           const note = result.metricNotes[key];
           return (
-            <div key={key} title={methodText(result, key, settings)} className="cursor-help">
-              <dt className="text-xs text-ink-500">{METRICS[key]!.label}</dt>
-              <dd className="num text-[15px] text-ink-950">{value == null ? <span className="text-ink-300">—</span> : formatMetric(key, value)}</dd>
-              {key === 'massActivity' && value != null && settings.loadingBasis === 'metal' && <dd className="num whitespace-nowrap text-[12px] text-ink-700">{perMilligram(value)}</dd>}
-              {note && <dd className={`text-[11px] leading-tight ${value == null ? 'text-amber-700' : 'text-ink-500'}`}>{note}</dd>}
-            </div>
+            <Hint key={key} hint={methodText(result, key, settings)} role="listitem">
+              <div className="text-xs text-ink-500">{METRICS[key]!.label}</div>
+              <div className="num text-[15px] text-ink-950">{value == null ? <span className="text-ink-500">— <span className="sr-only">not available</span></span> : formatMetric(key, value)}</div>
+              {key === 'massActivity' && value != null && settings.loadingBasis === 'metal' && <div className="num whitespace-nowrap text-[12px] text-ink-700">{perMilligram(value)}</div>}
+              {note && <div className={`text-[11px] leading-tight ${value == null ? 'text-amber-700' : 'text-ink-500'}`}>{note}</div>}
+            </Hint>
           );
         })}
-      </dl>
+      </div>
       {crossover != null && (
         <p className="mt-2 text-[11px] text-ink-500">H₂ crossover of {crossover} mA/cm² (from the build’s test conditions) added to the cell current for the Tafel slope, mass activity and iR-free j at V_ref.</p>
       )}

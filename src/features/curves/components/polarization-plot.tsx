@@ -1,9 +1,11 @@
 // Polarization plot: cell voltage (and iR-free voltage) and power density against current
-// density, with markers at j_ref and V_ref. Units on every axis, conditions in the subtitle.
+// density, with markers at j_ref and V_ref. Units on every axis, conditions in the subtitle;
+// voltage, iR-free voltage and power differ in colour and in dash, power on a round-ticked right axis.
 import { useRef, useState } from 'react';
 import type { CurvePoints, CurveSummary, ProjectSettings, TestConditions } from '@shared/api-types';
-import { LazyPlot, OKABE_ITO, exportPlot } from '@/components/plot/lazy-plot';
-import { Button } from '@/components/ui/button';
+import { LazyPlot } from '@/components/plot/lazy-plot';
+import { PlotActions } from '@/components/plot/plot-actions';
+import { OKABE_ITO, PLOT_COLORS, QUANTITY_STYLE, roundAxis, shade } from '@/components/plot/theme';
 
 export interface PlotSeries {
   name: string;
@@ -22,26 +24,41 @@ export function conditionsLine(c: TestConditions | null | undefined, settings: P
   return parts.join(' · ');
 }
 
-export function PolarizationPlot({ series, settings, conditions, title, fileName }: { series: PlotSeries[]; settings: ProjectSettings; conditions?: TestConditions | null; title: string; fileName: string }) {
+export function PolarizationPlot({ series, settings, conditions, title, fileName, subtitle }: { series: PlotSeries[]; settings: ProjectSettings; conditions?: TestConditions | null; title: string; fileName: string; subtitle?: string }) {
   const [irFree, setIrFree] = useState(false);
   const [showPower, setShowPower] = useState(series.length <= 2);
   const box = useRef<HTMLDivElement>(null);
   const hasHfr = series.some((s) => s.points.hfr && s.points.hfr.length);
   const traces: Plotly.Data[] = [];
+  const single = series.length === 1;
+  let maxV = 0;
+  let maxP = 0;
   series.forEach((s, i) => {
-    const color = s.color ?? OKABE_ITO[i % OKABE_ITO.length];
+    // one build: each quantity its own colour and dash; several: a colour per build, the
+    // quantity told by dash and by a darker (iR-free) or lighter (power) shade of that colour
+    const hue = s.color ?? OKABE_ITO[i % OKABE_ITO.length]!;
+    const look = single && !s.color
+      ? { v: QUANTITY_STYLE.voltage.color, ir: QUANTITY_STYLE.irFree.color, p: QUANTITY_STYLE.power.color }
+      : { v: hue, ir: shade(hue, -0.35), p: shade(hue, 0.35) };
     const j = (s.points.j ?? []).map((x) => x * 1000);
     const v = s.points.v;
-    traces.push({ x: j, y: v, type: 'scatter', mode: 'lines+markers', name: showPower || irFree ? `${s.name} V` : s.name, line: { color, width: 2 }, marker: { size: 4, color }, hovertemplate: 'j %{x:.1f} mA/cm²<br>V %{y:.3f} V<extra>%{fullData.name}</extra>' });
+    const name = (what: string) => (single ? what : `${s.name}: ${what}`);
+    for (const x of v) if (x > maxV) maxV = x;
+    traces.push({ x: j, y: v, type: 'scatter', mode: 'lines+markers', name: single ? 'cell voltage' : `${s.name}${showPower || irFree ? ': V' : ''}`, legendgroup: single ? undefined : s.name, line: { color: look.v, width: QUANTITY_STYLE.voltage.width, dash: QUANTITY_STYLE.voltage.dash }, marker: { size: 4, color: look.v, symbol: 'circle' }, hovertemplate: 'j %{x:.1f} mA/cm²<br>V %{y:.3f} V<extra>%{fullData.name}</extra>' });
     if (irFree && s.points.hfr) {
       const vIr = v.map((vv, k) => vv + (s.points.j![k]! * s.points.hfr![k]!));
-      traces.push({ x: j, y: vIr, type: 'scatter', mode: 'lines', name: `${s.name} iR-free V`, line: { color, width: 1.5, dash: 'dash' }, hovertemplate: 'j %{x:.1f} mA/cm²<br>iR-free V %{y:.3f} V<extra>%{fullData.name}</extra>' });
+      for (const x of vIr) if (x > maxV) maxV = x;
+      traces.push({ x: j, y: vIr, type: 'scatter', mode: 'lines', name: name('iR-free V'), legendgroup: single ? undefined : s.name, line: { color: look.ir, width: QUANTITY_STYLE.irFree.width, dash: QUANTITY_STYLE.irFree.dash }, hovertemplate: 'j %{x:.1f} mA/cm²<br>iR-free V %{y:.3f} V<extra>%{fullData.name}</extra>' });
     }
     if (showPower) {
-      traces.push({ x: j, y: v.map((vv, k) => vv * s.points.j![k]! * 1000), type: 'scatter', mode: 'lines', yaxis: 'y2', name: `${s.name} power`, line: { color, width: 1.2, dash: 'dot' }, hovertemplate: 'j %{x:.1f} mA/cm²<br>P %{y:.0f} mW/cm²<extra>%{fullData.name}</extra>' });
+      const p = v.map((vv, k) => vv * s.points.j![k]! * 1000);
+      for (const x of p) if (x > maxP) maxP = x;
+      traces.push({ x: j, y: p, type: 'scatter', mode: 'lines', yaxis: 'y2', name: name('power density'), legendgroup: single ? undefined : s.name, line: { color: look.p, width: QUANTITY_STYLE.power.width, dash: QUANTITY_STYLE.power.dash }, hovertemplate: 'j %{x:.1f} mA/cm²<br>P %{y:.0f} mW/cm²<extra>%{fullData.name}</extra>' });
     }
   });
   const jRef = settings.refCurrentDensity * 1000;
+  const vAxis = roundAxis(Math.max(maxV, settings.refVoltage), 6);
+  const pAxis = roundAxis(maxP, 5);
   return (
     <div ref={box}>
       <div className="mb-2 flex flex-wrap items-center gap-3 text-sm">
@@ -51,28 +68,25 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
         <label className="inline-flex items-center gap-1.5">
           <input type="checkbox" checked={showPower} onChange={(e) => setShowPower(e.target.checked)} /> Power density
         </label>
-        <span className="ml-auto flex gap-1.5">
-          <Button onClick={() => exportPlot(box.current, 'png', fileName)}>PNG</Button>
-          <Button onClick={() => exportPlot(box.current, 'svg', fileName)}>SVG</Button>
-        </span>
+        <span className="ml-auto"><PlotActions target={box} fileName={fileName} label="polarization plot" /></span>
       </div>
       <LazyPlot
         fileName={fileName}
         data={traces}
         style={{ height: 400 + 20 * Math.ceil(traces.length / 2) }}
+        title={title}
+        subtitle={subtitle ?? conditionsLine(conditions, settings)}
         layout={{
-          legend: { orientation: 'h', y: -0.18, yanchor: 'top', x: 0, font: { size: 11 } },
-          title: { text: `${title}<br><span style="font-size:11px;color:#56668c">${conditionsLine(conditions, settings)}</span>` },
-          xaxis: { title: { text: 'Current density j (mA/cm²)' }, zeroline: false, gridcolor: '#eeeae2' },
-          yaxis: { title: { text: 'Cell voltage V (V)' }, gridcolor: '#eeeae2', rangemode: 'tozero' },
-          yaxis2: { title: { text: 'Power density (mW/cm²)' }, overlaying: 'y', side: 'right', showgrid: false, rangemode: 'tozero' },
+          xaxis: { title: { text: 'Current density j (mA/cm²)' }, zeroline: false, rangemode: 'tozero' },
+          yaxis: { title: { text: 'Cell voltage V (V)' }, range: vAxis.range, dtick: vAxis.dtick, tick0: 0 },
+          ...(showPower && { yaxis2: { title: { text: 'Power density (mW/cm²)' }, overlaying: 'y', side: 'right', showgrid: false, zeroline: false, range: pAxis.range, dtick: pAxis.dtick, tick0: 0 } }),
           shapes: [
-            { type: 'line', xref: 'x', yref: 'paper', x0: jRef, x1: jRef, y0: 0, y1: 1, line: { color: '#c06a35', width: 1, dash: 'dash' } },
-            { type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: settings.refVoltage, y1: settings.refVoltage, line: { color: '#56668c', width: 1, dash: 'dash' } },
+            { type: 'line', xref: 'x', yref: 'paper', x0: jRef, x1: jRef, y0: 0, y1: 1, line: { color: PLOT_COLORS.reference, width: 1, dash: 'dashdot' } },
+            { type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: settings.refVoltage, y1: settings.refVoltage, line: { color: PLOT_COLORS.muted, width: 1, dash: 'dashdot' } },
           ],
           annotations: [
-            { x: jRef, y: 0, xref: 'x', yref: 'paper', text: ' j_ref', showarrow: false, xanchor: 'left', yanchor: 'bottom', font: { color: '#a9592a', size: 11 } },
-            { x: 1, y: settings.refVoltage, xref: 'paper', yref: 'y', text: 'V_ref', showarrow: false, xanchor: 'right', yanchor: 'bottom', font: { color: '#56668c', size: 11 } },
+            { x: jRef, y: 0, xref: 'x', yref: 'paper', text: ' j_ref', showarrow: false, xanchor: 'left', yanchor: 'bottom', font: { color: PLOT_COLORS.reference, size: 11 } },
+            { x: 1, y: settings.refVoltage, xref: 'paper', yref: 'y', text: 'V_ref', showarrow: false, xanchor: 'right', yanchor: 'bottom', font: { color: PLOT_COLORS.muted, size: 11 } },
           ],
         }}
       />

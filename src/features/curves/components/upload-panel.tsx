@@ -222,7 +222,7 @@ export function DropZone({ onFiles, label = 'Drop curve files here (CSV, TSV, TX
       onDragOver={(e) => { e.preventDefault(); setOver(true); }}
       onDragLeave={() => setOver(false)}
       onDrop={(e) => { e.preventDefault(); setOver(false); onFiles([...e.dataTransfer.files]); }}
-      className={`flex cursor-pointer flex-col items-center justify-center gap-1 rounded-md border-2 border-dashed px-4 py-6 text-center text-sm transition-colors ${over ? 'border-copper-500 bg-copper-100/50' : 'border-line bg-paper/40 hover:border-ink-300'}`}
+      className={`flex cursor-pointer flex-col items-center justify-center gap-1 rounded-md border-2 border-dashed px-4 py-6 text-center text-sm transition-colors focus-within:outline-2 focus-within:outline-offset-2 focus-within:outline-copper-500 ${over ? 'border-copper-500 bg-copper-100/50' : 'border-line bg-paper/40 hover:border-ink-300'}`}
     >
       <span className="font-medium text-ink-800">{label}</span>
       <span className="text-xs text-ink-500">Columns and units are detected; you confirm them when they are ambiguous.</span>

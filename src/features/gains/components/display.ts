@@ -1,6 +1,6 @@
 // How a response is shown: METRICS' display unit and scale for curve metrics, the defined unit
 // (scale 1) for hand-entered responses.
-import { METRICS, formatNumber } from '@/lib/format';
+import { formatNumber, responseDisplay } from '@/lib/format';
 
 export interface Display {
   unit: string;
@@ -12,9 +12,8 @@ export interface Display {
 }
 
 export function displayOf(response: { key: string; label: string; unit: string }): Display {
-  const info = METRICS[response.key];
-  if (info) return { unit: info.unit, scale: info.scale, digits: info.digits, gainDigits: Math.max(1, info.digits), label: info.label };
-  return { unit: response.unit, scale: 1, digits: 3, gainDigits: 3, label: response.label };
+  const d = responseDisplay(response);
+  return { ...d, gainDigits: Math.max(1, d.digits) };
 }
 
 export const showValue = (d: Display, value: number | null | undefined) => (value == null ? '—' : `${formatNumber(value * d.scale, d.digits)} ${d.unit}`.trim());

@@ -2,6 +2,7 @@
 // and its CSV export in display units.
 import { Link } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
+import { downloadText } from '@/components/plot/export';
 import { formatNumber } from '@/lib/format';
 import type { GainsData } from '../api/get-gains';
 import { displayOf, showGain, showValue } from './display';
@@ -9,11 +10,11 @@ import { displayOf, showGain, showValue } from './display';
 function NoiseMark({ withinNoise }: { withinNoise: boolean | null }) {
   if (withinNoise === null) return <span className="text-ink-500">no interval</span>;
   return withinNoise ? (
-    <span className="inline-flex items-center gap-1 rounded-full bg-ink-100 px-2 py-0.5 text-xs text-ink-700">
+    <span className="inline-flex items-center gap-1 whitespace-nowrap rounded-full bg-ink-100 px-2 py-0.5 text-xs text-ink-700">
       <svg aria-hidden width="10" height="10" viewBox="0 0 10 10"><path d="M1 5h8" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" /></svg>within noise
     </span>
   ) : (
-    <span className="inline-flex items-center gap-1 rounded-full bg-moss-100 px-2 py-0.5 text-xs text-moss-700">
+    <span className="inline-flex items-center gap-1 whitespace-nowrap rounded-full bg-moss-100 px-2 py-0.5 text-xs text-moss-700">
       <svg aria-hidden width="10" height="10" viewBox="0 0 10 10"><path d="M1.5 5.2 4 7.8 8.8 2.2" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" /></svg>beyond noise
     </span>
   );
@@ -32,17 +33,6 @@ export function gainsCsv(data: GainsData): string {
   const rows = data.steps.map((st, k) => [k === 0 ? 'baseline' : String(k), st.code, st.replicates.join(' '), st.changeNote ?? '', st.changeText ?? '', num(st.value), num(st.sd), st.n, num(st.gain), num(st.low), num(st.high), st.withinNoise == null ? '' : st.withinNoise ? 'yes' : 'no', st.note ?? '']);
   rows.push(['total', `${data.steps[0].code} → ${data.steps[data.steps.length - 1].code}`, '', '', '', num(data.total.value), '', '', num(data.total.gain), num(data.total.low), num(data.total.high), data.total.withinNoise == null ? '' : data.total.withinNoise ? 'yes' : 'no', data.total.note ?? '']);
   return [header, ...rows].map((r) => r.map(csvCell).join(',')).join('\n') + '\n';
-}
-
-export function downloadText(text: string, fileName: string, type = 'text/csv') {
-  const url = URL.createObjectURL(new Blob([text], { type }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = fileName;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
 
 /** The method note in display units (the server's note carries internal units). */
@@ -84,12 +74,12 @@ export function GainsTable({ data, projectId, fileName }: { data: GainsData; pro
                     </>
                   )}
                 </td>
-                <td className="num pr-3 text-right">
+                <td className="num whitespace-nowrap pr-3 text-right">
                   {showValue(d, st.value)}
-                  <div className="text-[11px] text-ink-500">{st.sd != null ? `SD ${formatNumber(st.sd * d.scale, d.gainDigits)}, ` : ''}n = {st.n}</div>
+                  <div className="whitespace-nowrap text-[11px] text-ink-500">{st.sd != null ? `SD ${formatNumber(st.sd * d.scale, d.gainDigits)}, ` : ''}n = {st.n}</div>
                 </td>
-                <td className={`num pr-3 text-right font-medium ${st.gain == null ? '' : st.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{k === 0 ? '—' : showGain(d, st.gain)}</td>
-                <td className="num pr-3 text-right text-ink-700">{st.low == null || st.high == null ? '—' : `${showGain(d, st.low)} … ${showGain(d, st.high)}`}</td>
+                <td className={`num whitespace-nowrap pr-3 text-right font-medium ${st.gain == null ? '' : st.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{k === 0 ? '—' : showGain(d, st.gain)}</td>
+                <td className="num whitespace-nowrap pr-3 text-right text-ink-700">{st.low == null || st.high == null ? '—' : `${showGain(d, st.low)} … ${showGain(d, st.high)}`}</td>
                 <td className="pr-3">{k === 0 ? '' : <NoiseMark withinNoise={st.withinNoise} />}</td>
                 <td className="text-xs text-ink-500">{k === 0 ? '' : methodText(data, st.method, st.note)}</td>
               </tr>
@@ -98,8 +88,8 @@ export function GainsTable({ data, projectId, fileName }: { data: GainsData; pro
               <td className="py-1.5 pr-3">Total</td>
               <td className="pr-3 text-ink-700">{data.steps[0].code} → {data.steps[data.steps.length - 1].code}</td>
               <td className="num pr-3 text-right">{showValue(d, data.total.value)}</td>
-              <td className={`num pr-3 text-right ${data.total.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{showGain(d, data.total.gain)}</td>
-              <td className="num pr-3 text-right text-ink-700">{data.total.low == null || data.total.high == null ? '—' : `${showGain(d, data.total.low)} … ${showGain(d, data.total.high)}`}</td>
+              <td className={`num whitespace-nowrap pr-3 text-right ${data.total.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{showGain(d, data.total.gain)}</td>
+              <td className="num whitespace-nowrap pr-3 text-right text-ink-700">{data.total.low == null || data.total.high == null ? '—' : `${showGain(d, data.total.low)} … ${showGain(d, data.total.high)}`}</td>
               <td className="pr-3">{data.steps.length > 1 && <NoiseMark withinNoise={data.total.withinNoise} />}</td>
               <td className="text-xs font-normal text-ink-500">{methodText(data, data.total.method, data.total.note)}</td>
             </tr>

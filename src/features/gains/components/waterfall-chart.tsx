@@ -2,13 +2,15 @@
 // hatching and sign), the total bar, 95 % intervals as whiskers, "within noise" steps faded and
 // labelled. Exports PNG and SVG through the plot's own image export.
 import { useRef } from 'react';
-import { LazyPlot, exportPlot } from '@/components/plot/lazy-plot';
-import { Button } from '@/components/ui/button';
+import { LazyPlot } from '@/components/plot/lazy-plot';
+import { PlotActions } from '@/components/plot/plot-actions';
+import { OKABE_ITO, PLOT_COLORS, PLOT_FONT } from '@/components/plot/theme';
 import type { GainsData } from '../api/get-gains';
 import { displayOf, showGain, showValue } from './display';
+import { gainsCsv } from './gains-table';
 
-const UP = '#009E73';
-const DOWN = '#D55E00';
+const UP = OKABE_ITO[2]!;
+const DOWN = OKABE_ITO[3]!;
 const LEVEL = '#2c3c63';
 
 const wrap = (text: string, width = 22): string => {
@@ -23,7 +25,7 @@ const wrap = (text: string, width = 22): string => {
 };
 
 export function WaterfallChart({ data, subtitle, fileName }: { data: GainsData; subtitle: string; fileName: string }) {
-  const ref = useRef<HTMLDivElement>(null);
+  const ref = useRef<HTMLElement>(null);
   const d = displayOf(data.response);
   const s = d.scale;
   const steps = data.steps;
@@ -81,13 +83,15 @@ export function WaterfallChart({ data, subtitle, fileName }: { data: GainsData; 
     plus.push((data.total.high - data.total.gain) * s);
     minus.push((data.total.gain - data.total.low) * s);
   }
-  const connectors = levels.map((level, k) => ({ type: 'line', xref: 'x', yref: 'y', x0: k + 0.4, x1: k + 0.6, y0: level, y1: level, line: { color: '#8a93a8', width: 1, dash: 'dot' } }));
+  const connectors = levels.map((level, k) => ({ type: 'line', xref: 'x', yref: 'y', x0: k + 0.4, x1: k + 0.6, y0: level, y1: level, line: { color: PLOT_COLORS.axis, width: 1, dash: 'dot' } }));
 
   return (
     <div>
-      <div ref={ref} role="img" aria-label={`Gains waterfall of ${d.label} from ${steps[0].code} to ${steps[steps.length - 1].code}`}>
+      <figure ref={ref} aria-label={`Gains waterfall of ${d.label} from ${steps[0].code} to ${steps[steps.length - 1].code}`}>
         <LazyPlot
           fileName={fileName}
+          title={`${d.label} from ${steps[0].code} to ${steps[steps.length - 1].code}`}
+          subtitle={subtitle}
           data={[
             {
               type: 'bar',
@@ -107,34 +111,28 @@ export function WaterfallChart({ data, subtitle, fileName }: { data: GainsData; 
               mode: 'markers',
               x: whiskerX,
               y: whiskerY,
-              marker: { size: 1, color: '#18233d' },
-              error_y: { type: 'data', symmetric: false, array: plus, arrayminus: minus, color: '#18233d', thickness: 1.4, width: 6 },
+              marker: { size: 1, color: PLOT_COLORS.ink },
+              error_y: { type: 'data', symmetric: false, array: plus, arrayminus: minus, color: PLOT_COLORS.ink, thickness: 1.4, width: 6 },
               name: `${Math.round(data.confidence * 100)} % interval`,
               hoverinfo: 'skip',
             },
           ] as never}
           layout={{
-            title: { text: `${d.label} from ${steps[0].code} to ${steps[steps.length - 1].code}<br><span style="font-size:11px;color:#5b6478">${subtitle}</span>`, font: { size: 14 } },
             barmode: 'overlay',
-            xaxis: { tickmode: 'array', tickvals: x, ticktext: tick, tickfont: { size: 11 }, automargin: true },
-            yaxis: { title: { text: `${d.label} (${d.unit})` }, range, zeroline: false, gridcolor: '#e7e9ee' },
+            xaxis: { tickmode: 'array', tickvals: x, ticktext: tick, tickfont: { family: PLOT_FONT, size: 11 }, showgrid: false },
+            yaxis: { title: { text: `${d.label} (${d.unit})` }, range, zeroline: false },
             shapes: connectors,
-            margin: { t: 72, b: 110 },
-            legend: { orientation: 'h', y: -0.32 },
             height: 470,
           } as never}
           style={{ height: 470 }}
         />
-      </div>
+      </figure>
       <div className="mt-2 flex flex-wrap items-center gap-3 text-xs text-ink-500">
         <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} /></svg> gain (up)</span>
         <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={DOWN} /><path d="M0 12 12 0" stroke="#fff" strokeWidth="2" /></svg> loss (down, hatched)</span>
         <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} opacity="0.45" /></svg> faded = within noise (interval contains zero)</span>
         <span>whiskers: {Math.round(data.confidence * 100)} % interval of each step · the axis does not start at zero</span>
-        <span className="ml-auto flex gap-2">
-          <Button onClick={() => exportPlot(ref.current, 'png', fileName)}>Export PNG</Button>
-          <Button onClick={() => exportPlot(ref.current, 'svg', fileName)}>Export SVG</Button>
-        </span>
+        <span className="ml-auto"><PlotActions target={ref} fileName={fileName} csv={() => gainsCsv(data)} label="waterfall" /></span>
       </div>
     </div>
   );

@@ -3,14 +3,11 @@
 // word, the best node by a star; planned builds drawn dashed and labelled.
 import { Link } from 'react-router-dom';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { METRICS, formatNumber } from '@/lib/format';
+import { formatNumber, responseDisplay } from '@/lib/format';
 import type { BuildStatus } from '@shared/api-types';
 import type { LineageData, LineageNodeView } from '../api/get-lineage';
 
-function display(response: LineageData['response']) {
-  const info = METRICS[response.key];
-  return info ? { unit: info.unit, scale: info.scale, digits: info.digits } : { unit: response.unit, scale: 1, digits: 3 };
-}
+const display = (response: LineageData['response']) => responseDisplay(response);
 
 function Row({ node, data, projectId, lone = false }: { node: LineageNodeView; data: LineageData; projectId: number; lone?: boolean }) {
   const d = display(data.response);

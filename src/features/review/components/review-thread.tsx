@@ -4,7 +4,7 @@ import { useState } from 'react';
 import { Panel, ErrorNote, Loading } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
 import { Field, Textarea } from '@/components/ui/field';
-import { formatDateTime } from '@/lib/format';
+import { fieldLabel, formatDateTime, formatFieldValue } from '@/lib/format';
 import { ApiError } from '@/lib/api-client';
 import { useAddComment, useBuildAudit, useGiveVerdict, useReviews, type AuditEntry, type ReviewEntry } from '../api/reviews';
 
@@ -33,12 +33,6 @@ function Entry({ entry }: { entry: ReviewEntry }) {
   );
 }
 
-const show = (value: unknown): string => {
-  if (value === null || value === undefined || value === '') return '—';
-  if (typeof value === 'object') return JSON.stringify(value);
-  return String(value);
-};
-
 function History({ buildId }: { buildId: number }) {
   const { data, isLoading, error } = useBuildAudit(buildId, true);
   if (isLoading) return <Loading label="Loading the history…" />;
@@ -56,7 +50,7 @@ function History({ buildId }: { buildId: number }) {
             <td className="whitespace-nowrap pr-3 text-ink-700">{e.userName ?? 'system'}</td>
             <td className="text-ink-900">
               {e.changes.length > 0 ? (
-                <ul>{e.changes.map((c) => <li key={c.field}><span className="text-ink-500">{c.field}:</span> <span className="num">{show(c.from)} → {show(c.to)}</span></li>)}</ul>
+                <ul>{e.changes.map((c) => <li key={c.field}><span className="text-ink-500">{fieldLabel(c.field)}:</span> <span className="num">{formatFieldValue(c.from)} → {formatFieldValue(c.to)}</span></li>)}</ul>
               ) : e.summary}
             </td>
           </tr>

@@ -1,0 +1,91 @@
+// Our own export of a drawn chart: PNG or SVG through the plotting library's image export (the
+// bundle that drew it), and CSV of exactly the points drawn, one self-describing row per point.
+
+type Graph = HTMLElement & { data?: Trace[]; layout?: Record<string, unknown> };
+interface Trace {
+  name?: string;
+  type?: string;
+  x?: ArrayLike<unknown>;
+  y?: ArrayLike<unknown>;
+  z?: ArrayLike<unknown> | ArrayLike<ArrayLike<unknown>>;
+  yaxis?: string;
+  xaxis?: string;
+  visible?: boolean | 'legendonly';
+  error_y?: { array?: ArrayLike<number>; arrayminus?: ArrayLike<number> };
+  error_x?: { array?: ArrayLike<number>; arrayminus?: ArrayLike<number> };
+}
+
+function graphIn(container: HTMLElement | null): Graph | null {
+  return (container?.querySelector('.js-plotly-plot') as Graph | null) ?? null;
+}
+
+async function plotlyFor(graph: HTMLElement) {
+  const bundle = graph.closest<HTMLElement>('[data-plot-bundle]')?.dataset.plotBundle;
+  return bundle === '3d' ? (await import('./plotly-3d')).Plotly : (await import('./plotly')).Plotly;
+}
+
+/** Saves the first chart inside `container` as a PNG (2× pixels) or an SVG. */
+export async function exportPlot(container: HTMLElement | null, format: 'png' | 'svg', fileName: string) {
+  const graph = graphIn(container);
+  if (!graph) return;
+  const Plotly = await plotlyFor(graph);
+  const width = Math.max(900, Math.round(graph.getBoundingClientRect().width));
+  const height = Math.max(520, Math.round(graph.getBoundingClientRect().height));
+  await Plotly.downloadImage(graph, { format, filename: fileName, width, height, scale: format === 'png' ? 2 : 1 });
+}
+
+const plain = (text: unknown) => String(text ?? '').replace(/<br\s*\/?>/gi, ' ').replace(/<[^>]+>/g, '').replace(/\s+/g, ' ').trim();
+
+function axisTitle(layout: Record<string, unknown> | undefined, ref: string | undefined, letter: 'x' | 'y'): string {
+  const key = `${letter}axis${ref && ref !== letter ? ref.slice(1) : ''}`;
+  const axis = layout?.[key] as { title?: { text?: string } | string } | undefined;
+  const title = typeof axis?.title === 'string' ? axis.title : axis?.title?.text;
+  return plain(title) || letter;
+}
+
+/** The drawn points of every visible trace: series, x, y (and z for grids, ± for error bars). */
+export function plotRows(graph: Graph): Record<string, string | number>[] {
+  const rows: Record<string, string | number>[] = [];
+  for (const [index, trace] of (graph.data ?? []).entries()) {
+    if (trace.visible === false) continue;
+    const series = plain(trace.name) || `series ${index + 1}`;
+    const xName = axisTitle(graph.layout, trace.xaxis, 'x');
+    const yName = axisTitle(graph.layout, trace.yaxis, 'y');
+    const x = Array.from(trace.x ?? []);
+    const y = Array.from(trace.y ?? []);
+    const z = trace.z ? Array.from(trace.z as ArrayLike<unknown>) : null;
+    if (z && Array.isArray(z[0])) {
+      // a grid: z[j][i] at x[i], y[j]
+      (z as unknown[][]).forEach((row, j) => row.forEach((value, i) => rows.push({ series, 'x quantity': xName, x: x[i] as number, 'y quantity': yName, y: y[j] as number, z: value as number })));
+      continue;
+    }
+    const plus = trace.error_y?.array ? Array.from(trace.error_y.array) : trace.error_x?.array ? Array.from(trace.error_x.array) : null;
+    const minus = trace.error_y?.arrayminus ? Array.from(trace.error_y.arrayminus) : trace.error_x?.arrayminus ? Array.from(trace.error_x.arrayminus) : plus;
+    for (let k = 0; k < Math.max(x.length, y.length); k++) {
+      const row: Record<string, string | number> = { series, 'x quantity': xName, x: x[k] as number, 'y quantity': yName, y: y[k] as number };
+      if (z) row.z = z[k] as number;
+      if (plus) { row['error +'] = plus[k] ?? ''; row['error −'] = minus?.[k] ?? ''; }
+      rows.push(row);
+    }
+  }
+  return rows;
+}
+
+export function downloadText(text: string, fileName: string, type = 'text/csv') {
+  const url = URL.createObjectURL(new Blob([text], { type }));
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = fileName;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 1000);
+}
+
+/** Saves the points of the first chart inside `container` as CSV. */
+export async function exportPlotCsv(container: HTMLElement | null, fileName: string) {
+  const graph = graphIn(container);
+  if (!graph) return;
+  const { default: Papa } = await import('papaparse');
+  downloadText(Papa.unparse(plotRows(graph)), `${fileName}.csv`);
+}
