@@ -1,0 +1,4 @@
+// Invented demo data: series of polarization curves, impedance spectra, an open-circuit hold and
+// an accelerated test with a failure onset — pure generators, seeded, for the demo seed and tests.
+export { demoTemperatureSeries, demoPressureSeries } from './series-curves';
+export type { DemoSeriesMember, DemoSeriesCommon, DemoTemperatureSeriesOptions, DemoPressureSeriesOptions } from './series-curves';
