@@ -2,3 +2,5 @@
 // an accelerated test with a failure onset — pure generators, seeded, for the demo seed and tests.
 export { demoTemperatureSeries, demoPressureSeries } from './series-curves';
 export type { DemoSeriesMember, DemoSeriesCommon, DemoTemperatureSeriesOptions, DemoPressureSeriesOptions } from './series-curves';
+export { demoImpedanceSpectrum } from './impedance-spectra';
+export type { DemoImpedanceOptions, DemoImpedanceSpectrum } from './impedance-spectra';
