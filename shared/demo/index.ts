@@ -4,3 +4,5 @@ export { demoTemperatureSeries, demoPressureSeries } from './series-curves';
 export type { DemoSeriesMember, DemoSeriesCommon, DemoTemperatureSeriesOptions, DemoPressureSeriesOptions } from './series-curves';
 export { demoImpedanceSpectrum } from './impedance-spectra';
 export type { DemoImpedanceOptions, DemoImpedanceSpectrum } from './impedance-spectra';
+export { demoOcvHold } from './ocv-hold';
+export type { DemoOcvHoldOptions } from './ocv-hold';
