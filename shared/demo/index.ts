@@ -6,3 +6,5 @@ export { demoImpedanceSpectrum } from './impedance-spectra';
 export type { DemoImpedanceOptions, DemoImpedanceSpectrum } from './impedance-spectra';
 export { demoOcvHold } from './ocv-hold';
 export type { DemoOcvHoldOptions } from './ocv-hold';
+export { demoAcceleratedTest } from './accelerated-test';
+export type { DemoAcceleratedTestOptions } from './accelerated-test';
