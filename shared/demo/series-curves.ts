@@ -98,7 +98,7 @@ function member(common: DemoSeriesCommon, temperatureC: number, backPressureKPa:
  * of those currents returns Eₐ. The Tafel slope follows the temperature (b = ln10·R·T/(αn·F)) and
  * j0 is solved per member to put the curve through that point; E0, R, c and jL are shared.
  * Reference: the semi-empirical model (shared/curves/semi-empirical); the Arrhenius law as in
- * Bard & Faulkner, "Electrochemical Methods", 2nd ed., §3.1. Invented data, for the demo and tests.
+ * Bard & Faulkner, "Electrochemical Methods", 2nd ed., ch. 3. Invented data, for the demo and tests.
  * Cost: O(members × steps × readings).
  * @throws RangeError for a non-finite Eₐ, an empty or non-finite
  *   temperature list, or parameters that put the series voltage outside the model's range.
@@ -127,7 +127,7 @@ export function demoTemperatureSeries(options: DemoTemperatureSeriesOptions = {}
  * the series iR-free voltage is j(p) = j_ref·(p/p_ref)ᵐ, so a log–log fit returns the order m.
  * Temperature (hence the Tafel slope) is the same for all; j0 is solved per member.
  * Reference: the semi-empirical model (shared/curves/semi-empirical); the power-law dependence on
- * reactant pressure as in Bard & Faulkner, "Electrochemical Methods", 2nd ed., §3.5. Invented data.
+ * reactant pressure as in Bard & Faulkner, "Electrochemical Methods", 2nd ed., ch. 3. Invented data.
  * Cost: O(members × steps × readings).
  * @throws RangeError for a non-finite order, an empty or non-positive pressure list, or parameters
  *   that put the series voltage outside the model's range.

@@ -99,8 +99,9 @@ function evaluate(kind: CircuitKind, p: CircuitParameters, omega: number, wantDe
  * 'charge-transfer-diffusion': Z = R_Ω + 1/(Q·(jω)ⁿ + 1/(R_ct + σ_W·(1 − j)/√ω)) (the Randles
  * circuit with a CPE in place of the double-layer capacitor). With n = 1 the CPE is a capacitor
  * C = Q and the arc a semicircle of diameter R_ct centred at R_Ω + R_ct/2, apex at ω = 1/(R_ct·C).
- * Reference: Orazem & Tribollet, "Electrochemical Impedance Spectroscopy", 2nd ed., ch. 9 (CPE)
- * and ch. 10 (the Randles circuit); Bard & Faulkner, "Electrochemical Methods", 2nd ed., §10.3.
+ * Reference: Orazem & Tribollet, "Electrochemical Impedance Spectroscopy", (Wiley), the chapters
+ * on equivalent circuits and the constant-phase element; Bard & Faulkner, "Electrochemical Methods",
+ * 2nd ed., ch. 10 (the Randles circuit).
  * Cost: O(n) for n frequencies.
  * @throws RangeError for an unknown circuit, a parameter missing, not finite or out of range
  *   (rOhm ≥ 0, rCt > 0, cpeQ > 0, 0 < cpeN ≤ 1, sigmaW ≥ 0), or a frequency that is not positive.

@@ -117,11 +117,11 @@ function starting(kind: CircuitKind, f: number[], re: number[], im: number[], gi
  * s² = χ²/(2N − p); intervals value ± t·SE with Student's t on 2N − p degrees of freedom. They
  * assume independent errors of the weighted size; a parameter on its bound has no meaningful error.
  * High-frequency points with Z″ > 0 (lead inductance) are left out by default.
- * Reference: Orazem & Tribollet, "Electrochemical Impedance Spectroscopy", 2nd ed., ch. 19
+ * Reference: Orazem & Tribollet, "Electrochemical Impedance Spectroscopy" (Wiley), the chapters on regression
  * (complex nonlinear regression, weighting, confidence intervals from the Jacobian); Macdonald &
  * Garber (1977), J. Electrochem. Soc. 124, 1022 (complex least squares for immittance data).
  * Checked against scipy.optimize.least_squares (tests/reference/impedance_fit.py).
- * Cost: O(starts · iterations · N · p²) for N points and p parameters; ~1 ms for 60 points.
+ * Cost: O(starts · iterations · N · p²) for N points and p parameters; a few ms for 60 points.
  * @throws RangeError when the spectrum or an option is malformed; SpectrumFitError (a RangeError)
  *   when too few points remain after leaving out inductive and out-of-range points (2N ≤ p), or no
  *   starting point gives finite residuals.

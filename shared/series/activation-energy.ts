@@ -31,8 +31,8 @@ const NARROW_SPAN_K = 20;
  * interval with n − 2 degrees of freedom, mapped through the same factor. Read at a fixed
  * (iR-free) potential the result is "apparent": it includes how the overpotential at that potential
  * changes with temperature.
- * Reference: Bard & Faulkner, "Electrochemical Methods", 2nd ed., §3.1 (Arrhenius form of the rate
- * constant) and §3.4; slope interval: Draper & Smith, "Applied Regression Analysis", 3rd ed., §1.4.
+ * Reference: Bard & Faulkner, "Electrochemical Methods", 2nd ed., ch. 3 (Arrhenius form of the rate
+ * constant); slope interval: Draper & Smith, "Applied Regression Analysis", 3rd ed., ch. 1.
  * Points are plotted as x = 1/T (K⁻¹), y = ln j.
  * Cost: O(n).
  * @throws RangeError when fewer than two points or fewer than two distinct temperatures are given,

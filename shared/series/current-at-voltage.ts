@@ -55,7 +55,7 @@ function toFloat(values: ArrayLike<number>): Float64Array {
  * the kinetic current j_k = j·j_lim/(j_lim − j) (1/j = 1/j_k + 1/j_lim) is returned instead, and
  * `basis` says so; otherwise the iR-free current is returned with the reason in `note`.
  * Reference: polarizationMetrics (shared/curves); the mass-transport correction is the
- * Koutecký–Levich form, Bard & Faulkner, "Electrochemical Methods", 2nd ed., §9.3.
+ * Koutecký–Levich form, Bard & Faulkner, "Electrochemical Methods", 2nd ed., ch. 9 (Koutecký–Levich treatment).
  * Cost: O(n log n) for n readings.
  * @throws RangeError when the arrays differ in length or are empty, the voltage is not in (0, 2) V,
  *   the curve has neither HFR nor an iR-free column, or an option is malformed.

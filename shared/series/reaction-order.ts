@@ -32,9 +32,9 @@ const NARROW_RATIO = 1.5;
  * of freedom. When the interval holds 0 the series shows no dependence within noise (a step that
  * does not involve the varied reactant may limit the rate). Pressures must be absolute or partial
  * pressures (a gauge reading gives a wrong ratio); the unit cancels in the slope.
- * Reference: Bard & Faulkner, "Electrochemical Methods", 2nd ed., §3.5 (reaction orders from
+ * Reference: Bard & Faulkner, "Electrochemical Methods", 2nd ed., ch. 3 (reaction orders from
  * current–concentration dependence); slope interval: Draper & Smith, "Applied Regression
- * Analysis", 3rd ed., §1.4. Points are plotted as x = ln p, y = ln j.
+ * Analysis", 3rd ed., ch. 1. Points are plotted as x = ln p, y = ln j.
  * Cost: O(n).
  * @throws RangeError when fewer than two points or fewer than two distinct values are given, a value
  *   or current density is not a positive finite number, or an option is malformed.

@@ -9,7 +9,7 @@ import type { SlopeInterval } from './types';
  * Definition: slope b and SE(b) from ordinary least squares (fitLine); interval b ± t·SE(b) with
  * t the Student quantile at (1 + confidence)/2 and n − 2 degrees of freedom. With exactly two
  * points the line passes through both: the slope is returned with no SE and no interval.
- * Reference: Draper & Smith, "Applied Regression Analysis", 3rd ed., §1.4 (confidence interval of
+ * Reference: Draper & Smith, "Applied Regression Analysis", 3rd ed., ch. 1 (confidence interval of
  * the slope); the fit itself is checked against NIST StRD Norris (tests/unit/stats/linear-fit.test.ts).
  * Cost: O(n).
  * @throws RangeError when the arrays differ in length, hold fewer than 2 points, a value is not
