@@ -10,7 +10,7 @@ import { PolarizationPlot, type PlotSeries } from '@/features/curves/components/
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
 import { METRICS, formatMetric } from '@/lib/format';
-import Papa from 'papaparse';
+import { comparedCurvesCsv } from '@/features/curves/components/compare-csv';
 
 export default function ComparePage() {
   const projectId = Number(useParams().projectId);
@@ -35,8 +35,7 @@ export default function ComparePage() {
     setParams(next.length ? { builds: next.join(',') } : {});
   };
   const exportCsv = () => {
-    const rows = series.flatMap((s) => (s.points.j ?? []).map((j, k) => ({ build: s.name, j_A_per_cm2: j, V: s.points.v[k], hfr_ohm_cm2: s.points.hfr?.[k] ?? '' })));
-    const blob = new Blob([Papa.unparse(rows)], { type: 'text/csv' });
+    const blob = new Blob([comparedCurvesCsv(series)], { type: 'text/csv' });
     const a = document.createElement('a');
     a.href = URL.createObjectURL(blob);
     a.download = 'cellwright-compare.csv';
