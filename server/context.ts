@@ -27,6 +27,9 @@ declare global {
       user?: AuthUser;
       authVia?: 'cookie' | 'token';
       sessionId?: number;
+      /** the API token used, when authVia is 'token' */
+      tokenId?: number;
+      tokenScope?: 'read' | 'upload' | 'full';
       csrfToken?: string;
     }
   }

@@ -2,13 +2,17 @@
 import { z } from 'zod';
 import path from 'node:path';
 
+const emptyIsUnset = (value: unknown) => (value === '' ? undefined : value);
+
 const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   DATABASE_PATH: z.string().default('data/cellwright.db'),
   UPLOADS_DIR: z.string().default('data/uploads'),
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default('Cellwright <no-reply@cellwright.test>'),
-  PUBLIC_URL: z.string().optional(),
+  PUBLIC_URL: z.preprocess(emptyIsUnset, z.url({ protocol: /^https?$/, error: 'must be an http(s) address like https://cellwright.lab.example' }).optional()),
+  /** comma-separated host[:port] (or scheme://host) names the app also answers to */
+  ALLOWED_HOSTS: z.preprocess(emptyIsUnset, z.string().optional()),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(50 * 1024 * 1024),
   UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(2_000_000),
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(20),

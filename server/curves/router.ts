@@ -53,11 +53,13 @@ export const uploadFieldsSchema = z.object({
   uploadId: z.string().regex(UPLOAD_ID_PATTERN, 'must be 8–64 letters, digits, "-" or "_"').optional(),
 });
 
-const pointsQuery = z.object({
-  maxPoints: z.coerce.number().int().min(10).max(100000).optional(),
-  fromHours: z.coerce.number().optional(),
-  toHours: z.coerce.number().optional(),
-});
+const pointsQuery = z
+  .object({
+    maxPoints: z.coerce.number().int().min(10).max(100000).optional(),
+    fromHours: z.coerce.number().finite().optional(),
+    toHours: z.coerce.number().finite().optional(),
+  })
+  .refine((q) => q.fromHours == null || q.toHours == null || q.toHours >= q.fromHours, { message: 'toHours must not be before fromHours', path: ['toHours'] });
 
 const curvePatchSchema = z.object({
   label: z.string().trim().max(120).optional(),

@@ -351,7 +351,10 @@ export function curvePoints(row: CurveRow, options: { maxPoints?: number; fromHo
   const data = decodePoints(row.points, row.kind);
   if (row.kind !== 'polarization' && data.tHours) {
     const max = options.maxPoints ?? 2000;
-    const range = options.fromHours != null || options.toHours != null ? { fromHours: options.fromHours ?? -Infinity, toHours: options.toHours ?? Infinity } : undefined;
+    // one bound given: the other is the log's own end, so the window is always finite
+    const first = data.tHours.length ? data.tHours[0]! : 0;
+    const last = data.tHours.length ? data.tHours[data.tHours.length - 1]! : 0;
+    const range = options.fromHours != null || options.toHours != null ? { fromHours: options.fromHours ?? Math.min(first, options.toHours!), toHours: options.toHours ?? Math.max(last, options.fromHours!) } : undefined;
     const down = downsampleForPlot(data.tHours, data.v, max, range);
     return { tHours: Array.from(down.t), v: Array.from(down.v), downsampled: down.t.length < data.v.length, total: data.v.length };
   }
