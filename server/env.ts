@@ -15,6 +15,8 @@ const envSchema = z.object({
   ALLOWED_HOSTS: z.preprocess(emptyIsUnset, z.string().optional()),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(50 * 1024 * 1024),
   UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(2_000_000),
+  /** temporary upload files untouched for this long are removed while the server runs, ms */
+  UPLOAD_TMP_MAX_AGE_MS: z.coerce.number().int().positive().default(60 * 60_000),
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(20),
   SEED_DEMO: z.enum(['auto', 'never']).default('auto'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),

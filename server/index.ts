@@ -3,6 +3,8 @@ import { createContext } from './bootstrap';
 import { createApp } from './app';
 import { seedIfEmpty } from './seed/seed';
 import { sendDigests } from './review/notify';
+import path from 'node:path';
+import { sweepTemporaryUploads, SWEEP_INTERVAL_MS } from './uploads/tmp-sweeper';
 
 const ctx = createContext();
 await seedIfEmpty(ctx);
@@ -16,6 +18,13 @@ const digestTimer = setInterval(() => {
   sendDigests(ctx).catch((error) => ctx.logger.error({ err: error }, 'daily digest failed'));
 }, 24 * 3600 * 1000);
 digestTimer.unref();
+
+// Temporary upload files nobody has written to for the age limit belong to no live upload.
+const sweepTimer = setInterval(() => {
+  const swept = sweepTemporaryUploads(path.join(ctx.env.uploadsDir, 'tmp'), ctx.env.UPLOAD_TMP_MAX_AGE_MS);
+  if (swept.removed > 0) ctx.logger.warn(`removed ${swept.removed} stale temporary upload file(s), ${swept.bytes} bytes`);
+}, SWEEP_INTERVAL_MS);
+sweepTimer.unref();
 
 function shutdown(signal: string) {
   ctx.logger.info(`${signal}: shutting down`);

@@ -15,6 +15,7 @@ import { accessBuild } from '../builds/service';
 import { curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView } from './service';
 import { audit } from '../lib/audit';
 import { silentProgress, trackUpload, UPLOAD_ID_PATTERN } from '../uploads/progress';
+import { checkedFileName, multipartProblem } from '../lib/multipart-errors';
 
 /** 52428800 → "50 MB", 1500 → "1.5 kB": the limit in the words of the message. */
 function formatBytes(bytes: number): string {
@@ -90,7 +91,12 @@ export function curvesRouter(ctx: AppContext): Router {
         }
         return next(new AppError(400, 'bad-upload', `Upload refused: ${error.message} (field "${error.field ?? 'file'}"). Send one file in the multipart field "file".`));
       }
-      next(error);
+      if (error) {
+        // a refused body leaves no temporary file behind, however far multer got
+        if (typeof req.file?.path === 'string') fs.rmSync(req.file.path, { force: true });
+        return next(multipartProblem(error) ?? error);
+      }
+      next();
     });
   };
 
@@ -100,10 +106,11 @@ export function curvesRouter(ctx: AppContext): Router {
       const { row, access } = accessBuild(ctx, req.user, idParam(req.params.id), 'createBuild');
       requireBuildWrite(access, row);
       if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
+      const originalName = checkedFileName(file.originalname);
       const { uploadId, ...fields } = parseInput(uploadFieldsSchema, req.body ?? {}, 'upload fields');
       const progress = uploadId && !previewOnly ? trackUpload(access.user.id, uploadId, file.size) : silentProgress;
       try {
-        const result = await ingestUpload(ctx, access, row, { tmpPath: file.path, originalName: Buffer.from(file.originalname, 'latin1').toString('utf8'), size: file.size }, { ...fields, previewOnly, progress });
+        const result = await ingestUpload(ctx, access, row, { tmpPath: file.path, originalName, size: file.size }, { ...fields, previewOnly, progress });
         progress.done('curve' in result && result.curve ? result.curve.id : null);
         res.status(previewOnly ? 200 : 201).json(result);
       } catch (error) {

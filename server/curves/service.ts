@@ -270,9 +270,9 @@ export async function ingestUpload(
         if (build.status === 'planned' || build.status === 'built') {
           tx.update(builds).set({ status: 'tested', testedOn: build.testedOn ?? new Date().toISOString().slice(0, 10), updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
         }
+        audit(tx as never, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: row.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length } });
         return row;
       });
-      audit(db, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: curve.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length } });
       await notifyAfterUpload(ctx, access, build, upload.originalName);
       return { curve: curveView(curve) };
     } catch (error) {

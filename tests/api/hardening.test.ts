@@ -1,8 +1,13 @@
 // Hardening: sign-in that spelling variants cannot out-guess and whose timing reveals nothing,
 // Origin checks on cookie writes, e-mail links only from configured addresses, token scopes,
 // the last PI, invitations of existing accounts, and odd requests that must be 4xx, not 500.
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
+import { createContext } from '../../server/bootstrap';
+import { sweepTemporaryUploads } from '../../server/uploads/tmp-sweeper';
 import { createHarness, demoIds, type Harness } from './harness';
 import { hashPassword } from '../../server/auth/passwords';
 import { sameSecret } from '../../server/auth/sessions';
@@ -337,5 +342,52 @@ describe('odd requests answer 4xx, not 500', () => {
     expect(reversed.status).toBe(400);
     const beyond = await h.as.viewer.get(`/api/curves/${row.id}?fromHours=1e9`);
     expect(beyond.status).toBeLessThan(500);
+  });
+});
+
+describe('crashes leave nothing behind', () => {
+  it('temporary upload files left by a killed process are removed at start-up', async () => {
+    const first = await createHarness({ seed: false });
+    const tmp = path.join(first.ctx.env.uploadsDir, 'tmp');
+    fs.mkdirSync(tmp, { recursive: true });
+    for (let k = 0; k < 3; k++) fs.writeFileSync(path.join(tmp, `left-over-${k}`), 'partial upload');
+    // a second start on the same folders, as after kill -9
+    const again = createContext({ DATABASE_PATH: first.ctx.env.databasePath, UPLOADS_DIR: first.ctx.env.uploadsDir, LOG_LEVEL: 'silent', SEED_DEMO: 'never' });
+    try {
+      expect(fs.readdirSync(tmp)).toEqual([]);
+    } finally {
+      again.db.$client.close();
+      first.close();
+    }
+  });
+
+  it('and by age while running (files older than the limit go, fresh ones stay)', () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'cw-sweep-'));
+    try {
+      fs.writeFileSync(path.join(dir, 'old'), 'x');
+      fs.writeFileSync(path.join(dir, 'fresh'), 'y');
+      const hourAgo = new Date(Date.now() - 3600_000);
+      fs.utimesSync(path.join(dir, 'old'), hourAgo, hourAgo);
+      expect(sweepTemporaryUploads(dir, 30 * 60_000)).toEqual({ removed: 1, bytes: 1 });
+      expect(fs.readdirSync(dir)).toEqual(['fresh']);
+    } finally {
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('the audit entry of an upload is written in the curve’s transaction: when it fails, no curve is stored', async () => {
+    const h = await createHarness();
+    try {
+      const ids = demoIds(h.ctx);
+      const sqlite = h.ctx.db.$client;
+      const curvesBefore = (sqlite.prepare('select count(*) as n from curves').get() as { n: number }).n;
+      sqlite.exec("create trigger refuse_upload_audit before insert on audit_log when new.action = 'upload' begin select raise(abort, 'audit refused'); end");
+      const res = await h.as.researcher.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'audited.csv', content: CSV + '0.5,0.47,0.12\n' });
+      expect(res.status, JSON.stringify(res.body)).toBe(500);
+      expect((sqlite.prepare('select count(*) as n from curves').get() as { n: number }).n).toBe(curvesBefore);
+      expect(sqlite.prepare("select count(*) as n from files where original_name = 'audited.csv'").get()).toEqual({ n: 0 });
+    } finally {
+      h.close();
+    }
   });
 });
