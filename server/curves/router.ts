@@ -10,9 +10,9 @@ import type { AppContext } from '../context';
 import { curves, files, importProfiles } from '../db/schema';
 import { idParam, parseInput } from '../lib/validate';
 import { AppError, forbidden, notFound } from '../lib/errors';
-import { requireBuildWrite, requireProject, requireUser, can } from '../auth/access';
+import { requireBuildWrite, requireProfileLab, requireProject, requireUser } from '../auth/access';
 import { accessBuild } from '../builds/service';
-import { curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView } from './service';
+import { curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView, requireCompleteProfile } from './service';
 import { audit } from '../lib/audit';
 import { silentProgress, trackUpload, UPLOAD_ID_PATTERN } from '../uploads/progress';
 import { checkedFileName, multipartProblem } from '../lib/multipart-errors';
@@ -181,12 +181,14 @@ export function curvesRouter(ctx: AppContext): Router {
   router.post('/projects/:id/import-profiles', (req, res) => {
     const access = requireProject(db, req.user, idParam(req.params.id), 'manageProfiles');
     const body = parseInput(profileSchema, req.body);
-    let labId = body.labId ?? null;
+    // not given: the caller's own lab (partners always get theirs)
+    let labId = body.labId === undefined ? access.user.labId : body.labId;
     if (access.role === 'partner') {
       if (labId != null && labId !== access.user.labId) throw forbidden('Partners may only save profiles for their own lab.');
       labId = access.user.labId;
     }
-    if (!body.mapping.voltage) throw new AppError(400, 'validation', 'mapping.voltage: a profile must say which column is the cell voltage.', { fields: [{ path: 'mapping.voltage', message: 'required' }] });
+    requireProfileLab(access, labId);
+    requireCompleteProfile(body.kind, body.mapping);
     const row = db.insert(importProfiles).values({ name: body.name, labId, projectId: access.projectId, kind: body.kind, mapping: body.mapping, createdBy: access.user.id }).returning().get();
     audit(db, { userId: access.user.id, action: 'create', entity: 'import-profile', entityId: row.id, projectId: access.projectId, after: row });
     res.status(201).json({ profile: row });
@@ -198,8 +200,7 @@ export function curvesRouter(ctx: AppContext): Router {
     const row = db.select().from(importProfiles).where(eq(importProfiles.id, id)).get();
     if (!row || row.projectId == null) throw notFound(`Import profile ${id}`);
     const access = requireProject(db, req.user, row.projectId, 'manageProfiles');
-    if (access.role === 'partner' && row.labId !== access.user.labId) throw forbidden('Partners may only remove their own lab’s profiles.');
-    if (!can(access, 'manageProfiles')) throw forbidden();
+    requireProfileLab(access, row.labId);
     db.delete(importProfiles).where(and(eq(importProfiles.id, id))).run();
     audit(db, { userId: access.user.id, action: 'delete', entity: 'import-profile', entityId: id, projectId: access.projectId, before: row });
     res.json({ ok: true });

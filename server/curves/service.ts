@@ -5,6 +5,7 @@ import { and, asc, desc, eq, inArray, isNull, or } from 'drizzle-orm';
 import type { AppContext } from '../context';
 import { builds, curves, files, importProfiles, projects } from '../db/schema';
 import { applyMapping, detectMapping, polarizationMetrics } from '../../shared/curves';
+import { recogniseHeaderUnit } from '../../shared/units/recognise-header-unit';
 import type { ParsedTable } from '../../shared/curves';
 import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
 import { CurveFileError } from '../../shared/curves/types';
@@ -13,7 +14,7 @@ import { encodePoints, decodePoints } from './points-codec';
 import { readUpload } from './read-upload';
 import { audit } from '../lib/audit';
 import { AppError, notFound } from '../lib/errors';
-import type { ProjectAccess } from '../auth/access';
+import { requireProfileLab, type ProjectAccess } from '../auth/access';
 import type { ProgressReporter } from '../uploads/progress';
 import type { UploadFields } from '../../shared/api-types';
 import { notifyAfterUpload } from '../review/notify';
@@ -121,15 +122,49 @@ function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<stri
   };
 }
 
-/** Profile mapping is stored by header text; turn it into column indices for this file. */
-function profileToMapping(profile: typeof importProfiles.$inferSelect, table: ParsedTable): ColumnMapping | null {
+/** The columns a profile must map for each kind of curve: what the metrics cannot do without. */
+export const PROFILE_REQUIRES: Record<CurveKind, readonly (keyof ColumnMapping)[]> = {
+  polarization: ['current', 'voltage'],
+  durability: ['time', 'voltage'],
+  hold: ['time', 'voltage'],
+};
+const QUANTITY_WORDS: Record<string, string> = { current: 'current', voltage: 'voltage', hfr: 'HFR', time: 'time', temperature: 'temperature' };
+
+function missingForKind(kind: CurveKind, mapping: Partial<Record<string, unknown>>): string[] {
+  return PROFILE_REQUIRES[kind].filter((quantity) => !mapping[quantity]);
+}
+
+/** A 400 unless the profile maps every column its kind of curve needs. */
+export function requireCompleteProfile(kind: CurveKind, mapping: Partial<Record<string, unknown>>): void {
+  const missing = missingForKind(kind, mapping);
+  if (missing.length > 0) {
+    throw new AppError(400, 'validation', `An import profile for ${kind} curves must map ${PROFILE_REQUIRES[kind].map((q) => QUANTITY_WORDS[q]).join(' and ')}; this one has no ${missing.map((q) => QUANTITY_WORDS[q]).join(' or ')} column. Nothing was saved.`, {
+      fields: missing.map((q) => ({ path: `mapping.${q}`, message: 'required' })),
+    });
+  }
+}
+
+/**
+ * Profile mapping is stored by header text; turn it into column indices for this file. The
+ * profile fits only when it is for this kind of curve, maps every column the kind needs, finds
+ * each header, and no unit it names contradicts the unit (or quantity) the header itself states.
+ */
+function profileToMapping(profile: typeof importProfiles.$inferSelect, table: ParsedTable, kind: CurveKind): { mapping: ColumnMapping; problem: null } | { mapping: null; problem: string } {
+  const unfit = (why: string) => ({ mapping: null, problem: `the import profile "${profile.name}" was not used: ${why}` });
+  if (profile.kind !== kind) return unfit(`it is for ${profile.kind} curves, this is a ${kind} curve`);
+  const missing = missingForKind(kind, profile.mapping);
+  if (missing.length > 0) return unfit(`it maps no ${missing.map((q) => QUANTITY_WORDS[q]).join(' or ')} column, which a ${kind} curve needs`);
   const mapping: Record<string, { column: number; unit: string }> = {};
   for (const [quantity, spec] of Object.entries(profile.mapping)) {
     const column = table.header.findIndex((h: string) => h.trim().toLowerCase() === spec.header.trim().toLowerCase());
-    if (column < 0) return null;
+    if (column < 0) return unfit(`the file has no column "${spec.header}"`);
+    if (table.columns[column] == null) return unfit(`column "${table.header[column]}" holds text, not numbers`);
+    const stated = recogniseHeaderUnit(table.header[column]!);
+    if (stated.unit != null && stated.quantity !== quantity) return unfit(`column "${table.header[column]}" is headed as ${QUANTITY_WORDS[stated.quantity] ?? stated.quantity} (${stated.unit}), the profile reads it as ${QUANTITY_WORDS[quantity] ?? quantity}`);
+    if (stated.unit != null && stated.unit !== spec.unit) return unfit(`column "${table.header[column]}" states ${stated.unit}, the profile says ${spec.unit}`);
     mapping[quantity] = { column, unit: spec.unit };
   }
-  return mapping.voltage ? (mapping as unknown as ColumnMapping) : null;
+  return { mapping: mapping as unknown as ColumnMapping, problem: null };
 }
 
 function mappingToProfile(mapping: ColumnMapping, table: ParsedTable) {
@@ -183,6 +218,8 @@ export async function ingestUpload(
 
     let mapping: ColumnMapping | null = null;
     let mappingSource = 'detected';
+    /** why a profile was not used, when one was asked for or named the file's headers */
+    let profileNote: string | null = null;
     if (options.mapping) {
       checkMappingColumns(options.mapping, table);
       mapping = options.mapping;
@@ -190,23 +227,29 @@ export async function ingestUpload(
     } else if (options.profileId) {
       const profile = db.select().from(importProfiles).where(eq(importProfiles.id, options.profileId)).get();
       if (!profile || (profile.projectId != null && profile.projectId !== access.projectId)) throw notFound(`Import profile ${options.profileId}`);
-      mapping = profileToMapping(profile, table);
-      if (!mapping) throw mappingNeeded(table, detection, { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet, profileMismatch: `the file's headers do not match the profile "${profile.name}"` });
-      mappingSource = `profile ${profile.name}`;
-    } else {
-      const profile = findMatchingProfile(ctx, access.projectId, build.labId, table);
-      if (profile) {
-        mapping = profileToMapping(profile, table);
+      const fit = profileToMapping(profile, table, kind);
+      if (fit.mapping) {
+        mapping = fit.mapping;
         mappingSource = `profile ${profile.name}`;
+      } else {
+        profileNote = `${fit.problem}; the columns were detected instead`;
+        if (detection.mapping && !detection.ambiguous) mapping = detection.mapping;
+      }
+    } else {
+      const match = findMatchingProfile(ctx, access.projectId, build.labId, table, kind);
+      profileNote = match.note;
+      if (match.profile) {
+        mapping = match.mapping;
+        mappingSource = `profile ${match.profile.name}`;
       } else if (detection.mapping && !detection.ambiguous) {
         mapping = detection.mapping;
       }
     }
 
     if (options.previewOnly) {
-      return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet } };
+      return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, profileNote, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet } };
     }
-    if (!mapping) throw mappingNeeded(table, detection, { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet });
+    if (!mapping) throw mappingNeeded(table, detection, { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet, ...(profileNote && { profileMismatch: profileNote }) });
 
     const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? build.areaCm2 ?? null;
     options.progress?.phase('measuring', null);
@@ -244,7 +287,11 @@ export async function ingestUpload(
           .returning()
           .get();
         if (options.saveProfileAs) {
-          tx.insert(importProfiles).values({ labId: build.labId, projectId: access.projectId, name: options.saveProfileAs, mapping: mappingToProfile(mapping!, table), kind, createdBy: access.user.id }).run();
+          // saved for the build's lab: the same rights and completeness as the profiles route
+          requireProfileLab(access, build.labId);
+          const saved = mappingToProfile(mapping!, table);
+          requireCompleteProfile(kind, saved);
+          tx.insert(importProfiles).values({ labId: build.labId, projectId: access.projectId, name: options.saveProfileAs, mapping: saved, kind, createdBy: access.user.id }).run();
         }
         const row = tx
           .insert(curves)
@@ -260,7 +307,7 @@ export async function ingestUpload(
             metrics: result.metrics,
             metricNotes: result.metricNotes as Record<string, string>,
             method: result.method as never,
-            summary: { ...result.summary, mappingSource, sheet: read.sheet ?? null },
+            summary: { ...result.summary, mappingSource, sheet: read.sheet ?? null, ...(profileNote && { profileNote }) },
             metricsVersion: project.metricsVersion,
             createdBy: access.user.id,
           })
@@ -294,14 +341,27 @@ function asUnprocessable(error: unknown, fileName: string): unknown {
   return error;
 }
 
-function findMatchingProfile(ctx: AppContext, projectId: number, labId: number | null, table: ParsedTable) {
+/**
+ * The newest of the lab's profiles that fits this file. Profiles that name the file's headers but
+ * do not fit it (another kind, a column missing, a unit contradicting the header) are passed over
+ * and named in `note`, so the upload can say why the columns were detected instead.
+ */
+function findMatchingProfile(ctx: AppContext, projectId: number, labId: number | null, table: ParsedTable, kind: CurveKind) {
   const candidates = ctx.db
     .select()
     .from(importProfiles)
     .where(and(or(eq(importProfiles.projectId, projectId), isNull(importProfiles.projectId)), labId == null ? isNull(importProfiles.labId) : eq(importProfiles.labId, labId)))
     .orderBy(desc(importProfiles.id))
     .all();
-  return candidates.find((p) => profileToMapping(p, table) !== null) ?? null;
+  const passedOver: string[] = [];
+  const headers = new Set(table.header.map((h) => h.trim().toLowerCase()));
+  for (const profile of candidates) {
+    const fit = profileToMapping(profile, table, kind);
+    if (fit.mapping) return { profile, mapping: fit.mapping, note: passedOver.length ? passedOver.join('; ') : null };
+    // only profiles meant for files like this one are worth a word
+    if (Object.values(profile.mapping).some((spec) => headers.has(spec.header.trim().toLowerCase()))) passedOver.push(fit.problem);
+  }
+  return { profile: null, mapping: null, note: passedOver.length ? `${passedOver.join('; ')}; the columns were detected instead` : null };
 }
 
 export function curveView(row: Omit<CurveRow, 'points'> & { points?: unknown }) {

@@ -110,6 +110,7 @@ function CurveView({ curve, project, detail }: { curve: CurveSummary; project: P
         <p className="text-[11px] text-ink-500">
           {String(curve.summary.steps ?? '?')} current steps{curve.summary.sweeps ? `, sweeps: ${String(curve.summary.sweeps)}` : ''}
           {curve.summary.hysteresisMv != null ? `, hysteresis at j_ref ${formatNumber(Number(curve.summary.hysteresisMv), 1)} mV` : ''} · mapping: {String(curve.summary.mappingSource ?? 'detected')}
+          {curve.summary.profileNote ? <span className="block text-amber-700">{String(curve.summary.profileNote)}</span> : null}
           {curve.fileId && <> · <a className="text-copper-700 underline" href={`/api/files/${curve.fileId}/raw`}>raw file</a></>}
         </p>
         <WhatIfReference curve={curve} points={data.points} settings={project.settings} loading={{ loadingMgCm2: detail.build.loadingMgCm2, metalLoadingMgCm2: detail.build.metalLoadingMgCm2 }} />

@@ -123,12 +123,12 @@ export function useUploadBatch(projectId: number) {
         patch(row.key, { progress: f });
         if (f >= 1 && !polling && row.file.size > 256 * 1024) { polling = true; void poll(); }
       }).finally(() => { finished = true; });
-      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, message: `${result.curve.kind} curve, ${result.curve.pointCount.toLocaleString()} points${result.curve.summary.sheet ? `, sheet “${String(result.curve.summary.sheet)}”` : ''}` });
+      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, message: `${result.curve.kind} curve, ${result.curve.pointCount.toLocaleString()} points${result.curve.summary.sheet ? `, sheet “${String(result.curve.summary.sheet)}”` : ''}${result.curve.summary.profileNote ? ` (${String(result.curve.summary.profileNote)})` : ''}` });
       invalidate(row.buildId);
     } catch (error) {
       if (error instanceof ApiError && error.code === 'mapping-needed') {
-        const d = error.details as UploadPreview & { preview: UploadPreview };
-        patch(row.key, { state: 'confirm', preview: { ...d.preview, detected: d.detected, reasons: d.reasons, kind: d.kind, sheets: d.sheets, sheet: d.sheet, fileName: row.file.name }, message: error.message });
+        const d = error.details as UploadPreview & { preview: UploadPreview; profileMismatch?: string };
+        patch(row.key, { state: 'confirm', preview: { ...d.preview, detected: d.detected, reasons: d.profileMismatch ? [...d.reasons, d.profileMismatch] : d.reasons, kind: d.kind, sheets: d.sheets, sheet: d.sheet, fileName: row.file.name }, message: error.message });
       } else {
         patch(row.key, { state: 'error', message: error instanceof Error ? error.message : String(error) });
       }
