@@ -15,6 +15,18 @@ const envSchema = z.object({
   ALLOWED_HOSTS: z.preprocess(emptyIsUnset, z.string().optional()),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(50 * 1024 * 1024),
   UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(2_000_000),
+  /** worker threads that parse uploads (default: one per spare core, 1–4) */
+  UPLOAD_PARSE_WORKERS: z.coerce.number().int().min(1).max(16).optional(),
+  /** longest time one file may take to parse, ms */
+  UPLOAD_PARSE_TIMEOUT_MS: z.coerce.number().int().positive().default(60_000),
+  /** heap limit of a parse worker, MB */
+  UPLOAD_PARSE_MEMORY_MB: z.coerce.number().int().min(64).default(1024),
+  /** largest expanded size of one workbook part (a sheet, the shared strings), bytes */
+  UPLOAD_XLSX_MAX_PART_BYTES: z.coerce.number().int().positive().default(100 * 1024 * 1024),
+  /** largest expanded ÷ compressed size of a workbook part */
+  UPLOAD_XLSX_MAX_RATIO: z.coerce.number().positive().default(100),
+  /** most cells read from one workbook sheet */
+  UPLOAD_XLSX_MAX_CELLS: z.coerce.number().int().positive().default(1_000_000),
   /** temporary upload files untouched for this long are removed while the server runs, ms */
   UPLOAD_TMP_MAX_AGE_MS: z.coerce.number().int().positive().default(60 * 60_000),
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(20),

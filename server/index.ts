@@ -5,8 +5,11 @@ import { seedIfEmpty } from './seed/seed';
 import { sendDigests } from './review/notify';
 import path from 'node:path';
 import { sweepTemporaryUploads, SWEEP_INTERVAL_MS } from './uploads/tmp-sweeper';
+import { parsePool } from './uploads/parse-runner';
 
 const ctx = createContext();
+// the upload parse threads load while the database is seeded and the port opens
+parsePool(ctx.env).warm();
 await seedIfEmpty(ctx);
 const app = createApp(ctx);
 const server = app.listen(ctx.env.PORT, () => {

@@ -11,7 +11,7 @@ import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
 import { CurveFileError } from '../../shared/curves/types';
 import type { ColumnMapping, CurveData, CurveKind, MetricsResult, ReferencePoint } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
-import { readUpload } from './read-upload';
+import { parseUpload } from '../uploads/parse-runner';
 import { audit } from '../lib/audit';
 import { AppError, notFound } from '../lib/errors';
 import { requireProfileLab, type ProjectAccess } from '../auth/access';
@@ -205,7 +205,7 @@ export async function ingestUpload(
   try {
     let read;
     try {
-      read = await readUpload(upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS, onBytes: options.progress && ((bytes) => options.progress!.parsed(bytes)) });
+      read = await parseUpload(env, upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS, onBytes: options.progress && ((bytes) => options.progress!.parsed(bytes)) }, upload.originalName);
     } catch (error) {
       if (error instanceof CurveFileError && error.code === 'too-many-rows') {
         throw new AppError(422, 'too-many-rows', `${upload.originalName}: more than ${env.UPLOAD_MAX_ROWS.toLocaleString('en-US')} data rows, the row limit per file (UPLOAD_MAX_ROWS); nothing was stored. Split the log or ask an administrator to raise the limit.`, { file: upload.originalName, limit: 'UPLOAD_MAX_ROWS', maxRows: env.UPLOAD_MAX_ROWS, line: error.line ?? null });
