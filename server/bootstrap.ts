@@ -1,4 +1,4 @@
-// Assembles the context: environment, database (migrated), mailer, logger; seeds the demo if empty.
+// Assembles the context: environment, database (migrated), mailer, logger, raw store.
 import { pino } from 'pino';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -7,6 +7,7 @@ import { openDatabase } from './db';
 import { createMailer } from './lib/mail';
 import type { AppContext } from './context';
 import { sweepTemporaryUploads } from './uploads/tmp-sweeper';
+import { createRawStore } from './storage';
 
 export function createContext(overrides: Partial<NodeJS.ProcessEnv> = {}): AppContext {
   const env: Env = readEnv({ ...process.env, ...overrides });
@@ -17,5 +18,6 @@ export function createContext(overrides: Partial<NodeJS.ProcessEnv> = {}): AppCo
   const db = openDatabase(env.databasePath);
   const mailer = createMailer(db, { smtpUrl: env.SMTP_URL, from: env.MAIL_FROM });
   if (swept.removed > 0) logger.info(`removed ${swept.removed} temporary upload file(s), ${swept.bytes} bytes, left by an earlier run`);
-  return { db, env, mailer, logger };
+  const storage = createRawStore(env);
+  return { db, env, mailer, logger, storage };
 }

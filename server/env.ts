@@ -30,6 +30,16 @@ const envSchema = z.object({
   /** temporary upload files untouched for this long are removed while the server runs, ms */
   UPLOAD_TMP_MAX_AGE_MS: z.coerce.number().int().positive().default(60 * 60_000),
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(20),
+  /** where raw uploaded files are kept: the UPLOADS_DIR folder, or an S3-compatible bucket */
+  STORAGE: z.enum(['local', 's3']).default('local'),
+  S3_BUCKET: z.preprocess(emptyIsUnset, z.string().optional()),
+  S3_ENDPOINT: z.preprocess(emptyIsUnset, z.url({ protocol: /^https?$/ }).optional()),
+  S3_REGION: z.string().default('us-east-1'),
+  /** key prefix inside the bucket ("" or ending in "/") */
+  S3_PREFIX: z.string().regex(/^$|\/$/, 'must be empty or end with "/"').default(''),
+  S3_FORCE_PATH_STYLE: z.preprocess((v) => (v === '' || v === undefined ? undefined : v === 'true' || v === '1'), z.boolean().optional()),
+  S3_ACCESS_KEY_ID: z.preprocess(emptyIsUnset, z.string().optional()),
+  S3_SECRET_ACCESS_KEY: z.preprocess(emptyIsUnset, z.string().optional()),
   SEED_DEMO: z.enum(['auto', 'never']).default('auto'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
   NODE_ENV: z.string().default('development'),

@@ -4,6 +4,7 @@ import { Router, type Request, type Response, type NextFunction } from 'express'
 import multer from 'multer';
 import fs from 'node:fs';
 import path from 'node:path';
+import { pipeline } from 'node:stream/promises';
 import { z } from 'zod';
 import { and, eq } from 'drizzle-orm';
 import type { AppContext } from '../context';
@@ -158,18 +159,22 @@ export function curvesRouter(ctx: AppContext): Router {
     res.json({ ok: true });
   });
 
-  router.get('/files/:id/raw', (req, res) => {
+  router.get('/files/:id/raw', async (req, res) => {
     requireUser(req.user);
     const id = idParam(req.params.id);
     const file = db.select().from(files).where(eq(files.id, id)).get();
     if (!file || file.projectId == null) throw notFound(`File ${id}`);
     requireProject(db, req.user, file.projectId, 'read');
-    const stored = path.join(env.uploadsDir, file.sha256.slice(0, 2), file.sha256);
-    if (!fs.existsSync(stored)) throw notFound(`Stored bytes of file ${id}`);
+    const stream = await ctx.storage.get(file.sha256);
+    if (!stream) throw notFound(`Stored bytes of file ${id}`);
     res.setHeader('Content-Type', 'application/octet-stream');
     res.setHeader('Content-Disposition', `attachment; filename="${file.originalName.replace(/[^\w.\- ]+/g, '_')}"`);
     res.setHeader('X-Content-SHA256', file.sha256);
-    fs.createReadStream(stored).pipe(res);
+    res.setHeader('Content-Length', String(file.sizeBytes));
+    await pipeline(stream, res).catch((error: unknown) => {
+      // the client went away, or the store broke off mid-file: the answer is already under way
+      ctx.logger.warn({ err: error, fileId: id }, 'raw file stream ended early');
+    });
   });
 
   router.get('/projects/:id/import-profiles', (req, res) => {

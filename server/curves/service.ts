@@ -274,10 +274,7 @@ export async function ingestUpload(
     await yieldToEventLoop();
     const points = encodePoints(data);
 
-    const stored = path.join(env.uploadsDir, read.sha256.slice(0, 2), read.sha256);
-    fs.mkdirSync(path.dirname(stored), { recursive: true });
-    const existed = fs.existsSync(stored);
-    if (!existed) fs.renameSync(upload.tmpPath, stored);
+    const { existed } = await ctx.storage.put(read.sha256, upload.tmpPath);
 
     try {
       const curve = db.transaction((tx) => {
@@ -323,7 +320,8 @@ export async function ingestUpload(
       await notifyAfterUpload(ctx, access, build, upload.originalName);
       return { curve: curveView(curve) };
     } catch (error) {
-      if (!existed) fs.rmSync(stored, { force: true });
+      // nothing half-stored: the bytes go too, unless a file row (another upload) uses them
+      if (!existed && !db.select({ id: files.id }).from(files).where(eq(files.sha256, read.sha256)).get()) await ctx.storage.remove(read.sha256);
       throw error;
     }
   } finally {
