@@ -40,12 +40,14 @@ const envSchema = z.object({
   S3_FORCE_PATH_STYLE: z.preprocess((v) => (v === '' || v === undefined ? undefined : v === 'true' || v === '1'), z.boolean().optional()),
   S3_ACCESS_KEY_ID: z.preprocess(emptyIsUnset, z.string().optional()),
   S3_SECRET_ACCESS_KEY: z.preprocess(emptyIsUnset, z.string().optional()),
+  /** where `npm run backup` and the admin page write backups */
+  BACKUP_DIR: z.string().default('data/backups'),
   SEED_DEMO: z.enum(['auto', 'never']).default('auto'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
   NODE_ENV: z.string().default('development'),
 });
 
-export type Env = z.infer<typeof envSchema> & { databasePath: string; uploadsDir: string };
+export type Env = z.infer<typeof envSchema> & { databasePath: string; uploadsDir: string; backupDir: string };
 
 export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const parsed = envSchema.safeParse(source);
@@ -58,5 +60,6 @@ export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
     ...env,
     databasePath: env.DATABASE_PATH === ':memory:' ? ':memory:' : path.resolve(env.DATABASE_PATH),
     uploadsDir: path.resolve(env.UPLOADS_DIR),
+    backupDir: path.resolve(env.BACKUP_DIR),
   };
 }

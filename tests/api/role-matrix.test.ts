@@ -104,6 +104,13 @@ export const MATRIX: MatrixRow[] = [
   { method: 'post', path: '/api/admin/digests/send', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/digests/send') },
   { method: 'get', path: '/api/admin/outbox', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/outbox') },
   { method: 'get', path: '/api/admin/audit', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/audit') },
+  { method: 'get', path: '/api/admin/backups', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/backups') },
+  { method: 'post', path: '/api/admin/backups', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/backups') },
+  { method: 'get', path: '/api/admin/backups/{name}', allowed: ['admin'], send: async (h, c) => {
+    const list = await h.as.admin.get('/api/admin/backups');
+    const name = list.body.backups[0]?.name ?? (await h.as.admin.post('/api/admin/backups')).body.backup.name;
+    return c.get(`/api/admin/backups/${name}`);
+  } },
   { method: 'post', path: '/api/builds/{id}/curves', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'matrix.csv', content: CSV }) },
   { method: 'post', path: '/api/builds/{id}/curves/preview', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves/preview`, { name: 'matrix.csv', content: CSV }) },
   { method: 'get', path: '/api/curves/{id}', allowed: ALL, send: async (h, c) => c.get(`/api/curves/${await makeCurve(h)}`) },
