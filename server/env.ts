@@ -4,6 +4,16 @@ import path from 'node:path';
 
 const emptyIsUnset = (value: unknown) => (value === '' ? undefined : value);
 
+function isHostEntry(entry: string): boolean {
+  if (entry === '') return true;
+  try {
+    const url = new URL(entry.includes('://') ? entry : `http://${entry}`);
+    return /^https?:$/.test(url.protocol) && url.pathname === '/' && !url.search && !url.username && url.host.length > 0;
+  } catch {
+    return false;
+  }
+}
+
 const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   DATABASE_PATH: z.string().default('data/cellwright.db'),
@@ -12,7 +22,13 @@ const envSchema = z.object({
   MAIL_FROM: z.string().default('Cellwright <no-reply@cellwright.test>'),
   PUBLIC_URL: z.preprocess(emptyIsUnset, z.url({ protocol: /^https?$/, error: 'must be an http(s) address like https://cellwright.lab.example' }).optional()),
   /** comma-separated host[:port] (or scheme://host) names the app also answers to */
-  ALLOWED_HOSTS: z.preprocess(emptyIsUnset, z.string().optional()),
+  ALLOWED_HOSTS: z.preprocess(
+    emptyIsUnset,
+    z
+      .string()
+      .refine((list) => list.split(',').every((entry) => isHostEntry(entry.trim())), 'each entry must be host, host:port or http(s)://host[:port], comma-separated')
+      .optional(),
+  ),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(50 * 1024 * 1024),
   UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(2_000_000),
   /** worker threads that parse uploads (default: one per spare core, 1–4) */

@@ -6,8 +6,12 @@ import { sendDigests } from './review/notify';
 import path from 'node:path';
 import { sweepTemporaryUploads, SWEEP_INTERVAL_MS } from './uploads/tmp-sweeper';
 import { parsePool } from './uploads/parse-runner';
+import { linkBase } from './lib/base-url';
 
 const ctx = createContext();
+if (ctx.env.NODE_ENV === 'production' && !linkBase(ctx.env)) {
+  ctx.logger.warn('PUBLIC_URL (or ALLOWED_HOSTS) is not set: invitations are refused until it is, and writes are only accepted from pages on the host they were sent to');
+}
 // the upload parse threads load while the database is seeded and the port opens
 parsePool(ctx.env).warm();
 await seedIfEmpty(ctx);

@@ -22,7 +22,7 @@ export function allowedHosts(env: Pick<Env, 'PUBLIC_URL' | 'ALLOWED_HOSTS'>): Al
       const url = new URL(text.includes('://') ? text : `http://${text}`);
       out.push({ host: url.host.toLowerCase(), scheme: text.includes('://') ? url.protocol.replace(':', '') : null });
     } catch {
-      // env.ts refuses entries that are not addresses; nothing to add here
+      // env.ts refuses entries that are not host names; nothing to add here
     }
   };
   if (env.PUBLIC_URL) add(env.PUBLIC_URL);
