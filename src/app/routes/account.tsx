@@ -43,7 +43,7 @@ export default function Account() {
       </Panel>
       <Panel title="Personal API tokens">
         <table className="mb-4 w-full text-sm" aria-label="API tokens">
-          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Name</th><th>May</th><th>Created</th><th>Last used</th><th /></tr></thead>
+          <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Name</th><th>Allowed to</th><th>Created</th><th>Last used</th><th /></tr></thead>
           <tbody className="divide-y divide-line">
             {tokens.data!.map((t) => (
               <tr key={t.id} className={t.revokedAt ? 'text-ink-300' : ''}>
