@@ -13,7 +13,7 @@ import { audit } from '../lib/audit';
 import { sendDigests } from '../review/notify';
 import type { Request } from 'express';
 import path from 'node:path';
-import { createBackup, listBackups } from '../backup/backup';
+import { BACKUP_NAME, createBackup, listBackups } from '../backup/backup';
 
 function requireAdmin(req: Request) {
   const user = requireUser(req.user);
@@ -126,7 +126,7 @@ export function adminRouter(ctx: AppContext): Router {
   router.get('/admin/backups/:name', (req, res) => {
     requireAdmin(req);
     const name = String(req.params.name);
-    const found = /^cellwright-backup-\d{8}-\d{6}\.tar$/.test(name) && listBackups(ctx.env.backupDir).find((b) => b.name === name && b.archive);
+    const found = BACKUP_NAME.test(name) && name.endsWith('.tar') && listBackups(ctx.env.backupDir).find((b) => b.name === name && b.archive);
     if (!found) throw notFound(`Backup archive ${name.slice(0, 80)}`);
     res.download(path.join(ctx.env.backupDir, name), name);
   });

@@ -40,6 +40,9 @@ export interface BackupResult {
 
 export const rawPath = (sha256: string) => `raw/${sha256.slice(0, 2)}/${sha256}`;
 
+/** cellwright-backup-<yyyymmdd>-<hhmmss>[-n][.tar] */
+export const BACKUP_NAME = /^cellwright-backup-\d{8}-\d{6}(?:-\d{1,4})?(?:\.tar)?$/;
+
 async function sha256OfFile(file: string): Promise<string> {
   const hash = createHash('sha256');
   for await (const chunk of fs.createReadStream(file)) hash.update(chunk as Buffer);
@@ -66,10 +69,13 @@ function stamp(iso: string): string {
  */
 export async function createBackup(ctx: AppContext, outDir: string, options: { archive?: boolean } = {}): Promise<BackupResult> {
   const createdAt = new Date().toISOString();
-  const name = `cellwright-backup-${stamp(createdAt)}`;
   fs.mkdirSync(outDir, { recursive: true });
+  // two backups in one second get -1, -2 … after the time
+  let name = `cellwright-backup-${stamp(createdAt)}`;
+  for (let n = 1; fs.existsSync(path.join(outDir, name)) || fs.existsSync(path.join(outDir, `${name}.tar`)) || fs.existsSync(path.join(outDir, `${name}.partial`)); n++) {
+    name = `cellwright-backup-${stamp(createdAt)}-${n}`;
+  }
   const dir = path.join(outDir, name);
-  if (fs.existsSync(dir) || fs.existsSync(`${dir}.tar`)) throw new Error(`backup: ${dir} already exists; wait a second and try again`);
   const partial = `${dir}.partial`;
   fs.rmSync(partial, { recursive: true, force: true });
   fs.mkdirSync(partial, { recursive: true });
@@ -149,7 +155,7 @@ export function listBackups(outDir: string): { name: string; bytes: number; crea
   if (!fs.existsSync(outDir)) return [];
   const out: { name: string; bytes: number; createdAt: string; archive: boolean }[] = [];
   for (const entry of fs.readdirSync(outDir, { withFileTypes: true })) {
-    if (!/^cellwright-backup-\d{8}-\d{6}(\.tar)?$/.test(entry.name)) continue;
+    if (!BACKUP_NAME.test(entry.name)) continue;
     const full = path.join(outDir, entry.name);
     const archive = entry.isFile();
     if (!archive && !fs.existsSync(path.join(full, MANIFEST_FILE))) continue;

@@ -119,7 +119,7 @@ describe('backup and restore', () => {
     const root = path.resolve(import.meta.dirname, '../..');
     const source = { ...process.env, DATABASE_PATH: h.ctx.env.databasePath, UPLOADS_DIR: h.ctx.env.uploadsDir, BACKUP_DIR: path.join(scratch, 'cli'), SEED_DEMO: 'never', LOG_LEVEL: 'silent' };
     const made = await run(process.execPath, ['--import', 'tsx', 'server/backup/cli.ts', 'backup'], { cwd: root, env: source });
-    expect(made.stdout).toMatch(/Backup written: .*cellwright-backup-\d{8}-\d{6}\.tar/);
+    expect(made.stdout).toMatch(/Backup written: .*cellwright-backup-\d{8}-\d{6}(-\d+)?\.tar/);
     const archive = /Backup written: (\S+\.tar)/.exec(made.stdout)![1]!;
     const target = freshEnv('cli-restored');
     const restored = await run(process.execPath, ['--import', 'tsx', 'server/backup/cli.ts', 'restore', archive], { cwd: root, env: { ...process.env, ...target } });
@@ -135,7 +135,7 @@ describe('backup and restore', () => {
   it('the admin button writes a backup archive into BACKUP_DIR, lists it and serves it for download; others are refused', async () => {
     const made = await h.as.admin.post('/api/admin/backups');
     expect(made.status, JSON.stringify(made.body)).toBe(201);
-    expect(made.body.backup.name).toMatch(/^cellwright-backup-\d{8}-\d{6}\.tar$/);
+    expect(made.body.backup.name).toMatch(/^cellwright-backup-\d{8}-\d{6}(-\d+)?\.tar$/);
     const list = await h.as.admin.get('/api/admin/backups');
     expect(list.body.backups.map((b: { name: string }) => b.name)).toContain(made.body.backup.name);
     const download = await h.as.admin.get(`/api/admin/backups/${made.body.backup.name}`).buffer(true).parse((res, done) => {
