@@ -1,5 +1,5 @@
 // Reads under an upload burst: p99 latency of builds-list and curve reads while several large
-// files are uploaded at once, against the p99 of the same reads with no uploads, measured in
+// files (durability logs as CSV and as .xlsx) are uploaded at once, against the p99 of the same reads with no uploads, measured in
 // the same run on the same server. Run as `tsx bench/reads-under-upload.ts serve` it is the
 // server (demo seed, the real app on a loopback port); imported, it drives the load from the
 // bench's own process so the client's work does not land on the server's event loop.
@@ -21,7 +21,7 @@ interface ServerInfo {
 export interface ReadsUnderUploadResult {
   idle: { p50: number; p99: number; reads: number };
   loaded: { p50: number; p99: number; reads: number };
-  uploads: { done: number; failed: number; bytesEach: number; concurrent: number; medianMs: number };
+  uploads: { done: number; failed: number; bytesEach: number; workbookBytes: number; concurrent: number; medianMs: number };
   ratio: number;
 }
 
@@ -82,8 +82,14 @@ export async function benchReadsUnderUpload(options: { seconds?: number; connect
   const connections = options.connections ?? 8;
   const uploaders = options.uploaders ?? 3;
   const { generateSyntheticLog, writeDurabilityCsv } = await import('../shared/durability');
-  // a long durability log from the synthetic model: ~200,000 rows, ~6 MB of CSV
-  const csv = Buffer.from(writeDurabilityCsv(generateSyntheticLog({ hours: 3300, stepMinutes: 1, v0: 0.66, breakInHours: 60, breakInDropMv: 15, rateUvPerH: 9, noiseMv: 1, currentDensity: 0.2 })));
+  // a long durability log from the synthetic model: ~200,000 rows, ~5 MB of CSV …
+  const log = generateSyntheticLog({ hours: 3300, stepMinutes: 1, v0: 0.66, breakInHours: 60, breakInDropMv: 15, rateUvPerH: 9, noiseMv: 1, currentDensity: 0.2 });
+  const csv = Buffer.from(writeDurabilityCsv(log));
+  // … and the first 40,000 rows of it as a workbook, for the uploader that sends .xlsx
+  const { workbook } = await import('../tests/api/xlsx-fixtures');
+  const sheet: (string | number)[][] = [['Time (h)', 'Current density (A/cm2)', 'Voltage (V)']];
+  for (let i = 0; i < 40_000; i++) sheet.push([Number(log.tHours![i]!.toFixed(4)), Number(log.j[i]!.toFixed(5)), Number(log.v[i]!.toFixed(6))]);
+  const xlsx = workbook([{ name: 'Log', rows: sheet }]);
   const { info, stop } = await startChildServer<ServerInfo>('reads-under-upload.ts', ['serve']);
   try {
     await readLoad(info, 1, connections); // warm-up
@@ -97,7 +103,9 @@ export async function benchReadsUnderUpload(options: { seconds?: number; connect
         while (running) {
           const form = new FormData();
           form.set('kind', 'durability');
-          form.set('file', new Blob([csv], { type: 'text/csv' }), `burst-${u}-${done}.csv`);
+          // one uploader sends workbooks, the others text logs
+          if (u === 0) form.set('file', new Blob([new Uint8Array(xlsx)]), `burst-${u}-${done}.xlsx`);
+          else form.set('file', new Blob([csv], { type: 'text/csv' }), `burst-${u}-${done}.csv`);
           const started = performance.now();
           const res = await fetch(`${info.url}/api/builds/${info.buildId}/curves`, { method: 'POST', headers: { cookie: info.cookie, 'x-csrf-token': info.csrf }, body: form });
           await res.arrayBuffer();
@@ -119,7 +127,7 @@ export async function benchReadsUnderUpload(options: { seconds?: number; connect
     return {
       idle: idleSummary,
       loaded: loadedSummary,
-      uploads: { done, failed, bytesEach: csv.length, concurrent: uploaders, medianMs: quantile(uploadMs, 0.5) },
+      uploads: { done, failed, bytesEach: csv.length, workbookBytes: xlsx.length, concurrent: uploaders, medianMs: quantile(uploadMs, 0.5) },
       ratio: loadedSummary.p99 / idleSummary.p99,
     };
   } finally {

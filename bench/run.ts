@@ -157,7 +157,7 @@ const log = (text: string) => process.stderr.write(`· ${text}\n`);
   const r = await benchReadsUnderUpload();
   figures.push({
     figure: '6 p99 of list + curve reads during a burst of large uploads',
-    measured: `p99 ${round(r.loaded.p99, 0)} ms (p50 ${round(r.loaded.p50, 0)} ms) with ${r.uploads.concurrent} uploads of ${round(r.uploads.bytesEach / MB, 1)} MB at a time`,
+    measured: `p99 ${round(r.loaded.p99, 0)} ms (p50 ${round(r.loaded.p50, 0)} ms) with ${r.uploads.concurrent} uploads at a time (${round(r.uploads.bytesEach / MB, 1)} MB CSV, ${round(r.uploads.workbookBytes / MB, 1)} MB .xlsx)`,
     baseline: `same reads without uploads: p99 ${round(r.idle.p99, 0)} ms (p50 ${round(r.idle.p50, 0)} ms)`,
     ratio: round(r.ratio),
     aim: 'p99 under uploads ≤ 3× the p99 without',

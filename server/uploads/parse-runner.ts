@@ -80,7 +80,9 @@ export class ParsePool {
 
   private spawn(): Worker {
     const worker = new Worker(WORKER_ENTRY, {
-      resourceLimits: { maxOldGenerationSizeMb: this.options.memoryMb, maxYoungGenerationSizeMb: Math.min(64, Math.max(8, Math.round(this.options.memoryMb / 16))) },
+      // a small young generation: the parser's short-lived chunk strings are collected early,
+      // which keeps the process's peak memory during a big upload near that of a main-thread parse
+      resourceLimits: { maxOldGenerationSizeMb: this.options.memoryMb, maxYoungGenerationSizeMb: 16 },
     });
     this.all.add(worker);
     this.ready.set(worker, new Promise<void>((resolve, reject) => {
