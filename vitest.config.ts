@@ -13,6 +13,7 @@ export default defineConfig({
     pool: 'forks',
     maxWorkers: 2,
     testTimeout: 20000,
+    // a harness seeds the demo through the upload parse workers; a fresh worker thread takes a second or more to load on a busy machine
     hookTimeout: 60000,
   },
 });

@@ -181,6 +181,22 @@ const log = (text: string) => process.stderr.write(`· ${text}\n`);
   });
 }
 
+// 7: p99 of list and curve reads during a burst of large uploads, against the same reads without uploads
+{
+  log('reads under an upload burst');
+  const { benchReadsUnderUpload } = await import('./reads-under-upload');
+  const r = await benchReadsUnderUpload();
+  figures.push({
+    figure: '7 p99 of list + curve reads during a burst of large uploads',
+    measured: `p99 ${round(r.loaded.p99, 0)} ms (p50 ${round(r.loaded.p50, 0)} ms) with ${r.uploads.concurrent} uploads at a time (${round(r.uploads.bytesEach / MB, 1)} MB CSV, ${round(r.uploads.workbookBytes / MB, 1)} MB .xlsx)`,
+    baseline: `same reads without uploads: p99 ${round(r.idle.p99, 0)} ms (p50 ${round(r.idle.p50, 0)} ms)`,
+    ratio: round(r.ratio),
+    aim: 'p99 under uploads ≤ 3× the p99 without',
+    met: r.ratio <= 3,
+    details: { idle: r.idle, loaded: r.loaded, uploads: r.uploads },
+  });
+}
+
 fs.rmSync(tmp, { recursive: true, force: true });
 const results = { ranAt: new Date().toISOString(), node: process.version, cpus: os.cpus().length, totalSeconds: round((performance.now() - started) / 1000, 1), figures };
 fs.writeFileSync(path.join(BENCH_DIR, 'results.json'), JSON.stringify(results, null, 2) + '\n');

@@ -7,7 +7,7 @@ import path from 'node:path';
 import fs from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import type { AppContext } from './context';
-import { authenticate, csrfGuard } from './auth/sessions';
+import { authenticate, csrfGuard, tokenScopeGuard } from './auth/sessions';
 import { authRouter } from './auth/router';
 import { projectsRouter } from './projects/router';
 import { buildsRouter } from './builds/router';
@@ -59,7 +59,8 @@ export function createApp(ctx: AppContext, options: { serveClient?: boolean } = 
 
   const api = express.Router();
   api.use(authenticate(ctx));
-  api.use(csrfGuard());
+  api.use(csrfGuard(ctx));
+  api.use(tokenScopeGuard());
   api.get('/openapi.json', (_req, res) => res.json(openApiDocument()));
   api.get('/health', (_req, res) => res.json({ ok: true }));
   api.use(authRouter(ctx));

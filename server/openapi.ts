@@ -57,6 +57,9 @@ export const ROUTES: RouteDoc[] = [
   { method: 'post', path: '/api/admin/people/{id}/revoke-sessions', summary: 'Sign a person out everywhere (admin)', tag: 'admin' },
   { method: 'post', path: '/api/admin/digests/send', summary: 'Send the daily digest of notices now (admin; it also runs every 24 h)', tag: 'admin' },
   { method: 'get', path: '/api/admin/outbox', summary: 'Messages in the local outbox (admin)', tag: 'admin' },
+  { method: 'get', path: '/api/admin/backups', summary: 'Backups in BACKUP_DIR, newest first (admin)', tag: 'admin' },
+  { method: 'post', path: '/api/admin/backups', summary: 'Write a backup now: online database copy + raw files + SHA-256 manifest, as a .tar in BACKUP_DIR (admin)', tag: 'admin' },
+  { method: 'get', path: '/api/admin/backups/{name}', summary: 'Download a backup archive (admin)', tag: 'admin' },
   { method: 'get', path: '/api/admin/audit', summary: 'Audit log (admin)', tag: 'admin' },
   ...extraRoutes,
 ];

@@ -136,6 +136,8 @@ export interface UploadPreview {
   detected: ColumnMapping | null;
   applied?: ColumnMapping | null;
   mappingSource?: string;
+  /** why an import profile was not used on this file (then the columns were detected), or null */
+  profileNote?: string | null;
   ambiguous?: boolean;
   reasons: string[];
   kind: CurveKind;

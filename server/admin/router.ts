@@ -12,6 +12,8 @@ import { requireUser } from '../auth/access';
 import { audit } from '../lib/audit';
 import { sendDigests } from '../review/notify';
 import type { Request } from 'express';
+import path from 'node:path';
+import { BACKUP_NAME, createBackup, listBackups } from '../backup/backup';
 
 function requireAdmin(req: Request) {
   const user = requireUser(req.user);
@@ -99,6 +101,34 @@ export function adminRouter(ctx: AppContext): Router {
     const sent = await sendDigests(ctx);
     audit(db, { userId: admin.id, action: 'send', entity: 'digest', after: { sent } });
     res.json({ sent });
+  });
+
+  // Backups: the button on the admin page writes a .tar archive into BACKUP_DIR; it can be downloaded there.
+  let backupRunning = false;
+  router.get('/admin/backups', (req, res) => {
+    requireAdmin(req);
+    res.json({ folder: ctx.env.backupDir, store: ctx.storage.describe(), backups: listBackups(ctx.env.backupDir) });
+  });
+
+  router.post('/admin/backups', async (req, res) => {
+    const admin = requireAdmin(req);
+    if (backupRunning) throw conflict('A backup is being written right now; wait for it to finish.');
+    backupRunning = true;
+    try {
+      const result = await createBackup(ctx, ctx.env.backupDir, { archive: true });
+      audit(db, { userId: admin.id, action: 'create', entity: 'backup', after: { name: result.name, bytes: result.bytes, counts: result.manifest.counts, rawFiles: result.manifest.raw.length } });
+      res.status(201).json({ backup: { name: result.name, bytes: result.bytes, createdAt: result.manifest.createdAt, counts: result.manifest.counts, rawFiles: result.manifest.raw.length, databaseSha256: result.manifest.database.sha256 } });
+    } finally {
+      backupRunning = false;
+    }
+  });
+
+  router.get('/admin/backups/:name', (req, res) => {
+    requireAdmin(req);
+    const name = String(req.params.name);
+    const found = BACKUP_NAME.test(name) && name.endsWith('.tar') && listBackups(ctx.env.backupDir).find((b) => b.name === name && b.archive);
+    if (!found) throw notFound(`Backup archive ${name.slice(0, 80)}`);
+    res.download(path.join(ctx.env.backupDir, name), name);
   });
 
   router.get('/admin/outbox', (req, res) => {

@@ -17,7 +17,8 @@ export type ProjectAction =
   | 'plan'
   | 'review'
   | 'comment'
-  | 'manageProfiles';
+  | 'manageProfiles'
+  | 'manageAnyLabProfile';
 
 /** The role matrix, in one place: which per-project roles may do each action (admins may do all). */
 export const ROLE_MATRIX: Record<ProjectAction, readonly ProjectRole[]> = {
@@ -31,7 +32,10 @@ export const ROLE_MATRIX: Record<ProjectAction, readonly ProjectRole[]> = {
   plan: ['pi', 'researcher'],
   review: ['pi'],
   comment: ['pi', 'researcher', 'partner'],
+  /** save or remove import profiles, for one's own lab only (see requireProfileLab) */
   manageProfiles: ['pi', 'researcher', 'partner'],
+  /** …for any lab of the project, or for builds without a lab */
+  manageAnyLabProfile: ['pi'],
 };
 
 export interface ProjectAccess {
@@ -93,6 +97,18 @@ export function requireBuildWrite(access: ProjectAccess, build: { labId: number 
   }
 }
 
+/**
+ * Import profiles decide how a lab's files are read, so only the lab's own members (with a
+ * writing role in the project) and the project's PIs (and admins) may save or remove one for it.
+ * A profile without a lab (for builds that have none) is for PIs and admins only.
+ */
+export function requireProfileLab(access: ProjectAccess, labId: number | null): void {
+  if (!can(access, 'manageProfiles')) throw forbidden(`Your role (${access.role}) in this project does not allow: ${describe('manageProfiles')}.`);
+  if (can(access, 'manageAnyLabProfile')) return;
+  if (labId == null) throw forbidden('Only the project’s PIs may save or remove import profiles that apply to builds without a lab.');
+  if (access.user.labId !== labId) throw forbidden('You may only save or remove import profiles for your own lab; a PI of the project can do it for other labs.');
+}
+
 function describe(action: ProjectAction): string {
   const words: Record<ProjectAction, string> = {
     read: 'read the project',
@@ -106,6 +122,7 @@ function describe(action: ProjectAction): string {
     review: 'give review verdicts',
     comment: 'comment',
     manageProfiles: 'manage import profiles',
+    manageAnyLabProfile: 'manage import profiles of other labs',
   };
   return words[action];
 }

@@ -15,3 +15,16 @@ export async function verifyPassword(passwordHash: string | null, password: stri
     return false;
   }
 }
+
+/** A hash of a random password, made once: the stand-in verified when there is no account. */
+let standIn: Promise<string> | null = null;
+
+/**
+ * Spend the time of a real verification and answer false: for unknown addresses, disabled
+ * accounts and accounts without a password, so sign-in timing does not reveal which it was.
+ */
+export async function verifyAgainstNothing(password: string): Promise<false> {
+  standIn ??= hashPassword(`stand-in-${Math.random()}-${Date.now()}`);
+  await verifyPassword(await standIn, password);
+  return false;
+}

@@ -4,10 +4,10 @@ import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
 import { and, desc, eq, isNull } from 'drizzle-orm';
 import type { AppContext } from '../context';
 import { apiTokens, invitations, memberships, projects, sessions, users } from '../db/schema';
-import { apiTokenCreateSchema, inviteAcceptSchema, loginSchema } from '../../shared/schemas/auth';
+import { apiTokenCreateSchema, inviteAcceptSchema, loginSchema, normalizeEmail } from '../../shared/schemas/auth';
 import { parseInput, idParam } from '../lib/validate';
 import { AppError, notFound } from '../lib/errors';
-import { hashPassword, verifyPassword } from './passwords';
+import { hashPassword, verifyPassword, verifyAgainstNothing } from './passwords';
 import { createSession, setSessionCookie, SESSION_COOKIE } from './sessions';
 import { requireUser } from './access';
 import { newToken, sha256 } from './tokens';
@@ -22,7 +22,8 @@ export function authRouter(ctx: AppContext): Router {
     limit: ctx.env.LOGIN_RATE_LIMIT,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String((req.body as { email?: unknown } | undefined)?.email ?? '').toLowerCase()}`,
+    // the same spelling of the address as the look-up below (loginSchema normalises it too)
+    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${normalizeEmail(String((req.body as { email?: unknown } | undefined)?.email ?? '').slice(0, 320))}`,
     handler: (_req, _res, next) =>
       next(new AppError(429, 'rate-limited', 'Too many sign-in attempts for this address; wait 15 minutes and try again.')),
   });
@@ -30,8 +31,10 @@ export function authRouter(ctx: AppContext): Router {
   router.post('/auth/login', loginLimiter, async (req, res) => {
     const input = parseInput(loginSchema, req.body);
     const user = db.select().from(users).where(eq(users.email, input.email)).get();
-    const ok = user && !user.disabledAt && (await verifyPassword(user.passwordHash, input.password));
-    if (!user || !ok) throw new AppError(401, 'bad-credentials', 'E-mail or password is wrong.');
+    // the hash runs for unknown addresses, disabled accounts and unset passwords too, so the
+    // answer takes as long whether or not the address has an account
+    const passwordOk = user?.passwordHash ? await verifyPassword(user.passwordHash, input.password) : await verifyAgainstNothing(input.password);
+    if (!user || user.disabledAt || !passwordOk) throw new AppError(401, 'bad-credentials', 'E-mail or password is wrong.');
     const session = createSession(ctx, user.id, req.get('user-agent'));
     setSessionCookie(req, res, session.token, session.expiresAt);
     audit(db, { userId: user.id, action: 'login', entity: 'session' });
@@ -82,7 +85,7 @@ export function authRouter(ctx: AppContext): Router {
   router.get('/auth/tokens', (req, res) => {
     const user = requireUser(req.user);
     const rows = db
-      .select({ id: apiTokens.id, name: apiTokens.name, createdAt: apiTokens.createdAt, lastUsedAt: apiTokens.lastUsedAt, revokedAt: apiTokens.revokedAt })
+      .select({ id: apiTokens.id, name: apiTokens.name, scope: apiTokens.scope, createdAt: apiTokens.createdAt, lastUsedAt: apiTokens.lastUsedAt, revokedAt: apiTokens.revokedAt })
       .from(apiTokens)
       .where(eq(apiTokens.userId, user.id))
       .all();
@@ -93,9 +96,10 @@ export function authRouter(ctx: AppContext): Router {
     const user = requireUser(req.user);
     const input = parseInput(apiTokenCreateSchema, req.body);
     const token = `cw_${newToken()}`;
-    const row = db.insert(apiTokens).values({ userId: user.id, name: input.name, tokenHash: sha256(token) }).returning().get();
-    audit(db, { userId: user.id, action: 'create', entity: 'api-token', entityId: row.id, after: { name: input.name } });
-    res.status(201).json({ token, id: row.id, name: row.name, note: 'Shown once: store it now.' });
+    // tokenScopeGuard refuses this route to tokens; parentTokenId records the chain should that ever change
+    const row = db.insert(apiTokens).values({ userId: user.id, name: input.name, tokenHash: sha256(token), scope: input.scope, parentTokenId: req.tokenId ?? null }).returning().get();
+    audit(db, { userId: user.id, action: 'create', entity: 'api-token', entityId: row.id, after: { name: input.name, scope: input.scope } });
+    res.status(201).json({ token, id: row.id, name: row.name, scope: row.scope, note: 'Shown once: store it now.' });
   });
 
   router.post('/auth/tokens/:id/revoke', (req, res) => {
@@ -103,9 +107,15 @@ export function authRouter(ctx: AppContext): Router {
     const id = idParam(req.params.id);
     const row = db.select().from(apiTokens).where(and(eq(apiTokens.id, id), eq(apiTokens.userId, user.id))).get();
     if (!row) throw notFound(`API token ${id}`);
-    db.update(apiTokens).set({ revokedAt: new Date().toISOString() }).where(eq(apiTokens.id, id)).run();
-    audit(db, { userId: user.id, action: 'revoke', entity: 'api-token', entityId: id });
-    res.json({ ok: true });
+    // the token and every token made with it, down the chain
+    const result = db.$client
+      .prepare(
+        `with recursive chain(id) as (select ? union select t.id from api_tokens t join chain c on t.parent_token_id = c.id)
+         update api_tokens set revoked_at = ? where id in (select id from chain) and revoked_at is null`,
+      )
+      .run(id, new Date().toISOString());
+    audit(db, { userId: user.id, action: 'revoke', entity: 'api-token', entityId: id, after: { revoked: result.changes } });
+    res.json({ ok: true, revoked: result.changes });
   });
 
   function findInvitation(token: string) {

@@ -1,9 +1,12 @@
 // Cookie sessions stored in SQLite (revocable) and personal API tokens; resolves req.user.
 import type { Request, Response, NextFunction } from 'express';
+import { createHash, timingSafeEqual } from 'node:crypto';
 import type { AppContext, AuthUser } from '../context';
 import { sessions } from '../db/schema';
 import { newToken, sha256 } from './tokens';
 import { AppError } from '../lib/errors';
+import { originAllowed } from '../lib/base-url';
+import type { TokenScope } from '../../shared/schemas/auth';
 
 export const SESSION_COOKIE = 'cw_session';
 const SESSION_DAYS = 14;
@@ -36,6 +39,7 @@ interface AuthRow {
   sessionId?: number;
   csrfToken?: string;
   tokenId?: number;
+  tokenScope?: TokenScope;
   lastUsedAt?: string | null;
 }
 
@@ -51,7 +55,7 @@ function prepareAuth(ctx: AppContext) {
        where s.token_hash = ? and s.revoked_at is null and s.expires_at > ? and u.disabled_at is null`,
     ),
     token: sqlite.prepare(
-      `select ${USER_COLUMNS}, t.id as tokenId, t.last_used_at as lastUsedAt, u.disabled_at as disabledAt from api_tokens t join users u on u.id = t.user_id left join labs l on l.id = u.lab_id
+      `select ${USER_COLUMNS}, t.id as tokenId, t.scope as tokenScope, t.last_used_at as lastUsedAt, u.disabled_at as disabledAt from api_tokens t join users u on u.id = t.user_id left join labs l on l.id = u.lab_id
        where t.token_hash = ? and t.revoked_at is null`,
     ),
     touchToken: sqlite.prepare('update api_tokens set last_used_at = ? where id = ?'),
@@ -81,6 +85,8 @@ export function authenticate(ctx: AppContext) {
       if (row.disabledAt) return next(new AppError(401, 'bad-token', 'The API token belongs to a disabled account.'));
       req.user = toAuthUser(row);
       req.authVia = 'token';
+      req.tokenId = row.tokenId;
+      req.tokenScope = row.tokenScope ?? 'full';
       // "last used" to the minute: no write on every request of a busy script
       if (!row.lastUsedAt || Date.parse(now) - Date.parse(row.lastUsedAt) > 60_000) auth(ctx).touchToken.run(now, row.tokenId);
       return next();
@@ -102,17 +108,76 @@ export function authenticate(ctx: AppContext) {
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 /**
- * CSRF protection for cookie-authenticated writes (synchronizer token pattern, OWASP): the
- * session's token, handed out by /api/auth/me and /api/auth/login, must come back in the
- * X-CSRF-Token header. Token-authenticated scripts are not exposed to CSRF and skip this.
+ * Two secrets compared in time that depends on neither their content nor their lengths: both
+ * are hashed to 32 bytes first, then compared with crypto.timingSafeEqual.
  */
-export function csrfGuard() {
+export function sameSecret(sent: string | undefined | null, expected: string | undefined | null): boolean {
+  if (!sent || !expected) return false;
+  const digest = (text: string) => createHash('sha256').update(text).digest();
+  return timingSafeEqual(digest(sent), digest(expected));
+}
+
+/** The origin a browser says a request comes from: Origin, else the origin part of Referer. */
+function requestOrigin(req: Request): string | null {
+  const origin = req.get('origin');
+  if (origin && origin !== 'null') return origin;
+  if (origin === 'null') return 'null';
+  const referer = req.get('referer');
+  if (!referer) return null;
+  try {
+    return new URL(referer).origin;
+  } catch {
+    return 'null';
+  }
+}
+
+/**
+ * CSRF protection for cookie-authenticated writes (OWASP): the request's Origin (or Referer)
+ * must be an address the app answers to (PUBLIC_URL / ALLOWED_HOSTS, or the request's own host
+ * when neither is set), and the session's synchronizer token, handed out by /api/auth/me and
+ * /api/auth/login, must come back in the X-CSRF-Token header (compared in constant time).
+ * A request with neither Origin nor Referer is not from a browser page and relies on the token.
+ * Token-authenticated scripts are not exposed to CSRF and skip this.
+ */
+export function csrfGuard(ctx: AppContext) {
   return (req: Request, _res: Response, next: NextFunction) => {
     if (SAFE_METHODS.has(req.method) || req.authVia !== 'cookie') return next();
-    const sent = req.get('x-csrf-token');
-    if (!sent || sent !== req.csrfToken) {
+    const origin = requestOrigin(req);
+    if (origin !== null && !originAllowed(ctx.env, origin, req)) {
+      return next(new AppError(403, 'bad-origin', `A signed-in write from ${origin.slice(0, 100)} was refused: this server only accepts writes from its own pages.`));
+    }
+    if (!sameSecret(req.get('x-csrf-token'), req.csrfToken)) {
       return next(new AppError(403, 'csrf', 'Missing or wrong X-CSRF-Token header for a signed-in write; reload the page and try again.'));
     }
     next();
+  };
+}
+
+/** What a token may never do, whatever its scope: mint tokens or end browser sessions. */
+const NEVER_BY_TOKEN: { method: string; path: RegExp }[] = [
+  { method: 'POST', path: /^\/auth\/tokens\/?$/ },
+  { method: 'POST', path: /^\/auth\/logout\/?$/ },
+  { method: 'POST', path: /^\/auth\/sessions\/[^/]+\/revoke\/?$/ },
+  { method: 'POST', path: /^\/admin\/people\/[^/]+\/revoke-sessions\/?$/ },
+];
+/** The writes an upload-scoped token may make: curve uploads and their previews. */
+const UPLOAD_WRITES = /^\/builds\/[^/]+\/curves(?:\/preview)?\/?$/;
+
+/**
+ * Personal API tokens carry a scope: `read` (GET only), `upload` (reads, plus curve uploads and
+ * previews) or `full` (everything the person may do). No token may mint tokens or end browser
+ * sessions: those need the person, signed in.
+ */
+export function tokenScopeGuard() {
+  return (req: Request, _res: Response, next: NextFunction) => {
+    if (req.authVia !== 'token') return next();
+    if (NEVER_BY_TOKEN.some((rule) => rule.method === req.method && rule.path.test(req.path))) {
+      return next(new AppError(403, 'token-scope', 'API tokens cannot create tokens or end browser sessions; sign in with a browser to do this.'));
+    }
+    const scope = req.tokenScope ?? 'full';
+    if (SAFE_METHODS.has(req.method) || scope === 'full') return next();
+    if (scope === 'upload' && req.method === 'POST' && UPLOAD_WRITES.test(req.path)) return next();
+    const allows = scope === 'read' ? 'reading only' : 'reading and uploading curves only';
+    next(new AppError(403, 'token-scope', `This API token's scope (${scope}) allows ${allows}, not ${req.method} /api${req.path}; create a token with a wider scope on the account page.`, { scope }));
   };
 }

@@ -4,17 +4,19 @@ import { Router, type Request, type Response, type NextFunction } from 'express'
 import multer from 'multer';
 import fs from 'node:fs';
 import path from 'node:path';
+import { pipeline } from 'node:stream/promises';
 import { z } from 'zod';
 import { and, eq } from 'drizzle-orm';
 import type { AppContext } from '../context';
 import { curves, files, importProfiles } from '../db/schema';
 import { idParam, parseInput } from '../lib/validate';
 import { AppError, forbidden, notFound } from '../lib/errors';
-import { requireBuildWrite, requireProject, requireUser, can } from '../auth/access';
+import { requireBuildWrite, requireProfileLab, requireProject, requireUser } from '../auth/access';
 import { accessBuild } from '../builds/service';
-import { chooseCondition, curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView } from './service';
+import { chooseCondition, curvePoints, deleteCurve, ingestUpload, loadCurve, updateCurveOptions, curveView, requireCompleteProfile } from './service';
 import { audit } from '../lib/audit';
 import { silentProgress, trackUpload, UPLOAD_ID_PATTERN } from '../uploads/progress';
+import { checkedFileName, multipartProblem } from '../lib/multipart-errors';
 
 /** 52428800 → "50 MB", 1500 → "1.5 kB": the limit in the words of the message. */
 function formatBytes(bytes: number): string {
@@ -61,11 +63,13 @@ export const uploadFieldsSchema = z.object({
   uploadId: z.string().regex(UPLOAD_ID_PATTERN, 'must be 8–64 letters, digits, "-" or "_"').optional(),
 });
 
-const pointsQuery = z.object({
-  maxPoints: z.coerce.number().int().min(10).max(100000).optional(),
-  fromHours: z.coerce.number().optional(),
-  toHours: z.coerce.number().optional(),
-});
+const pointsQuery = z
+  .object({
+    maxPoints: z.coerce.number().int().min(10).max(100000).optional(),
+    fromHours: z.coerce.number().finite().optional(),
+    toHours: z.coerce.number().finite().optional(),
+  })
+  .refine((q) => q.fromHours == null || q.toHours == null || q.toHours >= q.fromHours, { message: 'toHours must not be before fromHours', path: ['toHours'] });
 
 const curvePatchSchema = z.object({
   label: z.string().trim().max(120).optional(),
@@ -96,7 +100,12 @@ export function curvesRouter(ctx: AppContext): Router {
         }
         return next(new AppError(400, 'bad-upload', `Upload refused: ${error.message} (field "${error.field ?? 'file'}"). Send one file in the multipart field "file".`));
       }
-      next(error);
+      if (error) {
+        // a refused body leaves no temporary file behind, however far multer got
+        if (typeof req.file?.path === 'string') fs.rmSync(req.file.path, { force: true });
+        return next(multipartProblem(error) ?? error);
+      }
+      next();
     });
   };
 
@@ -106,10 +115,11 @@ export function curvesRouter(ctx: AppContext): Router {
       const { row, access } = accessBuild(ctx, req.user, idParam(req.params.id), 'createBuild');
       requireBuildWrite(access, row);
       if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
+      const originalName = checkedFileName(file.originalname);
       const { uploadId, ...fields } = parseInput(uploadFieldsSchema, req.body ?? {}, 'upload fields');
       const progress = uploadId && !previewOnly ? trackUpload(access.user.id, uploadId, file.size) : silentProgress;
       try {
-        const result = await ingestUpload(ctx, access, row, { tmpPath: file.path, originalName: Buffer.from(file.originalname, 'latin1').toString('utf8'), size: file.size }, { ...fields, previewOnly, progress });
+        const result = await ingestUpload(ctx, access, row, { tmpPath: file.path, originalName, size: file.size }, { ...fields, previewOnly, progress });
         progress.done('curve' in result && result.curve ? result.curve.id : null);
         res.status(previewOnly ? 200 : 201).json(result);
       } catch (error) {
@@ -168,18 +178,22 @@ export function curvesRouter(ctx: AppContext): Router {
     res.json({ ok: true, record });
   });
 
-  router.get('/files/:id/raw', (req, res) => {
+  router.get('/files/:id/raw', async (req, res) => {
     requireUser(req.user);
     const id = idParam(req.params.id);
     const file = db.select().from(files).where(eq(files.id, id)).get();
     if (!file || file.projectId == null) throw notFound(`File ${id}`);
     requireProject(db, req.user, file.projectId, 'read');
-    const stored = path.join(env.uploadsDir, file.sha256.slice(0, 2), file.sha256);
-    if (!fs.existsSync(stored)) throw notFound(`Stored bytes of file ${id}`);
+    const stream = await ctx.storage.get(file.sha256);
+    if (!stream) throw notFound(`Stored bytes of file ${id}`);
     res.setHeader('Content-Type', 'application/octet-stream');
     res.setHeader('Content-Disposition', `attachment; filename="${file.originalName.replace(/[^\w.\- ]+/g, '_')}"`);
     res.setHeader('X-Content-SHA256', file.sha256);
-    fs.createReadStream(stored).pipe(res);
+    res.setHeader('Content-Length', String(file.sizeBytes));
+    await pipeline(stream, res).catch((error: unknown) => {
+      // the client went away, or the store broke off mid-file: the answer is already under way
+      ctx.logger.warn({ err: error, fileId: id }, 'raw file stream ended early');
+    });
   });
 
   router.get('/projects/:id/import-profiles', (req, res) => {
@@ -191,12 +205,14 @@ export function curvesRouter(ctx: AppContext): Router {
   router.post('/projects/:id/import-profiles', (req, res) => {
     const access = requireProject(db, req.user, idParam(req.params.id), 'manageProfiles');
     const body = parseInput(profileSchema, req.body);
-    let labId = body.labId ?? null;
+    // not given: the caller's own lab (partners always get theirs)
+    let labId = body.labId === undefined ? access.user.labId : body.labId;
     if (access.role === 'partner') {
       if (labId != null && labId !== access.user.labId) throw forbidden('Partners may only save profiles for their own lab.');
       labId = access.user.labId;
     }
-    if (!body.mapping.voltage && !body.mapping.voltageIrFree) throw new AppError(400, 'validation', 'mapping.voltage: a profile must say which column is the cell voltage (or the iR-free voltage).', { fields: [{ path: 'mapping.voltage', message: 'required' }] });
+    requireProfileLab(access, labId);
+    requireCompleteProfile(body.kind, body.mapping);
     const row = db.insert(importProfiles).values({ name: body.name, labId, projectId: access.projectId, kind: body.kind, mapping: body.mapping, createdBy: access.user.id }).returning().get();
     audit(db, { userId: access.user.id, action: 'create', entity: 'import-profile', entityId: row.id, projectId: access.projectId, after: row });
     res.status(201).json({ profile: row });
@@ -208,8 +224,7 @@ export function curvesRouter(ctx: AppContext): Router {
     const row = db.select().from(importProfiles).where(eq(importProfiles.id, id)).get();
     if (!row || row.projectId == null) throw notFound(`Import profile ${id}`);
     const access = requireProject(db, req.user, row.projectId, 'manageProfiles');
-    if (access.role === 'partner' && row.labId !== access.user.labId) throw forbidden('Partners may only remove their own lab’s profiles.');
-    if (!can(access, 'manageProfiles')) throw forbidden();
+    requireProfileLab(access, row.labId);
     db.delete(importProfiles).where(and(eq(importProfiles.id, id))).run();
     audit(db, { userId: access.user.id, action: 'delete', entity: 'import-profile', entityId: id, projectId: access.projectId, before: row });
     res.json({ ok: true });

@@ -7,16 +7,18 @@ import { builds, curves, files, importProfiles, projects } from '../db/schema';
 import { applyMapping, checkEnoughData, checkHoursAfterBreakIn, compareConditions, detectMapping, importNotes, polarizationMetrics } from '../../shared/curves';
 import type { ConditionField, ConditionMismatch } from '../../shared/curves';
 import { STANDARD_ATMOSPHERE_KPA } from '../../shared/curves';
+import { recogniseHeaderUnit } from '../../shared/units/recognise-header-unit';
+import { currentSlip, hfrSlip, voltageSlip } from '../../shared/curves/unit-plausibility';
 import type { ParsedTable } from '../../shared/curves';
 import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
 import { CurveFileError } from '../../shared/curves/types';
-import type { ColumnMapping, CurveData, CurveKind, MetricsResult, ReferencePoint } from '../../shared/curves/types';
+import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, HfrUnit, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
 import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
-import { readUpload } from './read-upload';
+import { parseUpload } from '../uploads/parse-runner';
 import { audit } from '../lib/audit';
 import { AppError, notFound } from '../lib/errors';
-import type { ProjectAccess } from '../auth/access';
+import { requireProfileLab, type ProjectAccess } from '../auth/access';
 import type { ProgressReporter } from '../uploads/progress';
 import type { UploadFields } from '../../shared/api-types';
 import { notifyAfterUpload } from '../review/notify';
@@ -143,15 +145,64 @@ function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<stri
   };
 }
 
-/** Profile mapping is stored by header text; turn it into column indices for this file. */
-function profileToMapping(profile: typeof importProfiles.$inferSelect, table: ParsedTable): ColumnMapping | null {
+/** Why values cannot be in the given unit (a unit slip), or null when they can. */
+function unitSlipOf(quantity: string, unit: string, values: Float64Array, areaCm2: number | null, kind: CurveKind): string | null {
+  const slip = quantity === 'voltage' || quantity === 'voltageIrFree' ? voltageSlip(values, unit as VoltageUnit)
+    : quantity === 'current' ? currentSlip(values, unit as CurrentUnit, areaCm2, kind)
+    : quantity === 'hfr' ? hfrSlip(values, unit as HfrUnit, areaCm2)
+    : null;
+  return slip ? slip.message : null;
+}
+
+/** The columns a profile must map for each kind of curve: what the metrics cannot do without. */
+export const PROFILE_REQUIRES: Record<CurveKind, readonly (keyof ColumnMapping)[]> = {
+  polarization: ['current', 'voltage'],
+  durability: ['time', 'voltage'],
+  hold: ['time', 'voltage'],
+};
+const QUANTITY_WORDS: Record<string, string> = { current: 'current', voltage: 'voltage', hfr: 'HFR', time: 'time', temperature: 'temperature' };
+
+function missingForKind(kind: CurveKind, mapping: Partial<Record<string, unknown>>): string[] {
+  // a file's own iR-free voltage column stands in for the cell voltage (the metrics read it)
+  return PROFILE_REQUIRES[kind].filter((quantity) => !mapping[quantity] && !(quantity === 'voltage' && mapping.voltageIrFree));
+}
+
+/** A 400 unless the profile maps every column its kind of curve needs. */
+export function requireCompleteProfile(kind: CurveKind, mapping: Partial<Record<string, unknown>>): void {
+  const missing = missingForKind(kind, mapping);
+  if (missing.length > 0) {
+    throw new AppError(400, 'validation', `An import profile for ${kind} curves must map ${PROFILE_REQUIRES[kind].map((q) => QUANTITY_WORDS[q]).join(' and ')}; this one has no ${missing.map((q) => QUANTITY_WORDS[q]).join(' or ')} column. Nothing was saved.`, {
+      fields: missing.map((q) => ({ path: `mapping.${q}`, message: 'required' })),
+    });
+  }
+}
+
+/**
+ * Profile mapping is stored by header text; turn it into column indices for this file. The
+ * profile fits only when it is for this kind of curve, maps every column the kind needs, finds
+ * each header, and no unit it names contradicts the unit (or quantity) the header itself states.
+ */
+function profileToMapping(profile: typeof importProfiles.$inferSelect, table: ParsedTable, kind: CurveKind, areaCm2: number | null): { mapping: ColumnMapping; problem: null } | { mapping: null; problem: string } {
+  const unfit = (why: string) => ({ mapping: null, problem: `the import profile "${profile.name}" was not used: ${why}` });
+  if (profile.kind !== kind) return unfit(`it is for ${profile.kind} curves, this is a ${kind} curve`);
+  const missing = missingForKind(kind, profile.mapping);
+  if (missing.length > 0) return unfit(`it maps no ${missing.map((q) => QUANTITY_WORDS[q]).join(' or ')} column, which a ${kind} curve needs`);
   const mapping: Record<string, { column: number; unit: string; negated?: boolean }> = {};
   for (const [quantity, spec] of Object.entries(profile.mapping)) {
     const column = table.header.findIndex((h: string) => h.trim().toLowerCase() === spec.header.trim().toLowerCase());
-    if (column < 0) return null;
+    if (column < 0) return unfit(`the file has no column "${spec.header}"`);
+    if (table.columns[column] == null) return unfit(`column "${table.header[column]}" holds text, not numbers`);
+    const stated = recogniseHeaderUnit(table.header[column]!);
+    if (stated.unit != null && stated.quantity !== quantity) return unfit(`column "${table.header[column]}" is headed as ${QUANTITY_WORDS[stated.quantity] ?? stated.quantity} (${stated.unit}), the profile reads it as ${QUANTITY_WORDS[quantity] ?? quantity}`);
+    // A profile may knowingly correct a mislabelled header (volts logged under "mV"), but only
+    // where the values are plausible in the profile's unit: a wrong profile cannot rescale a file.
+    if (stated.unit != null && stated.unit !== spec.unit) {
+      const slip = unitSlipOf(quantity, spec.unit, table.columns[column]!, areaCm2, kind);
+      if (slip) return unfit(`column "${table.header[column]}" states ${stated.unit}, the profile says ${spec.unit}, and ${slip}`);
+    }
     mapping[quantity] = { column, unit: spec.unit, ...(spec.negated !== undefined && { negated: spec.negated }) };
   }
-  return mapping.voltage || mapping.voltageIrFree ? (mapping as unknown as ColumnMapping) : null;
+  return { mapping: mapping as unknown as ColumnMapping, problem: null };
 }
 
 function mappingToProfile(mapping: ColumnMapping, table: ParsedTable) {
@@ -192,7 +243,7 @@ export async function ingestUpload(
   try {
     let read;
     try {
-      read = await readUpload(upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS, onBytes: options.progress && ((bytes) => options.progress!.parsed(bytes)) });
+      read = await parseUpload(env, upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS, onBytes: options.progress && ((bytes) => options.progress!.parsed(bytes)) }, upload.originalName);
     } catch (error) {
       if (error instanceof CurveFileError && error.code === 'too-many-rows') {
         throw new AppError(422, 'too-many-rows', `${upload.originalName}: more than ${env.UPLOAD_MAX_ROWS.toLocaleString('en-US')} data rows, the row limit per file (UPLOAD_MAX_ROWS); nothing was stored. Split the log or ask an administrator to raise the limit.`, { file: upload.originalName, limit: 'UPLOAD_MAX_ROWS', maxRows: env.UPLOAD_MAX_ROWS, line: error.line ?? null });
@@ -208,6 +259,8 @@ export async function ingestUpload(
 
     let mapping: ColumnMapping | null = null;
     let mappingSource = 'detected';
+    /** why a profile was not used, when one was asked for or named the file's headers */
+    let profileNote: string | null = null;
     if (options.mapping) {
       checkMappingColumns(options.mapping, table);
       mapping = options.mapping;
@@ -215,23 +268,29 @@ export async function ingestUpload(
     } else if (options.profileId) {
       const profile = db.select().from(importProfiles).where(eq(importProfiles.id, options.profileId)).get();
       if (!profile || (profile.projectId != null && profile.projectId !== access.projectId)) throw notFound(`Import profile ${options.profileId}`);
-      mapping = profileToMapping(profile, table);
-      if (!mapping) throw mappingNeeded(table, detection, { ...askExtra, profileMismatch: `the file's headers do not match the profile "${profile.name}"` });
-      mappingSource = `profile ${profile.name}`;
-    } else {
-      const profile = findMatchingProfile(ctx, access.projectId, build.labId, table);
-      if (profile) {
-        mapping = profileToMapping(profile, table);
+      const fit = profileToMapping(profile, table, kind, table.conditions.areaCm2 ?? build.areaCm2 ?? null);
+      if (fit.mapping) {
+        mapping = fit.mapping;
         mappingSource = `profile ${profile.name}`;
+      } else {
+        profileNote = `${fit.problem}; the columns were detected instead`;
+        if (detection.mapping && !detection.ambiguous) mapping = detection.mapping;
+      }
+    } else {
+      const match = findMatchingProfile(ctx, access.projectId, build.labId, table, kind, table.conditions.areaCm2 ?? build.areaCm2 ?? null);
+      profileNote = match.note;
+      if (match.profile) {
+        mapping = match.mapping;
+        mappingSource = `profile ${match.profile.name}`;
       } else if (detection.mapping && !detection.ambiguous) {
         mapping = detection.mapping;
       }
     }
 
     if (options.previewOnly) {
-      return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null } };
+      return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, profileNote, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null } };
     }
-    if (!mapping) throw mappingNeeded(table, detection, askExtra);
+    if (!mapping) throw mappingNeeded(table, detection, { ...askExtra, ...(profileNote && { profileMismatch: profileNote }) });
 
     options.progress?.phase('measuring', null);
     await yieldToEventLoop();
@@ -262,10 +321,7 @@ export async function ingestUpload(
     await yieldToEventLoop();
     const points = encodePoints(data);
 
-    const stored = path.join(env.uploadsDir, read.sha256.slice(0, 2), read.sha256);
-    fs.mkdirSync(path.dirname(stored), { recursive: true });
-    const existed = fs.existsSync(stored);
-    if (!existed) fs.renameSync(upload.tmpPath, stored);
+    const { existed } = await ctx.storage.put(read.sha256, upload.tmpPath);
 
     try {
       const curve = db.transaction((tx) => {
@@ -275,7 +331,11 @@ export async function ingestUpload(
           .returning()
           .get();
         if (options.saveProfileAs) {
-          tx.insert(importProfiles).values({ labId: build.labId, projectId: access.projectId, name: options.saveProfileAs, mapping: mappingToProfile(mapping!, table), kind, createdBy: access.user.id }).run();
+          // saved for the build's lab: the same rights and completeness as the profiles route
+          requireProfileLab(access, build.labId);
+          const saved = mappingToProfile(mapping!, table);
+          requireCompleteProfile(kind, saved);
+          tx.insert(importProfiles).values({ labId: build.labId, projectId: access.projectId, name: options.saveProfileAs, mapping: saved, kind, createdBy: access.user.id }).run();
         }
         // the first curve of its kind becomes the record; a later one waits for someone to choose it
         const isRecord = recordOf(tx, build.id, kind) === null;
@@ -294,7 +354,7 @@ export async function ingestUpload(
             metrics: result.metrics,
             metricNotes: result.metricNotes as Record<string, string>,
             method: result.method as never,
-            summary: { ...result.summary, mappingSource, sheet: read.sheet ?? null, importNotes: notes, conditionMismatches: mismatches, areaUsedCm2: data.areaCm2 },
+            summary: { ...result.summary, mappingSource, sheet: read.sheet ?? null, importNotes: notes, conditionMismatches: mismatches, areaUsedCm2: data.areaCm2, ...(profileNote && { profileNote }) },
             metricsVersion: project.metricsVersion,
             createdBy: access.user.id,
           })
@@ -304,15 +364,16 @@ export async function ingestUpload(
         if (build.status === 'planned' || build.status === 'built') {
           tx.update(builds).set({ status: 'tested', testedOn: build.testedOn ?? new Date().toISOString().slice(0, 10), updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
         }
+        audit(tx as never, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: row.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length, isRecord: row.isRecord, importNotes: notes.length, conditionMismatches: mismatches.map((m) => m.field) } });
         return row;
       });
-      audit(db, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: curve.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length, isRecord: curve.isRecord, importNotes: notes.length, conditionMismatches: mismatches.map((m) => m.field) } });
       await notifyAfterUpload(ctx, access, build, upload.originalName, { kind, isRecord: curve.isRecord });
       // the build's curve of record of this kind, to set the new curve's metrics beside it
       const record = curve.isRecord ? curve : db.select(CURVE_COLUMNS_WITHOUT_POINTS).from(curves).where(and(eq(curves.buildId, build.id), eq(curves.kind, kind), eq(curves.isRecord, true))).get();
       return { curve: curveView(curve), recordCurve: record ? curveView(record) : null };
     } catch (error) {
-      if (!existed) fs.rmSync(stored, { force: true });
+      // nothing half-stored: the bytes go too, unless a file row (another upload) uses them
+      if (!existed && !db.select({ id: files.id }).from(files).where(eq(files.sha256, read.sha256)).get()) await ctx.storage.remove(read.sha256);
       throw error;
     }
   } finally {
@@ -374,14 +435,27 @@ function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: st
   );
 }
 
-function findMatchingProfile(ctx: AppContext, projectId: number, labId: number | null, table: ParsedTable) {
+/**
+ * The newest of the lab's profiles that fits this file. Profiles that name the file's headers but
+ * do not fit it (another kind, a column missing, a unit contradicting the header) are passed over
+ * and named in `note`, so the upload can say why the columns were detected instead.
+ */
+function findMatchingProfile(ctx: AppContext, projectId: number, labId: number | null, table: ParsedTable, kind: CurveKind, areaCm2: number | null) {
   const candidates = ctx.db
     .select()
     .from(importProfiles)
     .where(and(or(eq(importProfiles.projectId, projectId), isNull(importProfiles.projectId)), labId == null ? isNull(importProfiles.labId) : eq(importProfiles.labId, labId)))
     .orderBy(desc(importProfiles.id))
     .all();
-  return candidates.find((p) => profileToMapping(p, table) !== null) ?? null;
+  const passedOver: string[] = [];
+  const headers = new Set(table.header.map((h) => h.trim().toLowerCase()));
+  for (const profile of candidates) {
+    const fit = profileToMapping(profile, table, kind, areaCm2);
+    if (fit.mapping) return { profile, mapping: fit.mapping, note: passedOver.length ? passedOver.join('; ') : null };
+    // only profiles meant for files like this one are worth a word
+    if (Object.values(profile.mapping).some((spec) => headers.has(spec.header.trim().toLowerCase()))) passedOver.push(fit.problem);
+  }
+  return { profile: null, mapping: null, note: passedOver.length ? `${passedOver.join('; ')}; the columns were detected instead` : null };
 }
 
 export function curveView(row: Omit<CurveRow, 'points'> & { points?: unknown }) {
@@ -433,7 +507,10 @@ export function curvePoints(row: CurveRow, options: { maxPoints?: number; fromHo
   const data = decodePoints(row.points, row.kind);
   if (row.kind !== 'polarization' && data.tHours) {
     const max = options.maxPoints ?? 2000;
-    const range = options.fromHours != null || options.toHours != null ? { fromHours: options.fromHours ?? -Infinity, toHours: options.toHours ?? Infinity } : undefined;
+    // one bound given: the other is the log's own end, so the window is always finite
+    const first = data.tHours.length ? data.tHours[0]! : 0;
+    const last = data.tHours.length ? data.tHours[data.tHours.length - 1]! : 0;
+    const range = options.fromHours != null || options.toHours != null ? { fromHours: options.fromHours ?? Math.min(first, options.toHours!), toHours: options.toHours ?? Math.max(last, options.fromHours!) } : undefined;
     const down = downsampleForPlot(data.tHours, data.v, max, range);
     return { tHours: Array.from(down.t), v: Array.from(down.v), downsampled: down.t.length < data.v.length, total: data.v.length };
   }

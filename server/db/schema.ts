@@ -1,5 +1,5 @@
 // Drizzle schema: every table Cellwright stores. camelCase keys map to snake_case columns.
-import { sqliteTable, integer, text, real, blob, uniqueIndex, index } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, integer, text, real, blob, uniqueIndex, index, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { sql } from 'drizzle-orm';
 import type { ProjectSettings, TestConditions } from '../../shared/schemas/project';
 import type { ColumnMapping, FileConditions, CurveMetrics, MetricMethod } from '../../shared/curves/types';
@@ -42,6 +42,10 @@ export const apiTokens = sqliteTable('api_tokens', {
   userId: integer('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
   name: text('name').notNull(),
   tokenHash: text('token_hash').notNull().unique(),
+  /** read: GET only; upload: reads and curve uploads; full: all the person may do (never minting tokens or ending sessions) */
+  scope: text('scope', { enum: ['read', 'upload', 'full'] }).notNull().default('full'),
+  /** the token this one was made with, if any: revoking a token revokes the tokens made with it */
+  parentTokenId: integer('parent_token_id').references((): AnySQLiteColumn => apiTokens.id, { onDelete: 'set null' }),
   createdAt: createdAt(),
   lastUsedAt: text('last_used_at'),
   revokedAt: text('revoked_at'),

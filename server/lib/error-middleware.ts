@@ -4,10 +4,12 @@ import type { ErrorRequestHandler } from 'express';
 import type { Logger } from 'pino';
 import { AppError } from './errors';
 import { CurveFileError } from '../../shared/curves/types';
+import { multipartProblem } from './multipart-errors';
 
 export function errorMiddleware(logger: Logger): ErrorRequestHandler {
   return (error, req, res, _next) => {
     if (res.headersSent) return res.end();
+    error = multipartProblem(error) ?? error;
     if (error instanceof AppError) {
       return res.status(error.status).json({ error: { code: error.code, message: error.message, details: error.details ?? null } });
     }

@@ -7,7 +7,7 @@ import { inviteCreateSchema, membershipSetSchema } from '../../shared/schemas/au
 import { idParam, parseInput } from '../lib/validate';
 import { requireProject, requireUser } from '../auth/access';
 import * as projects from './service';
-import { baseUrl } from '../lib/base-url';
+import { requireLinkBase } from '../lib/base-url';
 
 export function projectsRouter(ctx: AppContext): Router {
   const router = Router();
@@ -87,7 +87,7 @@ export function projectsRouter(ctx: AppContext): Router {
   router.post('/projects/:id/invitations', async (req, res) => {
     const access = requireProject(db, req.user, idParam(req.params.id), 'invite');
     const body = parseInput(inviteCreateSchema, req.body);
-    res.status(201).json({ invitation: await projects.invite(ctx, access, body, baseUrl(ctx, req)) });
+    res.status(201).json(await projects.invite(ctx, access, body, requireLinkBase(ctx.env, req)));
   });
 
   return router;

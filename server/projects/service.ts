@@ -188,6 +188,10 @@ export function setMemberRole(ctx: AppContext, access: ProjectAccess, userId: nu
   const before = db.select().from(memberships).where(and(eq(memberships.projectId, access.projectId), eq(memberships.userId, userId))).get();
   const user = db.select({ id: users.id }).from(users).where(eq(users.id, userId)).get();
   if (!user) throw notFound(`Person ${userId}`);
+  if (before?.role === 'pi' && role !== 'pi') {
+    const pis = db.select({ n: sql<number>`count(*)` }).from(memberships).where(and(eq(memberships.projectId, access.projectId), eq(memberships.role, 'pi'))).get()!.n;
+    if (pis <= 1) throw conflict('A project needs at least one PI; give someone else the PI role before changing this one.');
+  }
   if (before) db.update(memberships).set({ role }).where(eq(memberships.id, before.id)).run();
   else db.insert(memberships).values({ projectId: access.projectId, userId, role }).run();
   audit(db, { userId: access.user.id, action: before ? 'update' : 'create', entity: 'membership', entityId: userId, projectId: access.projectId, before, after: { userId, role } });
@@ -217,9 +221,15 @@ export function setNotify(ctx: AppContext, user: AuthUser, projectId: number, no
   return next;
 }
 
+/**
+ * Invite someone by e-mail. A person who already has an account is added to the project at once
+ * (with a notice e-mail) instead of getting an invitation they could never accept.
+ */
 export async function invite(ctx: AppContext, access: ProjectAccess, body: z.output<typeof inviteCreateSchema>, baseUrl: string) {
   const { db } = ctx;
   const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+  const account = db.select().from(users).where(eq(users.email, body.email)).get();
+  if (account?.passwordHash) return { invitation: null, member: await addExistingAccount(ctx, access, project, account, body, baseUrl) };
   if (body.role === 'partner' && body.labId == null) {
     const existing = db.select({ labId: users.labId }).from(users).where(eq(users.email, body.email)).get();
     if (!existing?.labId) throw new AppError(400, 'validation', 'A partner invitation needs the partner lab (labId) the person belongs to.', { fields: [{ path: 'labId', message: 'required for partners' }] });
@@ -236,7 +246,28 @@ export async function invite(ctx: AppContext, access: ProjectAccess, body: z.out
     html: `<p>${escapeHtml(access.user.name)} invited you to the project “${escapeHtml(project.name)}” as <b>${body.role}</b>.</p><p><a href="${link}">Accept the invitation</a> — the link works once and expires in 7 days.</p>`,
   });
   audit(db, { userId: access.user.id, action: 'create', entity: 'invitation', entityId: row.id, projectId: access.projectId, after: { email: body.email, role: body.role, labId: body.labId } });
-  return { id: row.id, email: row.email, role: row.role, expiresAt };
+  return { invitation: { id: row.id, email: row.email, role: row.role, expiresAt }, member: null };
+}
+
+async function addExistingAccount(ctx: AppContext, access: ProjectAccess, project: ProjectRow, account: typeof users.$inferSelect, body: z.output<typeof inviteCreateSchema>, baseUrl: string) {
+  const { db } = ctx;
+  const current = db.select().from(memberships).where(and(eq(memberships.projectId, project.id), eq(memberships.userId, account.id))).get();
+  if (current) throw new AppError(409, 'already-member', `${account.name} (${account.email}) is already a member of this project as ${current.role}; change the role in the members list instead.`, { userId: account.id, role: current.role });
+  if (body.role === 'partner' && body.labId == null && account.labId == null) throw new AppError(400, 'validation', 'A partner needs the partner lab (labId) the person belongs to.', { fields: [{ path: 'labId', message: 'required for partners' }] });
+  db.insert(memberships).values({ projectId: project.id, userId: account.id, role: body.role }).run();
+  audit(db, { userId: access.user.id, action: 'create', entity: 'membership', entityId: account.id, projectId: project.id, after: { userId: account.id, role: body.role, via: 'invitation of an existing account' } });
+  const link = `${baseUrl}/projects/${project.id}`;
+  try {
+    await ctx.mailer.send({
+      to: account.email,
+      subject: `You were added to “${project.name}” on Cellwright`,
+      text: `${access.user.name} added you to the project “${project.name}” as ${body.role}.\n\nSign in as usual and open it here:\n${link}\n`,
+      html: `<p>${escapeHtml(access.user.name)} added you to the project “${escapeHtml(project.name)}” as <b>${body.role}</b>.</p><p><a href="${link}">Open the project</a> — sign in as usual.</p>`,
+    });
+  } catch (error) {
+    ctx.logger.warn({ err: error, to: account.email }, 'membership notice could not be sent');
+  }
+  return { userId: account.id, name: account.name, email: account.email, role: body.role, added: true };
 }
 
 

@@ -8,11 +8,12 @@ import type { ProjectAccess } from '../auth/access';
 import { builds, labs, memberships, pendingNotices, projects, users } from '../db/schema';
 import { escapeHtml } from '../lib/escape-html';
 import type { CurveKind } from '../../shared/curves/types';
+import { linkBase } from '../lib/base-url';
 
 type BuildRow = typeof builds.$inferSelect;
 
 function appUrl(ctx: AppContext): string {
-  return (ctx.env.PUBLIC_URL ?? `http://localhost:${ctx.env.PORT}`).replace(/\/$/, '');
+  return linkBase(ctx.env) ?? `http://localhost:${ctx.env.PORT}`;
 }
 
 

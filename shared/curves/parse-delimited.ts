@@ -22,6 +22,39 @@ export interface DelimitedParser {
 }
 
 const DEFAULT_MAX_ROWS = 5_000_000;
+
+// ---- Line bounds: a hostile file (one 45 MB line, a million cells in a row) is refused where
+// lines are split, before a cell is read. Honest station logs stay far below both.
+/** longest line read, characters */
+export const MAX_LINE_CHARS = 262_144;
+/** most cells in one row (= the column limit) */
+export const MAX_CELLS_PER_ROW = 1024;
+
+function lineTooLong(line: number): CurveFileError {
+  return new CurveFileError('line-too-long', `line ${line}: longer than ${MAX_LINE_CHARS.toLocaleString('en-US')} characters, the limit per line; is this a table with one row per line?`, { line });
+}
+
+/** Throws when a line is too long or, counting the most frequent separator, holds too many cells. */
+function checkLineBounds(text: string, line: number): void {
+  if (text.length > MAX_LINE_CHARS) throw lineTooLong(line);
+  // fewer characters than the cell limit cannot hold more cells: the common case costs nothing
+  if (text.length <= MAX_CELLS_PER_ROW) return;
+  let commas = 0;
+  let semicolons = 0;
+  let tabs = 0;
+  let bars = 0;
+  for (let index = 0; index < text.length; index++) {
+    const code = text.charCodeAt(index);
+    if (code === 44) commas++;
+    else if (code === 59) semicolons++;
+    else if (code === 9) tabs++;
+    else if (code === 124) bars++;
+  }
+  if (Math.max(commas, semicolons, tabs, bars) >= MAX_CELLS_PER_ROW) {
+    throw new CurveFileError('too-many-cells', `line ${line}: more than ${MAX_CELLS_PER_ROW.toLocaleString('en-US')} cells, the limit per row`, { line });
+  }
+}
+// ---- end of line bounds
 // The header is looked for in the first lines only; metadata blocks are short.
 const DETECTION_MAX_LINES = 256;
 const DETECTION_MAX_CHARS = 1 << 20;
@@ -575,7 +608,8 @@ function decideColumnKinds(rows: readonly string[][], header: readonly string[],
  * Reference: RFC 4180 (CSV); ISO 8601-1:2019 (date-times).
  * Cost: O(total characters) time; memory 8 bytes per number cell plus 4 per row.
  * @throws CurveFileError with code `empty`, `no-header`, `header-only`, `no-numbers`,
- *   `one-column`, `ragged-row`, `bad-number` or `too-many-rows`, naming line and column.
+ *   `one-column`, `ragged-row`, `bad-number`, `too-many-rows`, `line-too-long` or
+ *   `too-many-cells`, naming line and column.
  * @example const parser = createDelimitedParser(); parser.push('j (A/cm2),V (V)\n0.2,0.65\n'); parser.finish().rowCount // 1
  */
 export function createDelimitedParser(options: DelimitedParserOptions = {}): DelimitedParser {
@@ -589,6 +623,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
   let startChecked = false;
   let pendingCarriageReturn = false;
   const carry: string[] = [];
+  let carryChars = 0;
   let lineNumber = 0;
 
   // detection phase
@@ -841,6 +876,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
 
   function acceptLine(text: string): void {
     lineNumber++;
+    checkLineBounds(text, lineNumber);
     if (!detecting) {
       acceptDataLine(text, lineNumber);
       return;
@@ -883,13 +919,18 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
         carry.push(line);
         line = carry.join('');
         carry.length = 0;
+        carryChars = 0;
       }
       acceptLine(line);
       start = end + breakLength;
       if (nextLineFeed >= 0 && nextLineFeed < start) nextLineFeed = text.indexOf('\n', start);
       if (nextCarriageReturn >= 0 && nextCarriageReturn < start) nextCarriageReturn = text.indexOf('\r', start);
     }
-    if (start < text.length) carry.push(text.slice(start));
+    if (start < text.length) {
+      carry.push(text.slice(start));
+      carryChars += text.length - start;
+      if (carryChars > MAX_LINE_CHARS) throw lineTooLong(lineNumber + 1);
+    }
   }
 
   function guarded<T>(action: () => T): T {

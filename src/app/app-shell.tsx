@@ -88,6 +88,7 @@ export function AppShell() {
               <RailLink to="/admin/labs">Labs</RailLink>
               <RailLink to="/admin/outbox">Outbox</RailLink>
               <RailLink to="/admin/audit">Audit log</RailLink>
+              <RailLink to="/admin/backups">Backups</RailLink>
             </>
           )}
         </nav>

@@ -36,6 +36,7 @@ export const router = createBrowserRouter([
           { path: '/admin/labs', lazy: lazy(() => import('./routes/admin-labs')) },
           { path: '/admin/outbox', lazy: lazy(() => import('./routes/admin-outbox')) },
           { path: '/admin/audit', lazy: lazy(() => import('./routes/admin-audit')) },
+          { path: '/admin/backups', lazy: lazy(() => import('./routes/admin-backups')) },
           { path: '*', lazy: lazy(() => import('./routes/not-found')) },
         ],
       },

@@ -26,6 +26,8 @@ export interface Client {
 }
 
 export interface Harness {
+  /** the temporary folder holding the database and the uploads */
+  dir: string;
   ctx: AppContext;
   app: Express;
   as: Record<Who, Client>;
@@ -51,9 +53,9 @@ function client(app: Express, who: Client['who'], agent: request.Agent, csrf: st
   };
 }
 
-export async function createHarness(options: { seed?: boolean } = {}): Promise<Harness> {
+export async function createHarness(options: { seed?: boolean; env?: Record<string, string | undefined> } = {}): Promise<Harness> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'cw-api-'));
-  const ctx = createContext({ DATABASE_PATH: path.join(dir, 'db.sqlite'), UPLOADS_DIR: path.join(dir, 'uploads'), LOG_LEVEL: 'silent', SEED_DEMO: 'never', LOGIN_RATE_LIMIT: '1000', PUBLIC_URL: 'http://cellwright.test' });
+  const ctx = createContext({ DATABASE_PATH: path.join(dir, 'db.sqlite'), UPLOADS_DIR: path.join(dir, 'uploads'), BACKUP_DIR: path.join(dir, 'backups'), LOG_LEVEL: 'silent', SEED_DEMO: 'never', LOGIN_RATE_LIMIT: '1000', PUBLIC_URL: 'http://cellwright.test', ...options.env });
   if (options.seed !== false) await seedDemo(ctx);
   const app = createApp(ctx, { serveClient: false });
   const as = {} as Record<Who, Client>;
@@ -66,6 +68,7 @@ export async function createHarness(options: { seed?: boolean } = {}): Promise<H
     }
   }
   return {
+    dir,
     ctx,
     app,
     as,

@@ -41,6 +41,8 @@ async function makeCurve(h: Harness, content = CSV) {
 }
 
 const C = () => ids.project('C');
+/** a complete polarization profile (current and voltage) */
+const PROFILE = { voltage: { header: 'U (V)', unit: 'V' }, current: { header: 'j (A/cm2)', unit: 'A/cm2' } };
 const ALL: Who[] = [...EVERYONE];
 const WRITERS: Who[] = ['admin', 'pi', 'researcher', 'partner'];
 const PLANNERS: Who[] = ['admin', 'pi', 'researcher'];
@@ -105,6 +107,13 @@ export const MATRIX: MatrixRow[] = [
   { method: 'post', path: '/api/admin/digests/send', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/digests/send') },
   { method: 'get', path: '/api/admin/outbox', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/outbox') },
   { method: 'get', path: '/api/admin/audit', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/audit') },
+  { method: 'get', path: '/api/admin/backups', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/backups') },
+  { method: 'post', path: '/api/admin/backups', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/backups') },
+  { method: 'get', path: '/api/admin/backups/{name}', allowed: ['admin'], send: async (h, c) => {
+    const list = await h.as.admin.get('/api/admin/backups');
+    const name = list.body.backups[0]?.name ?? (await h.as.admin.post('/api/admin/backups')).body.backup.name;
+    return c.get(`/api/admin/backups/${name}`);
+  } },
   { method: 'post', path: '/api/builds/{id}/curves', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'matrix.csv', content: CSV }) },
   { method: 'post', path: '/api/builds/{id}/curves/preview', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves/preview`, { name: 'matrix.csv', content: CSV }) },
   { method: 'get', path: '/api/curves/{id}', allowed: ALL, send: async (h, c) => c.get(`/api/curves/${await makeCurve(h)}`) },
@@ -115,11 +124,11 @@ export const MATRIX: MatrixRow[] = [
   { method: 'put', path: '/api/builds/{id}/record', allowed: WRITERS, send: async (h, c) => c.put(`/api/builds/${ids.build('C-014')}/record`, { kind: 'polarization', curveId: await makeCurve(h) }) },
   { method: 'get', path: '/api/files/{id}/raw', allowed: ALL, send: async (h, c) => { const id = await makeCurve(h); const curve = await h.as.admin.get(`/api/curves/${id}`); return c.get(`/api/files/${curve.body.curve.fileId}/raw`); } },
   { method: 'get', path: '/api/projects/{id}/import-profiles', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/import-profiles`) },
-  { method: 'post', path: '/api/projects/{id}/import-profiles', allowed: WRITERS, send: (_h, c) => c.post(`/api/projects/${C()}/import-profiles`, { name: unique('profile '), mapping: { voltage: { header: 'U (V)', unit: 'V' }, current: { header: 'j (A/cm2)', unit: 'A/cm2' } } }) },
+  { method: 'post', path: '/api/projects/{id}/import-profiles', allowed: WRITERS, send: (_h, c) => c.post(`/api/projects/${C()}/import-profiles`, { name: unique('profile '), mapping: PROFILE }) },
   { method: 'delete', path: '/api/import-profiles/{id}', allowed: WRITERS, send: async (h, c, who) => {
-    // each writer removes a profile it could have made itself (partners: their own lab's)
-    const owner = who === 'partner' ? h.as.partner : h.as.admin;
-    const p = await owner.post(`/api/projects/${C()}/import-profiles`, { name: unique('tmp '), mapping: { voltage: { header: 'U (V)', unit: 'V' } } });
+    // each writer removes a profile of its own lab (the one it may make); a viewer tries a home-lab one
+    const owner = who === 'partner' ? h.as.partner : h.as.researcher;
+    const p = await owner.post(`/api/projects/${C()}/import-profiles`, { name: unique('tmp '), mapping: PROFILE });
     return c.delete(`/api/import-profiles/${p.body.profile.id}`);
   } },
   { method: 'get', path: '/api/uploads/{uploadId}/progress', allowed: ALL, send: (_h, c) => c.get(`/api/uploads/${unique('matrix-upload-')}/progress`) },
@@ -218,4 +227,57 @@ describe('role × route matrix', () => {
     const viaToken = await request(h.app).post(`/api/projects/${ids.project('C')}/builds`).set('Authorization', `Bearer ${token.body.token}`).send({ status: 'planned', factors: {} });
     expect(viaToken.status).toBe(201);
   });
+
+  // Import profiles for a lab: its own members (with a writing role) and the project's PIs.
+  const PROFILE_RIGHTS: { lab: 'Northgate' | 'Kestrel' | null; allowed: Who[] }[] = [
+    { lab: 'Northgate', allowed: ['admin', 'pi', 'researcher'] },
+    { lab: 'Kestrel', allowed: ['admin', 'pi', 'partner'] },
+    { lab: null, allowed: ['admin', 'pi'] },
+  ];
+  for (const right of PROFILE_RIGHTS) {
+    for (const who of EVERYONE) {
+      const allowed = right.allowed.includes(who);
+      it(`saving an import profile for ${right.lab ?? 'builds without a lab'} as ${who} is ${allowed ? 'allowed' : 'refused'}`, async () => {
+        const labId = right.lab ? ids.lab(right.lab) : null;
+        const res = await h.as[who].post(`/api/projects/${C()}/import-profiles`, { name: unique('rights '), labId, mapping: PROFILE });
+        if (who === 'partner' && labId === null) {
+          // a partner's profile is always its own lab's, whatever it asks
+          expect(res.status).toBe(201);
+          expect(res.body.profile.labId).toBe(ids.lab('Kestrel'));
+        } else if (allowed) {
+          expect(res.status, JSON.stringify(res.body)).toBe(201);
+          expect(res.body.profile.labId).toBe(labId);
+        } else expect([403, 404]).toContain(res.status);
+      });
+    }
+  }
+
+  // Token scopes × kinds of request: read → GET only; upload → GET + curve uploads; full → all
+  // the person may do; no scope mints tokens or ends browser sessions.
+  const SCOPE_REQUESTS: { what: string; allowed: ('read' | 'upload' | 'full')[]; send: (token: string) => request.Test }[] = [
+    { what: 'GET /api/projects/{id}', allowed: ['read', 'upload', 'full'], send: (t) => request(h.app).get(`/api/projects/${C()}`).set('Authorization', `Bearer ${t}`) },
+    { what: 'GET /api/files/{id}/raw', allowed: ['read', 'upload', 'full'], send: (t) => request(h.app).get(`/api/files/${(h.ctx.db.$client.prepare('select id from files limit 1').get() as { id: number }).id}/raw`).set('Authorization', `Bearer ${t}`) },
+    { what: 'POST /api/builds/{id}/curves', allowed: ['upload', 'full'], send: (t) => request(h.app).post(`/api/builds/${ids.build('C-014')}/curves`).set('Authorization', `Bearer ${t}`).attach('file', Buffer.from(CSV), 'scope.csv') },
+    { what: 'POST /api/builds/{id}/curves/preview', allowed: ['upload', 'full'], send: (t) => request(h.app).post(`/api/builds/${ids.build('C-014')}/curves/preview`).set('Authorization', `Bearer ${t}`).attach('file', Buffer.from(CSV), 'scope.csv') },
+    { what: 'POST /api/projects/{id}/builds', allowed: ['full'], send: (t) => request(h.app).post(`/api/projects/${C()}/builds`).set('Authorization', `Bearer ${t}`).send({ status: 'planned', factors: {} }) },
+    { what: 'PATCH /api/builds/{id}', allowed: ['full'], send: (t) => request(h.app).patch(`/api/builds/${ids.build('C-014')}`).set('Authorization', `Bearer ${t}`).send({ changeNote: unique('scope ') }) },
+    { what: 'POST /api/projects/{id}/import-profiles', allowed: ['full'], send: (t) => request(h.app).post(`/api/projects/${C()}/import-profiles`).set('Authorization', `Bearer ${t}`).send({ name: unique('scope '), mapping: PROFILE }) },
+    { what: 'POST /api/auth/tokens', allowed: [], send: (t) => request(h.app).post('/api/auth/tokens').set('Authorization', `Bearer ${t}`).send({ name: 'child', scope: 'read' }) },
+    { what: 'POST /api/auth/sessions/{id}/revoke', allowed: [], send: (t) => request(h.app).post(`/api/auth/sessions/${(h.ctx.db.$client.prepare('select id from sessions order by id desc limit 1').get() as { id: number }).id}/revoke`).set('Authorization', `Bearer ${t}`) },
+    { what: 'POST /api/auth/logout', allowed: [], send: (t) => request(h.app).post('/api/auth/logout').set('Authorization', `Bearer ${t}`) },
+  ];
+  for (const scope of ['read', 'upload', 'full'] as const) {
+    for (const row of SCOPE_REQUESTS) {
+      const allowed = row.allowed.includes(scope);
+      it(`a ${scope} token (partner) on ${row.what} is ${allowed ? 'allowed' : 'refused'}`, async () => {
+        const minted = await h.as.partner.post('/api/auth/tokens', { name: unique(`${scope} `), scope });
+        const res = await row.send(minted.body.token);
+        if (allowed) expect(res.status, JSON.stringify(res.body)).toBeLessThan(300);
+        else {
+          expect(res.status, JSON.stringify(res.body)).toBe(403);
+          expect(res.body.error.code).toBe('token-scope');
+        }
+      });
+    }
+  }
 });

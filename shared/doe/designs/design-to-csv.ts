@@ -1,20 +1,7 @@
 // A design as comma-separated text for the lab: one line per run in run order, with the
-// settings in coded or actual units. Plain string building, so it runs in the browser too.
+// settings in coded or actual units, through the shared CSV writer (runs in the browser too).
 import type { Design } from './types';
-
-// Cells a spreadsheet would treat as a formula; a leading apostrophe keeps them as text.
-const FORMULA_START = /^[=+\-@\t\r]/;
-
-function textCell(text: string): string {
-  const safe = FORMULA_START.test(text) ? `'${text}` : text;
-  return /[",\r\n]/.test(safe) || safe !== safe.trim() ? `"${safe.replace(/"/g, '""')}"` : safe;
-}
-
-function valueCell(value: number | string | undefined): string {
-  if (value === undefined) return '';
-  if (typeof value === 'number') return String(value);
-  return textCell(value);
-}
+import { writeCsv, type CsvCell } from '../../csv/write-csv';
 
 /**
  * CSV of a design: header `runOrder,standardOrder,block,pointType,<factor keys…>` (or, with
@@ -22,7 +9,8 @@ function valueCell(value: number | string | undefined): string {
  * options.pointWords), then one
  * row per run in run order; numbers as JavaScript prints them (full precision), text quoted
  * when it holds a comma, quote or line break (RFC 4180), lines ending in CRLF.
- * Text starting with = + - @ gets a leading apostrophe so spreadsheets do not run it as a formula.
+ * Text starting with = + − @, tab or CR gets a leading apostrophe (and quotes) so spreadsheets
+ * do not run it as a formula (see writeCsv).
  * Reference: RFC 4180 (common format for CSV files); OWASP "CSV injection" guidance for the apostrophe.
  * Cost: O(runs · factors).
  * @throws RangeError when design has no runs list or options.coded is not a boolean.
@@ -35,19 +23,18 @@ export function designToCsv(design: Design, options: { coded: boolean; labels?: 
   if (options === null || typeof options !== 'object' || typeof options.coded !== 'boolean') {
     throw new RangeError('designToCsv: options.coded: must be true or false');
   }
-  const lines: string[] = [];
   // with labels, a sheet for people: words and units in the header, point kinds in words
   const labels = options.labels;
-  const header = labels
-    ? ['build', 'standard order', 'block', 'role in the design', ...design.factorKeys.map((key) => textCell(labels[key] ?? key))]
-    : ['runOrder', 'standardOrder', 'block', 'pointType', ...design.factorKeys.map(textCell)];
-  lines.push(header.join(','));
+  const header: CsvCell[] = labels
+    ? ['build', 'standard order', 'block', 'role in the design', ...design.factorKeys.map((key) => labels[key] ?? key)]
+    : ['runOrder', 'standardOrder', 'block', 'pointType', ...design.factorKeys];
+  const rows: CsvCell[][] = [header];
   const ordered = design.runs.slice().sort((first, second) => first.runOrder - second.runOrder);
   for (const run of ordered) {
     const values = options.coded ? run.coded : run.actual;
-    const cells = [String(run.runOrder), String(run.standardOrder), String(run.block), textCell(options.pointWords?.[run.pointType] ?? run.pointType)];
-    for (const key of design.factorKeys) cells.push(valueCell(values[key]));
-    lines.push(cells.join(','));
+    const cells: CsvCell[] = [run.runOrder, run.standardOrder, run.block, options.pointWords?.[run.pointType] ?? run.pointType];
+    for (const key of design.factorKeys) cells.push(values[key]);
+    rows.push(cells);
   }
-  return `${lines.join('\r\n')}\r\n`;
+  return writeCsv(rows, { lineEnd: '\r\n' });
 }

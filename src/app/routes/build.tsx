@@ -142,6 +142,7 @@ function CurveView({ curve, overlays, project, detail }: { curve: CurveSummary; 
         <p className="text-[11px] text-ink-500">
           {String(curve.summary.steps ?? '?')} current steps{curve.summary.sweeps ? `, sweeps: ${String(curve.summary.sweeps)}` : ''}
           {curve.summary.hysteresisMv != null ? `, hysteresis at j_ref ${formatNumber(Number(curve.summary.hysteresisMv), 1)} mV` : ''} · mapping: {String(curve.summary.mappingSource ?? 'detected')}
+          {curve.summary.profileNote ? <span className="block text-amber-700">{String(curve.summary.profileNote)}</span> : null}
           {curve.fileId && <> · <a className="text-copper-700 underline" href={`/api/files/${curve.fileId}/raw`}>raw file</a></>}
         </p>
         <ImportNotes curve={curve} canChoose={detail.permissions.upload} />

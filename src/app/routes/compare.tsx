@@ -13,7 +13,7 @@ import { useLineage } from '@/features/lineage/api/get-lineage';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
 import { METRICS, formatMetric, formatNumber } from '@/lib/format';
-import Papa from 'papaparse';
+import { comparedCurvesCsv } from '@/features/curves/components/compare-csv';
 
 /** The conditions the chosen builds share, or their spread ("160–180 °C"). */
 function sharedConditions(all: (TestConditions | null | undefined)[], settings: { refCurrentDensity: number; refVoltage: number }): string {
@@ -58,8 +58,7 @@ export default function ComparePage() {
     setParams({ builds: next.join(',') });
   };
   const exportCsv = () => {
-    const rows = series.flatMap((s) => (s.points.j ?? []).map((j, k) => ({ build: s.name, j_A_per_cm2: j, V: s.points.v[k], hfr_ohm_cm2: s.points.hfr?.[k] ?? '' })));
-    const blob = new Blob([Papa.unparse(rows)], { type: 'text/csv' });
+    const blob = new Blob([comparedCurvesCsv(series)], { type: 'text/csv' });
     const a = document.createElement('a');
     a.href = URL.createObjectURL(blob);
     a.download = 'cellwright-compare.csv';

@@ -160,7 +160,7 @@ describe('designToCsv', () => {
     const lines = csv.split('\r\n');
     expect(lines[0]).toBe('runOrder,standardOrder,block,pointType,binderWt,"gdl, type"'); // RFC 4180: fields with commas are quoted
     expect(lines[1]).toBe('1,1,1,factorial,-1,"paper, 0.2 mm"');
-    expect(lines[3]).toBe("3,3,1,factorial,-1,'=cmd|x"); // OWASP CSV injection guidance: leading apostrophe
+    expect(lines[3]).toBe(`3,3,1,factorial,-1,"'=cmd|x"`); // OWASP CSV injection guidance: leading apostrophe, quoted
     expect(() => designToCsv(generateDesign({ kind: 'full-factorial-2', factors: [binder], seed: 1 }), {} as { coded: boolean })).toThrow('designToCsv: options.coded: must be true or false');
     expect(() => designToCsv(null as unknown as Design, { coded: true })).toThrow('designToCsv: design:');
   });

@@ -1,4 +1,4 @@
-// Administration: people, labs, outbox and audit log.
+// Administration: people, labs, outbox, audit log and backups.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 
@@ -57,5 +57,19 @@ export function useSendDigests() {
   return useMutation({
     mutationFn: () => api<{ sent: number }>('/admin/digests/send', { method: 'POST' }),
     onSuccess: () => client.invalidateQueries({ queryKey: ['admin', 'outbox'] }),
+  });
+}
+
+export interface BackupRow { name: string; bytes: number; createdAt: string; archive: boolean }
+export interface BackupsData { folder: string; store: string; backups: BackupRow[] }
+export const backupsQueryOptions = () => queryOptions({ queryKey: ['admin', 'backups'], queryFn: () => api<BackupsData>('/admin/backups') });
+export const useBackups = () => useQuery(backupsQueryOptions());
+
+export interface BackupMade { name: string; bytes: number; createdAt: string; counts: Record<'projects' | 'builds' | 'curves' | 'files' | 'users', number>; rawFiles: number; databaseSha256: string }
+export function useMakeBackup() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: () => api<{ backup: BackupMade }>('/admin/backups', { method: 'POST' }).then((r) => r.backup),
+    onSuccess: () => client.invalidateQueries({ queryKey: backupsQueryOptions().queryKey }),
   });
 }

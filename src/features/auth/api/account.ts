@@ -3,7 +3,8 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import { api } from '@/lib/api-client';
 
 export interface SessionRow { id: number; createdAt: string; expiresAt: string; userAgent: string | null; revokedAt: string | null; current: boolean }
-export interface TokenRow { id: number; name: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null }
+export type TokenScope = 'read' | 'upload' | 'full';
+export interface TokenRow { id: number; name: string; scope: TokenScope; createdAt: string; lastUsedAt: string | null; revokedAt: string | null }
 
 export const sessionsQueryOptions = () => queryOptions({ queryKey: ['account', 'sessions'], queryFn: () => api<{ sessions: SessionRow[] }>('/auth/sessions').then((r) => r.sessions) });
 export const tokensQueryOptions = () => queryOptions({ queryKey: ['account', 'tokens'], queryFn: () => api<{ tokens: TokenRow[] }>('/auth/tokens').then((r) => r.tokens) });
@@ -16,9 +17,9 @@ export function useRevokeSession() {
 }
 export function useCreateToken() {
   const client = useQueryClient();
-  return useMutation({ mutationFn: (name: string) => api<{ token: string; id: number; name: string }>('/auth/tokens', { method: 'POST', body: { name } }), onSuccess: () => client.invalidateQueries({ queryKey: ['account', 'tokens'] }) });
+  return useMutation({ mutationFn: (input: { name: string; scope: TokenScope }) => api<{ token: string; id: number; name: string; scope: TokenScope }>('/auth/tokens', { method: 'POST', body: input }), onSuccess: () => client.invalidateQueries({ queryKey: ['account', 'tokens'] }) });
 }
 export function useRevokeToken() {
   const client = useQueryClient();
-  return useMutation({ mutationFn: (id: number) => api(`/auth/tokens/${id}/revoke`, { method: 'POST' }), onSuccess: () => client.invalidateQueries({ queryKey: ['account', 'tokens'] }) });
+  return useMutation({ mutationFn: (id: number) => api<{ ok: true; revoked: number }>(`/auth/tokens/${id}/revoke`, { method: 'POST' }), onSuccess: () => client.invalidateQueries({ queryKey: ['account', 'tokens'] }) });
 }

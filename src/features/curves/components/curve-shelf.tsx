@@ -6,6 +6,7 @@ import type { BuildStatus, CurveSummary } from '@shared/api-types';
 import type { CurveKind } from '@shared/curves/types';
 import { ApiError } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';
+import { useConfirm } from '@/components/ui/confirm-dialog';
 import { METRICS, formatMetric } from '@/lib/format';
 import { useChooseRecord } from '../api/curves';
 import { HEADLINE, KIND_LABEL, KIND_WORD, RecordMark, uploadedOn } from './record-parts';
@@ -29,6 +30,7 @@ export function CurveShelf({ curves, build, projectId, canChoose, renderCurve, e
   const [overlaid, setOverlaid] = useState<number[]>([]);
   const [said, setSaid] = useState<string | null>(null);
   const choose = useChooseRecord(projectId);
+  const [confirm, confirmDialog] = useConfirm();
   if (kinds.length === 0) return <>{empty}</>;
 
   const activeKind = kind && kinds.includes(kind) ? kind : kinds[0]!;
@@ -38,17 +40,24 @@ export function CurveShelf({ curves, build, projectId, canChoose, renderCurve, e
   const overlays = ofKind.filter((c) => c.id !== shown.id && overlaid.includes(c.id));
   const headline = HEADLINE[activeKind];
 
-  const makeRecord = (c: CurveSummary) => {
-    const warning = build.status === 'reviewed'
-      ? `${build.code} is reviewed. Making “${label(c)}” its ${KIND_WORD[c.kind]} of record changes the build’s values and sends it back to review; its PIs are told. Continue?`
-      : `Make “${label(c)}” the ${KIND_WORD[c.kind]} of record of ${build.code}? Its metrics become the build’s values everywhere.`;
-    if (!window.confirm(warning)) return;
+  const makeRecord = async (c: CurveSummary) => {
+    const reviewed = build.status === 'reviewed';
+    const ok = await confirm({
+      title: `Make “${label(c)}” the ${KIND_WORD[c.kind]} of record?`,
+      message: reviewed
+        ? `${build.code} is reviewed. Its values change to this curve’s and it goes back to review; its PIs are told.`
+        : `Its metrics become the values of ${build.code} everywhere (home, builds table, gains, surface).`,
+      confirmLabel: 'Make it the curve of record',
+      tone: 'primary',
+    });
+    if (!ok) return;
     setSaid(null);
     choose.mutate({ buildId: build.id, kind: c.kind, curveId: c.id }, { onSuccess: (answer) => setSaid(answer.record.message) });
   };
 
   return (
     <div className="min-w-0">
+      {confirmDialog}
       {kinds.length > 1 && (
         <div className="mb-3 flex flex-wrap gap-1" role="tablist" aria-label="Kinds of curve">
           {kinds.map((k) => {

@@ -140,12 +140,13 @@ export function useUploadBatch(projectId: number) {
         patch(row.key, { progress: f });
         if (f >= 1 && !polling && row.file.size > 256 * 1024) { polling = true; void poll(); }
       }).finally(() => { finished = true; });
-      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, stored: { curve: result.curve, recordCurve: result.recordCurve ?? null }, message: result.curve.summary.sheet ? `Read from sheet “${String(result.curve.summary.sheet)}”.` : undefined });
+      const notesText = [result.curve.summary.sheet ? `Read from sheet “${String(result.curve.summary.sheet)}”.` : null, result.curve.summary.profileNote ? `${String(result.curve.summary.profileNote)}.` : null].filter(Boolean).join(' ');
+      patch(row.key, { state: 'done', progress: 1, curveId: result.curve.id, kind: result.curve.kind, stored: { curve: result.curve, recordCurve: result.recordCurve ?? null }, message: notesText || undefined });
       invalidate(row.buildId);
     } catch (error) {
       if (error instanceof ApiError && error.code === 'mapping-needed') {
-        const d = error.details as UploadPreview & { preview: UploadPreview };
-        patch(row.key, { state: 'confirm', preview: { ...d.preview, detected: d.detected, reasons: d.reasons, kind: d.kind, sheets: d.sheets, sheet: d.sheet, fileName: row.file.name }, message: error.message });
+        const d = error.details as UploadPreview & { preview: UploadPreview; profileMismatch?: string };
+        patch(row.key, { state: 'confirm', preview: { ...d.preview, detected: d.detected, reasons: d.profileMismatch ? [...d.reasons, d.profileMismatch] : d.reasons, kind: d.kind, sheets: d.sheets, sheet: d.sheet, fileName: row.file.name }, message: error.message });
       } else {
         patch(row.key, { state: 'error', message: error instanceof Error ? error.message : String(error) });
       }

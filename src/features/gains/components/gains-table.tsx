@@ -4,6 +4,7 @@ import { Link } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
 import { downloadText } from '@/components/plot/export';
 import { formatNumber } from '@/lib/format';
+import { writeCsv } from '@shared/csv/write-csv';
 import type { GainsData } from '../api/get-gains';
 import { displayOf, showGain, showValue } from './display';
 
@@ -20,11 +21,6 @@ function NoiseMark({ withinNoise }: { withinNoise: boolean | null }) {
   );
 }
 
-const csvCell = (value: string | number | null | undefined) => {
-  const text = value == null ? '' : String(value);
-  return /[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
-};
-
 export function gainsCsv(data: GainsData): string {
   const d = displayOf(data.response);
   const u = d.unit;
@@ -32,7 +28,7 @@ export function gainsCsv(data: GainsData): string {
   const header = ['step', 'build', 'replicates', 'change note', 'recipe change', `value (${u})`, `SD (${u})`, 'n', `gain (${u})`, `low 95 % (${u})`, `high 95 % (${u})`, 'within noise', 'method'];
   const rows = data.steps.map((st, k) => [k === 0 ? 'baseline' : String(k), st.code, st.replicates.join(' '), st.changeNote ?? '', st.changeText ?? '', num(st.value), num(st.sd), st.n, num(st.gain), num(st.low), num(st.high), st.withinNoise == null ? '' : st.withinNoise ? 'yes' : 'no', st.note ?? '']);
   rows.push(['total', `${data.steps[0].code} → ${data.steps[data.steps.length - 1].code}`, '', '', '', num(data.total.value), '', '', num(data.total.gain), num(data.total.low), num(data.total.high), data.total.withinNoise == null ? '' : data.total.withinNoise ? 'yes' : 'no', data.total.note ?? '']);
-  return [header, ...rows].map((r) => r.map(csvCell).join(',')).join('\n') + '\n';
+  return writeCsv([header, ...rows]);
 }
 
 /** The method note in display units (the server's note carries internal units). */

@@ -72,7 +72,8 @@ export const useMembers = (projectId: number) => useQuery(membersQueryOptions(pr
 export function useInvite(projectId: number) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (input: { email: string; role: string; labId?: number | null }) => api(`/projects/${projectId}/invitations`, { method: 'POST', body: input }),
+    mutationFn: (input: { email: string; role: string; labId?: number | null }) =>
+      api<{ invitation: { id: number; email: string } | null; member: { name: string; email: string; role: string; added: true } | null }>(`/projects/${projectId}/invitations`, { method: 'POST', body: input }),
     onSuccess: () => client.invalidateQueries({ queryKey: ['members', projectId] }),
   });
 }

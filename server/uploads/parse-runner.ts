@@ -1,0 +1,211 @@
+// Uploaded files are parsed off the main event loop, in a small pool of worker threads with a
+// memory limit each and a time limit per file, so one hostile or huge upload can never stall
+// the requests of everyone else (health checks, lists, curve reads). A worker that runs out of
+// time or memory is ended and replaced; the upload gets a 422 naming the limit.
+import fs from 'node:fs';
+import os from 'node:os';
+import { Worker } from 'node:worker_threads';
+import type { Env } from '../env';
+import { CurveFileError } from '../../shared/curves/types';
+import { MAX_CELLS_PER_ROW } from '../../shared/curves/parse-delimited';
+import { AppError } from '../lib/errors';
+import type { ReadOptions, ReadResult } from '../curves/read-upload';
+import type { WorkbookLimits } from './workbook-guard';
+import { guardedCopyPath } from './guarded-read';
+import type { ParseReply, ParseRequest, SerializedError } from './parse-protocol';
+
+export interface ParsePoolOptions {
+  workers: number;
+  timeoutMs: number;
+  memoryMb: number;
+}
+
+interface Job {
+  request: ParseRequest;
+  fileName: string;
+  onBytes?: (bytes: number) => void;
+  resolve: (result: ReadResult) => void;
+  reject: (error: unknown) => void;
+}
+
+const WORKER_ENTRY = new URL('./parse-worker-boot.mjs', import.meta.url);
+
+/** Default pool size: one thread per spare core, at least one, at most four. */
+export function defaultParseWorkers(): number {
+  const cores = typeof os.availableParallelism === 'function' ? os.availableParallelism() : os.cpus().length;
+  return Math.max(1, Math.min(4, cores - 1));
+}
+
+function rebuild(error: SerializedError, fileName: string): Error {
+  if (error.kind === 'curve') return new CurveFileError(error.code, error.message, { line: error.line ?? undefined, column: error.column ?? undefined });
+  if (error.kind === 'app') return new AppError(error.status, error.code, `${fileName}: ${error.message}`, error.details);
+  return new Error(error.message);
+}
+
+export class ParsePool {
+  private readonly idle: Worker[] = [];
+  private readonly all = new Set<Worker>();
+  private readonly queue: Job[] = [];
+  private nextId = 1;
+
+  constructor(private readonly options: ParsePoolOptions) {}
+
+  parse(path: string, options: ReadOptions, limits: WorkbookLimits, fileName = 'the file'): Promise<ReadResult> {
+    return new Promise<ReadResult>((resolve, reject) => {
+      this.queue.push({ request: { id: this.nextId++, path, sheet: options.sheet, maxRows: options.maxRows, limits }, fileName, onBytes: options.onBytes, resolve, reject });
+      this.dispatch();
+    });
+  }
+
+  /** Threads running now (busy or idle), for tests and the health of the pool. */
+  get size(): number {
+    return this.all.size;
+  }
+
+  /** Files being parsed right now. */
+  get busy(): number {
+    return this.running;
+  }
+  private running = 0;
+
+  async close(): Promise<void> {
+    const workers = [...this.all];
+    this.all.clear();
+    this.idle.length = 0;
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+
+  /** workers whose code has loaded (a fresh thread takes about a second to load tsx and the readers) */
+  private readonly ready = new WeakMap<Worker, Promise<void>>();
+
+  private spawn(): Worker {
+    const worker = new Worker(WORKER_ENTRY, {
+      // a small young generation: the parser's short-lived chunk strings are collected early,
+      // which keeps the process's peak memory during a big upload near that of a main-thread parse
+      resourceLimits: { maxOldGenerationSizeMb: this.options.memoryMb, maxYoungGenerationSizeMb: 16 },
+    });
+    this.all.add(worker);
+    this.ready.set(worker, new Promise<void>((resolve, reject) => {
+      const onMessage = (reply: ParseReply) => {
+        if (reply.type !== 'ready') return;
+        worker.off('message', onMessage);
+        worker.off('error', reject);
+        resolve();
+      };
+      worker.on('message', onMessage);
+      worker.once('error', reject);
+    }));
+    // an idle worker must not keep the process alive
+    worker.unref();
+    return worker;
+  }
+
+  /** Start the threads now rather than with the first upload. */
+  warm(): void {
+    while (this.all.size < this.options.workers) this.idle.push(this.spawn());
+  }
+
+  private dispatch(): void {
+    while (this.queue.length > 0) {
+      let worker = this.idle.pop();
+      if (!worker) {
+        if (this.all.size >= this.options.workers) return;
+        worker = this.spawn();
+      }
+      this.run(worker, this.queue.shift()!);
+    }
+  }
+
+  private retire(worker: Worker): void {
+    this.all.delete(worker);
+    const at = this.idle.indexOf(worker);
+    if (at >= 0) this.idle.splice(at, 1);
+    void worker.terminate();
+  }
+
+  private run(worker: Worker, job: Job): void {
+    let settled = false;
+    this.running++;
+    worker.ref();
+    const finish = (outcome: { result?: ReadResult; error?: unknown }, keepWorker: boolean) => {
+      if (settled) return;
+      settled = true;
+      this.running--;
+      clearTimeout(timer);
+      worker.off('message', onMessage);
+      worker.off('error', onError);
+      worker.off('exit', onExit);
+      if (keepWorker) {
+        worker.unref();
+        this.idle.push(worker);
+      } else {
+        this.retire(worker);
+        // an ended worker could not remove its guarded copy of a workbook
+        fs.rmSync(guardedCopyPath(job.request.path), { force: true });
+      }
+      if (outcome.error !== undefined) job.reject(outcome.error);
+      else job.resolve(outcome.result!);
+      this.dispatch();
+    };
+    const onMessage = (reply: ParseReply) => {
+      if (reply.type === 'ready' || reply.id !== job.request.id) return;
+      if (reply.type === 'bytes') job.onBytes?.(reply.bytes);
+      else if (reply.type === 'done') finish({ result: reply.result }, true);
+      else finish({ error: rebuild(reply.error, job.fileName) }, true);
+    };
+    const onError = (error: Error & { code?: string }) => {
+      if (error.code === 'ERR_WORKER_OUT_OF_MEMORY') {
+        finish({ error: new CurveFileError('parse-memory', `reading the file needed more than ${this.options.memoryMb} MB of memory, the limit per upload (UPLOAD_PARSE_MEMORY_MB); nothing was stored. Split the file or save it as CSV.`) }, false);
+      } else {
+        finish({ error }, false);
+      }
+    };
+    const onExit = (code: number) => finish({ error: new Error(`the upload parse worker stopped (exit code ${code})`) }, false);
+    worker.on('message', onMessage);
+    worker.on('error', onError);
+    worker.on('exit', onExit);
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    this.ready.get(worker)!.then(
+      () => {
+        if (settled) return;
+        // the clock runs from when the loaded worker gets the file
+        timer = setTimeout(() => {
+          finish({ error: new CurveFileError('parse-timeout', `reading the file took longer than ${Number((this.options.timeoutMs / 1000).toFixed(2))} s, the limit per upload (UPLOAD_PARSE_TIMEOUT_MS); nothing was stored. Split the file or save it as CSV.`) }, false);
+        }, this.options.timeoutMs);
+        worker.postMessage(job.request);
+      },
+      (error: unknown) => finish({ error }, false),
+    );
+  }
+}
+
+const pools = new Map<string, ParsePool>();
+
+/** One pool per process and setting (tests run apps with different limits side by side). */
+export function parsePool(env: Env): ParsePool {
+  const options: ParsePoolOptions = { workers: env.UPLOAD_PARSE_WORKERS ?? defaultParseWorkers(), timeoutMs: env.UPLOAD_PARSE_TIMEOUT_MS, memoryMb: env.UPLOAD_PARSE_MEMORY_MB };
+  const key = `${options.workers}|${options.timeoutMs}|${options.memoryMb}`;
+  let pool = pools.get(key);
+  if (!pool) {
+    pool = new ParsePool(options);
+    pools.set(key, pool);
+  }
+  return pool;
+}
+
+export function workbookLimits(env: Env): WorkbookLimits {
+  return {
+    maxPartBytes: env.UPLOAD_XLSX_MAX_PART_BYTES,
+    maxTotalBytes: 2 * env.UPLOAD_XLSX_MAX_PART_BYTES,
+    maxRatio: env.UPLOAD_XLSX_MAX_RATIO,
+    maxCells: env.UPLOAD_XLSX_MAX_CELLS,
+    maxColumns: MAX_CELLS_PER_ROW,
+    // a few title rows above the data are fine
+    maxRows: env.UPLOAD_MAX_ROWS + 1000,
+  };
+}
+
+/** readUpload's work, in the pool: same options, same result, or the same errors. */
+export function parseUpload(env: Env, path: string, options: ReadOptions, fileName?: string): Promise<ReadResult> {
+  return parsePool(env).parse(path, options, workbookLimits(env), fileName);
+}
