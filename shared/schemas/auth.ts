@@ -64,3 +64,13 @@ export const apiTokenCreateSchema = z.object({
   /** omitted by older scripts: full, as tokens were before scopes */
   scope: z.enum(TOKEN_SCOPES).default('full'),
 });
+
+/** Paging and filters of the admin lists (outbox, audit log): newest first, `before` an id. */
+export const adminPageQuery = z.object({
+  before: z.coerce.number().int().positive().optional(),
+  limit: z.coerce.number().int().min(1).max(500).default(100),
+  projectId: z.coerce.number().int().positive().optional(),
+  entity: z.string().max(40).optional(),
+  entityId: z.coerce.number().int().positive().optional(),
+});
+export type AdminPageQuery = z.infer<typeof adminPageQuery>;
