@@ -40,6 +40,8 @@ describe('design form values', () => {
       replicates: { type: 'schema', message: 'must be a number' },
       seed: { type: 'schema', message: 'must be at least 0' },
     });
+    const alpha = await resolve({ ...initialDesignValues(factors, 1), variant: 'inscribed', alpha: 'custom', alphaValue: 'abc' });
+    expect(alpha.errors).toEqual({ alphaValue: { type: 'schema', message: 'must be a number above 0, e.g. 1.682' } });
     const lhs = await resolve({ ...initialDesignValues(factors, 1), kind: 'latin-hypercube', runs: '0' });
     expect(lhs.errors).toEqual({ runs: { type: 'schema', message: 'must be at least 1' } });
   });

@@ -92,6 +92,8 @@ function fieldOf(path: PropertyKey[], kind: DesignKind): keyof DesignFormValues 
 /** The schema's issue in the words of the form (its own messages, where it has them, as they are). */
 function plainMessage(issue: { code: string; message: string; expected?: unknown; origin?: unknown; minimum?: unknown; maximum?: unknown }): string {
   if (issue.code === 'invalid_type') return issue.expected === 'int' ? 'must be a whole number' : 'must be a number';
+  // α is a word (rotatable, orthogonal) or a number: typed by hand, it was not a number
+  if (issue.code === 'invalid_union') return 'must be a number above 0, e.g. 1.682';
   if (issue.origin === 'number' && issue.code === 'too_small') return `must be at least ${String(issue.minimum)}`;
   if (issue.origin === 'number' && issue.code === 'too_big') return `must be at most ${String(issue.maximum)}`;
   return issue.message;
