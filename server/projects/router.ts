@@ -3,6 +3,7 @@ import { factorCreateSchema, notifySchema, projectCreateSchema, projectUpdateSch
 import { inviteCreateSchema, membershipSetSchema } from '../../shared/schemas/auth';
 import { defineFeature, route } from '../lib/route';
 import { requireLinkBase } from '../lib/base-url';
+import { allowedActions } from '../../shared/auth/permissions';
 import * as projects from './service';
 
 export const projectsFeature = defineFeature('projects', [
@@ -25,6 +26,11 @@ export const projectsFeature = defineFeature('projects', [
     method: 'patch', path: '/api/projects/{id}', tag: 'projects', permission: { action: 'editSettings', on: 'project' }, body: projectUpdateSchema,
     summary: 'Update a project; a new reference point recomputes every curve’s metrics',
     handle: ({ ctx, access, body }) => ({ project: projects.updateProject(ctx, access, body) }),
+  }),
+  route({
+    method: 'get', path: '/api/projects/{id}/permissions', tag: 'projects', permission: { action: 'read', on: 'project' },
+    summary: 'What my role may do in this project → {role, actions: {read, editSettings, createBuild, …: true | false}} (partners: lab-bound actions on their own lab’s builds only)',
+    handle: ({ access }) => ({ role: access.role, actions: allowedActions(access.role) }),
   }),
   route({
     method: 'get', path: '/api/projects/{id}/factors', tag: 'projects', permission: { action: 'read', on: 'project' },

@@ -87,6 +87,7 @@ export const MATRIX: MatrixRow[] = [
   { method: 'post', path: '/api/projects', send: (_h, c) => c.post('/api/projects', { name: unique('Matrix project '), settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } }) },
   { method: 'get', path: '/api/projects/{id}', send: (_h, c) => c.get(`/api/projects/${C()}`) },
   { method: 'patch', path: '/api/projects/{id}', send: (_h, c) => c.patch(`/api/projects/${C()}`, { description: unique('desc ') }) },
+  { method: 'get', path: '/api/projects/{id}/permissions', send: (_h, c) => c.get(`/api/projects/${C()}/permissions`) },
   { method: 'get', path: '/api/projects/{id}/factors', send: (_h, c) => c.get(`/api/projects/${C()}/factors`) },
   { method: 'post', path: '/api/projects/{id}/factors', send: (_h, c) => c.post(`/api/projects/${C()}/factors`, { key: unique('inkSolids'), label: 'Ink solids', unit: 'wt %', kind: 'continuous', low: 1, high: 5 }) },
   { method: 'patch', path: '/api/projects/{id}/factors/{factorId}', send: async (h, c) => {
@@ -210,6 +211,15 @@ describe('role × route matrix', () => {
       });
     }
   }
+
+  it('tells each role what it may do in the project, from the same table the routes check', async () => {
+    const researcher = await h.as.researcher.get(`/api/projects/${C()}/permissions`);
+    expect(researcher.body.role).toBe('researcher');
+    expect(researcher.body.actions).toMatchObject({ read: true, createBuild: true, fit: true, plan: true, review: false, editSettings: false, invite: false });
+    const viewer = await h.as.viewer.get(`/api/projects/${C()}/permissions`);
+    expect(Object.entries(viewer.body.actions).filter(([, allowed]) => allowed).map(([action]) => action)).toEqual(['read']);
+    expect((await h.as.admin.get(`/api/projects/${C()}/permissions`)).body.role).toBe('admin');
+  });
 
   it('a partner cannot edit another lab’s build, nor see a project it is not in', async () => {
     const other = await h.as.partner.patch(`/api/builds/${ids.build('C-001')}`, { changeNote: 'nope' });
