@@ -2,6 +2,7 @@
 // counts as end of life, with the results beside them and the typical band for comparison.
 import { useState } from 'react';
 import type { CurveSummary } from '@shared/api-types';
+import type { CurvePatch } from '@shared/schemas/curves';
 import { TYPICAL_DEGRADATION_BAND } from '@shared/durability/typical-band';
 import { Button } from '@/components/ui/button';
 import { Input } from '@/components/ui/field';
@@ -41,13 +42,8 @@ export function bandWord(rate: number | null): string {
   return 'above the standard band';
 }
 
-/** A change of a log's durability options (PATCH /api/curves/:id). */
-export interface DurabilityOptionsChange {
-  curveId: number;
-  breakInHours?: number | null;
-  lossFraction?: number;
-  windows?: { fromHours: number; toHours: number }[];
-}
+/** A change of a log's durability options (the body of PATCH /api/curves/:id, with the curve). */
+export type DurabilityOptionsChange = Omit<CurvePatch, 'label'> & { curveId: number };
 
 /** How the page saves a change: the curves feature's update mutation, handed in by the page. */
 export interface DurabilityOptionsUpdate {
