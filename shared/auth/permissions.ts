@@ -116,6 +116,14 @@ export function labForNewProfile(actor: Actor, requestedLabId: number | null | u
   return { labId, problem: null };
 }
 
+/**
+ * The lab a person is held to for an action, or null when they may act for any lab: what a form
+ * locks its lab field to (partners: their own lab on lab-bound actions).
+ */
+export function labHeldTo(actor: Actor, action: ProjectAction): number | null {
+  return actor.standing === 'partner' && 'partnerOwnLab' in PROJECT_ACTIONS[action] ? actor.labId : null;
+}
+
 /** Site level: partner-lab members cannot create projects (they are invited into them). */
 export function mayCreateProject(person: { isAdmin: boolean; labKind: 'home' | 'partner' | null }): boolean {
   return person.isAdmin || person.labKind !== 'partner';

@@ -1,7 +1,7 @@
 // The role × action table, pinned: a change to who may do what shows here as a changed row.
 // The role matrix API test checks the server enforces the same table on every route.
 import { describe, expect, it } from 'vitest';
-import { PROJECT_ACTION_NAMES, allowedActions, buildPermissions, labForNewBuild, labForNewProfile, mayCreateProject, partnerLabProblem, profileLabProblem, refusalText, roleAllows, rolesAllowed } from '../../../shared/auth/permissions';
+import { PROJECT_ACTION_NAMES, allowedActions, buildPermissions, labForNewBuild, labHeldTo, labForNewProfile, mayCreateProject, partnerLabProblem, profileLabProblem, refusalText, roleAllows, rolesAllowed } from '../../../shared/auth/permissions';
 
 // pi: everything in the project; researcher: builds, uploads, fits, plans; partner: its own lab's builds; viewer: reads
 const EXPECTED = {
@@ -66,6 +66,12 @@ describe('the partner rule', () => {
     expect(labForNewProfile(partner, 8).problem).toMatch(/own lab/);
     expect(labForNewProfile(researcher, undefined)).toEqual({ labId: 1, problem: null });
     expect(labForNewProfile(researcher, null)).toEqual({ labId: null, problem: null });
+  });
+
+  it('says which lab a form locks to', () => {
+    expect(labHeldTo(partner, 'createBuild')).toBe(7);
+    expect(labHeldTo(partner, 'comment')).toBeNull();
+    expect(labHeldTo(researcher, 'createBuild')).toBeNull();
   });
 
   it('gives the build page the same answers', () => {
