@@ -8,16 +8,10 @@ import fs from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import type { AppContext } from './context';
 import { authenticate, csrfGuard, tokenScopeGuard } from './auth/sessions';
-import { authRouter } from './auth/router';
-import { projectsRouter } from './projects/router';
-import { buildsRouter } from './builds/router';
-import { adminRouter } from './admin/router';
-import { homeRouter } from './home/router';
-import { curvesRouter } from './curves/router';
 import { errorMiddleware } from './lib/error-middleware';
 import { AppError } from './lib/errors';
 import { openApiDocument } from './openapi';
-import { extraRouters } from './routers';
+import { FEATURES } from './features';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -63,13 +57,7 @@ export function createApp(ctx: AppContext, options: { serveClient?: boolean } = 
   api.use(tokenScopeGuard());
   api.get('/openapi.json', (_req, res) => res.json(openApiDocument()));
   api.get('/health', (_req, res) => res.json({ ok: true }));
-  api.use(authRouter(ctx));
-  api.use(homeRouter(ctx));
-  api.use(projectsRouter(ctx));
-  api.use(buildsRouter(ctx));
-  api.use(curvesRouter(ctx));
-  api.use(adminRouter(ctx));
-  for (const extra of extraRouters) api.use(extra(ctx));
+  for (const feature of FEATURES) api.use(feature.router(ctx));
   api.use((req, _res, next) => next(new AppError(404, 'not-found', `No API route ${req.method} /api${req.path}.`)));
   app.use('/api', api);
 

@@ -1,68 +1,31 @@
-// The OpenAPI document of the JSON API, generated from the same zod schemas the routes validate with.
+// The OpenAPI document of the JSON API, generated from the feature modules' routes: the same
+// zod schemas the routes validate with, and the permission each route checks.
 import { OpenAPIRegistry, OpenApiGeneratorV3, extendZodWithOpenApi } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
+import { PROJECT_ACTIONS } from '../shared/auth/permissions';
+import { ROUTES } from './features';
+import { TEXT_PARAMS, type Permission, type RouteDoc } from './lib/route';
 
 extendZodWithOpenApi(z);
-import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../shared/schemas/project';
-import { buildCreateSchema, buildUpdateSchema } from '../shared/schemas/build';
-import { apiTokenCreateSchema, inviteAcceptSchema, inviteCreateSchema, labCreateSchema, loginSchema, membershipSetSchema, personUpdateSchema } from '../shared/schemas/auth';
-import { extraRoutes } from './openapi-extra';
 
-export interface RouteDoc {
-  method: 'get' | 'post' | 'patch' | 'put' | 'delete';
-  path: string;
-  summary: string;
-  body?: z.ZodType;
-  multipart?: Record<string, z.ZodType>;
-  query?: z.ZodObject;
-  tag: string;
-}
+export { ROUTES, type RouteDoc };
 
 const errorSchema = z.object({ error: z.object({ code: z.string(), message: z.string(), details: z.unknown() }) });
+const fileField = z.string().describe('the file (CSV, TSV, TXT or XLSX)').openapi({ format: 'binary' });
 
-export const ROUTES: RouteDoc[] = [
-  { method: 'post', path: '/api/auth/login', summary: 'Sign in with e-mail and password; sets the session cookie and returns the CSRF token', body: loginSchema, tag: 'auth' },
-  { method: 'post', path: '/api/auth/logout', summary: 'Sign out (revokes this session)', tag: 'auth' },
-  { method: 'get', path: '/api/auth/me', summary: 'The signed-in person, their project roles and CSRF token', tag: 'auth' },
-  { method: 'get', path: '/api/auth/sessions', summary: 'My sessions', tag: 'auth' },
-  { method: 'post', path: '/api/auth/sessions/{id}/revoke', summary: 'Revoke one of my sessions', tag: 'auth' },
-  { method: 'get', path: '/api/auth/tokens', summary: 'My personal API tokens', tag: 'auth' },
-  { method: 'post', path: '/api/auth/tokens', summary: 'Create a personal API token (shown once); use as Authorization: Bearer <token>', body: apiTokenCreateSchema, tag: 'auth' },
-  { method: 'post', path: '/api/auth/tokens/{id}/revoke', summary: 'Revoke a personal API token', tag: 'auth' },
-  { method: 'get', path: '/api/invitations/{token}', summary: 'Read an invitation', tag: 'auth' },
-  { method: 'post', path: '/api/invitations/{token}/accept', summary: 'Accept an invitation: set name and password', body: inviteAcceptSchema, tag: 'auth' },
-  { method: 'get', path: '/api/home', summary: 'Home page: my projects with best builds, recent uploads', tag: 'home' },
-  { method: 'get', path: '/api/projects', summary: 'Projects visible to me', tag: 'projects' },
-  { method: 'post', path: '/api/projects', summary: 'Create a project (the creator becomes its PI)', body: projectCreateSchema, tag: 'projects' },
-  { method: 'get', path: '/api/projects/{id}', summary: 'Read a project', tag: 'projects' },
-  { method: 'patch', path: '/api/projects/{id}', summary: 'Update a project; a new reference point recomputes every curve’s metrics', body: projectUpdateSchema, tag: 'projects' },
-  { method: 'get', path: '/api/projects/{id}/factors', summary: 'List factors', tag: 'projects' },
-  { method: 'post', path: '/api/projects/{id}/factors', summary: 'Add a factor', body: factorCreateSchema, tag: 'projects' },
-  { method: 'patch', path: '/api/projects/{id}/factors/{factorId}', summary: 'Update a factor (key fixed)', body: factorCreateSchema, tag: 'projects' },
-  { method: 'get', path: '/api/projects/{id}/responses', summary: 'List hand-entered response definitions', tag: 'projects' },
-  { method: 'post', path: '/api/projects/{id}/responses', summary: 'Add a hand-entered response definition', body: responseCreateSchema, tag: 'projects' },
-  { method: 'get', path: '/api/projects/{id}/members', summary: 'Members and pending invitations', tag: 'projects' },
-  { method: 'put', path: '/api/projects/{id}/members', summary: 'Set a member’s role', body: membershipSetSchema, tag: 'projects' },
-  { method: 'delete', path: '/api/projects/{id}/members/{userId}', summary: 'Remove a member', tag: 'projects' },
-  { method: 'put', path: '/api/projects/{id}/notify', summary: 'Turn my e-mail notices for this project on or off', body: z.object({ notify: z.boolean(), digest: z.boolean().optional() }), tag: 'projects' },
-  { method: 'post', path: '/api/projects/{id}/invitations', summary: 'Invite someone by e-mail (link valid 7 days, once)', body: inviteCreateSchema, tag: 'projects' },
-  { method: 'get', path: '/api/projects/{id}/builds', summary: 'List builds with factor values and metric values (from each build’s curves of record: recordCurveIds)', tag: 'builds' },
-  { method: 'post', path: '/api/projects/{id}/builds', summary: 'Create a build (factor values checked against bounds and levels)', body: buildCreateSchema, tag: 'builds' },
-  { method: 'get', path: '/api/builds/{id}', summary: 'Read a build with lineage, curves and metrics', tag: 'builds' },
-  { method: 'patch', path: '/api/builds/{id}', summary: 'Update a build', body: buildUpdateSchema, tag: 'builds' },
-  { method: 'get', path: '/api/labs', summary: 'Labs (home and partner)', tag: 'admin' },
-  { method: 'post', path: '/api/admin/labs', summary: 'Add a lab (admin)', body: labCreateSchema, tag: 'admin' },
-  { method: 'get', path: '/api/admin/people', summary: 'People and their roles (admin)', tag: 'admin' },
-  { method: 'patch', path: '/api/admin/people/{id}', summary: 'Update a person (admin)', body: personUpdateSchema, tag: 'admin' },
-  { method: 'post', path: '/api/admin/people/{id}/revoke-sessions', summary: 'Sign a person out everywhere (admin)', tag: 'admin' },
-  { method: 'post', path: '/api/admin/digests/send', summary: 'Send the daily digest of notices now (admin; it also runs every 24 h)', tag: 'admin' },
-  { method: 'get', path: '/api/admin/outbox', summary: 'Messages in the local outbox (admin)', tag: 'admin' },
-  { method: 'get', path: '/api/admin/backups', summary: 'Backups in BACKUP_DIR, newest first (admin)', tag: 'admin' },
-  { method: 'post', path: '/api/admin/backups', summary: 'Write a backup now: online database copy + raw files + SHA-256 manifest, as a .tar in BACKUP_DIR (admin)', tag: 'admin' },
-  { method: 'get', path: '/api/admin/backups/{name}', summary: 'Download a backup archive (admin)', tag: 'admin' },
-  { method: 'get', path: '/api/admin/audit', summary: 'Audit log (admin)', tag: 'admin' },
-  ...extraRoutes,
-];
+const SCOPE_WORDS = { project: 'the project', build: 'the build’s project', curve: 'the curve’s project', file: 'the file’s project', 'import-profile': 'the profile’s project' } as const;
+
+/** "Who may: pi, researcher in the build’s project (site admins too)." */
+export function describePermission(permission: Permission): string {
+  if (permission === 'public') return 'Who may: anyone (no sign-in).';
+  if (permission === 'signed-in') return 'Who may: any signed-in person, on their own things.';
+  if (permission === 'site-admin') return 'Who may: site administrators.';
+  if (permission === 'create-project') return 'Who may: any signed-in person except partner-lab members.';
+  const rule = PROJECT_ACTIONS[permission.action];
+  const partner = 'partnerOwnLab' in rule ? ' Partners: their own lab’s builds only.' : '';
+  const admins = permission.members ? ' (members only)' : ' (site admins too)';
+  return `Who may (${permission.action}): ${rule.roles.join(', ')} in ${SCOPE_WORDS[permission.on]}${admins}.${partner}`;
+}
 
 let cached: unknown = null;
 
@@ -74,26 +37,27 @@ export function openApiDocument(): unknown {
   registry.registerComponent('securitySchemes', 'token', { type: 'http', scheme: 'bearer' });
   for (const route of ROUTES) {
     const params = [...route.path.matchAll(/\{(\w+)\}/g)].map((m) => m[1]!);
-    const paramsSchema = params.length ? z.object(Object.fromEntries(params.map((p) => [p, p === 'token' ? z.string() : z.coerce.number().int()]))) : undefined;
+    const paramsSchema = params.length ? z.object(Object.fromEntries(params.map((p) => [p, TEXT_PARAMS.has(p) ? z.string() : z.coerce.number().int()]))) : undefined;
     registry.registerPath({
       method: route.method,
       path: route.path,
       summary: route.summary,
+      description: describePermission(route.permission),
       tags: [route.tag],
-      security: route.path === '/api/auth/login' ? [] : [{ session: [] }, { token: [] }],
+      security: route.permission === 'public' ? [] : [{ session: [] }, { token: [] }],
       request: {
         ...(paramsSchema && { params: paramsSchema }),
-        ...(route.query && { query: route.query }),
+        ...(route.query && { query: route.query as z.ZodObject }),
         ...(route.body && { body: { content: { 'application/json': { schema: route.body } } } }),
-        ...(route.multipart && { body: { content: { 'multipart/form-data': { schema: z.object(route.multipart) } } } }),
+        ...(route.multipart && { body: { content: { 'multipart/form-data': { schema: z.object({ file: fileField, ...route.multipart.shape }) } } } }),
       },
       responses: {
-        200: { description: 'OK (201 for creations)' },
+        [route.status ?? 200]: { description: route.status === 201 ? 'Created' : 'OK' },
         400: { description: 'Invalid input; details.fields names each field', content: { 'application/json': { schema: errorSchema } } },
         401: { description: 'Not signed in', content: { 'application/json': { schema: errorSchema } } },
         403: { description: 'Role does not allow it', content: { 'application/json': { schema: errorSchema } } },
         404: { description: 'Not found or not visible', content: { 'application/json': { schema: errorSchema } } },
-        422: { description: 'A file that cannot be used, with the reason and where', content: { 'application/json': { schema: errorSchema } } },
+        422: { description: 'A file or request that cannot be used, with the reason and where', content: { 'application/json': { schema: errorSchema } } },
       },
     });
   }

@@ -1,42 +1,25 @@
-// Who may do what in a project. Every route asks here; the client only hides what this refuses.
-import { and, eq } from 'drizzle-orm';
+// The server's permission guard. Every route declares what it checks (server/lib/route.ts); this
+// module checks it against the one role × action table (shared/auth/permissions.ts), loading the
+// project, build, curve, file or import profile the path names on the way.
+import { eq, sql } from 'drizzle-orm';
 import type { Db } from '../db';
-import { memberships, projects } from '../db/schema';
-import type { AuthUser } from '../context';
+import { builds, curves, files, importProfiles, memberships, projects } from '../db/schema';
+import type { AppContext, AuthUser } from '../context';
 import type { ProjectRole } from '../../shared/schemas/project';
+import { mayCreateProject, partnerLabProblem, profileLabProblem, refusalText, roleAllows, type Actor, type ProjectAction } from '../../shared/auth/permissions';
 import { forbidden, notFound, unauthorized } from '../lib/errors';
+import type { Permission } from '../lib/route';
 
-export type ProjectAction =
-  | 'read'
-  | 'editSettings'
-  | 'invite'
-  | 'editFactors'
-  | 'createBuild'
-  | 'deleteBuild'
-  | 'fit'
-  | 'plan'
-  | 'review'
-  | 'comment'
-  | 'manageProfiles'
-  | 'manageAnyLabProfile';
 
-/** The role matrix, in one place: which per-project roles may do each action (admins may do all). */
-export const ROLE_MATRIX: Record<ProjectAction, readonly ProjectRole[]> = {
-  read: ['pi', 'researcher', 'partner', 'viewer'],
-  editSettings: ['pi'],
-  invite: ['pi'],
-  editFactors: ['pi', 'researcher'],
-  createBuild: ['pi', 'researcher', 'partner'],
-  deleteBuild: ['pi', 'researcher'],
-  fit: ['pi', 'researcher'],
-  plan: ['pi', 'researcher'],
-  review: ['pi'],
-  comment: ['pi', 'researcher', 'partner'],
-  /** save or remove import profiles, for one's own lab only (see requireProfileLab) */
-  manageProfiles: ['pi', 'researcher', 'partner'],
-  /** …for any lab of the project, or for builds without a lab */
-  manageAnyLabProfile: ['pi'],
-};
+export type { ProjectAction };
+
+type BuildRow = typeof builds.$inferSelect;
+type CurveRow = typeof curves.$inferSelect;
+type FileRow = typeof files.$inferSelect;
+type ProfileRow = typeof importProfiles.$inferSelect;
+
+/** What the path's {id} names on a project-scoped route. */
+export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile';
 
 export interface ProjectAccess {
   projectId: number;
@@ -44,85 +27,134 @@ export interface ProjectAccess {
   user: AuthUser;
 }
 
+/** What a permission check hands the handler, by scope. */
+export type Guarded<P> = P extends { on: 'project' }
+  ? { access: ProjectAccess }
+  : P extends { on: 'build' }
+    ? { access: ProjectAccess; build: BuildRow }
+    : P extends { on: 'curve' }
+      ? { access: ProjectAccess; build: BuildRow; curve: CurveRow }
+      : P extends { on: 'file' }
+        ? { access: ProjectAccess; file: FileRow }
+        : P extends { on: 'import-profile' }
+          ? { access: ProjectAccess; profile: ProfileRow }
+          : unknown;
+
 export function requireUser(user: AuthUser | undefined): AuthUser {
   if (!user) throw unauthorized();
   return user;
 }
 
-export function projectRole(db: Db, user: AuthUser, projectId: number): ProjectRole | null {
-  const row = db
-    .select({ role: memberships.role })
-    .from(memberships)
-    .where(and(eq(memberships.projectId, projectId), eq(memberships.userId, user.id)))
-    .get();
-  return row?.role ?? null;
+/** The acting person as the shared rules see them. */
+export function actorOf(access: ProjectAccess): Actor {
+  return { standing: access.role, labId: access.user.labId };
+}
+
+/** Asked on every project route: one prepared Drizzle join, compiled once per database. */
+const standingStatements = new WeakMap<object, ReturnType<typeof prepareStanding>>();
+function prepareStanding(db: Db) {
+  return db
+    .select({ id: projects.id, role: memberships.role })
+    .from(projects)
+    .leftJoin(memberships, sql`${memberships.projectId} = ${projects.id} and ${memberships.userId} = ${sql.placeholder('userId')}`)
+    .where(eq(projects.id, sql.placeholder('projectId')))
+    .prepare();
 }
 
 /**
- * Resolve the user's access to a project and check one action.
- * A project the user cannot see answers 404 (not 403), so partners cannot probe for projects.
+ * The user's access to a project, checked for one action. A project the user cannot see answers
+ * 404 (not 403), so partners cannot probe for projects. With `members`, a site admin who is not a
+ * member of the project is refused too (for things only members have, like their own notices).
  */
-const accessStatements = new WeakMap<object, { projectRole: import('better-sqlite3').Statement }>();
-
-/**
- * Resolve the user's access to a project and check one action.
- * A project the user cannot see answers 404 (not 403), so partners cannot probe for projects.
- */
-export function requireProject(db: Db, user: AuthUser | undefined, projectId: number, action: ProjectAction): ProjectAccess {
+export function requireProject(db: Db, user: AuthUser | undefined, projectId: number, action: ProjectAction, options: { members?: boolean } = {}): ProjectAccess {
   const who = requireUser(user);
-  let statements = accessStatements.get(db.$client);
-  if (!statements) {
-    // asked on every project route: one prepared join, compiled once per database
-    statements = { projectRole: db.$client.prepare('select p.id, m.role from projects p left join memberships m on m.project_id = p.id and m.user_id = ? where p.id = ?') };
-    accessStatements.set(db.$client, statements);
+  let statement = standingStatements.get(db.$client);
+  if (!statement) {
+    statement = prepareStanding(db);
+    standingStatements.set(db.$client, statement);
   }
-  const found = statements.projectRole.get(who.id, projectId) as { id: number; role: ProjectRole | null } | undefined;
+  const found = statement.get({ userId: who.id, projectId });
   if (!found) throw notFound(`Project ${projectId}`);
-  if (who.isAdmin) return { projectId, role: 'admin', user: who };
+  if (who.isAdmin) {
+    if (options.members && !found.role) throw notFound('Your membership');
+    return { projectId, role: 'admin', user: who };
+  }
   const role = found.role;
   if (!role) throw notFound(`Project ${projectId}`);
-  if (!ROLE_MATRIX[action].includes(role)) throw forbidden(`Your role (${role}) in this project does not allow: ${describe(action)}.`);
+  if (!roleAllows(role, action)) throw forbidden(refusalText(role, action));
   return { projectId, role, user: who };
 }
 
 export function can(access: { role: ProjectRole | 'admin' }, action: ProjectAction): boolean {
-  return access.role === 'admin' || ROLE_MATRIX[action].includes(access.role);
+  return roleAllows(access.role, action);
 }
 
-/** Partners may only touch builds of their own lab. */
-export function requireBuildWrite(access: ProjectAccess, build: { labId: number | null }): void {
-  if (access.role === 'viewer') throw forbidden('Viewers cannot change builds.');
-  if (access.role === 'partner' && (access.user.labId == null || build.labId !== access.user.labId)) {
-    throw forbidden('Partners may only change builds of their own lab.');
-  }
+/** The partner rule on one build: a 403 unless the action is allowed on a build of that lab. */
+export function requireOwnLab(access: ProjectAccess, action: ProjectAction, buildLabId: number | null): void {
+  const problem = partnerLabProblem(actorOf(access), action, buildLabId);
+  if (problem) throw forbidden(problem);
+}
+
+/** The import-profile rule: a 403 unless the person may keep profiles for that lab. */
+export function requireProfileLab(access: ProjectAccess, labId: number | null): void {
+  const problem = profileLabProblem(actorOf(access), labId);
+  if (problem) throw forbidden(problem);
+}
+
+function loadBuild(db: Db, id: number): BuildRow {
+  const row = db.select().from(builds).where(eq(builds.id, id)).get();
+  if (!row) throw notFound(`Build ${id}`);
+  return row;
 }
 
 /**
- * Import profiles decide how a lab's files are read, so only the lab's own members (with a
- * writing role in the project) and the project's PIs (and admins) may save or remove one for it.
- * A profile without a lab (for builds that have none) is for PIs and admins only.
+ * Check a route's permission for this caller and the path's ids; returns what it loaded on the
+ * way (the access and the build, curve, file or profile), which the handler receives.
  */
-export function requireProfileLab(access: ProjectAccess, labId: number | null): void {
-  if (!can(access, 'manageProfiles')) throw forbidden(`Your role (${access.role}) in this project does not allow: ${describe('manageProfiles')}.`);
-  if (can(access, 'manageAnyLabProfile')) return;
-  if (labId == null) throw forbidden('Only the project’s PIs may save or remove import profiles that apply to builds without a lab.');
-  if (access.user.labId !== labId) throw forbidden('You may only save or remove import profiles for your own lab; a PI of the project can do it for other labs.');
-}
-
-function describe(action: ProjectAction): string {
-  const words: Record<ProjectAction, string> = {
-    read: 'read the project',
-    editSettings: 'change project settings',
-    invite: 'invite people',
-    editFactors: 'change factors or responses',
-    createBuild: 'create builds',
-    deleteBuild: 'delete builds',
-    fit: 'fit surfaces',
-    plan: 'plan designs',
-    review: 'give review verdicts',
-    comment: 'comment',
-    manageProfiles: 'manage import profiles',
-    manageAnyLabProfile: 'manage import profiles of other labs',
-  };
-  return words[action];
+export function guard(ctx: AppContext, user: AuthUser | undefined, permission: Permission, ids: Record<string, number>): Record<string, unknown> {
+  const { db } = ctx;
+  if (permission === 'public') return {};
+  const who = requireUser(user);
+  if (permission === 'signed-in') return {};
+  if (permission === 'site-admin') {
+    if (!who.isAdmin) throw forbidden('Only site administrators may do this.');
+    return {};
+  }
+  if (permission === 'create-project') {
+    if (!mayCreateProject(who)) throw forbidden('Partner-lab members cannot create projects; ask the project PI to invite you.');
+    return {};
+  }
+  const id = ids.id!;
+  const { action, on } = permission;
+  const options = { members: permission.members === true };
+  switch (on) {
+    case 'project':
+      return { access: requireProject(db, who, id, action, options) };
+    case 'build': {
+      const build = loadBuild(db, id);
+      const access = requireProject(db, who, build.projectId, action, options);
+      requireOwnLab(access, action, build.labId);
+      return { access, build };
+    }
+    case 'curve': {
+      const curve = db.select().from(curves).where(eq(curves.id, id)).get();
+      if (!curve) throw notFound(`Curve ${id}`);
+      const build = loadBuild(db, curve.buildId);
+      const access = requireProject(db, who, build.projectId, action, options);
+      requireOwnLab(access, action, build.labId);
+      return { access, build, curve };
+    }
+    case 'file': {
+      const file = db.select().from(files).where(eq(files.id, id)).get();
+      if (!file || file.projectId == null) throw notFound(`File ${id}`);
+      return { access: requireProject(db, who, file.projectId, action, options), file };
+    }
+    case 'import-profile': {
+      const profile = db.select().from(importProfiles).where(eq(importProfiles.id, id)).get();
+      if (!profile || profile.projectId == null) throw notFound(`Import profile ${id}`);
+      const access = requireProject(db, who, profile.projectId, action, options);
+      if (action === 'manageProfiles') requireProfileLab(access, profile.labId);
+      return { access, profile };
+    }
+  }
 }

@@ -2,11 +2,11 @@
 import type { Request, Response, NextFunction } from 'express';
 import { createHash, timingSafeEqual } from 'node:crypto';
 import type { AppContext, AuthUser } from '../context';
-import { sessions } from '../db/schema';
+import { and, eq, gt, isNull, sql } from 'drizzle-orm';
+import { apiTokens, labs, sessions, users } from '../db/schema';
 import { newToken, sha256 } from './tokens';
 import { AppError } from '../lib/errors';
 import { originAllowed } from '../lib/base-url';
-import type { TokenScope } from '../../shared/schemas/auth';
 
 export const SESSION_COOKIE = 'cw_session';
 const SESSION_DAYS = 14;
@@ -29,36 +29,30 @@ export function setSessionCookie(req: Request, res: Response, token: string, exp
   });
 }
 
-interface AuthRow {
-  id: number;
-  email: string;
-  name: string;
-  isAdmin: number;
-  labId: number | null;
-  labKind: 'home' | 'partner' | null;
-  sessionId?: number;
-  csrfToken?: string;
-  tokenId?: number;
-  tokenScope?: TokenScope;
-  lastUsedAt?: string | null;
-}
-
-const USER_COLUMNS = 'u.id, u.email, u.name, u.is_admin as isAdmin, u.lab_id as labId, l.kind as labKind';
-
-/** Every request resolves its caller: one prepared join per way in, compiled once per database. */
+/**
+ * Every request resolves its caller: one prepared Drizzle join per way in (session cookie or
+ * API token), compiled once per database.
+ */
 const statements = new WeakMap<object, ReturnType<typeof prepareAuth>>();
 function prepareAuth(ctx: AppContext) {
-  const sqlite = ctx.db.$client;
+  const { db } = ctx;
+  const person = { id: users.id, email: users.email, name: users.name, isAdmin: users.isAdmin, labId: users.labId, labKind: labs.kind };
   return {
-    session: sqlite.prepare(
-      `select ${USER_COLUMNS}, s.id as sessionId, s.csrf_token as csrfToken from sessions s join users u on u.id = s.user_id left join labs l on l.id = u.lab_id
-       where s.token_hash = ? and s.revoked_at is null and s.expires_at > ? and u.disabled_at is null`,
-    ),
-    token: sqlite.prepare(
-      `select ${USER_COLUMNS}, t.id as tokenId, t.scope as tokenScope, t.last_used_at as lastUsedAt, u.disabled_at as disabledAt from api_tokens t join users u on u.id = t.user_id left join labs l on l.id = u.lab_id
-       where t.token_hash = ? and t.revoked_at is null`,
-    ),
-    touchToken: sqlite.prepare('update api_tokens set last_used_at = ? where id = ?'),
+    session: db
+      .select({ ...person, sessionId: sessions.id, csrfToken: sessions.csrfToken })
+      .from(sessions)
+      .innerJoin(users, eq(users.id, sessions.userId))
+      .leftJoin(labs, eq(labs.id, users.labId))
+      .where(and(eq(sessions.tokenHash, sql.placeholder('hash')), isNull(sessions.revokedAt), gt(sessions.expiresAt, sql.placeholder('now')), isNull(users.disabledAt)))
+      .prepare(),
+    token: db
+      .select({ ...person, tokenId: apiTokens.id, tokenScope: apiTokens.scope, lastUsedAt: apiTokens.lastUsedAt, disabledAt: users.disabledAt })
+      .from(apiTokens)
+      .innerJoin(users, eq(users.id, apiTokens.userId))
+      .leftJoin(labs, eq(labs.id, users.labId))
+      .where(and(eq(apiTokens.tokenHash, sql.placeholder('hash')), isNull(apiTokens.revokedAt)))
+      .prepare(),
+    touchToken: db.update(apiTokens).set({ lastUsedAt: sql.placeholder('now') as unknown as string }).where(eq(apiTokens.id, sql.placeholder('id'))).prepare(),
   };
 }
 function auth(ctx: AppContext) {
@@ -70,8 +64,8 @@ function auth(ctx: AppContext) {
   return found;
 }
 
-function toAuthUser(row: AuthRow): AuthUser {
-  return { id: row.id, email: row.email, name: row.name, isAdmin: Boolean(row.isAdmin), labId: row.labId, labKind: row.labKind ?? null };
+function toAuthUser(row: { id: number; email: string; name: string; isAdmin: boolean; labId: number | null; labKind: 'home' | 'partner' | null }): AuthUser {
+  return { id: row.id, email: row.email, name: row.name, isAdmin: row.isAdmin, labId: row.labId, labKind: row.labKind ?? null };
 }
 
 /** Reads a Bearer token or the session cookie; never rejects — routes decide. */
@@ -80,7 +74,7 @@ export function authenticate(ctx: AppContext) {
     const header = req.get('authorization');
     const now = new Date().toISOString();
     if (header?.startsWith('Bearer ')) {
-      const row = auth(ctx).token.get(sha256(header.slice(7).trim())) as (AuthRow & { disabledAt: string | null }) | undefined;
+      const row = auth(ctx).token.get({ hash: sha256(header.slice(7).trim()) });
       if (!row) return next(new AppError(401, 'bad-token', 'The API token is unknown or revoked.'));
       if (row.disabledAt) return next(new AppError(401, 'bad-token', 'The API token belongs to a disabled account.'));
       req.user = toAuthUser(row);
@@ -88,12 +82,12 @@ export function authenticate(ctx: AppContext) {
       req.tokenId = row.tokenId;
       req.tokenScope = row.tokenScope ?? 'full';
       // "last used" to the minute: no write on every request of a busy script
-      if (!row.lastUsedAt || Date.parse(now) - Date.parse(row.lastUsedAt) > 60_000) auth(ctx).touchToken.run(now, row.tokenId);
+      if (!row.lastUsedAt || Date.parse(now) - Date.parse(row.lastUsedAt) > 60_000) auth(ctx).touchToken.run({ now, id: row.tokenId });
       return next();
     }
     const cookie = (req.cookies as Record<string, string> | undefined)?.[SESSION_COOKIE];
     if (cookie) {
-      const row = auth(ctx).session.get(sha256(cookie), now) as AuthRow | undefined;
+      const row = auth(ctx).session.get({ hash: sha256(cookie), now });
       if (row) {
         req.user = toAuthUser(row);
         req.authVia = 'cookie';

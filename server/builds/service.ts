@@ -1,19 +1,25 @@
-// Builds: create, read, update, list with their current metric values and lineage.
+// Builds: create, read, update, list with their current metric values and lineage; the build
+// page's answer; choosing a curve of record.
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { z } from 'zod';
 import type { AppContext } from '../context';
+import type { Db } from '../db';
 import { builds, curves, labs, projects, users } from '../db/schema';
-import { buildCreateSchema, buildUpdateSchema, checkFactorValues } from '../../shared/schemas/build';
+import { dataVersion } from '../db/data-version';
+import { checkFactorValues, type buildCreateSchema, type buildUpdateSchema, type BuildListQuery, type RecordChoice } from '../../shared/schemas/build';
 import type { Build, RecordCurveIds } from '../../shared/api-types';
-import type { CurveKind } from '../../shared/curves/types';
+import type { CurveKind, CurveMetrics } from '../../shared/curves/types';
+import { buildPermissions, labForNewBuild } from '../../shared/auth/permissions';
+import { becameTested, nextStatus } from '../../shared/builds/status';
 import { audit } from '../lib/audit';
-import { AppError, conflict, notFound } from '../lib/errors';
-import { requireBuildWrite, requireProject, requireUser, type ProjectAccess } from '../auth/access';
-import type { AuthUser } from '../context';
+import { answerCache } from '../lib/answer-cache';
+import { AppError, conflict, forbidden, notFound } from '../lib/errors';
+import { actorOf, can, requireOwnLab, type ProjectAccess } from '../auth/access';
 import { listFactors, listResponses } from '../projects/service';
 import { notifyBuildTested } from '../review/notify';
-import { recomputeBuildMetrics } from '../curves/service';
+import { curvesForBuild, recomputeBuildMetrics } from '../curves/service';
+import { chooseRecord } from '../curves/record';
 import { describeChanges, diffRecipe } from '../../shared/lineage';
 
 type BuildRow = typeof builds.$inferSelect;
@@ -28,39 +34,13 @@ const METRIC_FROM_KIND: Record<string, string[]> = {
   hold: ['degradationRate'],
 };
 
-function selectBuilds(ctx: AppContext) {
-  return ctx.db
-    .select({ b: builds, parentCode: parent.code, labName: labs.name, operatorName: users.name })
-    .from(builds)
-    .leftJoin(parent, eq(parent.id, builds.parentId))
-    .leftJoin(labs, eq(labs.id, builds.labId))
-    .leftJoin(users, eq(users.id, builds.operatorId));
-}
-
-function metricValues(ctx: AppContext, buildIds: number[], metricsVersion: number) {
-  if (buildIds.length === 0) return new Map<number, BuildMetricSummary>();
-  const rows: CurveMetricRow[] = [];
-  for (let i = 0; i < buildIds.length; i += 900) {
-    const chunk = buildIds.slice(i, i + 900);
-    rows.push(
-      ...(ctx.db
-        .select({ id: curves.id, buildId: curves.buildId, kind: curves.kind, isRecord: curves.isRecord, metrics: curves.metrics, metricsVersion: curves.metricsVersion })
-        .from(curves)
-        .where(inArray(curves.buildId, chunk))
-        .orderBy(asc(curves.id))
-        .all() as unknown as CurveMetricRow[]),
-    );
-  }
-  return summarizeMetrics(rows, metricsVersion);
-}
-
 interface CurveMetricRow {
   id: number;
   buildId: number;
   kind: string;
   isRecord: boolean;
-  /** only read for curves of record */
-  metrics: Record<string, number | null> | null;
+  /** only read for curves of record (null on the others) */
+  metrics: CurveMetrics | null;
   metricsVersion: number;
 }
 
@@ -88,7 +68,7 @@ function summarizeMetrics(rows: CurveMetricRow[], metricsVersion: number) {
     entry.records[row.kind as CurveKind] = row.id;
     if (row.metrics && (row.metricsVersion === metricsVersion || row.kind !== 'polarization')) {
       for (const key of METRIC_FROM_KIND[row.kind] ?? []) {
-        const v = row.metrics[key];
+        const v = (row.metrics as unknown as Record<string, number | null | undefined>)[key];
         if (v !== undefined) entry.values[key] = v;
       }
     }
@@ -96,7 +76,10 @@ function summarizeMetrics(rows: CurveMetricRow[], metricsVersion: number) {
   return byBuild;
 }
 
-function toItem(row: { b: BuildRow; parentCode: string | null; labName: string | null; operatorName: string | null }, metrics?: BuildMetricSummary): BuildListItem {
+type ItemRow = { b: BuildRow; parentCode: string | null; labName: string | null; operatorName: string | null };
+
+/** The one mapping from the stored build (with its parent code, lab and operator names) to the API's build. */
+function toItem(row: ItemRow, metrics?: BuildMetricSummary): BuildListItem {
   const b = row.b;
   return {
     id: b.id,
@@ -132,83 +115,96 @@ function toItem(row: { b: BuildRow; parentCode: string | null; labName: string |
   };
 }
 
-function projectVersion(ctx: AppContext, projectId: number): number {
-  return ctx.db.select({ v: projects.metricsVersion }).from(projects).where(eq(projects.id, projectId)).get()?.v ?? 1;
-}
-
 /**
- * The builds list is the hottest read (tables, gains, surface, scripts): its two queries are
- * prepared once per database and take the project, status and page as parameters.
+ * The queries behind a build list item, through Drizzle and prepared once per database: the
+ * builds list is the hottest read (tables, gains, surface, partner scripts), so building and
+ * compiling the SQL per request would cost more than running it. A page of a project and a
+ * single build share the selected columns, the curve summary and `toItem`.
  */
-const listStatements = new WeakMap<object, ReturnType<typeof prepareList>>();
-
-// Raw prepared SQL (not the query builder) because this list is read on every table view and by
-// partner scripts: building and mapping the query per request cost more than running it.
-const LIST_SQL = `select b.id, b.project_id as projectId, b.code, b.parent_id as parentId, b.change_note as changeNote,
-  b.factor_values as factorValues, b.loading_mg_cm2 as loadingMgCm2, b.metal_loading_mg_cm2 as metalLoadingMgCm2,
-  b.area_cm2 as areaCm2, b.catalyst_lot as catalystLot, b.lab_id as labId, b.operator_id as operatorId,
-  b.test_conditions as testConditions, b.status, b.built_on as builtOn, b.tested_on as testedOn,
-  b.replicate_of as replicateOf, b.response_values as responseValues, b.notes, b.design_id as designId,
-  b.planned_on as plannedOn, b.plan_reason as planReason, b.created_by as createdBy,
-  b.created_at as createdAt, b.updated_at as updatedAt,
-  p.code as parentCode, l.name as labName, u.name as operatorName
-  from builds b left join builds p on p.id = b.parent_id left join labs l on l.id = b.lab_id left join users u on u.id = b.operator_id
-  where b.project_id = @projectId and (@status is null or b.status = @status)
-  order by b.id limit @limit offset @offset`;
-
-type RawBuildRow = Omit<BuildRow, 'factorValues' | 'testConditions' | 'responseValues'> & { factorValues: string; testConditions: string; responseValues: string; parentCode: string | null; labName: string | null; operatorName: string | null };
-
-function prepareList(ctx: AppContext) {
-  const sqlite = ctx.db.$client;
+function prepareItemQueries(db: Db) {
+  const itemColumns = { b: builds, parentCode: parent.code, labName: labs.name, operatorName: users.name };
+  const items = () => db.select(itemColumns).from(builds).leftJoin(parent, eq(parent.id, builds.parentId)).leftJoin(labs, eq(labs.id, builds.labId)).leftJoin(users, eq(users.id, builds.operatorId));
+  const ofPage = and(eq(builds.projectId, sql.placeholder('projectId')), sql`(${sql.placeholder('status')} is null or ${builds.status} = ${sql.placeholder('status')})`);
+  const curveColumns = {
+    id: curves.id,
+    buildId: curves.buildId,
+    kind: curves.kind,
+    isRecord: curves.isRecord,
+    // only the records' metrics are parsed: a build's other curves are counted, not read
+    metrics: sql`case when ${curves.isRecord} = 1 then ${curves.metrics} end`.mapWith(curves.metrics),
+    metricsVersion: curves.metricsVersion,
+  };
+  const pageIds = db.select({ id: builds.id }).from(builds).where(ofPage).orderBy(asc(builds.id)).limit(sql.placeholder('limit')).offset(sql.placeholder('offset'));
   return {
-    builds: sqlite.prepare(LIST_SQL),
-    // the curves of exactly that page of builds, in upload order; metrics of the records only
-    curvesOfPage: sqlite.prepare(
-      `select id, build_id as buildId, kind, is_record as isRecord, case when is_record = 1 then metrics end as metrics, metrics_version as metricsVersion from curves
-       where build_id in (select id from builds where project_id = @projectId and (@status is null or status = @status) order by id limit @limit offset @offset)
-       order by id`,
-    ),
-    version: sqlite.prepare('select metrics_version as v from projects where id = ?'),
+    page: items().where(ofPage).orderBy(asc(builds.id)).limit(sql.placeholder('limit')).offset(sql.placeholder('offset')).prepare(),
+    one: items().where(eq(builds.id, sql.placeholder('buildId'))).prepare(),
+    curvesOfPage: db.select(curveColumns).from(curves).where(inArray(curves.buildId, pageIds)).orderBy(asc(curves.id)).prepare(),
+    curvesOfBuild: db.select(curveColumns).from(curves).where(eq(curves.buildId, sql.placeholder('buildId'))).orderBy(asc(curves.id)).prepare(),
+    metricsVersion: db.select({ v: projects.metricsVersion }).from(projects).where(eq(projects.id, sql.placeholder('projectId'))).prepare(),
   };
 }
 
-export function listBuilds(ctx: AppContext, access: ProjectAccess, options: { status?: string; limit?: number; offset?: number } = {}): BuildListItem[] {
-  let statements = listStatements.get(ctx.db.$client);
-  if (!statements) {
-    statements = prepareList(ctx);
-    listStatements.set(ctx.db.$client, statements);
+const itemQueries = new WeakMap<object, ReturnType<typeof prepareItemQueries>>();
+function queries(ctx: AppContext) {
+  let found = itemQueries.get(ctx.db.$client);
+  if (!found) {
+    found = prepareItemQueries(ctx.db);
+    itemQueries.set(ctx.db.$client, found);
   }
+  return found;
+}
+
+export function listBuilds(ctx: AppContext, access: ProjectAccess, options: { status?: string; limit?: number; offset?: number } = {}): BuildListItem[] {
+  const q = queries(ctx);
   const params = { projectId: access.projectId, status: options.status ?? null, limit: options.limit ?? -1, offset: options.offset ?? 0 };
-  const rows = statements.builds.all(params) as RawBuildRow[];
-  const curveRows = statements.curvesOfPage.all(params) as { id: number; buildId: number; kind: string; isRecord: number; metrics: string | null; metricsVersion: number }[];
-  const version = (statements.version.get(access.projectId) as { v: number } | undefined)?.v ?? 1;
-  const metrics = summarizeMetrics(curveRows.map((r) => ({ ...r, isRecord: r.isRecord === 1, metrics: r.metrics == null ? null : (JSON.parse(r.metrics) as Record<string, number | null>) })), version);
-  return rows.map((r) => {
-    const { parentCode, labName, operatorName, ...rest } = r;
-    const b = { ...rest, factorValues: JSON.parse(r.factorValues), testConditions: JSON.parse(r.testConditions), responseValues: JSON.parse(r.responseValues) } as BuildRow;
-    return toItem({ b, parentCode, labName, operatorName }, metrics.get(r.id));
-  });
-}
-
-export function loadBuildRow(ctx: AppContext, buildId: number): BuildRow {
-  const row = ctx.db.select().from(builds).where(eq(builds.id, buildId)).get();
-  if (!row) throw notFound(`Build ${buildId}`);
-  return row;
-}
-
-/** Build and the caller's access to its project (404 when the project is not visible). */
-export function accessBuild(ctx: AppContext, user: AuthUser | undefined, buildId: number, action: Parameters<typeof requireProject>[3] = 'read') {
-  requireUser(user);
-  const row = loadBuildRow(ctx, buildId);
-  const access = requireProject(ctx.db, user, row.projectId, action);
-  return { row, access };
+  const rows = q.page.all(params);
+  const version = q.metricsVersion.get({ projectId: access.projectId })?.v ?? 1;
+  const metrics = summarizeMetrics(q.curvesOfPage.all(params), version);
+  return rows.map((row) => toItem(row, metrics.get(row.b.id)));
 }
 
 export function getBuildItem(ctx: AppContext, buildId: number): BuildListItem {
-  const row = selectBuilds(ctx).where(eq(builds.id, buildId)).get();
+  const q = queries(ctx);
+  const row = q.one.get({ buildId });
   if (!row) throw notFound(`Build ${buildId}`);
-  const metrics = metricValues(ctx, [buildId], projectVersion(ctx, row.b.projectId));
-  return toItem(row, metrics.get(buildId));
+  const version = q.metricsVersion.get({ projectId: row.b.projectId })?.v ?? 1;
+  return toItem(row, summarizeMetrics(q.curvesOfBuild.all({ buildId }), version).get(buildId));
+}
+
+/**
+ * The builds list as JSON text. Every member of a project sees the same list, so the text is
+ * kept until the database next changes (`dataVersion`: any write, by any code path).
+ */
+const listCaches = new WeakMap<object, ReturnType<typeof answerCache>>();
+export function buildListJson(ctx: AppContext, access: ProjectAccess, query: BuildListQuery): string {
+  let cache = listCaches.get(ctx.db.$client);
+  if (!cache) {
+    cache = answerCache(64);
+    listCaches.set(ctx.db.$client, cache);
+  }
+  const key = `${access.projectId}|${dataVersion(ctx.db)}|${query.status ?? ''}|${query.limit ?? ''}|${query.offset ?? ''}`;
+  let body = cache.get(key);
+  if (!body) {
+    body = JSON.stringify({ builds: listBuilds(ctx, access, query) });
+    cache.set(key, body);
+  }
+  return body;
+}
+
+/** The build page: the build, its lineage, its curves, and what the caller may do on it. */
+export function buildDetail(ctx: AppContext, access: ProjectAccess, row: BuildRow) {
+  return {
+    build: getBuildItem(ctx, row.id),
+    lineage: lineage(ctx, row),
+    curves: curvesForBuild(ctx, row.id),
+    permissions: buildPermissions(actorOf(access), row.labId),
+  };
+}
+
+/** Choose the build's curve of record of one kind; answers the change with the build and its curves as they are now. */
+export async function chooseBuildRecord(ctx: AppContext, access: ProjectAccess, row: BuildRow, choice: RecordChoice) {
+  const record = await chooseRecord(ctx, access, row, choice);
+  return { record, build: getBuildItem(ctx, row.id), curves: curvesForBuild(ctx, row.id) };
 }
 
 export function lineage(ctx: AppContext, build: BuildRow) {
@@ -296,13 +292,13 @@ function checkFactors(ctx: AppContext, projectId: number, values: Record<string,
 
 export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.output<typeof buildCreateSchema>, origin: { designId?: number | null } = {}): BuildListItem {
   const { db } = ctx;
-  let labId = body.labId ?? access.user.labId ?? null;
-  if (access.role === 'partner') {
-    if (body.labId != null && body.labId !== access.user.labId) throw new AppError(403, 'forbidden', 'Partners may only create builds for their own lab.');
-    labId = access.user.labId;
-  }
-  requireBuildWrite(access, { labId });
-  const status = body.status ?? 'built';
+  const lab = labForNewBuild(actorOf(access), body.labId);
+  if (lab.problem) throw forbidden(lab.problem);
+  const labId = lab.labId;
+  requireOwnLab(access, 'createBuild', labId);
+  const step = nextStatus(null, { kind: 'create', requested: body.status });
+  if (!step.ok) throw conflict(step.reason);
+  const status = step.status;
   checkFactors(ctx, access.projectId, body.factors, status);
   validateRelations(ctx, access.projectId, body);
   const code = body.code ?? nextCode(ctx, access.projectId);
@@ -344,10 +340,12 @@ export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.outp
 
 export function updateBuild(ctx: AppContext, access: ProjectAccess, before: BuildRow, body: z.output<typeof buildUpdateSchema>): BuildListItem {
   const { db } = ctx;
-  requireBuildWrite(access, before);
-  if (access.role === 'partner' && body.labId != null && body.labId !== access.user.labId) throw new AppError(403, 'forbidden', 'Partners cannot move a build to another lab.');
-  if (body.status === 'reviewed' && access.role !== 'pi' && access.role !== 'admin') throw new AppError(403, 'forbidden', 'Only a PI marks a build reviewed (by giving a review verdict).');
-  const status = body.status ?? before.status;
+  // a partner's build stays in its own lab
+  if (body.labId != null) requireOwnLab(access, 'editBuild', body.labId);
+  const step = body.status === undefined ? null : nextStatus(before.status, { kind: 'set', to: body.status });
+  if (step && !step.ok) throw conflict(step.reason);
+  if (step?.needsReviewer && !can(access, 'review')) throw forbidden('Only a PI marks a build reviewed (by giving a review verdict).');
+  const status = step ? step.status : before.status;
   const factorValues = body.factors ?? before.factorValues;
   if (body.factors !== undefined || body.status !== undefined) checkFactors(ctx, before.projectId, factorValues, status);
   validateRelations(ctx, before.projectId, body, before.id);
@@ -364,7 +362,7 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   if (body.areaCm2 !== undefined) set.areaCm2 = body.areaCm2;
   if (body.catalystLot !== undefined) set.catalystLot = body.catalystLot;
   if (body.labId !== undefined) set.labId = body.labId;
-  if (body.status !== undefined) set.status = body.status;
+  if (step) set.status = step.status;
   if (body.builtOn !== undefined) set.builtOn = body.builtOn;
   if (body.testedOn !== undefined) set.testedOn = body.testedOn;
   if (body.replicateOf !== undefined) set.replicateOf = body.replicateOf;
@@ -379,7 +377,7 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   if (after.loadingMgCm2 !== before.loadingMgCm2 || after.metalLoadingMgCm2 !== before.metalLoadingMgCm2 || (after.testConditions?.h2CrossoverMAcm2 ?? 0) !== (before.testConditions?.h2CrossoverMAcm2 ?? 0)) {
     recomputeBuildMetrics(ctx, before.id);
   }
-  if (after.status === 'tested' && before.status !== 'tested') void notifyBuildTested(ctx, access.user, before, after);
+  if (becameTested(before.status, after.status)) void notifyBuildTested(ctx, access.user, before, after);
   return getBuildItem(ctx, before.id);
 }
 

@@ -1,12 +1,10 @@
 // Durability comparison of a project's builds: every durability / hold curve with its rate, 95 %
 // interval, hours run, break-in and held conditions, read from the stored summaries (no points).
 // Every log is listed; isRecord marks the one of each kind that stands for its build.
-import { Router } from 'express';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { AppContext } from '../context';
 import { builds, curves, labs } from '../db/schema';
-import { idParam } from '../lib/validate';
-import { requireProject, type ProjectAccess } from '../auth/access';
+import type { ProjectAccess } from '../auth/access';
 import { TYPICAL_DEGRADATION_BAND } from '../../shared/durability';
 import type { DurabilityComparison, DurabilityRow } from '../../shared/api-types';
 
@@ -66,12 +64,7 @@ export function durabilityComparison(ctx: AppContext, access: ProjectAccess): Du
   });
 }
 
-export function durabilityRouter(ctx: AppContext): Router {
-  const router = Router();
-  router.get('/projects/:id/durability', (req, res) => {
-    const access = requireProject(ctx.db, req.user, idParam(req.params.id), 'read');
-    const answer: DurabilityComparison = { curves: durabilityComparison(ctx, access), typicalBand: TYPICAL_DEGRADATION_BAND };
-    res.json(answer);
-  });
-  return router;
+/** GET /api/projects/:id/durability: the rows and the typical band to read them against. */
+export function durabilityAnswer(ctx: AppContext, access: ProjectAccess): DurabilityComparison {
+  return { curves: durabilityComparison(ctx, access), typicalBand: TYPICAL_DEGRADATION_BAND };
 }

@@ -11,6 +11,7 @@ import { AppError } from '../lib/errors';
 import { notifyRecordChanged } from '../review/notify';
 import type { CurveKind } from '../../shared/curves/types';
 import type { BuildStatus, RecordChange, RecordChoice } from '../../shared/api-types';
+import { nextStatus } from '../../shared/builds/status';
 
 type BuildRow = typeof builds.$inferSelect;
 type Tx = Parameters<Parameters<AppContext['db']['transaction']>[0]>[0];
@@ -31,9 +32,10 @@ const quoted = (label: string | null | undefined, id: number | null) => (label ?
 
 /** A reviewed build whose record changed goes back to "tested", waiting for a new verdict. */
 function backToReview(tx: Tx, build: BuildRow): { from: BuildStatus; to: BuildStatus } | null {
-  if (build.status !== 'reviewed') return null;
-  tx.update(builds).set({ status: 'tested', updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
-  return { from: 'reviewed', to: 'tested' };
+  const step = nextStatus(build.status, { kind: 'record-change' });
+  if (!step.ok || !step.changed) return null;
+  tx.update(builds).set({ status: step.status, updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
+  return { from: build.status, to: step.status };
 }
 
 function afterChange(ctx: AppContext, access: ProjectAccess, build: BuildRow, change: Omit<RecordChange, 'message'> & { fromLabel: string | null; toLabel: string | null }, cause: 'chosen' | 'deleted') {

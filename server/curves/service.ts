@@ -17,11 +17,14 @@ import { encodePoints, decodePoints } from './points-codec';
 import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
 import { parseUpload } from '../uploads/parse-runner';
 import { audit } from '../lib/audit';
-import { AppError, notFound } from '../lib/errors';
-import { requireProfileLab, type ProjectAccess } from '../auth/access';
+import { AppError, forbidden, notFound } from '../lib/errors';
+import { actorOf, requireProfileLab, type ProjectAccess } from '../auth/access';
+import { labForNewProfile } from '../../shared/auth/permissions';
+import type { CurvePatch, ImportProfileCreate } from '../../shared/schemas/curves';
 import type { ProgressReporter } from '../uploads/progress';
 import type { UploadFields } from '../../shared/api-types';
 import { notifyAfterUpload } from '../review/notify';
+import { nextStatus } from '../../shared/builds/status';
 import { deleteCurveKeepingRecord, recordOf } from './record';
 
 /** Give the event loop a turn between the long synchronous steps of a big upload. */
@@ -361,8 +364,10 @@ export async function ingestUpload(
           // everything but the points: reading the blob straight back would double a big log's memory
           .returning(CURVE_COLUMNS_WITHOUT_POINTS)
           .get();
-        if (build.status === 'planned' || build.status === 'built') {
-          tx.update(builds).set({ status: 'tested', testedOn: build.testedOn ?? new Date().toISOString().slice(0, 10), updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
+        // a build with its first curve has been tested
+        const status = nextStatus(build.status, { kind: 'upload' });
+        if (status.ok && status.changed) {
+          tx.update(builds).set({ status: status.status, testedOn: build.testedOn ?? new Date().toISOString().slice(0, 10), updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
         }
         audit(tx as never, { userId: access.user.id, action: 'upload', entity: 'curve', entityId: row.id, projectId: access.projectId, after: { buildId: build.id, kind, file: upload.originalName, sha256: read.sha256, points: data.v.length, isRecord: row.isRecord, importNotes: notes.length, conditionMismatches: mismatches.map((m) => m.field) } });
         return row;
@@ -582,6 +587,47 @@ export function remeasureOutdatedCurves(ctx: AppContext): number {
     count += remeasure(ctx, ctx.db.select().from(curves).where(inArray(curves.id, ids.slice(i, i + 20).map((r) => r.id))).all());
   }
   return count;
+}
+
+/** Relabel a curve and/or set its durability options (which measures it again). */
+export function patchCurve(ctx: AppContext, access: ProjectAccess, row: CurveRow, body: CurvePatch) {
+  const { label, ...options } = body;
+  let curve = curveView(row);
+  if (Object.keys(options).length) curve = updateCurveOptions(ctx, access, row, options);
+  if (label !== undefined) {
+    ctx.db.update(curves).set({ label }).where(eq(curves.id, row.id)).run();
+    audit(ctx.db, { userId: access.user.id, action: 'update', entity: 'curve', entityId: row.id, projectId: access.projectId, before: { label: row.label }, after: { label } });
+    curve = { ...curve, label };
+  }
+  return curve;
+}
+
+/** The stored bytes of an uploaded file, or 404 when the store no longer has them. */
+export async function openRawFile(ctx: AppContext, file: typeof files.$inferSelect) {
+  const stream = await ctx.storage.get(file.sha256);
+  if (!stream) throw notFound(`Stored bytes of file ${file.id}`);
+  return stream;
+}
+
+export function listProfiles(ctx: AppContext, projectId: number) {
+  return ctx.db.select().from(importProfiles).where(eq(importProfiles.projectId, projectId)).all();
+}
+
+/** Save an import profile: for the lab asked (default the person's own; partners always theirs), complete for its kind. */
+export function saveProfile(ctx: AppContext, access: ProjectAccess, body: ImportProfileCreate) {
+  const lab = labForNewProfile(actorOf(access), body.labId);
+  if (lab.problem) throw forbidden(lab.problem);
+  requireProfileLab(access, lab.labId);
+  requireCompleteProfile(body.kind, body.mapping);
+  const row = ctx.db.insert(importProfiles).values({ name: body.name, labId: lab.labId, projectId: access.projectId, kind: body.kind, mapping: body.mapping, createdBy: access.user.id }).returning().get();
+  audit(ctx.db, { userId: access.user.id, action: 'create', entity: 'import-profile', entityId: row.id, projectId: access.projectId, after: row });
+  return row;
+}
+
+/** Remove an import profile (who may, for which lab, is checked before: the route's permission). */
+export function deleteProfile(ctx: AppContext, access: ProjectAccess, profile: typeof importProfiles.$inferSelect) {
+  ctx.db.delete(importProfiles).where(eq(importProfiles.id, profile.id)).run();
+  audit(ctx.db, { userId: access.user.id, action: 'delete', entity: 'import-profile', entityId: profile.id, projectId: access.projectId, before: profile });
 }
 
 /** Re-measure one curve with new options (e.g. a break-in the user set by hand). */

@@ -9,8 +9,6 @@ import { listFactors } from '../projects/service';
 import { changesFromParent, goalOf, loadLineage, resolveResponse } from '../lineage/service';
 import type { GainsData } from '../../shared/api-types';
 
-export const MAX_CHAIN = 60;
-
 export function gainsFor(ctx: AppContext, access: ProjectAccess, options: { response: string; builds?: number[] }): GainsData {
   const response = resolveResponse(ctx, access.projectId, options.response);
   const lineage = loadLineage(ctx, access, response.key);

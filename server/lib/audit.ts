@@ -1,7 +1,7 @@
-// Every write goes through here: who, when, what, before and after.
+// The audit log: who changed what, when, before and after. Cached reads do not depend on it:
+// they follow the database's own data version (server/db/data-version.ts).
 import type { Db } from '../db';
 import { auditLog } from '../db/schema';
-import { bumpDataVersion } from './data-version';
 
 export interface AuditEntry {
   userId: number | null;
@@ -25,7 +25,6 @@ export function audit(db: Db, entry: AuditEntry): void {
       after: entry.after === undefined ? null : stripSecrets(entry.after),
     })
     .run();
-  bumpDataVersion(entry.projectId);
 }
 
 function stripSecrets(value: unknown): unknown {

@@ -56,6 +56,17 @@ export function requireLinkBase(env: Env, req?: Pick<Request, 'protocol' | 'get'
   return base;
 }
 
+/** Every link the app puts in an e-mail, built on one base (linkBase / requireLinkBase). */
+export function appLinks(base: string) {
+  const root = base.replace(/\/+$/, '');
+  return {
+    invitation: (token: string) => `${root}/invite/${token}`,
+    project: (projectId: number) => `${root}/projects/${projectId}`,
+    build: (projectId: number, buildId: number) => `${root}/projects/${projectId}/builds/${buildId}`,
+    settings: (projectId: number) => `${root}/projects/${projectId}/settings`,
+  };
+}
+
 /**
  * Is this Origin (scheme://host[:port]) one the app answers to? With PUBLIC_URL or ALLOWED_HOSTS
  * set, it must be one of them; with neither, it must name the host the request was sent to

@@ -1,22 +1,13 @@
 // HTTP for the lineage view: GET /api/projects/:id/lineage?response=vAtRef
-import { Router } from 'express';
-import { z } from 'zod';
-import type { AppContext } from '../context';
-import { idParam, parseInput } from '../lib/validate';
-import { requireProject, requireUser } from '../auth/access';
-import { lineageView, projectResponses } from './service';
+import { lineageQuery } from '../../shared/schemas/gains';
 import type { LineageData } from '../../shared/api-types';
+import { defineFeature, route } from '../lib/route';
+import { lineageView, projectResponses } from './service';
 
-export const lineageQuery = z.object({ response: z.string().trim().min(1).max(64).default('vAtRef') });
-
-export function lineageRouter(ctx: AppContext): Router {
-  const router = Router();
-  router.get('/projects/:id/lineage', (req, res) => {
-    requireUser(req.user);
-    const access = requireProject(ctx.db, req.user, idParam(req.params.id), 'read');
-    const query = parseInput(lineageQuery, req.query, 'query');
-    const answer: LineageData = { ...lineageView(ctx, access, query.response), responses: projectResponses(ctx, access.projectId) };
-    res.json(answer);
-  });
-  return router;
-}
+export const lineageFeature = defineFeature('lineage', [
+  route({
+    method: 'get', path: '/api/projects/{id}/lineage', tag: 'gains', permission: { action: 'read', on: 'project' }, query: lineageQuery,
+    summary: 'Lineage tree of replicate groups with the chosen response (mean, SD, n), recipe changes from each parent, best path',
+    handle: ({ ctx, access, query }): LineageData => ({ ...lineageView(ctx, access, query.response), responses: projectResponses(ctx, access.projectId) }),
+  }),
+]);

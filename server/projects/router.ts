@@ -1,95 +1,85 @@
-// HTTP for projects, factors, responses, members and invitations: validation in, JSON out.
-import { Router } from 'express';
-import { z } from 'zod';
-import type { AppContext } from '../context';
-import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
+// HTTP for projects, their factors and hand-entered responses, members, notices and invitations.
+import { factorCreateSchema, notifySchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
 import { inviteCreateSchema, membershipSetSchema } from '../../shared/schemas/auth';
-import { idParam, parseInput } from '../lib/validate';
-import { requireProject, requireUser } from '../auth/access';
-import * as projects from './service';
+import { defineFeature, route } from '../lib/route';
 import { requireLinkBase } from '../lib/base-url';
+import { allowedActions } from '../../shared/auth/permissions';
+import * as projects from './service';
 
-export function projectsRouter(ctx: AppContext): Router {
-  const router = Router();
-  const { db } = ctx;
-
-  router.get('/projects', (req, res) => {
-    res.json({ projects: projects.listProjects(ctx, requireUser(req.user)) });
-  });
-
-  router.post('/projects', (req, res) => {
-    const user = requireUser(req.user);
-    const body = parseInput(projectCreateSchema, req.body);
-    res.status(201).json({ project: projects.createProject(ctx, user, body) });
-  });
-
-  router.get('/projects/:id', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'read');
-    res.json({ project: projects.getProject(ctx, access) });
-  });
-
-  router.patch('/projects/:id', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'editSettings');
-    const body = parseInput(projectUpdateSchema, req.body);
-    res.json({ project: projects.updateProject(ctx, access, body) });
-  });
-
-  router.get('/projects/:id/factors', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'read');
-    res.json({ factors: projects.listFactors(ctx, access.projectId) });
-  });
-
-  router.post('/projects/:id/factors', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'editFactors');
-    const body = parseInput(factorCreateSchema, req.body);
-    res.status(201).json({ factor: projects.addFactor(ctx, access, body) });
-  });
-
-  router.patch('/projects/:id/factors/:factorId', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'editFactors');
-    const body = parseInput(factorCreateSchema, req.body);
-    res.json({ factor: projects.updateFactor(ctx, access, idParam(req.params.factorId, 'factorId'), body) });
-  });
-
-  router.get('/projects/:id/responses', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'read');
-    res.json({ responses: projects.listResponses(ctx, access.projectId) });
-  });
-
-  router.post('/projects/:id/responses', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'editFactors');
-    const body = parseInput(responseCreateSchema, req.body);
-    res.status(201).json({ response: projects.addResponse(ctx, access, body) });
-  });
-
-  router.get('/projects/:id/members', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'read');
-    res.json(projects.listMembers(ctx, access.projectId));
-  });
-
-  router.put('/projects/:id/members', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'invite');
-    const body = parseInput(membershipSetSchema, req.body);
-    res.json(projects.setMemberRole(ctx, access, body.userId, body.role));
-  });
-
-  router.delete('/projects/:id/members/:userId', (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'invite');
-    res.json(projects.removeMember(ctx, access, idParam(req.params.userId, 'userId')));
-  });
-
-  router.put('/projects/:id/notify', (req, res) => {
-    requireUser(req.user);
-    const body = parseInput(z.object({ notify: z.boolean(), digest: z.boolean().optional() }), req.body);
-    res.json(projects.setNotify(ctx, requireUser(req.user), idParam(req.params.id), body.notify, body.digest));
-  });
-
-  router.post('/projects/:id/invitations', async (req, res) => {
-    const access = requireProject(db, req.user, idParam(req.params.id), 'invite');
-    const body = parseInput(inviteCreateSchema, req.body);
-    res.status(201).json(await projects.invite(ctx, access, body, requireLinkBase(ctx.env, req)));
-  });
-
-  return router;
-}
-
+export const projectsFeature = defineFeature('projects', [
+  route({
+    method: 'get', path: '/api/projects', tag: 'projects', permission: 'signed-in',
+    summary: 'Projects visible to me',
+    handle: ({ ctx, user }) => ({ projects: projects.listProjects(ctx, user) }),
+  }),
+  route({
+    method: 'post', path: '/api/projects', tag: 'projects', permission: 'create-project', body: projectCreateSchema, status: 201,
+    summary: 'Create a project (the creator becomes its PI)',
+    handle: ({ ctx, user, body }) => ({ project: projects.createProject(ctx, user, body) }),
+  }),
+  route({
+    method: 'get', path: '/api/projects/{id}', tag: 'projects', permission: { action: 'read', on: 'project' },
+    summary: 'Read a project',
+    handle: ({ ctx, access }) => ({ project: projects.getProject(ctx, access) }),
+  }),
+  route({
+    method: 'patch', path: '/api/projects/{id}', tag: 'projects', permission: { action: 'editSettings', on: 'project' }, body: projectUpdateSchema,
+    summary: 'Update a project; a new reference point recomputes every curve’s metrics',
+    handle: ({ ctx, access, body }) => ({ project: projects.updateProject(ctx, access, body) }),
+  }),
+  route({
+    method: 'get', path: '/api/projects/{id}/permissions', tag: 'projects', permission: { action: 'read', on: 'project' },
+    summary: 'What my role may do in this project → {role, actions: {read, editSettings, createBuild, …: true | false}} (partners: lab-bound actions on their own lab’s builds only)',
+    handle: ({ access }) => ({ role: access.role, actions: allowedActions(access.role) }),
+  }),
+  route({
+    method: 'get', path: '/api/projects/{id}/factors', tag: 'projects', permission: { action: 'read', on: 'project' },
+    summary: 'List factors',
+    handle: ({ ctx, access }) => ({ factors: projects.listFactors(ctx, access.projectId) }),
+  }),
+  route({
+    method: 'post', path: '/api/projects/{id}/factors', tag: 'projects', permission: { action: 'editFactors', on: 'project' }, body: factorCreateSchema, status: 201,
+    summary: 'Add a factor',
+    handle: ({ ctx, access, body }) => ({ factor: projects.addFactor(ctx, access, body) }),
+  }),
+  route({
+    method: 'patch', path: '/api/projects/{id}/factors/{factorId}', tag: 'projects', permission: { action: 'editFactors', on: 'project' }, body: factorCreateSchema,
+    summary: 'Update a factor (key fixed)',
+    handle: ({ ctx, access, ids, body }) => ({ factor: projects.updateFactor(ctx, access, ids.factorId!, body) }),
+  }),
+  route({
+    method: 'get', path: '/api/projects/{id}/responses', tag: 'projects', permission: { action: 'read', on: 'project' },
+    summary: 'List hand-entered response definitions',
+    handle: ({ ctx, access }) => ({ responses: projects.listResponses(ctx, access.projectId) }),
+  }),
+  route({
+    method: 'post', path: '/api/projects/{id}/responses', tag: 'projects', permission: { action: 'editFactors', on: 'project' }, body: responseCreateSchema, status: 201,
+    summary: 'Add a hand-entered response definition',
+    handle: ({ ctx, access, body }) => ({ response: projects.addResponse(ctx, access, body) }),
+  }),
+  route({
+    method: 'get', path: '/api/projects/{id}/members', tag: 'projects', permission: { action: 'read', on: 'project' },
+    summary: 'Members and pending invitations',
+    handle: ({ ctx, access }) => projects.listMembers(ctx, access.projectId),
+  }),
+  route({
+    method: 'put', path: '/api/projects/{id}/members', tag: 'projects', permission: { action: 'invite', on: 'project' }, body: membershipSetSchema,
+    summary: 'Set a member’s role',
+    handle: ({ ctx, access, body }) => projects.setMemberRole(ctx, access, body.userId, body.role),
+  }),
+  route({
+    method: 'delete', path: '/api/projects/{id}/members/{userId}', tag: 'projects', permission: { action: 'invite', on: 'project' },
+    summary: 'Remove a member',
+    handle: ({ ctx, access, ids }) => projects.removeMember(ctx, access, ids.userId!),
+  }),
+  route({
+    method: 'put', path: '/api/projects/{id}/notify', tag: 'projects', permission: { action: 'read', on: 'project', members: true }, body: notifySchema,
+    summary: 'Turn my e-mail notices for this project on or off',
+    handle: ({ ctx, access, body }) => projects.setNotify(ctx, access, body),
+  }),
+  route({
+    method: 'post', path: '/api/projects/{id}/invitations', tag: 'projects', permission: { action: 'invite', on: 'project' }, body: inviteCreateSchema, status: 201,
+    summary: 'Invite someone by e-mail (link valid 7 days, once)',
+    handle: ({ ctx, req, access, body }) => projects.invite(ctx, access, body, requireLinkBase(ctx.env, req)),
+  }),
+]);

@@ -2,14 +2,15 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { AppContext, AuthUser } from '../context';
 import { builds, factors, invitations, labs, memberships, projects, responseDefs, users } from '../db/schema';
-import type { FactorDef, ResponseDef, ProjectRole } from '../../shared/schemas/project';
+import type { FactorDef, NotifyBody, ResponseDef, ProjectRole } from '../../shared/schemas/project';
 import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
 import { inviteCreateSchema } from '../../shared/schemas/auth';
 import type { z } from 'zod';
 import { audit } from '../lib/audit';
 import { escapeHtml } from '../lib/escape-html';
-import { AppError, conflict, forbidden, notFound } from '../lib/errors';
-import { requireProject, type ProjectAccess } from '../auth/access';
+import { appLinks } from '../lib/base-url';
+import { AppError, conflict, notFound } from '../lib/errors';
+import type { ProjectAccess } from '../auth/access';
 import { newToken, sha256 } from '../auth/tokens';
 import { recomputeProjectMetrics } from '../curves/service';
 
@@ -51,8 +52,8 @@ export function listProjects(ctx: AppContext, user: AuthUser) {
   return rows.map(({ p, role }) => ({ ...projectView(p, role), buildCount: counts.get(p.id) ?? 0 }));
 }
 
+/** A new project; its creator becomes its PI (who may create projects is the route's permission). */
 export function createProject(ctx: AppContext, user: AuthUser, body: z.output<typeof projectCreateSchema>) {
-  if (!user.isAdmin && user.labKind === 'partner') throw forbidden('Partner-lab members cannot create projects; ask the project PI to invite you.');
   const { db } = ctx;
   return db.transaction((tx) => {
     const row = tx.insert(projects).values({ name: body.name, description: body.description, codePrefix: body.codePrefix, settings: body.settings, createdBy: user.id }).returning().get();
@@ -211,18 +212,19 @@ export function removeMember(ctx: AppContext, access: ProjectAccess, userId: num
   return { ok: true };
 }
 
-export function setNotify(ctx: AppContext, user: AuthUser, projectId: number, notify: boolean, digest?: boolean) {
-  const access = requireProject(ctx.db, user, projectId, 'read');
-  const row = ctx.db.select().from(memberships).where(and(eq(memberships.projectId, projectId), eq(memberships.userId, user.id))).get();
+/** My own e-mail notices for one project: each event, a daily digest, or none. */
+export function setNotify(ctx: AppContext, access: ProjectAccess, body: NotifyBody) {
+  const { user } = access;
+  const row = ctx.db.select().from(memberships).where(and(eq(memberships.projectId, access.projectId), eq(memberships.userId, user.id))).get();
   if (!row) throw notFound('Your membership');
-  const next = { notify, digest: digest ?? row.digest };
+  const next = { notify: body.notify, digest: body.digest ?? row.digest };
   ctx.db.update(memberships).set(next).where(eq(memberships.id, row.id)).run();
   audit(ctx.db, { userId: user.id, action: 'update', entity: 'membership', entityId: user.id, projectId: access.projectId, before: { notify: row.notify, digest: row.digest }, after: next });
   return next;
 }
 
 /**
- * Invite someone by e-mail. A person who already has an account is added to the project at once
+ * Invite someone by e-mail (the link is built on `baseUrl`, the address people use to reach the app). A person who already has an account is added to the project at once
  * (with a notice e-mail) instead of getting an invitation they could never accept.
  */
 export async function invite(ctx: AppContext, access: ProjectAccess, body: z.output<typeof inviteCreateSchema>, baseUrl: string) {
@@ -238,7 +240,7 @@ export async function invite(ctx: AppContext, access: ProjectAccess, body: z.out
   const token = newToken();
   const expiresAt = new Date(Date.now() + 7 * 86400_000).toISOString();
   const row = db.insert(invitations).values({ tokenHash: sha256(token), email: body.email, projectId: access.projectId, role: body.role, labId: body.labId ?? null, invitedBy: access.user.id, expiresAt }).returning().get();
-  const link = `${baseUrl}/invite/${token}`;
+  const link = appLinks(baseUrl).invitation(token);
   await ctx.mailer.send({
     to: body.email,
     subject: `You are invited to “${project.name}” on Cellwright`,
@@ -256,7 +258,7 @@ async function addExistingAccount(ctx: AppContext, access: ProjectAccess, projec
   if (body.role === 'partner' && body.labId == null && account.labId == null) throw new AppError(400, 'validation', 'A partner needs the partner lab (labId) the person belongs to.', { fields: [{ path: 'labId', message: 'required for partners' }] });
   db.insert(memberships).values({ projectId: project.id, userId: account.id, role: body.role }).run();
   audit(db, { userId: access.user.id, action: 'create', entity: 'membership', entityId: account.id, projectId: project.id, after: { userId: account.id, role: body.role, via: 'invitation of an existing account' } });
-  const link = `${baseUrl}/projects/${project.id}`;
+  const link = appLinks(baseUrl).project(project.id);
   try {
     await ctx.mailer.send({
       to: account.email,

@@ -8,7 +8,8 @@ import type { ProjectAccess } from '../auth/access';
 import { builds, labs, memberships, pendingNotices, projects, users } from '../db/schema';
 import { escapeHtml } from '../lib/escape-html';
 import type { CurveKind } from '../../shared/curves/types';
-import { linkBase } from '../lib/base-url';
+import { becameTested, nextStatus } from '../../shared/builds/status';
+import { appLinks, linkBase } from '../lib/base-url';
 
 type BuildRow = typeof builds.$inferSelect;
 
@@ -52,8 +53,8 @@ async function sendAll(ctx: AppContext, to: { id: number; email: string; digest:
 function context(ctx: AppContext, build: BuildRow) {
   const project = ctx.db.select({ id: projects.id, name: projects.name }).from(projects).where(eq(projects.id, build.projectId)).get()!;
   const lab = build.labId != null ? ctx.db.select({ name: labs.name }).from(labs).where(eq(labs.id, build.labId)).get()?.name ?? null : null;
-  const base = appUrl(ctx);
-  return { project, lab, link: `${base}/projects/${project.id}/builds/${build.id}`, settings: `${base}/projects/${project.id}/settings` };
+  const links = appLinks(appUrl(ctx));
+  return { project, lab, link: links.build(project.id, build.id), settings: links.settings(project.id) };
 }
 
 function footer(settingsLink: string) {
@@ -70,19 +71,20 @@ function footer(settingsLink: string) {
  */
 export async function notifyAfterUpload(ctx: AppContext, access: ProjectAccess, before: BuildRow, fileName: string, curve?: { kind: CurveKind; isRecord: boolean }): Promise<void> {
   try {
-    const becameTested = before.status === 'planned' || before.status === 'built';
+    const step = nextStatus(before.status, { kind: 'upload' });
+    const nowTested = step.ok && becameTested(before.status, step.status);
     const fromPartner = access.role === 'partner';
-    if (!becameTested && !fromPartner) return;
+    if (!nowTested && !fromPartner) return;
     const c = context(ctx, before);
     const to = recipients(ctx, before.projectId, { roles: ['pi'], exclude: access.user.id });
     if (to.length === 0) return;
     const who = `${access.user.name}${fromPartner && c.lab ? ` (${c.lab})` : ''}`;
-    const state = becameTested ? ` ${before.code} is now tested and waiting for your review.` : '';
+    const state = nowTested ? ` ${before.code} is now tested and waiting for your review.` : '';
     // a later curve of a kind is stored beside the record; the build's values do not move
     const record = curve && !curve.isRecord ? ` It is not the ${curve.kind} curve of record: ${before.code}'s values are unchanged until someone chooses it on the build page.` : '';
     const f = footer(c.settings);
     await sendAll(ctx, to, {
-      subject: `${before.code}: new curves uploaded${becameTested ? ' — ready for review' : ''} (${c.project.name})`,
+      subject: `${before.code}: new curves uploaded${nowTested ? ' — ready for review' : ''} (${c.project.name})`,
       text: `${who} uploaded “${fileName}” to build ${before.code} in “${c.project.name}”.${state}${record}\n\nOpen the build: ${c.link}${f.text}`,
       html: `<p>${escapeHtml(who)} uploaded “${escapeHtml(fileName)}” to build <b>${escapeHtml(before.code)}</b> in “${escapeHtml(c.project.name)}”.${escapeHtml(state)}${escapeHtml(record)}</p><p><a href="${c.link}">Open ${escapeHtml(before.code)}</a></p>${f.html}`,
     });
@@ -94,7 +96,7 @@ export async function notifyAfterUpload(ctx: AppContext, access: ProjectAccess, 
 /** A build set to "tested" by hand (not by an upload, and not a restore from discarded). */
 export async function notifyBuildTested(ctx: AppContext, actor: AuthUser, before: BuildRow, after: BuildRow): Promise<void> {
   try {
-    if (after.status !== 'tested' || before.status === 'tested' || before.status === 'discarded' || before.status === 'reviewed') return;
+    if (!becameTested(before.status, after.status)) return;
     const c = context(ctx, after);
     const to = recipients(ctx, after.projectId, { roles: ['pi'], exclude: actor.id });
     const f = footer(c.settings);

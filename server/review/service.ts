@@ -5,7 +5,9 @@ import type { AppContext, AuthUser } from '../context';
 import { can, type ProjectAccess } from '../auth/access';
 import { auditLog, builds, memberships, projects, reviews, users } from '../db/schema';
 import { audit } from '../lib/audit';
-import { conflict, forbidden } from '../lib/errors';
+import { conflict } from '../lib/errors';
+import { nextStatus } from '../../shared/builds/status';
+import type { VerdictBody } from '../../shared/schemas/review';
 import { notifyVerdict } from './notify';
 import type { AuditTrailEntry, ReviewEntry } from '../../shared/api-types';
 
@@ -25,25 +27,31 @@ function entry(ctx: AppContext, id: number): ReviewEntry {
   return listThread(ctx, ctx.db.select({ b: reviews.buildId }).from(reviews).where(eq(reviews.id, id)).get()!.b).find((r) => r.id === id)!;
 }
 
+/** A build's thread with what the caller may add to it. */
+export function reviewThread(ctx: AppContext, access: ProjectAccess, build: BuildRow) {
+  return { reviews: listThread(ctx, build.id), status: build.status, permissions: { comment: can(access, 'comment'), review: can(access, 'review') } };
+}
+
+/** A comment on a build (who may comment is the route's permission). */
 export function addComment(ctx: AppContext, access: ProjectAccess, build: BuildRow, body: string): ReviewEntry {
-  if (!can(access, 'comment')) throw forbidden(`Your role (${access.role}) in this project does not allow: comment.`);
   const row = ctx.db.insert(reviews).values({ buildId: build.id, userId: access.user.id, body, verdict: null }).returning().get();
   audit(ctx.db, { userId: access.user.id, action: 'comment', entity: 'review', entityId: row.id, projectId: build.projectId, after: { buildId: build.id, body } });
   return entry(ctx, row.id);
 }
 
-export async function giveVerdict(ctx: AppContext, access: ProjectAccess, build: BuildRow, input: { verdict: 'approved' | 'needs-work'; body: string }) {
-  if (!can(access, 'review')) throw forbidden(`Your role (${access.role}) in this project does not allow: give review verdicts.`);
-  if (build.status === 'planned' || build.status === 'discarded') {
+/** A PI's verdict (who may give one is the route's permission): the build becomes reviewed and its author is told. */
+export async function giveVerdict(ctx: AppContext, access: ProjectAccess, build: BuildRow, input: VerdictBody) {
+  const step = nextStatus(build.status, { kind: 'verdict' });
+  if (!step.ok) {
     throw conflict(`${build.code} is ${build.status}: a verdict needs a build that was made and tested.`, { fields: [{ path: 'verdict', message: `not possible on a ${build.status} build` }] });
   }
   const { row, after } = ctx.db.transaction((tx) => {
     const row = tx.insert(reviews).values({ buildId: build.id, userId: access.user.id, body: input.body, verdict: input.verdict }).returning().get();
-    const after = tx.update(builds).set({ status: 'reviewed', updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).returning().get();
+    const after = tx.update(builds).set({ status: step.status, updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).returning().get();
     return { row, after };
   });
   audit(ctx.db, { userId: access.user.id, action: 'verdict', entity: 'review', entityId: row.id, projectId: build.projectId, after: { buildId: build.id, verdict: input.verdict, body: input.body } });
-  if (build.status !== 'reviewed') {
+  if (step.changed) {
     audit(ctx.db, { userId: access.user.id, action: 'update', entity: 'build', entityId: build.id, projectId: build.projectId, before: { status: build.status }, after: { status: after.status } });
   }
   await notifyVerdict(ctx, access.user, build, input.verdict, input.body);

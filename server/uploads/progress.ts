@@ -16,8 +16,6 @@ const KEEP_STALLED_MS = 30 * 60_000;
 /** at most this many entries at once; the oldest go first */
 const MAX_ENTRIES = 2000;
 
-export const UPLOAD_ID_PATTERN = /^[A-Za-z0-9_-]{8,64}$/;
-
 const entries = new Map<string, Entry>();
 
 function sweep(now: number) {

@@ -6,11 +6,7 @@ import type { BuildStatus } from '../schemas/build';
 /** Curve ids of a build's curves of record, by kind; a kind without curves is absent. */
 export type RecordCurveIds = Partial<Record<CurveKind, number>>;
 
-export interface RecordChoice {
-  /** optional check: must be the kind of the chosen curve */
-  kind?: CurveKind;
-  curveId: number;
-}
+export type { RecordChoice } from '../schemas/build';
 
 export interface RecordChange {
   buildId: number;

@@ -1,19 +1,8 @@
-// Curve uploads: the form fields sent with a file (POST /api/builds/:id/curves and …/preview)
-// and the processing progress of a large upload (GET /api/uploads/:uploadId/progress).
-import type { ColumnMapping, CurveKind } from '../curves/types';
+// Curve uploads: the form fields sent with a file (POST /api/builds/:id/curves and …/preview;
+// their schema is in shared/schemas/curves) and the processing progress of a large upload
+// (GET /api/uploads/:uploadId/progress).
 
-export interface UploadFields {
-  kind?: CurveKind;
-  /** cell area, cm²; default the file's, else the build's */
-  areaCm2?: number;
-  profileId?: number;
-  mapping?: ColumnMapping;
-  sheet?: string;
-  label?: string;
-  saveProfileAs?: string;
-  /** random id under which the server reports processing progress */
-  uploadId?: string;
-}
+export type { UploadFields } from '../schemas/curves';
 
 export type UploadPhase = 'receiving' | 'parsing' | 'measuring' | 'storing' | 'done' | 'error';
 

@@ -49,11 +49,17 @@ export const membershipSetSchema = z.object({
   role: z.enum(ROLES),
 });
 
+export type InviteCreate = z.input<typeof inviteCreateSchema>;
+export type PersonUpdate = z.input<typeof personUpdateSchema>;
+export type MembershipSet = z.input<typeof membershipSetSchema>;
+
 export const labCreateSchema = z.object({
   name: z.string().trim().min(2).max(100),
   kind: z.enum(['home', 'partner']),
   city: z.string().trim().max(100).nullish(),
 });
+
+export type LabCreate = z.input<typeof labCreateSchema>;
 
 /** What a personal API token may do: read only; read and upload curves; or all the person may do (except minting tokens and ending browser sessions). */
 export const TOKEN_SCOPES = ['read', 'upload', 'full'] as const;
@@ -64,3 +70,14 @@ export const apiTokenCreateSchema = z.object({
   /** omitted by older scripts: full, as tokens were before scopes */
   scope: z.enum(TOKEN_SCOPES).default('full'),
 });
+export type ApiTokenCreate = z.input<typeof apiTokenCreateSchema>;
+
+/** Paging and filters of the admin lists (outbox, audit log): newest first, `before` an id. */
+export const adminPageQuery = z.object({
+  before: z.coerce.number().int().positive().optional(),
+  limit: z.coerce.number().int().min(1).max(500).default(100),
+  projectId: z.coerce.number().int().positive().optional(),
+  entity: z.string().max(40).optional(),
+  entityId: z.coerce.number().int().positive().optional(),
+});
+export type AdminPageQuery = z.infer<typeof adminPageQuery>;

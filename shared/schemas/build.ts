@@ -37,6 +37,22 @@ export const buildUpdateSchema = buildCreateSchema.partial().extend({
   testConditions: testConditionsSchema.optional(),
 });
 
+/** GET /api/projects/:id/builds: one status, one page. */
+export const buildListQuery = z.object({
+  status: z.enum(BUILD_STATUSES).optional(),
+  limit: z.coerce.number().int().min(1).max(100000).optional(),
+  offset: z.coerce.number().int().min(0).optional(),
+});
+export type BuildListQuery = z.infer<typeof buildListQuery>;
+
+/** PUT /api/builds/:id/record: make one curve the build's curve of record of its kind. */
+export const recordChoiceSchema = z.object({
+  /** optional check: must be the kind of the chosen curve */
+  kind: z.enum(['polarization', 'durability', 'hold']).optional(),
+  curveId: z.number().int().positive(),
+});
+export type RecordChoice = z.infer<typeof recordChoiceSchema>;
+
 export interface FactorValueIssue {
   path: string[];
   message: string;

@@ -104,3 +104,7 @@ export const testConditionsSchema = z.object({
   h2CrossoverMAcm2: z.number().min(0, 'below 0 mA/cm²').max(50, 'above 50 mA/cm²').nullish(),
 });
 export type TestConditions = z.infer<typeof testConditionsSchema>;
+
+/** PUT /api/projects/:id/notify: my own e-mail notices for the project (each event, or a daily digest). */
+export const notifySchema = z.object({ notify: z.boolean(), digest: z.boolean().optional() });
+export type NotifyBody = z.infer<typeof notifySchema>;

@@ -83,7 +83,7 @@ describe('uploading polarization curves', () => {
   it('mass activity at the project reference point (V_ref 0.6 V, iR-free, catalyst basis)', async () => {
     const res = await h.as.researcher.upload(`/api/builds/${buildId}/curves`, { name: 'lab-c.csv', content: fixture('lab-c-metadata-header.csv') });
     const m = res.body.curve.metrics;
-    // A/g = j(A/cm²) / (4.0 mg/cm² × 1e-3 g/mg): definition in domain guide; loading of this build
+    // A/g = j(A/cm²) / (4.0 mg/cm² × 1e-3 g/mg): the definition of mass-specific activity; loading of this build
     expect(m.massActivity).toBeCloseTo(m.jAtRefIrFree / (4.0e-3), 6);
     expect(res.body.curve.conditions.temperatureC).toBe(180); // read from the file's metadata line
   });

@@ -241,7 +241,7 @@ describe('POST /api/projects/:id/proposals', () => {
       keys.add(JSON.stringify(p.factors));
     }
     expect(keys.size).toBe(3);
-    expect(res.body.goal).toBe('maximize'); // V at j_ref: higher is better (domain guide)
+    expect(res.body.goal).toBe('maximize'); // V at j_ref: higher is better (common practice in the trade)
   });
 
   it('flags a temperature above the highest tested one', async () => {

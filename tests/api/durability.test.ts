@@ -14,7 +14,7 @@ let h: Harness;
 let ids: ReturnType<typeof demoIds>;
 
 // An invented 800 h log at 10-min steps (4,801 rows): 8 µV/h after a 60 h break-in, 1 mV noise.
-// 8 µV/h sits in the "improved"–"standard" span the trade reports (common practice, domain guide).
+// 8 µV/h sits in the "improved"–"standard" span the trade reports (common practice in the trade).
 const BASE: SyntheticLogOptions = { hours: 800, stepMinutes: 10, v0: 0.6, breakInHours: 60, breakInDropMv: 15, rateUvPerH: 8, noiseMv: 1, currentDensity: 0.2, seed: 7 };
 const csvOf = (options: Partial<SyntheticLogOptions> = {}) => writeDurabilityCsv(generateSyntheticLog({ ...BASE, ...options }));
 const count = (table: string) => (h.ctx.db.$client.prepare(`select count(*) as n from ${table}`).get() as { n: number }).n;
@@ -188,11 +188,11 @@ describe('project durability comparison', () => {
   it('lists the seeded logs with rates in the range the trade reports and their conditions', async () => {
     const res = await h.as.viewer.get(`/api/projects/${ids.project('C')}/durability`);
     expect(res.status).toBe(200);
-    expect(res.body.typicalBand).toEqual({ standard: [10, 15], improved: 5 }); // common practice in the trade (domain guide)
+    expect(res.body.typicalBand).toEqual({ standard: [10, 15], improved: 5 }); // common practice in the trade
     const seeded = (res.body.curves as { code: string; degradationRate: number; low: number; high: number; hoursRun: number; temperatureC: number | null; currentDensity: number | null }[]).filter((c) => c.hoursRun >= 1500);
     expect(seeded.length).toBeGreaterThanOrEqual(1);
     for (const c of seeded) {
-      expect(c.degradationRate).toBeGreaterThan(1); // the trade reports about 1–15 µV/h (domain guide)
+      expect(c.degradationRate).toBeGreaterThan(1); // the trade reports about 1–15 µV/h (common practice in the trade)
       expect(c.degradationRate).toBeLessThan(20);
       expect(c.low).toBeLessThan(c.high);
       expect(c.temperatureC).not.toBeNull();

@@ -251,7 +251,7 @@ describe('start-up and the OpenAPI document', () => {
     const emails = (ctx.db.$client.prepare('select email from users').all() as { email: string }[]).map((r) => r.email);
     expect(emails).toEqual(expect.arrayContaining(['admin@demo.cellwright.test', 'pi@demo.cellwright.test', 'researcher@demo.cellwright.test', 'partner@demo.cellwright.test', 'viewer@demo.cellwright.test']));
     const builds = (ctx.db.$client.prepare('select count(*) n from builds').get() as { n: number }).n;
-    expect(builds).toBeGreaterThanOrEqual(25); // the demo brief asks for 25–40 builds
+    expect(builds).toBeGreaterThanOrEqual(25); // the demo lab is sized at 25–40 builds
     expect(builds).toBeLessThanOrEqual(40);
     ctx.db.$client.close();
     fs.rmSync(dir, { recursive: true, force: true });

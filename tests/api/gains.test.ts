@@ -97,7 +97,7 @@ describe('gains route on an invented project', () => {
 describe('gains route on the demo campaign', () => {
   it('tells the cathode story from the baseline to the best build, in V', async () => {
     const res = await h.as.pi.get(`/api/projects/${ids.project('C')}/gains?response=vAtRef`).expect(200);
-    expect(res.body.response).toMatchObject({ key: 'vAtRef', unit: 'V' }); // product.md: vAtRef in V
+    expect(res.body.response).toMatchObject({ key: 'vAtRef', unit: 'V' }); // vAtRef is kept in V, the fixed unit of the API
     const codes = res.body.steps.map((s: { code: string }) => s.code);
     expect(codes[0]).toBe('C-001'); // the campaign's baseline (demo data)
     expect(codes.length).toBeGreaterThan(3);

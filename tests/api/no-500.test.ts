@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { createHarness, type Harness } from './harness';
-import { ROUTES } from '../../server/openapi';
+import { ROUTES } from '../../server/features';
 
 let h: Harness;
 beforeAll(async () => {

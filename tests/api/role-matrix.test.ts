@@ -1,11 +1,15 @@
 // The role × route matrix: every role tries every route, and the expected allow/deny holds.
-// Every route of the OpenAPI document must have a row here (checked below), so the matrix
-// grows with each feature. Roles are those of product.md: site admin; per project pi,
-// researcher, partner, viewer. A denial is 403, or 404 where the project is not visible.
+// The routes come from the feature modules (server/features.ts), each with the permission it
+// declares; who is expected to get through follows from that permission and the one role table
+// (shared/auth/permissions.ts). Every route must have a row here (checked below), giving the
+// request each role sends. Roles: site admin; per project pi, researcher, partner, viewer.
+// A denial is 403, or 404 where the project is not visible.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createHarness, demoIds, EVERYONE, type Harness, type Who, type Client } from './harness';
-import { ROUTES } from '../../server/openapi';
+import { ROUTES } from '../../server/features';
+import type { Permission } from '../../server/lib/route';
+import { rolesAllowed } from '../../shared/auth/permissions';
 
 const CSV = 'Current density (A/cm2),Voltage (V),HFR (Ohm cm2)\n0,0.98,0.12\n0.05,0.74,0.12\n0.1,0.69,0.12\n0.2,0.62,0.12\n0.3,0.57,0.12\n0.4,0.52,0.12\n';
 
@@ -13,11 +17,20 @@ export interface MatrixRow {
   method: 'get' | 'post' | 'patch' | 'put' | 'delete';
   /** OpenAPI-style path, e.g. /api/builds/{id} */
   path: string;
-  allowed: Who[];
   /** build the request for one role (may create fixtures through h.as.admin) */
   send: (h: Harness, c: Client, who: Who) => Promise<request.Response>;
-  /** anonymous callers are refused with 401 unless this is set */
-  publicRoute?: boolean;
+}
+
+/**
+ * Who a declared permission lets through, among the demo people (each of pi, researcher,
+ * partner and viewer holds that role in project C; only the partner belongs to a partner lab).
+ */
+function expectedRoles(permission: Permission): Who[] {
+  if (permission === 'public' || permission === 'signed-in') return [...EVERYONE];
+  if (permission === 'site-admin') return ['admin'];
+  if (permission === 'create-project') return EVERYONE.filter((who) => who !== 'partner');
+  const roles = rolesAllowed(permission.action) as Who[];
+  return permission.members ? roles.filter((who) => who !== 'admin') : roles;
 }
 
 let h: Harness;
@@ -43,113 +56,111 @@ async function makeCurve(h: Harness, content = CSV) {
 const C = () => ids.project('C');
 /** a complete polarization profile (current and voltage) */
 const PROFILE = { voltage: { header: 'U (V)', unit: 'V' }, current: { header: 'j (A/cm2)', unit: 'A/cm2' } };
-const ALL: Who[] = [...EVERYONE];
-const WRITERS: Who[] = ['admin', 'pi', 'researcher', 'partner'];
-const PLANNERS: Who[] = ['admin', 'pi', 'researcher'];
 
 export const MATRIX: MatrixRow[] = [
-  { method: 'post', path: '/api/auth/login', allowed: ALL, publicRoute: true, send: (h, _c, who) => request(h.app).post('/api/auth/login').send({ email: `${who}@demo.cellwright.test`, password: 'demo-password' }) },
-  { method: 'post', path: '/api/auth/logout', allowed: ALL, publicRoute: true, send: async (h, _c, who) => { const { agent, csrf } = await freshAgent(h, who); return agent.post('/api/auth/logout').set('X-CSRF-Token', csrf); } },
-  { method: 'get', path: '/api/auth/me', allowed: ALL, send: (_h, c) => c.get('/api/auth/me') },
-  { method: 'get', path: '/api/auth/sessions', allowed: ALL, send: (_h, c) => c.get('/api/auth/sessions') },
-  { method: 'post', path: '/api/auth/sessions/{id}/revoke', allowed: ALL, send: async (h, c, who) => {
+  { method: 'post', path: '/api/auth/login', send: (h, _c, who) => request(h.app).post('/api/auth/login').send({ email: `${who}@demo.cellwright.test`, password: 'demo-password' }) },
+  { method: 'post', path: '/api/auth/logout', send: async (h, _c, who) => { const { agent, csrf } = await freshAgent(h, who); return agent.post('/api/auth/logout').set('X-CSRF-Token', csrf); } },
+  { method: 'get', path: '/api/auth/me', send: (_h, c) => c.get('/api/auth/me') },
+  { method: 'get', path: '/api/auth/sessions', send: (_h, c) => c.get('/api/auth/sessions') },
+  { method: 'post', path: '/api/auth/sessions/{id}/revoke', send: async (h, c, who) => {
     await freshAgent(h, who);
     const list = await c.get('/api/auth/sessions');
     const other = list.body.sessions.find((s: { current: boolean; revokedAt: string | null }) => !s.current && !s.revokedAt);
     return c.post(`/api/auth/sessions/${other.id}/revoke`);
   } },
-  { method: 'get', path: '/api/auth/tokens', allowed: ALL, send: (_h, c) => c.get('/api/auth/tokens') },
-  { method: 'post', path: '/api/auth/tokens', allowed: ALL, send: (_h, c) => c.post('/api/auth/tokens', { name: unique('script') }) },
-  { method: 'post', path: '/api/auth/tokens/{id}/revoke', allowed: ALL, send: async (_h, c) => { const t = await c.post('/api/auth/tokens', { name: unique('t') }); return c.post(`/api/auth/tokens/${t.body.id}/revoke`); } },
-  { method: 'get', path: '/api/invitations/{token}', allowed: ALL, publicRoute: true, send: async (h) => {
+  { method: 'get', path: '/api/auth/tokens', send: (_h, c) => c.get('/api/auth/tokens') },
+  { method: 'post', path: '/api/auth/tokens', send: (_h, c) => c.post('/api/auth/tokens', { name: unique('script') }) },
+  { method: 'post', path: '/api/auth/tokens/{id}/revoke', send: async (_h, c) => { const t = await c.post('/api/auth/tokens', { name: unique('t') }); return c.post(`/api/auth/tokens/${t.body.id}/revoke`); } },
+  { method: 'get', path: '/api/invitations/{token}', send: async (h) => {
     const mail = `${unique('guest')}@partner.example`;
     await h.as.pi.post(`/api/projects/${C()}/invitations`, { email: mail, role: 'viewer' });
     const token = latestInviteToken(h, mail);
     return request(h.app).get(`/api/invitations/${token}`);
   } },
-  { method: 'post', path: '/api/invitations/{token}/accept', allowed: ALL, publicRoute: true, send: async (h) => {
+  { method: 'post', path: '/api/invitations/{token}/accept', send: async (h) => {
     const mail = `${unique('guest')}@partner.example`;
     await h.as.pi.post(`/api/projects/${C()}/invitations`, { email: mail, role: 'viewer' });
     return request(h.app).post(`/api/invitations/${latestInviteToken(h, mail)}/accept`).send({ name: 'Guest Person', password: 'long-enough-pw' });
   } },
-  { method: 'get', path: '/api/home', allowed: ALL, send: (_h, c) => c.get('/api/home') },
-  { method: 'get', path: '/api/projects', allowed: ALL, send: (_h, c) => c.get('/api/projects') },
-  { method: 'post', path: '/api/projects', allowed: ['admin', 'pi', 'researcher', 'viewer'], send: (_h, c) => c.post('/api/projects', { name: unique('Matrix project '), settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } }) },
-  { method: 'get', path: '/api/projects/{id}', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}`) },
-  { method: 'patch', path: '/api/projects/{id}', allowed: ['admin', 'pi'], send: (_h, c) => c.patch(`/api/projects/${C()}`, { description: unique('desc ') }) },
-  { method: 'get', path: '/api/projects/{id}/factors', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/factors`) },
-  { method: 'post', path: '/api/projects/{id}/factors', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/factors`, { key: unique('inkSolids'), label: 'Ink solids', unit: 'wt %', kind: 'continuous', low: 1, high: 5 }) },
-  { method: 'patch', path: '/api/projects/{id}/factors/{factorId}', allowed: PLANNERS, send: async (h, c) => {
+  { method: 'get', path: '/api/home', send: (_h, c) => c.get('/api/home') },
+  { method: 'get', path: '/api/projects', send: (_h, c) => c.get('/api/projects') },
+  { method: 'post', path: '/api/projects', send: (_h, c) => c.post('/api/projects', { name: unique('Matrix project '), settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } }) },
+  { method: 'get', path: '/api/projects/{id}', send: (_h, c) => c.get(`/api/projects/${C()}`) },
+  { method: 'patch', path: '/api/projects/{id}', send: (_h, c) => c.patch(`/api/projects/${C()}`, { description: unique('desc ') }) },
+  { method: 'get', path: '/api/projects/{id}/permissions', send: (_h, c) => c.get(`/api/projects/${C()}/permissions`) },
+  { method: 'get', path: '/api/projects/{id}/factors', send: (_h, c) => c.get(`/api/projects/${C()}/factors`) },
+  { method: 'post', path: '/api/projects/{id}/factors', send: (_h, c) => c.post(`/api/projects/${C()}/factors`, { key: unique('inkSolids'), label: 'Ink solids', unit: 'wt %', kind: 'continuous', low: 1, high: 5 }) },
+  { method: 'patch', path: '/api/projects/{id}/factors/{factorId}', send: async (h, c) => {
     const f = await h.as.admin.post(`/api/projects/${C()}/factors`, { key: unique('hp'), label: 'Hot-press time', unit: 'min', kind: 'continuous', low: 1, high: 10 });
     return c.patch(`/api/projects/${C()}/factors/${f.body.factor.id}`, { key: f.body.factor.key, label: 'Hot-press time (edited)', unit: 'min', kind: 'continuous', low: 1, high: 12 });
   } },
-  { method: 'get', path: '/api/projects/{id}/responses', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/responses`) },
-  { method: 'post', path: '/api/projects/{id}/responses', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/responses`, { key: unique('cost'), label: 'Cost', unit: '€', goal: 'minimize' }) },
-  { method: 'get', path: '/api/projects/{id}/members', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/members`) },
-  { method: 'put', path: '/api/projects/{id}/members', allowed: ['admin', 'pi'], send: (_h, c) => c.put(`/api/projects/${C()}/members`, { userId: ids.user('r.castellane@ridgeway.example'), role: 'partner' }) },
-  { method: 'delete', path: '/api/projects/{id}/members/{userId}', allowed: ['admin', 'pi'], send: async (h, c) => {
+  { method: 'get', path: '/api/projects/{id}/responses', send: (_h, c) => c.get(`/api/projects/${C()}/responses`) },
+  { method: 'post', path: '/api/projects/{id}/responses', send: (_h, c) => c.post(`/api/projects/${C()}/responses`, { key: unique('cost'), label: 'Cost', unit: '€', goal: 'minimize' }) },
+  { method: 'get', path: '/api/projects/{id}/members', send: (_h, c) => c.get(`/api/projects/${C()}/members`) },
+  { method: 'put', path: '/api/projects/{id}/members', send: (_h, c) => c.put(`/api/projects/${C()}/members`, { userId: ids.user('r.castellane@ridgeway.example'), role: 'partner' }) },
+  { method: 'delete', path: '/api/projects/{id}/members/{userId}', send: async (h, c) => {
     const mail = `${unique('leaver')}@partner.example`;
     await h.as.pi.post(`/api/projects/${C()}/invitations`, { email: mail, role: 'viewer' });
     await request(h.app).post(`/api/invitations/${latestInviteToken(h, mail)}/accept`).send({ name: 'Leaving Person', password: 'long-enough-pw' });
     return c.delete(`/api/projects/${C()}/members/${ids.user(mail)}`);
   } },
-  { method: 'put', path: '/api/projects/{id}/notify', allowed: ['pi', 'researcher', 'partner', 'viewer'], send: (_h, c) => c.put(`/api/projects/${C()}/notify`, { notify: true }) },
-  { method: 'post', path: '/api/projects/{id}/invitations', allowed: ['admin', 'pi'], send: (_h, c) => c.post(`/api/projects/${C()}/invitations`, { email: `${unique('new')}@lab.example`, role: 'researcher' }) },
-  { method: 'get', path: '/api/projects/{id}/builds', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/builds`) },
-  { method: 'post', path: '/api/projects/{id}/builds', allowed: WRITERS, send: (_h, c) => c.post(`/api/projects/${C()}/builds`, { status: 'planned', factors: { binder: 25 }, loadingMgCm2: 3, areaCm2: 25 }) },
-  { method: 'get', path: '/api/builds/{id}', allowed: ALL, send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}`) },
-  { method: 'patch', path: '/api/builds/{id}', allowed: WRITERS, send: (_h, c) => c.patch(`/api/builds/${ids.build('C-014')}`, { changeNote: unique('partner check, note ') }) },
-  { method: 'get', path: '/api/labs', allowed: ALL, send: (_h, c) => c.get('/api/labs') },
-  { method: 'post', path: '/api/admin/labs', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/labs', { name: unique('Matrix Lab '), kind: 'partner' }) },
-  { method: 'get', path: '/api/admin/people', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/people') },
-  { method: 'patch', path: '/api/admin/people/{id}', allowed: ['admin'], send: (_h, c) => c.patch(`/api/admin/people/${ids.user('r.castellane@ridgeway.example')}`, { name: 'Rosa Castellane' }) },
-  { method: 'post', path: '/api/admin/people/{id}/revoke-sessions', allowed: ['admin'], send: (_h, c) => c.post(`/api/admin/people/${ids.user('r.castellane@ridgeway.example')}/revoke-sessions`) },
-  { method: 'post', path: '/api/admin/digests/send', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/digests/send') },
-  { method: 'get', path: '/api/admin/outbox', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/outbox') },
-  { method: 'get', path: '/api/admin/audit', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/audit') },
-  { method: 'get', path: '/api/admin/backups', allowed: ['admin'], send: (_h, c) => c.get('/api/admin/backups') },
-  { method: 'post', path: '/api/admin/backups', allowed: ['admin'], send: (_h, c) => c.post('/api/admin/backups') },
-  { method: 'get', path: '/api/admin/backups/{name}', allowed: ['admin'], send: async (h, c) => {
+  { method: 'put', path: '/api/projects/{id}/notify', send: (_h, c) => c.put(`/api/projects/${C()}/notify`, { notify: true }) },
+  { method: 'post', path: '/api/projects/{id}/invitations', send: (_h, c) => c.post(`/api/projects/${C()}/invitations`, { email: `${unique('new')}@lab.example`, role: 'researcher' }) },
+  { method: 'get', path: '/api/projects/{id}/builds', send: (_h, c) => c.get(`/api/projects/${C()}/builds`) },
+  { method: 'post', path: '/api/projects/{id}/builds', send: (_h, c) => c.post(`/api/projects/${C()}/builds`, { status: 'planned', factors: { binder: 25 }, loadingMgCm2: 3, areaCm2: 25 }) },
+  { method: 'get', path: '/api/builds/{id}', send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}`) },
+  { method: 'patch', path: '/api/builds/{id}', send: (_h, c) => c.patch(`/api/builds/${ids.build('C-014')}`, { changeNote: unique('partner check, note ') }) },
+  { method: 'get', path: '/api/labs', send: (_h, c) => c.get('/api/labs') },
+  { method: 'post', path: '/api/admin/labs', send: (_h, c) => c.post('/api/admin/labs', { name: unique('Matrix Lab '), kind: 'partner' }) },
+  { method: 'get', path: '/api/admin/people', send: (_h, c) => c.get('/api/admin/people') },
+  { method: 'patch', path: '/api/admin/people/{id}', send: (_h, c) => c.patch(`/api/admin/people/${ids.user('r.castellane@ridgeway.example')}`, { name: 'Rosa Castellane' }) },
+  { method: 'post', path: '/api/admin/people/{id}/revoke-sessions', send: (_h, c) => c.post(`/api/admin/people/${ids.user('r.castellane@ridgeway.example')}/revoke-sessions`) },
+  { method: 'post', path: '/api/admin/digests/send', send: (_h, c) => c.post('/api/admin/digests/send') },
+  { method: 'get', path: '/api/admin/outbox', send: (_h, c) => c.get('/api/admin/outbox') },
+  { method: 'get', path: '/api/admin/audit', send: (_h, c) => c.get('/api/admin/audit') },
+  { method: 'get', path: '/api/admin/backups', send: (_h, c) => c.get('/api/admin/backups') },
+  { method: 'post', path: '/api/admin/backups', send: (_h, c) => c.post('/api/admin/backups') },
+  { method: 'get', path: '/api/admin/backups/{name}', send: async (h, c) => {
     const list = await h.as.admin.get('/api/admin/backups');
     const name = list.body.backups[0]?.name ?? (await h.as.admin.post('/api/admin/backups')).body.backup.name;
     return c.get(`/api/admin/backups/${name}`);
   } },
-  { method: 'post', path: '/api/builds/{id}/curves', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'matrix.csv', content: CSV }) },
-  { method: 'post', path: '/api/builds/{id}/curves/preview', allowed: WRITERS, send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves/preview`, { name: 'matrix.csv', content: CSV }) },
-  { method: 'get', path: '/api/curves/{id}', allowed: ALL, send: async (h, c) => c.get(`/api/curves/${await makeCurve(h)}`) },
-  { method: 'patch', path: '/api/curves/{id}', allowed: WRITERS, send: async (h, c) => c.patch(`/api/curves/${await makeCurve(h)}`, { label: 'relabelled' }) },
-  { method: 'post', path: '/api/curves/{id}/conditions', allowed: WRITERS, send: async (h, c) => c.post(`/api/curves/${await makeCurve(h, MISMATCH_CSV)}/conditions`, { field: 'temperatureC', chosen: 'build' }) },
-  { method: 'delete', path: '/api/curves/{id}', allowed: PLANNERS, send: async (h, c) => c.delete(`/api/curves/${await makeCurve(h)}`) },
+  { method: 'post', path: '/api/builds/{id}/curves', send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'matrix.csv', content: CSV }) },
+  { method: 'post', path: '/api/builds/{id}/curves/preview', send: (_h, c) => c.upload(`/api/builds/${ids.build('C-014')}/curves/preview`, { name: 'matrix.csv', content: CSV }) },
+  { method: 'get', path: '/api/curves/{id}', send: async (h, c) => c.get(`/api/curves/${await makeCurve(h)}`) },
+  { method: 'patch', path: '/api/curves/{id}', send: async (h, c) => c.patch(`/api/curves/${await makeCurve(h)}`, { label: 'relabelled' }) },
+  { method: 'post', path: '/api/curves/{id}/conditions', send: async (h, c) => c.post(`/api/curves/${await makeCurve(h, MISMATCH_CSV)}/conditions`, { field: 'temperatureC', chosen: 'build' }) },
+  { method: 'delete', path: '/api/curves/{id}', send: async (h, c) => c.delete(`/api/curves/${await makeCurve(h)}`) },
   // partners choose only for their own lab's builds (C-014 is Kestrel's); viewers never
-  { method: 'put', path: '/api/builds/{id}/record', allowed: WRITERS, send: async (h, c) => c.put(`/api/builds/${ids.build('C-014')}/record`, { kind: 'polarization', curveId: await makeCurve(h) }) },
-  { method: 'get', path: '/api/files/{id}/raw', allowed: ALL, send: async (h, c) => { const id = await makeCurve(h); const curve = await h.as.admin.get(`/api/curves/${id}`); return c.get(`/api/files/${curve.body.curve.fileId}/raw`); } },
-  { method: 'get', path: '/api/projects/{id}/import-profiles', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/import-profiles`) },
-  { method: 'post', path: '/api/projects/{id}/import-profiles', allowed: WRITERS, send: (_h, c) => c.post(`/api/projects/${C()}/import-profiles`, { name: unique('profile '), mapping: PROFILE }) },
-  { method: 'delete', path: '/api/import-profiles/{id}', allowed: WRITERS, send: async (h, c, who) => {
+  { method: 'put', path: '/api/builds/{id}/record', send: async (h, c) => c.put(`/api/builds/${ids.build('C-014')}/record`, { kind: 'polarization', curveId: await makeCurve(h) }) },
+  { method: 'get', path: '/api/files/{id}/raw', send: async (h, c) => { const id = await makeCurve(h); const curve = await h.as.admin.get(`/api/curves/${id}`); return c.get(`/api/files/${curve.body.curve.fileId}/raw`); } },
+  { method: 'get', path: '/api/projects/{id}/import-profiles', send: (_h, c) => c.get(`/api/projects/${C()}/import-profiles`) },
+  { method: 'post', path: '/api/projects/{id}/import-profiles', send: (_h, c) => c.post(`/api/projects/${C()}/import-profiles`, { name: unique('profile '), mapping: PROFILE }) },
+  { method: 'delete', path: '/api/import-profiles/{id}', send: async (h, c, who) => {
     // each writer removes a profile of its own lab (the one it may make); a viewer tries a home-lab one
     const owner = who === 'partner' ? h.as.partner : h.as.researcher;
     const p = await owner.post(`/api/projects/${C()}/import-profiles`, { name: unique('tmp '), mapping: PROFILE });
     return c.delete(`/api/import-profiles/${p.body.profile.id}`);
   } },
-  { method: 'get', path: '/api/uploads/{uploadId}/progress', allowed: ALL, send: (_h, c) => c.get(`/api/uploads/${unique('matrix-upload-')}/progress`) },
-  { method: 'get', path: '/api/projects/{id}/durability', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/durability`) },
-  { method: 'post', path: '/api/projects/{id}/designs', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/designs`, { kind: 'full-factorial-2', factors: ['binder', 'cellTemp'], seed: 1 }) },
-  { method: 'post', path: '/api/projects/{id}/designs/plan', allowed: PLANNERS, send: async (h, c) => {
+  { method: 'get', path: '/api/uploads/{uploadId}/progress', send: (_h, c) => c.get(`/api/uploads/${unique('matrix-upload-')}/progress`) },
+  { method: 'get', path: '/api/projects/{id}/durability', send: (_h, c) => c.get(`/api/projects/${C()}/durability`) },
+  { method: 'post', path: '/api/projects/{id}/designs', send: (_h, c) => c.post(`/api/projects/${C()}/designs`, { kind: 'full-factorial-2', factors: ['binder', 'cellTemp'], seed: 1 }) },
+  { method: 'post', path: '/api/projects/{id}/designs/plan', send: async (h, c) => {
     // every factor not in the design needs a held value, including factors added by earlier rows
     const factors = (await h.as.admin.get(`/api/projects/${C()}/factors`)).body.factors as { key: string; kind: string; low: number | null; levels: string[] | null }[];
     const held = Object.fromEntries(factors.filter((f) => f.key !== 'binder' && f.key !== 'cellTemp').map((f) => [f.key, f.kind === 'continuous' ? f.low! : f.levels![0]!]));
     return c.post(`/api/projects/${C()}/designs/plan`, { runs: [{ runOrder: 1, block: 1, actual: { binder: 25, cellTemp: 180 } }], held });
   } },
-  { method: 'get', path: '/api/projects/{id}/designs', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/designs`) },
-  { method: 'post', path: '/api/projects/{id}/proposals/plan', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/proposals/plan`, { response: 'vAtRef', model: 'linear', recipe: { binder: 30, activationTemp: 350, activationTime: 3, gdl: 'woven carbon', cellTemp: 180 }, reason: 'matrix check of the planning route' }) },
-  { method: 'post', path: '/api/projects/{id}/surface', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/surface`, { response: 'vAtRef', model: 'linear' }) },
-  { method: 'post', path: '/api/projects/{id}/proposals', allowed: PLANNERS, send: (_h, c) => c.post(`/api/projects/${C()}/proposals`, { response: 'vAtRef', model: 'linear', count: 2 }) },
-  { method: 'get', path: '/api/projects/{id}/gains', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/gains?response=vAtRef`) },
-  { method: 'get', path: '/api/projects/{id}/lineage', allowed: ALL, send: (_h, c) => c.get(`/api/projects/${C()}/lineage?response=vAtRef`) },
-  { method: 'get', path: '/api/builds/{id}/reviews', allowed: ALL, send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/reviews`) },
-  { method: 'post', path: '/api/builds/{id}/reviews', allowed: WRITERS, send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/reviews`, { body: unique('matrix comment ') }) },
-  { method: 'post', path: '/api/builds/{id}/verdict', allowed: ['admin', 'pi'], send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/verdict`, { verdict: 'approved', body: unique('matrix verdict ') }) },
-  { method: 'get', path: '/api/builds/{id}/audit', allowed: ALL, send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/audit`) },
+  { method: 'get', path: '/api/projects/{id}/designs', send: (_h, c) => c.get(`/api/projects/${C()}/designs`) },
+  { method: 'post', path: '/api/projects/{id}/proposals/plan', send: (_h, c) => c.post(`/api/projects/${C()}/proposals/plan`, { response: 'vAtRef', model: 'linear', recipe: { binder: 30, activationTemp: 350, activationTime: 3, gdl: 'woven carbon', cellTemp: 180 }, reason: 'matrix check of the planning route' }) },
+  { method: 'post', path: '/api/projects/{id}/surface', send: (_h, c) => c.post(`/api/projects/${C()}/surface`, { response: 'vAtRef', model: 'linear' }) },
+  { method: 'post', path: '/api/projects/{id}/proposals', send: (_h, c) => c.post(`/api/projects/${C()}/proposals`, { response: 'vAtRef', model: 'linear', count: 2 }) },
+  { method: 'get', path: '/api/projects/{id}/gains', send: (_h, c) => c.get(`/api/projects/${C()}/gains?response=vAtRef`) },
+  { method: 'get', path: '/api/projects/{id}/lineage', send: (_h, c) => c.get(`/api/projects/${C()}/lineage?response=vAtRef`) },
+  { method: 'get', path: '/api/builds/{id}/reviews', send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/reviews`) },
+  { method: 'post', path: '/api/builds/{id}/reviews', send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/reviews`, { body: unique('matrix comment ') }) },
+  { method: 'post', path: '/api/builds/{id}/verdict', send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/verdict`, { verdict: 'approved', body: unique('matrix verdict ') }) },
+  { method: 'get', path: '/api/builds/{id}/audit', send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/audit`) },
 ];
 
 function latestInviteToken(h: Harness, email: string): string {
@@ -172,9 +183,16 @@ describe('role × route matrix', () => {
     expect(missing).toEqual([]);
   });
 
+  it('has no row for a route that does not exist', () => {
+    const documented = new Set(ROUTES.map((r) => `${r.method} ${r.path}`));
+    expect(MATRIX.map((r) => `${r.method} ${r.path}`).filter((k) => !documented.has(k))).toEqual([]);
+  });
+
   for (const row of MATRIX) {
+    const permission = ROUTES.find((r) => r.method === row.method && r.path === row.path)?.permission ?? 'site-admin';
+    const expected = expectedRoles(permission);
     for (const who of EVERYONE) {
-      const allowed = row.allowed.includes(who);
+      const allowed = expected.includes(who);
       it(`${row.method.toUpperCase()} ${row.path} as ${who} is ${allowed ? 'allowed' : 'refused'}`, async () => {
         const res = await row.send(h, h.as[who], who);
         if (allowed) expect(res.status, JSON.stringify(res.body)).toBeLessThan(300);
@@ -184,7 +202,7 @@ describe('role × route matrix', () => {
         }
       });
     }
-    if (!row.publicRoute) {
+    if (permission !== 'public') {
       it(`${row.method.toUpperCase()} ${row.path} without signing in is 401`, async () => {
         const path = row.path.replace(/\{[^}]+\}/g, '1');
         const res = await (request(h.app) as unknown as Record<string, (u: string) => request.Test>)[row.method]!(path);
@@ -193,6 +211,15 @@ describe('role × route matrix', () => {
       });
     }
   }
+
+  it('tells each role what it may do in the project, from the same table the routes check', async () => {
+    const researcher = await h.as.researcher.get(`/api/projects/${C()}/permissions`);
+    expect(researcher.body.role).toBe('researcher');
+    expect(researcher.body.actions).toMatchObject({ read: true, createBuild: true, fit: true, plan: true, review: false, editSettings: false, invite: false });
+    const viewer = await h.as.viewer.get(`/api/projects/${C()}/permissions`);
+    expect(Object.entries(viewer.body.actions).filter(([, allowed]) => allowed).map(([action]) => action)).toEqual(['read']);
+    expect((await h.as.admin.get(`/api/projects/${C()}/permissions`)).body.role).toBe('admin');
+  });
 
   it('a partner cannot edit another lab’s build, nor see a project it is not in', async () => {
     const other = await h.as.partner.patch(`/api/builds/${ids.build('C-001')}`, { changeNote: 'nope' });

@@ -5,6 +5,7 @@ import { useLabs } from '@/features/builds/api/builds';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
 import { Select } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
+import type { ProjectRole } from '@shared/schemas/project';
 import { useConfirm } from '@/components/ui/confirm-dialog';
 
 export default function AdminPeople() {
@@ -41,7 +42,7 @@ export default function AdminPeople() {
                   const role = person.roles.find((r) => r.projectId === p.id)?.role ?? 'none';
                   return (
                     <td key={p.id} className="px-2">
-                      <Select aria-label={`Role of ${person.name} in ${p.name}`} className="w-32" value={role} onChange={async (e) => { const next = e.target.value; if (next !== 'none' || await confirm({ title: `Remove ${person.name} from ${p.name}?`, message: 'They lose access to the project at once; their builds, curves and comments stay. You can add them again.', confirmLabel: 'Remove from project' })) setRole.mutate({ projectId: p.id, userId: person.id, role: next }); }}>
+                      <Select aria-label={`Role of ${person.name} in ${p.name}`} className="w-32" value={role} onChange={async (e) => { const next = e.target.value; if (next !== 'none' || await confirm({ title: `Remove ${person.name} from ${p.name}?`, message: 'They lose access to the project at once; their builds, curves and comments stay. You can add them again.', confirmLabel: 'Remove from project' })) setRole.mutate({ projectId: p.id, userId: person.id, role: next as ProjectRole | 'none' }); }}>
                         {['none', 'pi', 'researcher', 'partner', 'viewer'].map((r) => <option key={r} value={r}>{r}</option>)}
                       </Select>
                     </td>

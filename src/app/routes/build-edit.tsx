@@ -5,6 +5,7 @@ import { useBuild, useBuilds, useLabs, useUpdateBuild } from '@/features/builds/
 import { BuildForm, buildToForm, cleanBuildInput } from '@/features/builds/components/build-form';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
 import { useMe } from '@/features/auth/api/get-me';
+import { lockedLab } from '@/features/projects/components/permissions';
 
 export default function BuildEdit() {
   const projectId = Number(useParams().projectId);
@@ -23,7 +24,7 @@ export default function BuildEdit() {
   if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading || build.isLoading) return <Loading />;
   const error = project.error ?? factors.error ?? responses.error ?? builds.error ?? labs.error ?? build.error;
   if (error) return <ErrorNote error={error} />;
-  const partnerLab = project.data?.myRole === 'partner' ? me?.user.labId ?? null : null;
+  const partnerLab = lockedLab(project.data?.myRole ?? null, me?.user.labId);
   const b = build.data!.build;
 
   return (

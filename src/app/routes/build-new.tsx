@@ -5,6 +5,7 @@ import { useBuilds, useCreateBuild, useLabs } from '@/features/builds/api/builds
 import { BuildForm, cleanBuildInput } from '@/features/builds/components/build-form';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
 import { useMe } from '@/features/auth/api/get-me';
+import { lockedLab } from '@/features/projects/components/permissions';
 
 export default function BuildNew() {
   const projectId = Number(useParams().projectId);
@@ -20,7 +21,7 @@ export default function BuildNew() {
   if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading) return <Loading />;
   const error = project.error ?? factors.error ?? responses.error ?? builds.error ?? labs.error;
   if (error) return <ErrorNote error={error} />;
-  const partnerLab = project.data?.myRole === 'partner' ? me?.user.labId ?? null : null;
+  const partnerLab = lockedLab(project.data?.myRole ?? null, me?.user.labId);
   const parentId = params.get('parent') ? Number(params.get('parent')) : null;
   const parent = builds.data!.find((b) => b.id === parentId);
 

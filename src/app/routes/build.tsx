@@ -4,7 +4,7 @@ import { useQueries } from '@tanstack/react-query';
 import type { CurveSummary, Project, FactorDef, BuildDetail } from '@shared/api-types';
 import { useBuild, useUpdateBuild } from '@/features/builds/api/builds';
 import { useFactors, useProject, useResponses } from '@/features/projects/api/projects';
-import { curveQueryOptions, useCurve } from '@/features/curves/api/curves';
+import { curveQueryOptions, useCurve, useUpdateCurve } from '@/features/curves/api/curves';
 import { PolarizationPlot, curveTitle } from '@/features/curves/components/polarization-plot';
 import { CurveShelf } from '@/features/curves/components/curve-shelf';
 import { ApiError } from '@/lib/api-client';
@@ -155,12 +155,13 @@ function CurveView({ curve, overlays, project, detail }: { curve: CurveSummary; 
 function DurabilityView({ curve, overlays }: { curve: CurveSummary; overlays: CurveSummary[] }) {
   // the build is already in the query cache; its permissions say whether the options can be edited
   const build = useBuild(curve.buildId);
+  const update = useUpdateCurve(curve.buildId);
   return (
     <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <div className="min-w-0"><DurabilityPlot curve={curve} title={curveTitle(curve)} overlays={overlays} /></div>
       <div className="min-w-0 space-y-3">
         <ImportNotes curve={curve} canChoose={Boolean(build.data?.permissions.upload)} />
-        <DurabilityControls curve={curve} buildId={curve.buildId} canEdit={Boolean(build.data?.permissions.upload)} />
+        <DurabilityControls curve={curve} update={update} canEdit={Boolean(build.data?.permissions.upload)} />
       </div>
     </div>
   );

@@ -8,6 +8,7 @@ import { PageHeader, Panel, Loading, ErrorNote } from '@/components/ui/panel';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { Button } from '@/components/ui/button';
 import { useMe } from '@/features/auth/api/get-me';
+import { canUploadTo, canWrite } from '@/features/projects/components/permissions';
 
 export default function UploadPage() {
   const projectId = Number(useParams().projectId);
@@ -18,7 +19,7 @@ export default function UploadPage() {
   if (project.isLoading || builds.isLoading) return <Loading />;
   if (project.error || builds.error) return <ErrorNote error={project.error ?? builds.error} />;
   const partner = project.data!.myRole === 'partner';
-  const choices = builds.data!.filter((b) => b.status !== 'discarded' && (!partner || b.labId === me?.user.labId)).map((b) => ({ id: b.id, code: b.code }));
+  const choices = builds.data!.filter((b) => b.status !== 'discarded' && canUploadTo(project.data!.myRole, me?.user.labId, b.labId)).map((b) => ({ id: b.id, code: b.code }));
 
   // A file named after a build code ("C-004_pol.csv") is matched to it.
   const guess = (name: string) => choices.find((c) => name.toUpperCase().includes(c.code.toUpperCase()))?.id ?? null;
@@ -54,7 +55,9 @@ export default function UploadPage() {
       </Panel>
       {batch.rows.length === 0 && (
         <Panel title="Builds without curves yet" className="mt-4">
-          {withoutCurves.length === 0 ? (
+          {!canWrite(project.data!.myRole) ? (
+            <p className="text-sm text-ink-500">Your role in this project reads curves but does not upload them; a researcher or the PI can.</p>
+          ) : withoutCurves.length === 0 ? (
             <p className="text-sm text-ink-500">Every {partner ? 'build of your lab' : 'built or tested build'} has at least one curve. Files for a build are matched by its code in the file name (e.g. “{choices[0]?.code ?? 'C-012'}_polarization.csv”), or chosen per file.</p>
           ) : (
             <>

@@ -86,6 +86,9 @@ export function downloadText(text: string, fileName: string, type = 'text/csv') 
 export async function exportPlotCsv(container: HTMLElement | null, fileName: string) {
   const graph = graphIn(container);
   if (!graph) return;
-  const { default: Papa } = await import('papaparse');
-  downloadText(Papa.unparse(plotRows(graph)), `${fileName}.csv`);
+  // the one CSV writer (formula-looking text made inert), loaded with the click, not the page
+  const { writeCsv } = await import('@shared/csv/write-csv');
+  const rows = plotRows(graph);
+  const columns = [...new Set(rows.flatMap((row) => Object.keys(row)))];
+  downloadText(writeCsv([columns, ...rows.map((row) => columns.map((column) => row[column]))]), `${fileName}.csv`);
 }

@@ -6,7 +6,7 @@ import { polarizationMetrics } from '@shared/curves';
 
 describe('formatQuantity', () => {
   it('writes a method input with its label, unit and three decimals in A/cm²', () => {
-    // the case the product owner quoted: jAtVRef = 0.1850336322869956
+    // a raw float once seen on screen: jAtVRef = 0.1850336322869956
     expect(formatQuantity('jAtVRef', 0.1850336322869956)).toBe('j at V_ref 0.185 A/cm²');
     expect(formatQuantity('vRef', 0.6)).toBe('V_ref 0.600 V');
     expect(formatQuantity('loadingMgCm2', 3)).toBe('loading 3.00 mg/cm²');

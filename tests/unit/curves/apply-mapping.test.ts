@@ -51,7 +51,7 @@ describe('applyMapping conversions', () => {
   it('a hold without current gets j = 0', () => {
     const table = parseDelimitedText('Time (h),U (V)\n0,0.95\n1,0.949\n');
     const curve = applyMapping(table, { voltage: { column: 1, unit: 'V' }, time: { column: 0, unit: 'h' } }, { kind: 'hold' });
-    expect(Array.from(curve.j)).toEqual([0, 0]); // the brief: an open-circuit hold has j = 0
+    expect(Array.from(curve.j)).toEqual([0, 0]); // an open-circuit hold has j = 0 (definition)
   });
 });
 
@@ -72,7 +72,7 @@ describe('applyMapping errors', () => {
     const table = parseDelimitedText('j (A/cm2),U (V)\n0,0.95\n0.1,0.8\n0.2,0.7\n0.3,700\n');
     const error = errorOf(() => applyMapping(table, { current: { column: 0, unit: 'A/cm2' }, voltage: { column: 1, unit: 'V' } }, { kind: 'polarization' }));
     expect(error.code).toBe('impossible-value');
-    expect(error.message).toBe('line 5, column "U (V)": 700 V is not a possible cell voltage; is the column in mV?'); // wording of the brief
+    expect(error.message).toBe('line 5, column "U (V)": 700 V is not a possible cell voltage; is the column in mV?'); // the message names line, column and the likely unit
   });
   it('current density out of range → impossible-value', () => {
     // a column that changes sign is not flipped: its negative reading is refused

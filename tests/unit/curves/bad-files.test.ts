@@ -44,7 +44,7 @@ describe('bad files', () => {
   it('blank cell names line 14 and the column', () => {
     const error = refuse('bad-blank-cell.csv');
     expect(error.code).toBe('bad-number');
-    expect(error.message).toBe('line 14, column "Voltage (V)": empty cell'); // wording of the brief; the fixture's line 14
+    expect(error.message).toBe('line 14, column "Voltage (V)": empty cell'); // line and column of the fixture's empty cell (line 14)
     expect(error.line).toBe(14); // the fixture's line 14
     expect(error.column).toBe('Voltage (V)');
   });
@@ -64,7 +64,7 @@ describe('bad files', () => {
   it('700 "V" is not a cell voltage', () => {
     const error = refuse('bad-700-volts.csv');
     expect(error.code).toBe('impossible-value');
-    expect(error.message).toBe('line 5, column "U (V)": 700 V is not a possible cell voltage; is the column in mV?'); // wording of the brief
+    expect(error.message).toBe('line 5, column "U (V)": 700 V is not a possible cell voltage; is the column in mV?'); // the message names line, column and the likely unit
   });
   it('total current without area', () => {
     const error = refuse('units-total-ma-no-area.csv');

@@ -29,7 +29,7 @@ describe('detectMapping from magnitudes', () => {
   });
   it('reads a unit-less current column by its values, but asks the user to confirm', () => {
     const small = detect('Current,Voltage (V)\n0,0.95\n0.2,0.65\n1.2,0.4\n');
-    expect(small.mapping?.current?.unit).toBe('A/cm2'); // up to ~3: A/cm² (brief; common practice)
+    expect(small.mapping?.current?.unit).toBe('A/cm2'); // up to ~3: A/cm² (common practice in the trade)
     expect(small.ambiguous).toBe(true);
     const large = detect('Current,Voltage (V)\n0,0.95\n200,0.65\n1200,0.4\n');
     expect(large.mapping?.current?.unit).toBe('mA/cm2'); // up to ~3000: mA/cm²

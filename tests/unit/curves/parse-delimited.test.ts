@@ -153,7 +153,7 @@ describe('parseDelimitedText: columns that are not plain numbers', () => {
   it('keeps a preview of the first ten rows as text', () => {
     const rows = Array.from({ length: 15 }, (_, index) => `${index / 10},${(0.9 - index / 100).toFixed(2)}`);
     const table = parseDelimitedText(['j,V', ...rows].join('\n'));
-    expect(table.preview.length).toBe(10); // brief: first 10 data rows
+    expect(table.preview.length).toBe(10); // the preview holds the first 10 data rows
     expect(table.preview[0]).toEqual(['0', '0.90']); // first data row: 0/10 and 0.9 − 0 written with 2 decimals
   });
 });

@@ -71,7 +71,7 @@ describe('polarizationMetrics on the noise-free model', () => {
   it('OCV, HFR and mass activity', () => {
     expect(result.metrics.ocv).toBe(MODEL.e0); // the model's V(0) = E0
     expect(result.metrics.hfr).toBe(MODEL.resistance); // HFR column = R
-    // mass activity = jAtRefIrFree / (1.0 mg/cm² × 1e-3 g/mg) (definition, domain.md)
+    // mass activity = jAtRefIrFree / (1.0 mg/cm² × 1e-3 g/mg) (definition of mass-specific activity)
     expect(result.metrics.massActivity).toBeCloseTo((result.metrics.jAtRefIrFree as number) / 1e-3, 9);
   });
   it('peak note only when the highest power is at the highest current', () => {

@@ -111,7 +111,7 @@ describe('item 5: set points 0, 1, 2, 3 mA/cm² … stay apart', () => {
     expect(result.metrics.vAtRef).toBeCloseTo(0.6247467320913596, 12); // PY item5.vAtRef
     expect(relative(result.metrics.jAtRefIrFree, 0.008285503975806425)).toBeLessThan(1e-10); // PY item5.jAtRefIrFree@0.8V
   });
-  it('randomised step order (issue 9): steps sorted by current, the same metrics, said in the method', () => {
+  it('randomised step order: steps sorted by current, the same metrics, said in the method', () => {
     const shuffled = polarizationMetrics(stepTolerance(RANDOMISED_ORDER), { ...REF, refVoltage: 0.8 }, LOADING);
     expect(shuffled.summary.stepOrder).toBe('sorted');
     expect(shuffled.method.vAtRef?.method).toMatch(/steps sorted by current \(the row order does not read as sweeps\)/);

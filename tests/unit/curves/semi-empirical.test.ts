@@ -29,7 +29,7 @@ describe('tafelSlopeTheory', () => {
     expect(FARADAY_CONSTANT).toBe(96485.33212); // CODATA 2018, C/mol
   });
   it('is 85.95 mV/dec at 433.15 K for αn = 1', () => {
-    // derived by hand: 2.302585 × 8.314462618 × 433.15 / 96485.33212 = 0.0859462 V/dec (domain.md: ≈ 0.0859)
+    // derived by hand: 2.302585 × 8.314462618 × 433.15 / 96485.33212 = 0.0859462 V/dec
     expect(tafelSlopeTheory(433.15, 1) * 1000).toBeCloseTo(85.946, 2);
     expect(Math.abs(tafelSlopeTheory(433.15, 1) * 1000 - 85.95)).toBeLessThan(0.01);
   });

@@ -45,7 +45,7 @@ describe('generateSyntheticLog', () => {
   it('writes the three-column CSV', () => {
     const log = generateSyntheticLog({ ...base, hours: 1 });
     const lines = writeDurabilityCsv(log).trimEnd().split('\n');
-    expect(lines[0]).toBe('Time (h),Current density (A/cm2),Voltage (V)'); // the brief's header
+    expect(lines[0]).toBe('Time (h),Current density (A/cm2),Voltage (V)'); // the header of the generated log
     expect(DURABILITY_CSV_HEADER).toBe(lines[0]);
     expect(lines).toHaveLength(1 + 7); // derived by hand: 0, 10, …, 60 min
     expect(lines[1].split(',').map(Number)[0]).toBe(0); // first time, h

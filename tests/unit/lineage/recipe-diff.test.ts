@@ -11,11 +11,11 @@ const factors = [
 const parent = { factors: { binder: 20, activationTime: 2, gdl: 'woven carbon', cellTemp: 160 }, loadingMgCm2: 3, catalystLot: 'LOT-A', labName: 'Home lab', testConditions: { temperatureC: 160, cathodeGas: 'air' } };
 
 describe('diffRecipe and describeChanges', () => {
-  it('reads two factor changes as the issue writes them', () => {
+  it('reads two factor changes in the words of a change note', () => {
     const child = { ...parent, factors: { ...parent.factors, binder: 30, activationTime: 4 } };
     const changes = diffRecipe(parent, child, factors);
     expect(changes.map((c) => c.key)).toEqual(['binder', 'activationTime']); // input data: the two factors changed
-    expect(describeChanges(changes)).toBe('binder 20 → 30 wt %, activation 2 → 4 h'); // the wording of the issue text
+    expect(describeChanges(changes)).toBe('binder 20 → 30 wt %, activation 2 → 4 h'); // how a researcher writes it in a change note
   });
 
   it('finds loading, lot, lab and test-condition changes after the factors', () => {

@@ -1,6 +1,8 @@
 // Administration: people, labs, outbox, audit log and backups.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import type { LabCreate, PersonUpdate } from '@shared/schemas/auth';
+import type { ProjectRole } from '@shared/schemas/project';
 
 export interface Person {
   id: number; email: string; name: string; isAdmin: boolean; labId: number | null; labName: string | null; disabledAt: string | null; createdAt: string;
@@ -12,7 +14,7 @@ export const usePeople = () => useQuery(peopleQueryOptions());
 export function useUpdatePerson() {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, ...body }: { id: number; isAdmin?: boolean; labId?: number | null; disabled?: boolean; name?: string }) => api(`/admin/people/${id}`, { method: 'PATCH', body }),
+    mutationFn: ({ id, ...body }: PersonUpdate & { id: number }) => api(`/admin/people/${id}`, { method: 'PATCH', body }),
     onSuccess: () => client.invalidateQueries({ queryKey: ['admin', 'people'] }),
   });
 }
@@ -20,7 +22,7 @@ export function useUpdatePerson() {
 export function useSetRole() {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: ({ projectId, userId, role }: { projectId: number; userId: number; role: string }) =>
+    mutationFn: ({ projectId, userId, role }: { projectId: number; userId: number; role: ProjectRole | 'none' }) =>
       role === 'none' ? api(`/projects/${projectId}/members/${userId}`, { method: 'DELETE' }) : api(`/projects/${projectId}/members`, { method: 'PUT', body: { userId, role } }),
     onSuccess: () => client.invalidateQueries({ queryKey: ['admin', 'people'] }),
   });
@@ -29,7 +31,7 @@ export function useSetRole() {
 export function useCreateLab() {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (body: { name: string; kind: 'home' | 'partner'; city?: string }) => api('/admin/labs', { method: 'POST', body }),
+    mutationFn: (body: LabCreate) => api('/admin/labs', { method: 'POST', body }),
     onSuccess: () => client.invalidateQueries({ queryKey: ['labs'] }),
   });
 }

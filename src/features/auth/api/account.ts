@@ -1,9 +1,11 @@
 // My sessions and personal API tokens.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import type { ApiTokenCreate, TokenScope } from '@shared/schemas/auth';
+
+export type { TokenScope };
 
 export interface SessionRow { id: number; createdAt: string; expiresAt: string; userAgent: string | null; revokedAt: string | null; current: boolean }
-export type TokenScope = 'read' | 'upload' | 'full';
 export interface TokenRow { id: number; name: string; scope: TokenScope; createdAt: string; lastUsedAt: string | null; revokedAt: string | null }
 
 export const sessionsQueryOptions = () => queryOptions({ queryKey: ['account', 'sessions'], queryFn: () => api<{ sessions: SessionRow[] }>('/auth/sessions').then((r) => r.sessions) });
@@ -17,7 +19,7 @@ export function useRevokeSession() {
 }
 export function useCreateToken() {
   const client = useQueryClient();
-  return useMutation({ mutationFn: (input: { name: string; scope: TokenScope }) => api<{ token: string; id: number; name: string; scope: TokenScope }>('/auth/tokens', { method: 'POST', body: input }), onSuccess: () => client.invalidateQueries({ queryKey: ['account', 'tokens'] }) });
+  return useMutation({ mutationFn: (input: ApiTokenCreate) => api<{ token: string; id: number; name: string; scope: TokenScope }>('/auth/tokens', { method: 'POST', body: input }), onSuccess: () => client.invalidateQueries({ queryKey: ['account', 'tokens'] }) });
 }
 export function useRevokeToken() {
   const client = useQueryClient();

@@ -1,15 +1,13 @@
 // POST /api/curves/:id/conditions: the uploader settles a condition on which the file and the
 // build's record differ ("file" puts the file's value in the build record, "build" keeps it).
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { z } from 'zod';
 import { api } from '@/lib/api-client';
+import { z } from 'zod';
 import type { CurveSummary } from '@shared/api-types';
+import { conditionChoiceSchema } from '@shared/schemas/curves';
 
-export const chooseConditionInput = z.object({
-  curveId: z.number().int().positive(),
-  field: z.enum(['temperatureC', 'areaCm2', 'anodeGas', 'cathodeGas', 'backPressureKPa']),
-  chosen: z.enum(['file', 'build']),
-});
+/** The route's own body schema, with the curve it is about. */
+export const chooseConditionInput = conditionChoiceSchema.extend({ curveId: z.number().int().positive() });
 export type ChooseConditionInput = z.infer<typeof chooseConditionInput>;
 
 export function chooseCondition({ curveId, ...body }: ChooseConditionInput) {

@@ -3,6 +3,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import { api, uploadWithProgress } from '@/lib/api-client';
 import type { Build, CurvePoints, CurveSummary, RecordChange, RecordChoice, UploadFields, UploadPreview, UploadProgress } from '@shared/api-types';
 import type { CurveKind } from '@shared/curves/types';
+import type { CurvePatch } from '@shared/schemas/curves';
 
 export const curveQueryOptions = (curveId: number, range?: { fromHours?: number; toHours?: number; maxPoints?: number }) =>
   queryOptions({
@@ -78,7 +79,7 @@ export function useChooseRecord(projectId: number) {
 export function useUpdateCurve(buildId: number) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: ({ curveId, ...body }: { curveId: number; label?: string; breakInHours?: number | null; lossFraction?: number; windows?: { fromHours: number; toHours: number }[] }) =>
+    mutationFn: ({ curveId, ...body }: CurvePatch & { curveId: number }) =>
       api<{ curve: CurveSummary }>(`/curves/${curveId}`, { method: 'PATCH', body }),
     onSuccess: () => {
       client.invalidateQueries({ queryKey: ['build', buildId] });

@@ -2,8 +2,8 @@
 // counts as end of life, with the results beside them and the typical band for comparison.
 import { useState } from 'react';
 import type { CurveSummary } from '@shared/api-types';
+import type { CurvePatch } from '@shared/schemas/curves';
 import { TYPICAL_DEGRADATION_BAND } from '@shared/durability/typical-band';
-import { useUpdateCurve } from '@/features/curves/api/curves';
 import { Button } from '@/components/ui/button';
 import { Input } from '@/components/ui/field';
 import { ErrorNote } from '@/components/ui/panel';
@@ -42,9 +42,17 @@ export function bandWord(rate: number | null): string {
   return 'above the standard band';
 }
 
-export function DurabilityControls({ curve, buildId, canEdit }: { curve: CurveSummary; buildId: number; canEdit: boolean }) {
+/** A change of a log's durability options (the body of PATCH /api/curves/:id, with the curve). */
+export type DurabilityOptionsChange = Omit<CurvePatch, 'label'> & { curveId: number };
+
+/** How the page saves a change: the curves feature's update mutation, handed in by the page. */
+export interface DurabilityOptionsUpdate {
+  mutate(change: DurabilityOptionsChange, options?: { onSuccess?: (answer: { curve: CurveSummary }) => void }): void;
+  error: unknown;
+}
+
+export function DurabilityControls({ curve, update, canEdit }: { curve: CurveSummary; update: DurabilityOptionsUpdate; canEdit: boolean }) {
   const s = curve.summary;
-  const update = useUpdateCurve(buildId);
   const options = (curve.options ?? {}) as { breakInHours?: number; windows?: { fromHours: number; toHours: number }[]; lossFraction?: number };
   const [breakIn, setBreakIn] = useState(String(curve.metrics.breakInHours ?? ''));
   const [from, setFrom] = useState('');

@@ -1,11 +1,14 @@
 // The design request form: which design, over which factors, with centre points, replicates,
-// blocks and a seed. Options that only apply to one kind of design appear with it.
+// blocks and a seed. Options that only apply to one kind of design appear with it. The values
+// are checked by the request schema the server uses (design-values.ts), errors shown inline.
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import type { FactorDef } from '@shared/api-types';
 import type { DesignKind } from '@shared/doe/designs/types';
 import { Field, Input, Select } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import type { DesignBody } from '../api/designs';
+import { designResolver, initialDesignValues, type CcdVariantChoice, type DesignFormValues } from './design-values';
 
 export const KIND_LABELS: Record<DesignKind, string> = {
   'full-factorial-2': '2-level full factorial (2^k)',
@@ -17,102 +20,68 @@ export const KIND_LABELS: Record<DesignKind, string> = {
 };
 
 /** What each central-composite variant does with the ranges, shown with the chosen one. */
-export const VARIANT_HELP: Record<'circumscribed' | 'inscribed' | 'face-centred', string> = {
+export const VARIANT_HELP: Record<CcdVariantChoice, string> = {
   circumscribed: 'Corners at the ends of each range; the axial builds go α beyond them (outside the ranges set in the project), so check they can be made. Five levels per factor.',
   inscribed: 'The whole design is shrunk so the axial builds sit at the ends of each range and the corners at ±1/α inside them: every build stays in range. Five levels per factor.',
   'face-centred': 'Axial builds at the middle of each face of the box (α = 1): every build stays in range, three levels per factor, at the cost of rotatability.',
 };
 
-const numberOr = (text: string, fallback: number | undefined) => (text.trim() === '' || !Number.isFinite(Number(text)) ? fallback : Number(text));
-
 export function DesignForm({ factors, busy, onSubmit }: { factors: FactorDef[]; busy: boolean; onSubmit: (body: DesignBody) => void }) {
-  const [kind, setKind] = useState<DesignKind>('central-composite');
-  const [chosen, setChosen] = useState<Set<string>>(() => new Set(factors.filter((f) => f.kind === 'continuous').slice(0, 3).map((f) => f.key)));
-  const [centerPoints, setCenterPoints] = useState('3');
-  const [replicates, setReplicates] = useState('1');
-  const [blocks, setBlocks] = useState('1');
-  const [seed, setSeed] = useState(() => String(Math.floor(Math.random() * 100000)));
-  const [randomize, setRandomize] = useState(true);
-  const [generators, setGenerators] = useState('');
-  const [fraction, setFraction] = useState('');
-  const [variant, setVariant] = useState<'circumscribed' | 'inscribed' | 'face-centred'>('face-centred');
-  const [alpha, setAlpha] = useState<'rotatable' | 'orthogonal' | 'custom'>('rotatable');
-  const [alphaValue, setAlphaValue] = useState('1.5');
-  const [runs, setRuns] = useState('12');
-  const [maximin, setMaximin] = useState(true);
-
-  const submit = (event: React.FormEvent) => {
-    event.preventDefault();
-    const body: DesignBody = {
-      kind,
-      factors: factors.filter((f) => chosen.has(f.key)).map((f) => f.key),
-      centerPoints: numberOr(centerPoints, 0),
-      replicates: numberOr(replicates, 1),
-      blocks: numberOr(blocks, 1),
-      seed: numberOr(seed, undefined),
-      randomize,
-    };
-    if (kind === 'fractional-factorial') {
-      const list = generators.split(/[,;\s]+/).map((g) => g.trim()).filter(Boolean);
-      if (list.length) body.generators = list;
-      else if (fraction.trim()) body.runs = numberOr(fraction, undefined);
-    }
-    if (kind === 'central-composite') {
-      body.variant = variant;
-      if (variant !== 'face-centred') body.alpha = alpha === 'custom' ? Number(alphaValue) : alpha;
-    }
-    if (kind === 'latin-hypercube') {
-      body.runs = numberOr(runs, 10);
-      body.maximin = maximin;
-    }
-    onSubmit(body);
-  };
-
+  const [defaults] = useState(() => initialDesignValues(factors, Math.floor(Math.random() * 100000)));
+  const { register, handleSubmit, watch, formState } = useForm<DesignFormValues>({ defaultValues: defaults, resolver: designResolver(factors) });
+  const e = formState.errors;
+  // the factor choice is one error for the whole group (the schema's "choose at least one factor")
+  const factorsError = (e.chosen as { message?: string } | undefined)?.message;
+  const kind = watch('kind');
+  const variant = watch('variant');
+  const alpha = watch('alpha');
+  const chosen = watch('chosen');
+  const noneChosen = !factors.some((f) => chosen?.[f.key]);
   const continuous = factors.filter((f) => f.kind === 'continuous');
   const categorical = factors.filter((f) => f.kind === 'categorical');
-  const toggle = (key: string, on: boolean) => setChosen((s) => { const n = new Set(s); if (on) n.add(key); else n.delete(key); return n; });
 
   return (
-    <form onSubmit={submit} className="flex flex-col gap-4" aria-label="Design request">
-      <Field label="Design">
+    <form noValidate onSubmit={handleSubmit((body) => onSubmit(body as unknown as DesignBody))} className="flex flex-col gap-4" aria-label="Design request">
+      <Field label="Design" error={e.kind?.message}>
         {(p) => (
-          <Select {...p} value={kind} onChange={(e) => setKind(e.target.value as DesignKind)}>
+          <Select {...p} {...register('kind')}>
             {Object.entries(KIND_LABELS).map(([k, label]) => <option key={k} value={k}>{label}</option>)}
           </Select>
         )}
       </Field>
-      <fieldset className="flex flex-col gap-1.5">
+      <fieldset className="flex flex-col gap-1.5" aria-describedby={factorsError ? 'design-factors-error' : undefined}>
         <legend className="mb-1 text-xs font-medium text-ink-700">Factors</legend>
         {continuous.map((f) => (
           <label key={f.key} className="flex items-center gap-2 text-sm">
-            <input type="checkbox" checked={chosen.has(f.key)} onChange={(e) => toggle(f.key, e.target.checked)} />
+            <input type="checkbox" {...register(`chosen.${f.key}`)} />
             <span>{f.label}</span>
             <span className="num text-xs text-ink-500">{f.low}–{f.high} {f.unit}</span>
           </label>
         ))}
         {categorical.map((f) => (
           <label key={f.key} className="flex items-center gap-2 text-sm">
-            <input type="checkbox" checked={chosen.has(f.key)} onChange={(e) => toggle(f.key, e.target.checked)} />
+            <input type="checkbox" {...register(`chosen.${f.key}`)} />
             <span>{f.label}</span>
             <span className="text-xs text-ink-500">crossed: {(f.levels ?? []).join(' / ')}</span>
           </label>
         ))}
+        {factorsError && <p id="design-factors-error" role="alert" className="text-xs text-rust-700">{factorsError}</p>}
       </fieldset>
       {kind === 'fractional-factorial' && (
         <div className="grid grid-cols-2 gap-3">
-          <Field label="Generators" hint="e.g. D=ABC, E=ABD (letters A, B, C… follow the continuous factors in order)">
-            {(p) => <Input {...p} value={generators} onChange={(e) => setGenerators(e.target.value)} placeholder="D=ABC" />}
+          <Field label="Generators" hint="e.g. D=ABC, E=ABD (letters A, B, C… follow the continuous factors in order)" error={e.generators?.message}>
+            {(p) => <Input {...p} {...register('generators')} placeholder="D=ABC" />}
           </Field>
-          <Field label="Runs in the fraction" hint="used when no generators are given">
-            {(p) => <Input {...p} inputMode="numeric" value={fraction} onChange={(e) => setFraction(e.target.value)} placeholder="8" />}
+          <Field label="Runs in the fraction" hint="used when no generators are given" error={e.fraction?.message}>
+            {(p) => <Input {...p} inputMode="numeric" {...register('fraction')} placeholder="8" />}
           </Field>
         </div>
       )}
       {kind === 'central-composite' && (
         <div className="grid grid-cols-1 gap-3">
-          <Field label="Variant" hint={VARIANT_HELP[variant]}>
+          <Field label="Variant" hint={VARIANT_HELP[variant]} error={e.variant?.message}>
             {(p) => (
-              <Select {...p} value={variant} onChange={(e) => setVariant(e.target.value as typeof variant)}>
+              <Select {...p} {...register('variant')}>
                 <option value="circumscribed">circumscribed</option>
                 <option value="inscribed">inscribed</option>
                 <option value="face-centred">face-centred (α = 1)</option>
@@ -120,15 +89,15 @@ export function DesignForm({ factors, busy, onSubmit }: { factors: FactorDef[]; 
             )}
           </Field>
           {variant !== 'face-centred' && (
-            <Field label="Axial distance α">
+            <Field label="Axial distance α" error={e.alphaValue?.message}>
               {(p) => (
                 <div className="flex gap-2">
-                  <Select {...p} value={alpha} onChange={(e) => setAlpha(e.target.value as typeof alpha)}>
+                  <Select {...p} {...register('alpha')}>
                     <option value="rotatable">rotatable</option>
                     <option value="orthogonal">orthogonal</option>
                     <option value="custom">set by hand</option>
                   </Select>
-                  {alpha === 'custom' && <Input aria-label="α (coded units)" className="w-20" inputMode="decimal" value={alphaValue} onChange={(e) => setAlphaValue(e.target.value)} />}
+                  {alpha === 'custom' && <Input aria-label="α (coded units)" aria-invalid={Boolean(e.alphaValue)} className="w-20" inputMode="decimal" {...register('alphaValue')} />}
                 </div>
               )}
             </Field>
@@ -137,21 +106,21 @@ export function DesignForm({ factors, busy, onSubmit }: { factors: FactorDef[]; 
       )}
       {kind === 'latin-hypercube' && (
         <div className="grid grid-cols-2 gap-3">
-          <Field label="Points">{(p) => <Input {...p} inputMode="numeric" value={runs} onChange={(e) => setRuns(e.target.value)} />}</Field>
-          <label className="mt-6 flex items-center gap-2 text-sm"><input type="checkbox" checked={maximin} onChange={(e) => setMaximin(e.target.checked)} /> Spread out (maximin)</label>
+          <Field label="Points" error={e.runs?.message}>{(p) => <Input {...p} inputMode="numeric" {...register('runs')} />}</Field>
+          <label className="mt-6 flex items-center gap-2 text-sm"><input type="checkbox" {...register('maximin')} /> Spread out (maximin)</label>
         </div>
       )}
       <div className="grid grid-cols-3 gap-3">
-        <Field label="Centre points">{(p) => <Input {...p} inputMode="numeric" value={centerPoints} onChange={(e) => setCenterPoints(e.target.value)} />}</Field>
-        <Field label="Replicates">{(p) => <Input {...p} inputMode="numeric" value={replicates} onChange={(e) => setReplicates(e.target.value)} />}</Field>
-        <Field label="Blocks" hint="e.g. one per lab or day">{(p) => <Input {...p} inputMode="numeric" value={blocks} onChange={(e) => setBlocks(e.target.value)} />}</Field>
+        <Field label="Centre points" error={e.centerPoints?.message}>{(p) => <Input {...p} inputMode="numeric" {...register('centerPoints')} />}</Field>
+        <Field label="Replicates" error={e.replicates?.message}>{(p) => <Input {...p} inputMode="numeric" {...register('replicates')} />}</Field>
+        <Field label="Blocks" hint="e.g. one per lab or day" error={e.blocks?.message}>{(p) => <Input {...p} inputMode="numeric" {...register('blocks')} />}</Field>
       </div>
       <div className="grid grid-cols-2 items-end gap-3">
-        <Field label="Seed" hint="the same seed gives the same run order">{(p) => <Input {...p} inputMode="numeric" value={seed} onChange={(e) => setSeed(e.target.value)} />}</Field>
-        <label className="mb-6 flex items-center gap-2 text-sm"><input type="checkbox" checked={randomize} onChange={(e) => setRandomize(e.target.checked)} /> Randomise run order</label>
+        <Field label="Seed" hint="the same seed gives the same run order" error={e.seed?.message}>{(p) => <Input {...p} inputMode="numeric" {...register('seed')} />}</Field>
+        <label className="mb-6 flex items-center gap-2 text-sm"><input type="checkbox" {...register('randomize')} /> Randomise run order</label>
       </div>
       <div>
-        <Button type="submit" variant="primary" disabled={busy || chosen.size === 0}>{busy ? 'Generating…' : 'Generate design'}</Button>
+        <Button type="submit" variant="primary" disabled={busy || noneChosen}>{busy ? 'Generating…' : 'Generate design'}</Button>
       </div>
     </form>
   );

@@ -2,7 +2,8 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { Project, FactorDef, ResponseDef } from '@shared/api-types';
-import type { ProjectCreate, FactorCreate, ResponseCreate } from '@shared/schemas/project';
+import type { ProjectCreate, FactorCreate, NotifyBody, ResponseCreate } from '@shared/schemas/project';
+import type { InviteCreate } from '@shared/schemas/auth';
 
 export const projectsQueryOptions = () => queryOptions({ queryKey: ['projects'], queryFn: () => api<{ projects: Project[] }>('/projects').then((r) => r.projects) });
 export const useProjects = () => useQuery(projectsQueryOptions());
@@ -72,7 +73,7 @@ export const useMembers = (projectId: number) => useQuery(membersQueryOptions(pr
 export function useInvite(projectId: number) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (input: { email: string; role: string; labId?: number | null }) =>
+    mutationFn: (input: InviteCreate) =>
       api<{ invitation: { id: number; email: string } | null; member: { name: string; email: string; role: string; added: true } | null }>(`/projects/${projectId}/invitations`, { method: 'POST', body: input }),
     onSuccess: () => client.invalidateQueries({ queryKey: ['members', projectId] }),
   });
@@ -81,7 +82,7 @@ export function useInvite(projectId: number) {
 export function useSetNotify(projectId: number) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (choice: { notify: boolean; digest?: boolean }) => api(`/projects/${projectId}/notify`, { method: 'PUT', body: choice }),
+    mutationFn: (choice: NotifyBody) => api(`/projects/${projectId}/notify`, { method: 'PUT', body: choice }),
     onSuccess: () => {
       client.invalidateQueries({ queryKey: ['members', projectId] });
       client.invalidateQueries({ queryKey: ['me'] });

@@ -2,6 +2,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { AuditTrailEntry, ReviewEntry } from '@shared/api-types';
+import type { VerdictBody } from '@shared/schemas/review';
 
 /** one line of a build's audit trail */
 export type AuditEntry = AuditTrailEntry;
@@ -37,7 +38,7 @@ export function useAddComment(buildId: number, projectId: number) {
 export function useGiveVerdict(buildId: number, projectId: number) {
   const invalidate = useInvalidate(buildId, projectId);
   return useMutation({
-    mutationFn: (input: { verdict: 'approved' | 'needs-work'; body: string }) => api<{ review: ReviewEntry; status: string }>(`/builds/${buildId}/verdict`, { method: 'POST', body: input }),
+    mutationFn: (input: VerdictBody) => api<{ review: ReviewEntry; status: string }>(`/builds/${buildId}/verdict`, { method: 'POST', body: input }),
     onSuccess: invalidate,
   });
 }

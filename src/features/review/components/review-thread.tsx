@@ -1,6 +1,7 @@
 // The review thread at the foot of a build page: comments by anyone who may comment, a PI's
 // verdict (approved / needs work, always with a comment), and the build's history of changes.
 import { useState } from 'react';
+import { nextStatus, type BuildStatus } from '@shared/builds/status';
 import { Panel, ErrorNote, Loading } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
 import { Field, Textarea } from '@/components/ui/field';
@@ -67,7 +68,8 @@ export function ReviewThread({ buildId, projectId, permissions, status }: { buil
   const [text, setText] = useState('');
   const [missing, setMissing] = useState<string | undefined>();
   const [showHistory, setShowHistory] = useState(false);
-  const canVerdict = permissions.review && status !== 'planned' && status !== 'discarded';
+  // the same transition rule the server applies to a verdict
+  const canVerdict = permissions.review && nextStatus(status as BuildStatus, { kind: 'verdict' }).ok;
   const busy = comment.isPending || verdict.isPending;
   const serverError = (comment.error ?? verdict.error) as ApiError | null;
 

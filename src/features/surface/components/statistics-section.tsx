@@ -3,7 +3,6 @@
 // the model written in actual units, every build's fitted and left-out residuals, and the
 // residual plots — closed until opened, and exportable as one CSV file.
 import { useRef } from 'react';
-import { stringify } from 'csv-stringify/browser/esm/sync';
 import type { ResolvedFactor } from '@shared/doe/model/index';
 import type { SurfaceResult } from '../api/surface';
 import { LazyPlot, OKABE_ITO, exportPlot } from '@/components/plot/lazy-plot';
@@ -90,7 +89,7 @@ function statistics(result: SurfaceResult) {
 export function StatisticsSection({ result, subtitle }: { result: SurfaceResult; subtitle: string }) {
   const st = statistics(result);
   const d = displayOf(result.response);
-  const csv = () => {
+  const csv = async () => {
     const rows: (string | number)[][] = [
       [`Cellwright surface statistics: ${d.label} (${st.u})`, subtitle],
       [],
@@ -113,7 +112,9 @@ export function StatisticsSection({ result, subtitle }: { result: SurfaceResult;
       ['Build', `measured (${st.u})`, 'fitted', 'residual', 'left-out residual', 'leverage'],
       ...st.builds,
     ];
-    download(stringify(rows), `surface-statistics-${result.response.key}.csv`);
+    // the one CSV writer (formula-looking text made inert), loaded with the click
+    const { writeCsv } = await import('@shared/csv/write-csv');
+    download(writeCsv(rows), `surface-statistics-${result.response.key}.csv`);
   };
   return (
     <div className="flex flex-col gap-5">

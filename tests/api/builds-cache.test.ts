@@ -1,0 +1,54 @@
+// The builds list is served from a cache of its JSON; the cache follows the database's own data
+// version, so every write invalidates it — also one that writes no audit entry, or goes round
+// the services entirely.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { createHarness, demoIds, type Harness } from './harness';
+import { builds } from '../../server/db/schema';
+import { dataVersion } from '../../server/db/data-version';
+
+let h: Harness;
+let ids: ReturnType<typeof demoIds>;
+beforeAll(async () => {
+  h = await createHarness();
+  ids = demoIds(h.ctx);
+});
+afterAll(() => h.close());
+
+const noteOf = async (code: string) => {
+  const res = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`);
+  expect(res.status).toBe(200);
+  return (res.body.builds as { code: string; changeNote: string | null }[]).find((b) => b.code === code)!.changeNote;
+};
+
+describe('builds list cache', () => {
+  it('answers the same text twice while nothing changes', async () => {
+    const first = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`);
+    const version = dataVersion(h.ctx.db);
+    const second = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`);
+    expect(second.text).toBe(first.text);
+    expect(dataVersion(h.ctx.db)).toBe(version); // a read moves nothing
+  });
+
+  it('shows a write that wrote no audit entry, made straight through Drizzle', async () => {
+    const before = await noteOf('C-004');
+    const audits = (h.ctx.db.$client.prepare('select count(*) as n from audit_log').get() as { n: number }).n;
+    h.ctx.db.update(builds).set({ changeNote: 'written without an audit entry' }).where(eq(builds.id, ids.build('C-004'))).run();
+    expect((h.ctx.db.$client.prepare('select count(*) as n from audit_log').get() as { n: number }).n).toBe(audits);
+    expect(await noteOf('C-004')).toBe('written without an audit entry');
+    expect(before).not.toBe('written without an audit entry');
+  });
+
+  it('shows a raw SQL write too', async () => {
+    await noteOf('C-006'); // cached now
+    h.ctx.db.$client.prepare('update builds set change_note = ? where code = ?').run('raw write', 'C-006');
+    expect(await noteOf('C-006')).toBe('raw write');
+  });
+
+  it('shows a change made through the API at once', async () => {
+    await noteOf('C-007');
+    const res = await h.as.pi.patch(`/api/builds/${ids.build('C-007')}`, { changeNote: 'edited through the API' });
+    expect(res.status).toBe(200);
+    expect(await noteOf('C-007')).toBe('edited through the API');
+  });
+});
