@@ -63,6 +63,13 @@ module.exports = {
       from: { path: '^server/[^/]+/router[.](ts|js)$' },
       to: { path: '^server/db/' },
     },
+    {
+      name: 'no-import-circles',
+      comment: 'two modules that import each other cannot be read or changed one at a time',
+      severity: 'error',
+      from: {},
+      to: { circular: true },
+    },
   ],
   options: {
     doNotFollow: { path: 'node_modules' },

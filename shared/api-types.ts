@@ -3,6 +3,8 @@ import type { FactorDef, ProjectSettings, ResponseDef, TestConditions, ProjectRo
 import type { BuildStatus } from './schemas/build';
 import type { ColumnMapping, CurveKind, CurveMetrics, FileConditions, MetricMethod } from './curves/types';
 import type { RecordCurveIds } from './api-types/record';
+import type { SupportCheck } from './doe/model/index';
+import type { BoundedValue } from './doe/limits/index';
 
 export type { FactorDef, ResponseDef, ProjectSettings, TestConditions, ProjectRole, BuildStatus };
 
@@ -146,4 +148,13 @@ export interface UploadPreview {
   fileName?: string;
   /** the active area the build records, cm² (pre-filled where the file gives none) */
   buildAreaCm2?: number | null;
+}
+
+/** What planning a proposal answers: the planned build and why it was flagged, if it was. */
+export interface PlanProposalResult {
+  build: Build;
+  flagged: boolean;
+  flags: string[];
+  support: SupportCheck;
+  limit: BoundedValue;
 }

@@ -8,7 +8,6 @@ import type { AppContext, AuthUser } from '../context';
 import type { ProjectRole } from '../../shared/schemas/project';
 import { mayCreateProject, partnerLabProblem, profileLabProblem, refusalText, roleAllows, type Actor, type ProjectAction } from '../../shared/auth/permissions';
 import { forbidden, notFound, unauthorized } from '../lib/errors';
-import type { Permission } from '../lib/route';
 
 
 export type { ProjectAction };
@@ -20,6 +19,18 @@ type ProfileRow = typeof importProfiles.$inferSelect;
 
 /** What the path's {id} names on a project-scoped route. */
 export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile';
+
+/**
+ * What a route checks before its handler runs:
+ * - 'public': nothing (anyone, signed in or not)
+ * - 'signed-in': any signed-in person (on their own things)
+ * - 'site-admin': site administrators only
+ * - 'create-project': signed in and not a partner-lab member
+ * - { action, on }: an action of the role table on the project the path's {id} leads to
+ *   (a project, or the project of a build, curve, file or import profile); `members` also
+ *   refuses site admins who are not members of that project
+ */
+export type Permission = 'public' | 'signed-in' | 'site-admin' | 'create-project' | { action: ProjectAction; on: Scope; members?: true };
 
 export interface ProjectAccess {
   projectId: number;

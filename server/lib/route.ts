@@ -5,23 +5,12 @@
 import { Router, type Request, type RequestHandler, type Response } from 'express';
 import type { z } from 'zod';
 import type { AppContext, AuthUser } from '../context';
-import type { ProjectAction } from '../../shared/auth/permissions';
-import { guard, type Guarded, type Scope } from '../auth/access';
+import { guard, type Guarded, type Permission } from '../auth/access';
 import { idParam, parseInput } from './validate';
 
-export type HttpMethod = 'get' | 'post' | 'patch' | 'put' | 'delete';
+export type { Permission };
 
-/**
- * What a route checks before its handler runs:
- * - 'public': nothing (anyone, signed in or not)
- * - 'signed-in': any signed-in person (on their own things)
- * - 'site-admin': site administrators only
- * - 'create-project': signed in and not a partner-lab member
- * - { action, on }: an action of the role table on the project the path's {id} leads to
- *   (a project, or the project of a build, curve, file or import profile); `members` also
- *   refuses site admins who are not members of that project
- */
-export type Permission = 'public' | 'signed-in' | 'site-admin' | 'create-project' | { action: ProjectAction; on: Scope; members?: true };
+export type HttpMethod = 'get' | 'post' | 'patch' | 'put' | 'delete';
 
 /** Path parameters that are text; every other one ({id}, {factorId}, {userId}) is a positive whole number. */
 export const TEXT_PARAMS = new Set(['token', 'name', 'uploadId']);

@@ -6,7 +6,6 @@ import type { Design } from '../doe/designs/types';
 import type { CanonicalAnalysis, Effect, ModelChoice, ModelQuality, ModelSupport, SupportCheck, SurfaceFit } from '../doe/model/index';
 import type { BoundedValue, LimitContext } from '../doe/limits/index';
 import type { Proposal, ProposalGoal, ProposalStrategy } from '../doe/proposals/index';
-import type { Build } from '../api-types';
 import type { ResponseInfo } from './responses';
 
 export type { DesignBody, DesignFactorChoice, PlanProposalBody, PlanRun, PlanRunsBody, ProposalsRequest, SurfaceRequest } from '../schemas/doe';
@@ -99,12 +98,4 @@ export interface ProposalsResult {
   fit: { n: number; r2: number; rmse: number; predR2: number | null; warnings: string[] };
   /** the model the proposals came from */
   model: { terms: string[]; termLabels: string[]; looRmse: number | null };
-}
-
-export interface PlanProposalResult {
-  build: Build;
-  flagged: boolean;
-  flags: string[];
-  support: SupportCheck;
-  limit: BoundedValue;
 }
