@@ -7,18 +7,19 @@ import { Button } from '@/components/ui/button';
 import { ErrorNote } from '@/components/ui/panel';
 
 export function ProjectForm({ initial, onSubmit, pending, error, submitLabel, disabled }: { initial?: ProjectCreate; onSubmit: (v: ProjectCreate) => void; pending: boolean; error: unknown; submitLabel: string; disabled?: boolean }) {
-  const { register, handleSubmit, formState } = useForm<ProjectCreate>({
+  const { register, handleSubmit, formState, watch } = useForm<ProjectCreate>({
     resolver: zodResolver(projectCreateSchema) as never,
     defaultValues: initial ?? { name: '', description: '', codePrefix: 'B', settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } },
   });
   const e = formState.errors;
+  const prefix = (watch('codePrefix') || 'B').trim() || 'B';
   const num = { setValueAs: (v: unknown) => (v === '' ? undefined : Number(v)) };
   return (
     <form noValidate onSubmit={handleSubmit(onSubmit)} className="space-y-4" aria-label="Project form">
       <fieldset disabled={disabled} className="space-y-4">
         <div className="grid gap-4 md:grid-cols-[1fr_8rem]">
           <Field label="Project name" error={e.name?.message}>{(p) => <Input {...p} {...register('name')} placeholder="e.g. PGM-free cathode for 180 °C stacks" />}</Field>
-          <Field label="Build code prefix" hint="Build codes like C-001" error={e.codePrefix?.message}>{(p) => <Input {...p} {...register('codePrefix')} />}</Field>
+          <Field label="Build code prefix" hint={`Builds are numbered ${prefix}-001, ${prefix}-002 …`} error={e.codePrefix?.message}>{(p) => <Input {...p} {...register('codePrefix')} />}</Field>
         </div>
         <Field label="Description" error={e.description?.message}>{(p) => <Textarea {...p} rows={2} {...register('description')} />}</Field>
         <fieldset className="rounded-md border border-line p-3">
