@@ -3,14 +3,14 @@
 // next builds. The statistics live in shared/doe; this file finds the data, checks the rules
 // and turns input errors from the shared code into 4xx answers.
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
-import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
+import { findResponse, knownResponseKeys } from '../../shared/curves/metric-catalogue';
 import type { AppContext } from '../context';
 import { builds, designs, labs, users } from '../db/schema';
 import { audit } from '../lib/audit';
 import { AppError } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
 import { createBuild, listBuilds } from '../builds/service';
-import { listFactors, listResponses, METRIC_KEYS } from '../projects/service';
+import { listFactors, listResponses } from '../projects/service';
 import type { FactorDef, ResponseDef } from '../../shared/schemas/project';
 import type {
   Build,
@@ -280,16 +280,10 @@ export function listProjectDesigns(ctx: AppContext, access: ProjectAccess): Stor
 
 
 function responseInfo(defs: ResponseDef[], key: string, path = 'response'): ResponseInfo {
-  if (METRIC_KEYS.includes(key)) {
-    const info = CURVE_METRIC_INFO[key];
-    return { key, label: info?.label ?? key, unit: info?.unit ?? '', source: 'curve', goal: info?.goal ?? 'maximize', target: null };
-  }
-  const def = defs.find((d) => d.key === key);
-  if (!def) {
-    const known = [...METRIC_KEYS, ...defs.map((d) => d.key)].join(', ');
-    throw invalid(400, 'validation', `Invalid body: ${path}: "${key}" is neither a curve metric nor a hand-entered response of this project (one of ${known})`, [{ path, message: 'unknown response' }]);
-  }
-  return { key, label: def.label, unit: def.unit, source: 'hand-entered', goal: def.goal, target: def.target ?? null };
+  const found = findResponse(key, defs);
+  if (found) return found;
+  const known = knownResponseKeys(defs).join(', ');
+  throw invalid(400, 'validation', `Invalid body: ${path}: "${key}" is neither a curve metric nor a hand-entered response of this project (one of ${known})`, [{ path, message: 'unknown response' }]);
 }
 
 const MODEL_NAMES: Record<string, string> = {

@@ -13,6 +13,7 @@ import { AppError, conflict, notFound } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
 import { newToken, sha256 } from '../auth/tokens';
 import { recomputeProjectMetrics } from '../curves/service';
+import { isCurveMetric } from '../../shared/curves/metric-catalogue';
 
 type ProjectRow = typeof projects.$inferSelect;
 
@@ -154,12 +155,11 @@ export function listResponses(ctx: AppContext, projectId: number): ResponseDef[]
   return ctx.db.select().from(responseDefs).where(eq(responseDefs.projectId, projectId)).orderBy(asc(responseDefs.id)).all().map(responseView);
 }
 
-/** Keys the curve metrics already use; hand-entered responses must not shadow them. */
-export const METRIC_KEYS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr', 'degradationRate', 'breakInHours'];
 
 export function addResponse(ctx: AppContext, access: ProjectAccess, body: z.output<typeof responseCreateSchema>) {
   const { db } = ctx;
-  if (METRIC_KEYS.includes(body.key)) throw conflict(`"${body.key}" is a curve metric; choose another key for a hand-entered response.`, { fields: [{ path: 'key', message: 'reserved for a curve metric' }] });
+  // Every catalogue key is reserved, computed yet or not, so a hand-entered response never shadows a metric.
+  if (isCurveMetric(body.key)) throw conflict(`"${body.key}" is a curve metric; choose another key for a hand-entered response.`, { fields: [{ path: 'key', message: 'reserved for a curve metric' }] });
   const exists = db.select({ id: responseDefs.id }).from(responseDefs).where(and(eq(responseDefs.projectId, access.projectId), eq(responseDefs.key, body.key))).get();
   if (exists) throw conflict(`A response with key "${body.key}" already exists in this project.`, { fields: [{ path: 'key', message: 'already used' }] });
   const row = db.insert(responseDefs).values({ projectId: access.projectId, key: body.key, label: body.label, unit: body.unit, goal: body.goal, target: body.target ?? null }).returning().get();
