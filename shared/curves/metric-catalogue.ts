@@ -28,6 +28,8 @@ export interface CurveMetricEntry {
   /** decimals shown in `displayUnit` */
   digits: number;
   goal: 'maximize' | 'minimize';
+  /** physics a predicted value must respect: a cell voltage (≤ the reversible voltage), or ≥ 0 */
+  limit?: 'cell-voltage' | 'non-negative';
 }
 
 /**
@@ -37,39 +39,39 @@ export interface CurveMetricEntry {
 export const CURVE_METRICS = {
   vAtRef: {
     label: 'V at j_ref', description: 'cell voltage interpolated at the reference current density',
-    kinds: ['polarization'], computedOn: ['polarization'], unit: 'V', displayUnit: 'mV', scale: 1000, digits: 0, goal: 'maximize',
+    kinds: ['polarization'], computedOn: ['polarization'], unit: 'V', displayUnit: 'mV', scale: 1000, digits: 0, goal: 'maximize', limit: 'cell-voltage',
   },
   vAtRefIrFree: {
     label: 'iR-free V at j_ref', description: 'V + j·HFR at the reference current density',
-    kinds: ['polarization'], computedOn: ['polarization'], unit: 'V', displayUnit: 'mV', scale: 1000, digits: 0, goal: 'maximize',
+    kinds: ['polarization'], computedOn: ['polarization'], unit: 'V', displayUnit: 'mV', scale: 1000, digits: 0, goal: 'maximize', limit: 'cell-voltage',
   },
   jAtRef: {
     label: 'j at V_ref', description: 'current density where the curve crosses the reference voltage',
-    kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/cm²', displayUnit: 'mA/cm²', scale: 1000, digits: 1, goal: 'maximize',
+    kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/cm²', displayUnit: 'mA/cm²', scale: 1000, digits: 1, goal: 'maximize', limit: 'non-negative',
   },
   jAtRefIrFree: {
     label: 'iR-free j at V_ref', description: 'current density where the iR-free curve crosses the reference voltage',
-    kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/cm²', displayUnit: 'mA/cm²', scale: 1000, digits: 1, goal: 'maximize',
+    kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/cm²', displayUnit: 'mA/cm²', scale: 1000, digits: 1, goal: 'maximize', limit: 'non-negative',
   },
   massActivity: {
     label: 'Mass activity', description: 'j at V_ref divided by catalyst (or metal) loading',
-    kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/g', displayUnit: 'A/g', scale: 1, digits: 2, goal: 'maximize',
+    kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/g', displayUnit: 'A/g', scale: 1, digits: 2, goal: 'maximize', limit: 'non-negative',
   },
   peakPower: {
     label: 'Peak power', description: 'highest j·V measured',
-    kinds: ['polarization'], computedOn: ['polarization'], unit: 'W/cm²', displayUnit: 'mW/cm²', scale: 1000, digits: 0, goal: 'maximize',
+    kinds: ['polarization'], computedOn: ['polarization'], unit: 'W/cm²', displayUnit: 'mW/cm²', scale: 1000, digits: 0, goal: 'maximize', limit: 'non-negative',
   },
   ocv: {
     label: 'OCV', description: 'voltage at open circuit',
-    kinds: ['polarization'], computedOn: ['polarization'], unit: 'V', displayUnit: 'mV', scale: 1000, digits: 0, goal: 'maximize',
+    kinds: ['polarization'], computedOn: ['polarization'], unit: 'V', displayUnit: 'mV', scale: 1000, digits: 0, goal: 'maximize', limit: 'cell-voltage',
   },
   tafelSlope: {
     label: 'Tafel slope', description: 'dV/dlog10(j) on iR-free data in the kinetic window',
-    kinds: ['polarization'], computedOn: ['polarization'], unit: 'mV/dec', displayUnit: 'mV/dec', scale: 1, digits: 1, goal: 'minimize',
+    kinds: ['polarization'], computedOn: ['polarization'], unit: 'mV/dec', displayUnit: 'mV/dec', scale: 1, digits: 1, goal: 'minimize', limit: 'non-negative',
   },
   hfr: {
     label: 'HFR', description: 'high-frequency resistance: median of the logged values, or the real-axis intercept of a spectrum',
-    kinds: ['polarization', 'impedance'], computedOn: ['polarization'], unit: 'Ω·cm²', displayUnit: 'mΩ·cm²', scale: 1000, digits: 0, goal: 'minimize',
+    kinds: ['polarization', 'impedance'], computedOn: ['polarization'], unit: 'Ω·cm²', displayUnit: 'mΩ·cm²', scale: 1000, digits: 0, goal: 'minimize', limit: 'non-negative',
   },
   degradationRate: {
     label: 'Degradation rate', description: 'voltage loss rate after break-in (positive = losing voltage)',
@@ -77,11 +79,11 @@ export const CURVE_METRICS = {
   },
   breakInHours: {
     label: 'Break-in', description: 'period excluded from the degradation fit',
-    kinds: ['durability'], computedOn: ['durability'], unit: 'h', displayUnit: 'h', scale: 1, digits: 0, goal: 'minimize',
+    kinds: ['durability'], computedOn: ['durability'], unit: 'h', displayUnit: 'h', scale: 1, digits: 0, goal: 'minimize', limit: 'non-negative',
   },
   onsetHours: {
     label: 'Onset of rapid loss', description: 'hours to the start of rapid failure; empty when none is found',
-    kinds: ['durability'], computedOn: [], unit: 'h', displayUnit: 'h', scale: 1, digits: 0, goal: 'maximize',
+    kinds: ['durability'], computedOn: [], unit: 'h', displayUnit: 'h', scale: 1, digits: 0, goal: 'maximize', limit: 'non-negative',
   },
   holdDecay: {
     label: 'Hold decay', description: 'rate of voltage fall during the open-circuit hold after settling (positive = falling)',
@@ -93,15 +95,15 @@ export const CURVE_METRICS = {
   },
   rct: {
     label: 'R_ct', description: 'charge-transfer resistance from the equivalent-circuit fit of the spectrum',
-    kinds: ['impedance'], computedOn: [], unit: 'Ω·cm²', displayUnit: 'mΩ·cm²', scale: 1000, digits: 0, goal: 'minimize',
+    kinds: ['impedance'], computedOn: [], unit: 'Ω·cm²', displayUnit: 'mΩ·cm²', scale: 1000, digits: 0, goal: 'minimize', limit: 'non-negative',
   },
   cpeQ: {
     label: 'CPE Q', description: 'constant-phase-element coefficient of the equivalent-circuit fit',
-    kinds: ['impedance'], computedOn: [], unit: 'F·s^(n−1)·cm⁻²', displayUnit: 'F·s^(n−1)·cm⁻²', scale: 1, digits: 4, goal: 'maximize',
+    kinds: ['impedance'], computedOn: [], unit: 'F·s^(n−1)·cm⁻²', displayUnit: 'F·s^(n−1)·cm⁻²', scale: 1, digits: 4, goal: 'maximize', limit: 'non-negative',
   },
   cpeN: {
     label: 'CPE n', description: 'constant-phase-element exponent (1 = ideal capacitor)',
-    kinds: ['impedance'], computedOn: [], unit: '', displayUnit: '', scale: 1, digits: 2, goal: 'maximize',
+    kinds: ['impedance'], computedOn: [], unit: '', displayUnit: '', scale: 1, digits: 2, goal: 'maximize', limit: 'non-negative',
   },
 } as const satisfies Record<string, CurveMetricEntry>;
 
@@ -163,4 +165,9 @@ export function knownResponseKeys(handEntered: readonly { key: string }[]): stri
 /** How a request field that names a response is described in the API document. */
 export function responseFieldDescription(): string {
   return `a curve metric (${curveResponses().map((r) => r.key).join(', ')}) or the key of one of the project's hand-entered responses`;
+}
+
+/** The physical limit of a metric's predicted values, or null for a key with none (hand-entered responses). */
+export function metricLimit(key: string): 'cell-voltage' | 'non-negative' | null {
+  return metricEntry(key)?.limit ?? null;
 }
