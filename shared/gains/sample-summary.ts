@@ -1,5 +1,6 @@
 // Mean and spread of one build's replicate values, computed carefully (values such as 0.6123 V
 // differ only in the fourth digit, so a one-pass Σx² − (Σx)²/n formula would cancel).
+import { compensatedSum } from '../stats/compensated-sum';
 
 export interface SampleSummary {
   n: number;
@@ -22,16 +23,10 @@ export interface SampleSummary {
 export function summarizeSample(values: readonly number[], name = 'summarizeSample'): SampleSummary {
   const n = values.length;
   if (n === 0) throw new RangeError(`${name}: at least 1 value is needed, got 0`);
-  let sum = 0;
-  let compensation = 0;
   for (let i = 0; i < n; i++) {
-    const value = values[i];
-    if (!Number.isFinite(value)) throw new RangeError(`${name}: values must be finite numbers, got ${value} at position ${i + 1}`);
-    const next = sum + value;
-    compensation += Math.abs(sum) >= Math.abs(value) ? sum - next + value : value - next + sum;
-    sum = next;
+    if (!Number.isFinite(values[i])) throw new RangeError(`${name}: values must be finite numbers, got ${values[i]} at position ${i + 1}`);
   }
-  const mean = (sum + compensation) / n;
+  const mean = compensatedSum(values) / n;
   if (n < 2) return { n, mean, variance: null, sd: null };
   let squares = 0;
   let deviations = 0;

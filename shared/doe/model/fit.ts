@@ -4,7 +4,8 @@ import { fUpperP, tTwoSidedP } from '../../stats/distributions';
 import { DoeInputError } from './errors';
 import { encodePoint } from './encode';
 import { checkRows, resolveFactors, rowPlace, settingsKey } from './factors';
-import { compensatedDot, compensatedSum, qrLeastSquares } from './numeric';
+import { qrLeastSquares } from './numeric';
+import { compensatedDot, compensatedSum } from '../../stats/compensated-sum';
 import { buildModelTerms, modelRow } from './terms';
 import { columnLabel, factorName, termLabel } from './labels';
 import type {
