@@ -7,6 +7,7 @@ import type { CurveMetrics, MetricKey } from './types';
 import { stepAverage } from './step-average';
 import type { CurveStep, CurveSweep, StepAverageOptions } from './step-average';
 import { CompensatedSum } from '../stats/compensated-sum';
+import { lineSlope } from '../stats/linear-fit';
 
 export interface PolarizationMetricsOptions {
   step?: StepAverageOptions;
@@ -159,26 +160,6 @@ function crossing(curve: Curve, voltage: number, kineticLimit: number): Crossing
   };
 }
 
-// Least-squares slope, centred two-pass with compensated sums (log10 j values bunched in one decade).
-function leastSquaresSlope(x: readonly number[], y: readonly number[]): number {
-  const n = x.length;
-  const sumX = new CompensatedSum();
-  const sumY = new CompensatedSum();
-  for (let index = 0; index < n; index++) {
-    sumX.add(x[index]);
-    sumY.add(y[index]);
-  }
-  const meanX = sumX.value() / n;
-  const meanY = sumY.value() / n;
-  const sxy = new CompensatedSum();
-  const sxx = new CompensatedSum();
-  for (let index = 0; index < n; index++) {
-    const dx = x[index] - meanX;
-    sxy.add(dx * (y[index] - meanY));
-    sxx.add(dx * dx);
-  }
-  return sxy.value() / sxx.value();
-}
 
 function checkInputs(curve: CurveData, ref: ReferencePoint, loading: BuildLoading): void {
   if (curve === null || typeof curve !== 'object' || !(curve.j instanceof Float64Array) || !(curve.v instanceof Float64Array)) {
@@ -428,11 +409,13 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
   } else if (inWindow.length < 3) {
     metricNotes.tafelSlope = `only ${inWindow.length} loaded step${inWindow.length === 1 ? '' : 's'} with an iR-free voltage in the kinetic window ${windowText}; at least 3 needed`;
   } else {
-    const slope = leastSquaresSlope(
+    const slope = lineSlope(
       inWindow.map((index) => Math.log10(kinetic.j[index])),
       inWindow.map((index) => kinetic.y[index]),
     );
-    if (slope >= 0) {
+    if (slope === null) {
+      metricNotes.tafelSlope = `the loaded steps in the kinetic window ${windowText} share one current density: no Tafel line`;
+    } else if (slope >= 0) {
       metricNotes.tafelSlope = `iR-free voltage does not fall with current in the kinetic window ${windowText}: no Tafel line`;
     } else {
       metrics.tafelSlope = -slope * 1000;

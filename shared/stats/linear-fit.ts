@@ -117,3 +117,25 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>, range?: Inde
   const r2 = Syy > 0 ? 1 - rss / Syy : 1;
   return { slope, intercept, slopeSE, interceptSE, residualSD, r2, n, meanX, meanY, sxx: Sxx, rss };
 }
+
+/**
+ * The least-squares slope alone, for callers that need no standard errors: fitLine's slope for
+ * three or more points, the two-point slope for two, null when x is constant, fewer than two
+ * points are given, or a value is not finite.
+ * Cost: O(n).
+ * @throws never.
+ * @example lineSlope([0, 1, 2], [1, 3, 5]) // 2
+ */
+export function lineSlope(x: ArrayLike<number>, y: ArrayLike<number>): number | null {
+  if (x.length !== y.length || x.length < 2) return null;
+  if (x.length === 2) {
+    const slope = (y[1] - y[0]) / (x[1] - x[0]);
+    return Number.isFinite(slope) ? slope : null;
+  }
+  try {
+    return fitLine(x, y).slope;
+  } catch (error) {
+    if (error instanceof RangeError) return null;
+    throw error;
+  }
+}
