@@ -11,6 +11,7 @@ import { recogniseHeaderUnit } from '../../shared/units/recognise-header-unit';
 import { currentSlip, hfrSlip, voltageSlip } from '../../shared/curves/unit-plausibility';
 import type { ParsedTable } from '../../shared/curves';
 import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
+import { median } from '../../shared/stats/median';
 import { CurveFileError } from '../../shared/curves/types';
 import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, HfrUnit, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
@@ -115,10 +116,7 @@ function sampledMedian(values: Float64Array | undefined): number | null {
   const stride = Math.max(1, Math.floor(values.length / 10_000));
   const sample: number[] = [];
   for (let i = 0; i < values.length; i += stride) if (Number.isFinite(values[i])) sample.push(values[i]);
-  if (sample.length === 0) return null;
-  sample.sort((a, b) => a - b);
-  const mid = sample.length >> 1;
-  return sample.length % 2 ? sample[mid] : (sample[mid - 1] + sample[mid]) / 2;
+  return sample.length === 0 ? null : median(sample);
 }
 
 function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<string, number | string | boolean | null> {

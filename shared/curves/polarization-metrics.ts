@@ -8,6 +8,7 @@ import { stepAverage } from './step-average';
 import type { CurveStep, CurveSweep, StepAverageOptions } from './step-average';
 import { CompensatedSum } from '../stats/compensated-sum';
 import { lineSlope } from '../stats/linear-fit';
+import { median } from '../stats/median';
 
 export interface PolarizationMetricsOptions {
   step?: StepAverageOptions;
@@ -432,9 +433,7 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
     }
     method.hfr = { method: 'median of the HFR readings (missing and zero readings left out)', inputs: { readings: values.length } };
     if (values.length > 0) {
-      values.sort((a, b) => a - b);
-      const middle = values.length >> 1;
-      metrics.hfr = values.length % 2 === 1 ? values[middle] : (values[middle - 1] + values[middle]) / 2;
+      metrics.hfr = median(values);
       if (averaged.hfrMissing > 0) metricNotes.hfr = `${averaged.hfrMissing} HFR reading${averaged.hfrMissing === 1 ? '' : 's'} missing or 0, left out`;
     } else {
       metricNotes.hfr = 'no HFR readings (every HFR cell is missing or 0)';
