@@ -11,6 +11,7 @@ import { AppError } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
 import { createBuild, listBuilds } from '../builds/service';
 import { listFactors, listResponses } from '../projects/service';
+import { roundSignificant, SETTING_DIGITS } from '../../shared/units/significant';
 import type { FactorDef, ResponseDef } from '../../shared/schemas/project';
 import type {
   Build,
@@ -127,7 +128,7 @@ export function generateProjectDesign(ctx: AppContext, access: ProjectAccess, bo
 function roundSetting(value: number): number {
   // designs carry 12 significant digits; a lab sheet needs far fewer, and rounding must not
   // push a value across a bound, so the bound check below runs on the rounded value
-  return Number(value.toPrecision(6));
+  return roundSignificant(value, SETTING_DIGITS);
 }
 
 function checkValue(def: FactorDef, value: number | string, path: string, where: string, issues: FieldIssue[]): number | string | undefined {

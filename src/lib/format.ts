@@ -2,6 +2,7 @@
 // unit, scale and digits, so no key, raw float or "undefined" reaches the screen. One formatter
 // (formatQuantity) serves metric values, method inputs and responses everywhere.
 import { CURVE_METRICS, CURVE_METRIC_KEYS } from '@shared/curves/metric-catalogue';
+import { roundSignificantText, SETTING_DIGITS } from '@shared/units/significant';
 export interface MetricInfo {
   key: string;
   label: string;
@@ -163,7 +164,7 @@ export function fieldLabel(key: string, labels?: Record<string, string>): string
 export function formatFieldValue(value: unknown, labels?: Record<string, string>, depth = 0): string {
   if (value === null || value === undefined || value === '') return '—';
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
-  if (typeof value === 'number') return Number.isFinite(value) ? String(Number(value.toPrecision(6))) : '—';
+  if (typeof value === 'number') return Number.isFinite(value) ? roundSignificantText(value, SETTING_DIGITS) : '—';
   if (Array.isArray(value)) return value.map((v) => formatFieldValue(v, labels, depth + 1)).join(', ');
   if (typeof value === 'object') {
     if (depth > 1) return '…';
