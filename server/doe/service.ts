@@ -12,6 +12,7 @@ import type { ProjectAccess } from '../auth/access';
 import { createBuild, listBuilds } from '../builds/service';
 import { listFactors, listResponses } from '../projects/service';
 import { roundSignificant, SETTING_DIGITS } from '../../shared/units/significant';
+import { isFlammableFuel } from '../../shared/builds/flammable-fuel';
 import type { FactorDef, ResponseDef } from '../../shared/schemas/project';
 import type {
   Build,
@@ -512,8 +513,6 @@ function codedDistance(chosen: FactorDef[], a: Record<string, number | string>, 
   return Math.sqrt(sum);
 }
 
-const FUEL = /\b(h2|hydrogen|methanol|meoh|ethanol|dme|dimethyl|fuel|reformate|co)\b/i;
-
 function cautionsFor(proposal: Record<string, number | string>, defs: FactorDef[], observedMax: Record<string, number>, gases: string[]): string[] {
   const out: string[] = [];
   for (const f of defs) {
@@ -524,11 +523,11 @@ function cautionsFor(proposal: Record<string, number | string>, defs: FactorDef[
       const max = observedMax[f.key];
       if (isTemperature && max !== undefined && value > max + 1e-9) out.push(`${f.label} ${Number(value.toPrecision(4))} ${f.unit} is above the highest tested (${max} ${f.unit})`);
       if (isPressure) out.push(`${f.label} is set to ${Number(value.toPrecision(4))} ${f.unit}: pressurised gas lines`);
-    } else if (typeof value === 'string' && FUEL.test(value) && /gas|fuel|anode/i.test(f.key)) {
+    } else if (typeof value === 'string' && isFlammableFuel(value) && /gas|fuel|anode/i.test(f.key)) {
       out.push(`${f.label} uses ${value}, a flammable fuel`);
     }
   }
-  const fuels = gases.filter((g) => FUEL.test(g.split('/')[0] ?? ''));
+  const fuels = gases.filter((g) => isFlammableFuel(g.split('/')[0]));
   if (fuels.length) out.push(`tested on ${fuels.join(', ')}: flammable fuel on the anode`);
   return out;
 }
