@@ -17,7 +17,7 @@ export interface CurveMetricEntry {
   kinds: readonly MetricCurveKind[];
   /**
    * the kinds on which the metrics computation already returns a value; a kind listed in `kinds`
-   * but not here is declared in the API contract and not computed yet (always null)
+   * but not here is part of the API's metrics object and not computed yet (always null)
    */
   computedOn: readonly MetricCurveKind[];
   /** internal unit, as stored and sent by the API */

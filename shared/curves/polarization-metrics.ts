@@ -207,7 +207,7 @@ function checkInputs(curve: CurveData, ref: ReferencePoint, loading: BuildLoadin
  *   the kinetic window (default 5–50 mA/cm²), at least 3 steps; otherwise null (no other window).
  * - hfr, Ω·cm²: median of the HFR readings present and > 0.
  * iR-free V is the file's own iR-free column when it has one, else V + j·HFR per reading.
- * Reference: definitions of domain.md (Cellwright); Tafel analysis as in Bard & Faulkner,
+ * Reference: the metric definitions of the README (Metric definitions); Tafel analysis as in Bard & Faulkner,
  * Electrochemical Methods, 2nd ed., §3.4; adding the H₂ crossover current to the measured current
  * for kinetic analysis is common practice in the trade.
  * Cost: O(n log n) for n readings.

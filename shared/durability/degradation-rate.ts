@@ -451,7 +451,7 @@ function hoursToLossOf(trend: TrendFit, segments: DurabilitySegment[], lossFract
  * (effective n = N·(1 − ρ)/(1 + ρ)) and take the t quantile with df = effective n − segments − 1.
  * Hours to loss are read only inside the data; beyond it the projected value is reported separately.
  * An open-circuit hold ('hold', current ≈ 0) goes through the same steps.
- * Reference: domain guide (degradation rate definition); Santer et al. (2000) J. Geophys. Res. 105,
+ * Reference: degradation rate as −dV/dt after break-in (common practice in the trade); Santer et al. (2000) J. Geophys. Res. 105,
  * 7337 (effective sample size); Draper & Smith, "Applied Regression Analysis" (common-slope model).
  * Cost: O(n) time (break-in search O(4n)); O(n) memory only when rows must be dropped or re-timed.
  * @throws RangeError when the curve is a polarization curve, has no time column, its arrays differ in

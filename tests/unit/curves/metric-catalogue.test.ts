@@ -27,7 +27,7 @@ function curveOf(kind: MetricCurveKind): CurveData | null {
 const doc = openApiDocument() as { components: { schemas: Record<string, { enum?: string[]; properties?: Record<string, { description?: string }> }> }; paths: Record<string, Record<string, { parameters?: { name: string; description?: string; schema?: { description?: string } }[] }>> };
 
 describe('metric catalogue', () => {
-  it('declares the contract metrics with their fixed units (product.md)', () => {
+  it('declares every metric of the API metrics object with its fixed unit (units fixed by the API)', () => {
     const units = Object.fromEntries(CURVE_METRIC_KEYS.map((k) => [k, CURVE_METRICS[k].unit]));
     expect(units).toMatchObject({ vAtRef: 'V', vAtRefIrFree: 'V', jAtRef: 'A/cm²', jAtRefIrFree: 'A/cm²', massActivity: 'A/g', peakPower: 'W/cm²', ocv: 'V', tafelSlope: 'mV/dec', hfr: 'Ω·cm²', degradationRate: 'µV/h', breakInHours: 'h', onsetHours: 'h', holdDecay: 'mV/h', holdLoss: 'mV', rct: 'Ω·cm²', cpeQ: 'F·s^(n−1)·cm⁻²', cpeN: '' });
   });
