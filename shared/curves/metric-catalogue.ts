@@ -30,6 +30,12 @@ export interface CurveMetricEntry {
   goal: 'maximize' | 'minimize';
   /** physics a predicted value must respect: a cell voltage (≤ the reversible voltage), or ≥ 0 */
   limit?: 'cell-voltage' | 'non-negative';
+  /** the project's reference point the metric is read at */
+  readAt?: 'j_ref' | 'V_ref';
+  /** read on iR-free voltage: always, or when the project's settings say so */
+  irFree?: 'always' | 'setting';
+  /** divided by the loading on the project's basis (catalyst or metal) */
+  perLoading?: boolean;
 }
 
 /**
@@ -40,22 +46,27 @@ export const CURVE_METRICS = {
   vAtRef: {
     label: 'V at j_ref', description: 'cell voltage interpolated at the reference current density',
     kinds: ['polarization'], computedOn: ['polarization'], unit: 'V', displayUnit: 'mV', scale: 1000, digits: 0, goal: 'maximize', limit: 'cell-voltage',
+    readAt: 'j_ref',
   },
   vAtRefIrFree: {
     label: 'iR-free V at j_ref', description: 'V + j·HFR at the reference current density',
     kinds: ['polarization'], computedOn: ['polarization'], unit: 'V', displayUnit: 'mV', scale: 1000, digits: 0, goal: 'maximize', limit: 'cell-voltage',
+    readAt: 'j_ref', irFree: 'always',
   },
   jAtRef: {
     label: 'j at V_ref', description: 'current density where the curve crosses the reference voltage',
     kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/cm²', displayUnit: 'mA/cm²', scale: 1000, digits: 1, goal: 'maximize', limit: 'non-negative',
+    readAt: 'V_ref',
   },
   jAtRefIrFree: {
     label: 'iR-free j at V_ref', description: 'current density where the iR-free curve crosses the reference voltage',
     kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/cm²', displayUnit: 'mA/cm²', scale: 1000, digits: 1, goal: 'maximize', limit: 'non-negative',
+    readAt: 'V_ref', irFree: 'always',
   },
   massActivity: {
     label: 'Mass activity', description: 'j at V_ref divided by catalyst (or metal) loading',
     kinds: ['polarization'], computedOn: ['polarization'], unit: 'A/g', displayUnit: 'A/g', scale: 1, digits: 2, goal: 'maximize', limit: 'non-negative',
+    readAt: 'V_ref', irFree: 'setting', perLoading: true,
   },
   peakPower: {
     label: 'Peak power', description: 'highest j·V measured',
@@ -170,4 +181,23 @@ export function responseFieldDescription(): string {
 /** The physical limit of a metric's predicted values, or null for a key with none (hand-entered responses). */
 export function metricLimit(key: string): 'cell-voltage' | 'non-negative' | null {
   return metricEntry(key)?.limit ?? null;
+}
+
+/**
+ * The reference-point conditions a metric is read at, as phrases for a subtitle:
+ * referenceConditions('massActivity', { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'metal' }, (v, d) => v.toFixed(d))
+ * → ['at V_ref = 0.60 V, iR-free', 'per g of metal']. Empty for a metric not read at the reference point.
+ */
+export function referenceConditions(
+  key: string,
+  settings: { refCurrentDensity: number; refVoltage: number; irFree: boolean; loadingBasis: 'catalyst' | 'metal' },
+  formatNumber: (value: number, digits: number) => string,
+): string[] {
+  const entry = metricEntry(key);
+  if (!entry?.readAt) return [];
+  const irFree = entry.irFree === 'always' || (entry.irFree === 'setting' && settings.irFree) ? ', iR-free' : '';
+  const point = entry.readAt === 'j_ref' ? `at j_ref = ${formatNumber(settings.refCurrentDensity, 2)} A/cm²` : `at V_ref = ${formatNumber(settings.refVoltage, 2)} V`;
+  const parts = [`${point}${irFree}`];
+  if (entry.perLoading) parts.push(`per g of ${settings.loadingBasis === 'metal' ? 'metal' : 'catalyst'}`);
+  return parts;
 }

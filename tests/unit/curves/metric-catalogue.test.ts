@@ -2,7 +2,7 @@
 // table and in the metrics computation's output for each kind it is computed on; the others are
 // declared and marked as not computed yet, and the computation does not return them.
 import { describe, expect, it } from 'vitest';
-import { CURVE_METRICS, CURVE_METRIC_KEYS, computedMetricsOfKind, curveResponses, findResponse, metricsOfKind, type MetricCurveKind } from '../../../shared/curves/metric-catalogue';
+import { CURVE_METRICS, CURVE_METRIC_KEYS, computedMetricsOfKind, curveResponses, findResponse, metricsOfKind, referenceConditions, type MetricCurveKind } from '../../../shared/curves/metric-catalogue';
 import { generatePolarizationCurve } from '../../../shared/curves';
 import { generateSyntheticLog } from '../../../shared/durability';
 import { openApiDocument } from '../../../server/openapi';
@@ -93,5 +93,17 @@ describe('metric catalogue', () => {
     expect(findResponse('thicknessUm', defs)).toEqual({ key: 'thicknessUm', label: 'Electrode thickness', unit: 'µm', goal: 'target', target: 120, source: 'hand-entered' });
     expect(findResponse('holdDecay', defs)).toBeNull(); // declared, not computed yet: not offered as a response
     expect(findResponse('nope', defs)).toBeNull();
+  });
+
+  it('states the reference point each metric is read at (derived by hand from the metric definitions)', () => {
+    const settings = { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'metal' as const };
+    const fixed = (value: number, digits: number) => value.toFixed(digits);
+    expect(referenceConditions('vAtRef', settings, fixed)).toEqual(['at j_ref = 0.20 A/cm²']);
+    expect(referenceConditions('vAtRefIrFree', settings, fixed)).toEqual(['at j_ref = 0.20 A/cm², iR-free']);
+    expect(referenceConditions('jAtRef', settings, fixed)).toEqual(['at V_ref = 0.60 V']); // measured voltage, whatever the setting
+    expect(referenceConditions('massActivity', settings, fixed)).toEqual(['at V_ref = 0.60 V, iR-free', 'per g of metal']);
+    expect(referenceConditions('massActivity', { ...settings, irFree: false, loadingBasis: 'catalyst' }, fixed)).toEqual(['at V_ref = 0.60 V', 'per g of catalyst']);
+    expect(referenceConditions('hfr', settings, fixed)).toEqual([]);
+    expect(referenceConditions('thicknessUm', settings, fixed)).toEqual([]);
   });
 });
