@@ -14,7 +14,7 @@ interface Figure {
   measured: string;
   baseline: string;
   ratio: number | null;
-  /** what the issue aims for, and whether this run met it */
+  /** the target this figure is held to, and whether this run met it */
   aim: string;
   met: boolean | null;
   details: Record<string, unknown>;
@@ -36,7 +36,7 @@ const log = (text: string) => process.stderr.write(`· ${text}\n`);
   const parse = await runChild<Record<string, { ms: number; rows: number; peakDeltaBytes: number }>>('parse-baseline.ts', [file]);
   log('uploading it through the API');
   const ingest = await runChild<{ ingest: Record<string, number> & { phasesSeen: string[] }; readBack: Record<string, number> }>('ingest.ts', [file]);
-  // The issue's baseline is the fastest plain CSV parser *installed* (a package: papaparse);
+  // The baseline is the fastest plain CSV parser *installed* (a package: papaparse);
   // a bare split loop (no quoting, no detection, no validation) is reported beside it.
   const [fastestName, fastest] = Object.entries(parse).filter(([name]) => name !== 'splitLoop').sort((a, b) => a[1].ms - b[1].ms)[0]!;
   const splitLoop = parse.splitLoop;
