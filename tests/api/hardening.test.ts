@@ -23,11 +23,6 @@ async function bareHarness(env: Record<string, string | undefined>) {
   return h;
 }
 
-function median(values: number[]): number {
-  const sorted = [...values].sort((a, b) => a - b);
-  return sorted[sorted.length >> 1]!;
-}
-
 describe('sign-in', () => {
   let h: Harness;
   beforeAll(async () => {
