@@ -53,10 +53,12 @@ export interface SchemaFormOptions<TValues, TBody> {
 /** The first issue of each input wins: it is the one a person fixes first. */
 export function schemaResolver<TValues extends FieldValues, TBody>(options: SchemaFormOptions<TValues, TBody>): Resolver<TValues> {
   return async (values) => {
-    const parsed = options.schema.safeParse(options.toBody(values));
-    const issues: SchemaIssue[] = parsed.success
-      ? (options.extra?.(parsed.data) ?? []).map((i) => ({ code: 'custom', ...i }))
-      : (parsed.error.issues as unknown as SchemaIssue[]);
+    const body = options.toBody(values);
+    const parsed = options.schema.safeParse(body);
+    // the extra checks run on the request as sent even when the schema refused part of it, so
+    // every input's problem shows at once (the schema's issue comes first where both apply)
+    const extra = (options.extra?.((parsed.success ? parsed.data : body) as TBody) ?? []).map((i) => ({ code: 'custom', ...i }));
+    const issues: SchemaIssue[] = [...(parsed.success ? [] : (parsed.error.issues as unknown as SchemaIssue[])), ...extra];
     if (parsed.success && issues.length === 0) return { values: parsed.data as unknown as TValues, errors: {} };
     const errors: Record<string, unknown> = {};
     for (const issue of issues) {
