@@ -209,3 +209,23 @@ describe('proposals request', () => {
     expect(proposalsRequestSchema.parse(good.values)).toMatchObject({ count: 3, exploratory: 1, strategy: 'balance', goal: { target: 0.65 }, seed: 1 });
   });
 });
+
+describe('invite form', () => {
+  it('shows the schema’s e-mail message under the field and sends nothing; a good invitation is sent as the schema reads it', async () => {
+    const { InviteForm } = await import('../../../src/features/projects/components/invite-form');
+    const onSubmit = vi.fn();
+    renderPage(<InviteForm labs={labs} pending={false} error={null} onSubmit={onSubmit} />);
+    const email = screen.getByLabelText('Invite by e-mail');
+    await userEvent.type(email, 'not-an-address');
+    await userEvent.click(screen.getByRole('button', { name: 'Send invitation' }));
+    await waitFor(() => expect(errorUnder(email)).toBe('an e-mail address like name@lab.example'));
+    expect(onSubmit).not.toHaveBeenCalled();
+    await retype(email, 'New.Person@Lab.example');
+    await userEvent.selectOptions(screen.getByLabelText('Role'), 'partner');
+    await userEvent.selectOptions(screen.getByLabelText('Lab'), String(labs[0]!.id));
+    await userEvent.click(screen.getByRole('button', { name: 'Send invitation' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    // the schema writes addresses in lower case, as the server stores them
+    expect(onSubmit.mock.calls[0]![0]).toEqual({ email: 'new.person@lab.example', role: 'partner', labId: labs[0]!.id });
+  });
+});
