@@ -229,3 +229,21 @@ describe('invite form', () => {
     expect(onSubmit.mock.calls[0]![0]).toEqual({ email: 'new.person@lab.example', role: 'partner', labId: labs[0]!.id });
   });
 });
+
+describe('review thread', () => {
+  it('a verdict without a reason shows the verdict schema’s message and sends nothing; with one it is sent', async () => {
+    const { ReviewThread } = await import('../../../src/features/review/components/review-thread');
+    const sent = stubApi('pi', () => ({ status: 201, body: { review: { id: 1 }, status: 'reviewed' } }));
+    const detail = answer<{ build: { status: string }; permissions: { review: boolean; comment: boolean } }>('pi', `/builds/${fixtures.testedBuildId}`);
+    renderPage(<ReviewThread buildId={fixtures.testedBuildId} projectId={projectId} permissions={detail.permissions} status={detail.build.status} />);
+    const box = await screen.findByLabelText('Comment or verdict');
+    await userEvent.type(box, '   ');
+    await userEvent.click(screen.getByRole('button', { name: 'Approve' }));
+    await waitFor(() => expect(errorUnder(box)).toBe('say why, in a sentence or two'));
+    expect(sent).toEqual([]);
+    await retype(box, '  Curves agree with the replicate.  ');
+    await userEvent.click(screen.getByRole('button', { name: 'Approve' }));
+    await waitFor(() => expect(sent).toHaveLength(1));
+    expect(sent[0]).toEqual({ method: 'POST', path: `/builds/${fixtures.testedBuildId}/verdict`, body: { verdict: 'approved', body: 'Curves agree with the replicate.' } });
+  });
+});
