@@ -3,15 +3,14 @@
 import { useParams } from 'react-router-dom';
 import { useState } from 'react';
 import type { FactorDef } from '@shared/api-types';
-import type { ProjectRole } from '@shared/schemas/project';
 import { useFactors, useMembers, useProject, useResponses, useSaveFactor, useCreateResponse, useUpdateProject, useInvite, useSetNotify } from '@/features/projects/api/projects';
 import { useLabs } from '@/features/builds/api/builds';
 import { ProjectForm } from '@/features/projects/components/project-form';
 import { FactorForm, ResponseForm } from '@/features/projects/components/factor-form';
+import { InviteForm } from '@/features/projects/components/invite-form';
 import { canEditFactors, canEditSettings } from '@/features/projects/components/permissions';
 import { PageHeader, Panel, Loading, ErrorNote } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
-import { Field, Input, Select } from '@/components/ui/field';
 import { useMe } from '@/features/auth/api/get-me';
 import { formatDate } from '@/lib/format';
 
@@ -31,7 +30,6 @@ export default function Settings() {
   const invite = useInvite(projectId);
   const notify = useSetNotify(projectId);
   const [editing, setEditing] = useState<FactorDef | null>(null);
-  const [inviteForm, setInviteForm] = useState({ email: '', role: 'researcher', labId: '' });
   const [message, setMessage] = useState<string | null>(null);
   if (project.isLoading || factors.isLoading || responses.isLoading || members.isLoading) return <Loading />;
   const error = project.error ?? factors.error ?? responses.error ?? members.error;
@@ -103,13 +101,12 @@ export default function Settings() {
         </table>
         </div>
         {canEditSettings(p.myRole) && (
-          <form className="mt-4 grid gap-3 md:grid-cols-4" aria-label="Invite form" onSubmit={(e) => { e.preventDefault(); invite.mutate({ email: inviteForm.email, role: inviteForm.role as ProjectRole, labId: inviteForm.labId ? Number(inviteForm.labId) : null }, { onSuccess: (r) => { setInviteForm({ email: '', role: 'researcher', labId: '' }); setMessage(r.member ? `${r.member.name} already has an account: added to the project as ${r.member.role}, with a notice e-mail.` : 'Invitation sent: it is in the outbox.'); } }); }}>
-            <Field label="Invite by e-mail">{(fp) => <Input {...fp} type="email" required value={inviteForm.email} onChange={(e) => setInviteForm({ ...inviteForm, email: e.target.value })} />}</Field>
-            <Field label="Role">{(fp) => <Select {...fp} value={inviteForm.role} onChange={(e) => setInviteForm({ ...inviteForm, role: e.target.value })}><option value="pi">pi</option><option value="researcher">researcher</option><option value="partner">partner</option><option value="viewer">viewer</option></Select>}</Field>
-            <Field label="Lab" hint="required for partners">{(fp) => <Select {...fp} value={inviteForm.labId} onChange={(e) => setInviteForm({ ...inviteForm, labId: e.target.value })}><option value="">—</option>{labs.data?.map((l) => <option key={l.id} value={l.id}>{l.name}</option>)}</Select>}</Field>
-            <div className="flex items-end"><Button type="submit" variant="primary" disabled={invite.isPending}>Send invitation</Button></div>
-            <div className="md:col-span-4"><ErrorNote error={invite.error} /></div>
-          </form>
+          <InviteForm
+            labs={labs.data ?? []}
+            pending={invite.isPending}
+            error={invite.error}
+            onSubmit={(body, done) => invite.mutate(body, { onSuccess: (r) => { done(); setMessage(r.member ? `${r.member.name} already has an account: added to the project as ${r.member.role}, with a notice e-mail.` : 'Invitation sent: it is in the outbox.'); } })}
+          />
         )}
       </Panel>
 

@@ -10,7 +10,7 @@ const factors: FactorDef[] = [
   { id: 4, key: 'activationTime', label: 'Activation time', unit: 'h', kind: 'continuous', low: 1, high: 4, levels: null },
   { id: 5, key: 'cellTemp', label: 'Cell temperature', unit: '°C', kind: 'continuous', low: 160, high: 200, levels: null },
 ];
-const resolve = (values: ReturnType<typeof initialDesignValues>) => designResolver(factors)(values);
+const resolve = async (values: ReturnType<typeof initialDesignValues>) => designResolver(factors)(values, undefined, { fields: {}, shouldUseNativeValidation: false });
 
 describe('design form values', () => {
   it('opens on a face-centred central composite over the first three continuous factors', async () => {

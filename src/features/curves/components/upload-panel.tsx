@@ -1,6 +1,7 @@
 // Upload one or more files to a build: progress per file, a column preview to confirm when the
 // file's columns or units are ambiguous, optional saving of the mapping as an import profile.
-import { useState, useCallback } from 'react';
+import { useCallback, useId, useState } from 'react';
+import { useForm } from 'react-hook-form';
 import type { ProjectSettings, UploadPreview } from '@shared/api-types';
 import type { ColumnMapping, CurveKind } from '@shared/curves/types';
 import { ApiError } from '@/lib/api-client';
@@ -8,6 +9,7 @@ import { fetchUploadProgress, newUploadId, uploadCurve, useInvalidateAfterUpload
 import { Button } from '@/components/ui/button';
 import { Input, Select } from '@/components/ui/field';
 import { UploadResult, type StoredUpload } from './upload-result';
+import { initialMappingValues, mappingResolver, needsArea, QUANTITIES, type MappingChoice, type MappingFormValues } from './mapping-values';
 
 export interface UploadRow {
   key: string;
@@ -25,34 +27,30 @@ export interface UploadRow {
   stored?: StoredUpload;
 }
 
-const QUANTITIES = [
-  { key: 'current', label: 'Current', units: ['A/cm2', 'mA/cm2', 'A', 'mA'] },
-  { key: 'voltage', label: 'Cell voltage', units: ['V', 'mV'] },
-  { key: 'voltageIrFree', label: 'iR-free voltage', units: ['V', 'mV'] },
-  { key: 'hfr', label: 'HFR', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
-  { key: 'time', label: 'Time', units: ['s', 'min', 'h', 'timestamp'] },
-  { key: 'temperature', label: 'Temperature', units: ['C', 'K'] },
-] as const;
-
 const UNIT_LABEL: Record<string, string> = { 'A/cm2': 'A/cm²', 'mA/cm2': 'mA/cm²', A: 'A (total)', mA: 'mA (total)', V: 'V', mV: 'mV', 'ohm*cm2': 'Ω·cm²', 'mohm*cm2': 'mΩ·cm²', ohm: 'Ω (total)', mohm: 'mΩ (total)', s: 's', min: 'min', h: 'h', timestamp: 'date/time', C: '°C', K: 'K' };
 
-type MappingEntry = { column: number; unit: string; negated?: boolean };
+function InlineError({ id, message }: { id: string; message?: string }) {
+  return message ? <p id={id} role="alert" className="text-xs text-rust-700">{message}</p> : null;
+}
 
+/** The columns of a file the reader was not sure of, to confirm or correct; checked by the upload schemas (mapping-values.ts). */
 export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: UploadPreview; onConfirm: (m: ColumnMapping, opts: { kind: CurveKind; saveProfileAs?: string; areaCm2?: number; sheet?: string }) => void; onCancel: () => void }) {
-  const start = (preview.detected ?? {}) as Partial<ColumnMapping>;
-  const [mapping, setMapping] = useState<Record<string, MappingEntry | undefined>>({ ...start } as never);
-  const [kind, setKind] = useState<CurveKind>(preview.kind);
-  const [profileName, setProfileName] = useState('');
-  // the file's own area first, else the area the build records
+  const [defaults] = useState(() => initialMappingValues(preview));
+  const { register, handleSubmit, watch, formState } = useForm<MappingFormValues>({ defaultValues: defaults, resolver: mappingResolver });
+  const e = formState.errors;
+  const ids = useId();
+  const values = watch();
   const fileArea = preview.conditions?.areaCm2 ?? null;
   const buildArea = preview.buildAreaCm2 ?? null;
-  const [area, setArea] = useState<string>(fileArea != null ? String(fileArea) : buildArea != null ? String(buildArea) : '');
-  const [sheet, setSheet] = useState(preview.sheet ?? '');
-  const needsArea = ['A', 'mA'].includes(mapping.current?.unit ?? '') || ['ohm', 'mohm'].includes(mapping.hfr?.unit ?? '');
+  const area = values.area ?? '';
   const areaSource = area === '' ? null : fileArea != null && Number(area) === fileArea ? 'from the file' : buildArea != null && Number(area) === buildArea ? 'the build’s recorded area' : 'entered here';
-  const hasVoltage = Boolean(mapping.voltage || mapping.voltageIrFree);
+  const hasVoltage = values.columns?.voltage !== '' || values.columns?.voltageIrFree !== '';
+  const submit = handleSubmit((checked) => {
+    const { mapping, ...opts } = checked as unknown as MappingChoice;
+    onConfirm(mapping, opts);
+  });
   return (
-    <div className="mt-2 rounded-md border border-copper-500/40 bg-copper-100/40 p-3">
+    <form noValidate onSubmit={submit} aria-label={`Columns of ${preview.fileName ?? 'this file'}`} className="mt-2 rounded-md border border-copper-500/40 bg-copper-100/40 p-3">
       <p className="text-sm font-medium text-ink-900">Confirm the columns of {preview.fileName ?? 'this file'}</p>
       {preview.reasons.length > 0 && <ul className="mt-1 list-disc pl-5 text-xs text-amber-800" aria-label="What needs confirming">{preview.reasons.map((r) => <li key={r} className="break-words">{r}</li>)}</ul>}
       <div className="mt-2 overflow-x-auto">
@@ -64,52 +62,64 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
       </div>
       <div className="mt-3 grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
         <label className="text-xs text-ink-700">Curve kind
-          <Select value={kind} onChange={(e) => setKind(e.target.value as CurveKind)} aria-label="Curve kind">
+          <Select {...register('kind')} aria-label="Curve kind">
             <option value="polarization">polarization</option><option value="durability">durability</option><option value="hold">hold (open circuit)</option>
           </Select>
         </label>
         {preview.sheets && preview.sheets.length > 1 && (
           <label className="text-xs text-ink-700">Sheet
-            <Select value={sheet} onChange={(e) => setSheet(e.target.value)} aria-label="Sheet">{preview.sheets.map((s) => <option key={s}>{s}</option>)}</Select>
+            <Select {...register('sheet')} aria-label="Sheet">{preview.sheets.map((s) => <option key={s}>{s}</option>)}</Select>
           </label>
         )}
-        {QUANTITIES.map((q) => (
-          <div key={q.key} className="flex items-end gap-1">
-            <label className="flex-1 text-xs text-ink-700">{q.label} column
-              <Select aria-label={`${q.label} column`} value={mapping[q.key]?.column ?? ''} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: e.target.value === '' ? undefined : { ...m[q.key], column: Number(e.target.value), unit: m[q.key]?.unit ?? q.units[0] } }))}>
-                <option value="">— none —</option>
-                {preview.header.map((h, i) => <option key={i} value={i}>{h}</option>)}
-              </Select>
-            </label>
-            <label className="w-28 text-xs text-ink-700">unit
-              <Select aria-label={`${q.label} unit`} value={mapping[q.key]?.unit ?? q.units[0]} disabled={!mapping[q.key]} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: { ...m[q.key]!, unit: e.target.value } }))}>
-                {q.units.map((u) => <option key={u} value={u}>{UNIT_LABEL[u]}</option>)}
-              </Select>
-            </label>
-          </div>
-        ))}
-        {mapping.current && (
+        {QUANTITIES.map((q) => {
+          const error = e.columns?.[q.key]?.message ?? e.units?.[q.key]?.message;
+          const errorId = `${ids}-${q.key}-error`;
+          return (
+            <div key={q.key} className="flex flex-col gap-1">
+              <div className="flex items-end gap-1">
+                <label className="flex-1 text-xs text-ink-700">{q.label} column
+                  <Select aria-label={`${q.label} column`} aria-invalid={Boolean(e.columns?.[q.key])} aria-describedby={error ? errorId : undefined} {...register(`columns.${q.key}`)}>
+                    <option value="">— none —</option>
+                    {preview.header.map((h, i) => <option key={i} value={i}>{h}</option>)}
+                  </Select>
+                </label>
+                <label className="w-28 text-xs text-ink-700">unit
+                  <Select aria-label={`${q.label} unit`} aria-invalid={Boolean(e.units?.[q.key])} disabled={values.columns?.[q.key] === ''} {...register(`units.${q.key}`)}>
+                    {q.units.map((u) => <option key={u} value={u}>{UNIT_LABEL[u]}</option>)}
+                  </Select>
+                </label>
+              </div>
+              <InlineError id={errorId} message={error} />
+            </div>
+          );
+        })}
+        {values.columns?.current !== '' && (
           <label className="flex items-center gap-2 self-end text-xs text-ink-700">
-            <input type="checkbox" checked={mapping.current.negated === true} onChange={(e) => setMapping((m) => ({ ...m, current: { ...m.current!, negated: e.target.checked } }))} />
+            <input type="checkbox" {...register('negated')} />
             The file logs load current as negative (multiply by −1)
           </label>
         )}
-        {needsArea && (
-          <label className="text-xs text-ink-700">Active area (cm²) — needed for total current or Ω{areaSource && <span className="text-ink-500">, {areaSource}</span>}
-            <Input type="number" step="any" min="0" value={area} onChange={(e) => setArea(e.target.value)} aria-label="Active area" />
-          </label>
+        {needsArea(values) && (
+          <div className="flex flex-col gap-1">
+            <label className="text-xs text-ink-700">Active area (cm²) — needed for total current or Ω{areaSource && <span className="text-ink-500">, {areaSource}</span>}
+              <Input type="number" step="any" min="0" aria-label="Active area" aria-invalid={Boolean(e.area)} aria-describedby={e.area ? `${ids}-area-error` : undefined} {...register('area')} />
+            </label>
+            <InlineError id={`${ids}-area-error`} message={e.area?.message} />
+          </div>
         )}
-        <label className="text-xs text-ink-700">Save as import profile (optional)
-          <Input value={profileName} onChange={(e) => setProfileName(e.target.value)} placeholder="e.g. partner station export" aria-label="Profile name" />
-        </label>
+        <div className="flex flex-col gap-1">
+          <label className="text-xs text-ink-700">Save as import profile (optional)
+            <Input placeholder="e.g. partner station export" aria-label="Profile name" aria-invalid={Boolean(e.profileName)} aria-describedby={e.profileName ? `${ids}-profile-error` : undefined} {...register('profileName')} />
+          </label>
+          <InlineError id={`${ids}-profile-error`} message={e.profileName?.message} />
+        </div>
       </div>
+      <InlineError id={`${ids}-error`} message={e.root?.message} />
       <div className="mt-3 flex gap-2">
-        <Button variant="primary" disabled={!hasVoltage} onClick={() => onConfirm(Object.fromEntries(Object.entries(mapping).filter(([, v]) => v)) as unknown as ColumnMapping, { kind, saveProfileAs: profileName || undefined, areaCm2: area ? Number(area) : undefined, sheet: sheet || undefined })}>
-          Use these columns
-        </Button>
+        <Button type="submit" variant="primary" disabled={!hasVoltage}>Use these columns</Button>
         <Button onClick={onCancel}>Skip this file</Button>
       </div>
-    </div>
+    </form>
   );
 }
 

@@ -1,10 +1,11 @@
 // The design form's values (what the inputs hold, as typed) and the one mapping from them to a
 // design request, checked by the request schema the server validates with
 // (shared/schemas/doe.ts). Kept apart from the component so the mapping can be tested alone.
-import type { FieldErrors } from 'react-hook-form';
+import type { Resolver } from 'react-hook-form';
 import type { FactorDef } from '@shared/api-types';
 import type { DesignKind } from '@shared/doe/designs/types';
 import { designRequestSchema, type DesignBody } from '@shared/schemas/doe';
+import { schemaResolver } from '@/lib/schema-form';
 
 export type CcdVariantChoice = 'circumscribed' | 'inscribed' | 'face-centred';
 
@@ -89,29 +90,17 @@ function fieldOf(path: PropertyKey[], kind: DesignKind): keyof DesignFormValues 
   return (['kind', 'centerPoints', 'replicates', 'blocks', 'seed', 'variant', 'maximin', 'randomize'].includes(head) ? head : 'kind') as keyof DesignFormValues;
 }
 
-/** The schema's issue in the words of the form (its own messages, where it has them, as they are). */
-function plainMessage(issue: { code: string; message: string; expected?: unknown; origin?: unknown; minimum?: unknown; maximum?: unknown }): string {
-  if (issue.code === 'invalid_type') return issue.expected === 'int' ? 'must be a whole number' : 'must be a number';
-  // α is a word (rotatable, orthogonal) or a number: typed by hand, it was not a number
-  if (issue.code === 'invalid_union') return 'must be a number above 0, e.g. 1.682';
-  if (issue.origin === 'number' && issue.code === 'too_small') return `must be at least ${String(issue.minimum)}`;
-  if (issue.origin === 'number' && issue.code === 'too_big') return `must be at most ${String(issue.maximum)}`;
-  return issue.message;
-}
-
 /**
  * The form's resolver: map the values to a request and check it with the shared schema; each
- * issue is shown at its input in the schema's words.
+ * issue is shown at its input in the schema's words. α is a word (rotatable, orthogonal) or a
+ * number, so a union failure means a hand-typed α that was not a number.
  */
-export function designResolver(factors: FactorDef[]) {
-  return async (values: DesignFormValues) => {
-    const parsed = designRequestSchema.safeParse(designRequestFrom(values, factors));
-    if (parsed.success) return { values: parsed.data as unknown as DesignFormValues, errors: {} };
-    const errors: Record<string, { type: string; message: string }> = {};
-    for (const issue of parsed.error.issues) {
-      const field = fieldOf(issue.path, values.kind);
-      errors[field] ??= { type: 'schema', message: plainMessage(issue as Parameters<typeof plainMessage>[0]) };
-    }
-    return { values: {}, errors: errors as FieldErrors<DesignFormValues> };
-  };
+export function designResolver(factors: FactorDef[]): Resolver<DesignFormValues> {
+  return (values, context, options) =>
+    schemaResolver<DesignFormValues, DesignBody>({
+      schema: designRequestSchema,
+      toBody: (v) => designRequestFrom(v, factors),
+      fieldOf: (path) => fieldOf(path, values.kind),
+      message: (issue) => (issue.code === 'invalid_union' ? 'must be a number above 0, e.g. 1.682' : undefined),
+    })(values, context, options);
 }

@@ -1,91 +1,62 @@
 // Turns a generated design into planned builds in one step: optional parent, the values every
 // build holds for the factors the design does not vary, a lab per block, loading and area, and
 // a note that ends up in each change note. The design is stored and each build points to it.
-import { useMemo, useState } from 'react';
+// The values are checked by the plan request schema (plan-runs-values.ts), errors inline.
+import { useEffect, useState } from 'react';
 import { Link } from 'react-router-dom';
+import { useForm } from 'react-hook-form';
 import type { Build, FactorDef, Lab } from '@shared/api-types';
 import type { Design } from '@shared/doe/designs/types';
 import { Field, Input, Select } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { ErrorNote } from '@/components/ui/panel';
-import { usePlanRuns } from '../api/designs';
+import { usePlanRuns, type PlanRunsBody } from '../api/designs';
+import { defaultHeld, heldFactors, initialPlanRunsValues, planRunsResolver, type PlanRunsFormValues } from './plan-runs-values';
 
-function defaultHeld(f: FactorDef, parent: Build | undefined): string {
-  const fromParent = parent?.factors[f.key];
-  if (fromParent !== undefined && fromParent !== '') return String(fromParent);
-  if (f.kind === 'categorical') return (f.levels ?? [''])[0]!;
-  return String(Number((((f.low ?? 0) + (f.high ?? 0)) / 2).toPrecision(4)));
+function PlannedNote({ projectId, done, onAgain }: { projectId: number; done: Build[]; onAgain: () => void }) {
+  return (
+    <div role="status" className="flex flex-col gap-2 text-sm">
+      <p><strong>{done.length} planned builds</strong> added: <span className="num">{done[0]?.code}</span> to <span className="num">{done[done.length - 1]?.code}</span>, in build order, each linked to this design.</p>
+      <p><Link to={`/projects/${projectId}`} className="text-copper-700 hover:underline">Open the builds table</Link> to record each one as it is made.</p>
+      <div><Button onClick={onAgain}>Plan again</Button></div>
+    </div>
+  );
 }
 
 export function PlanRunsPanel({ projectId, design, factors, builds, labs, homeLabId }: { projectId: number; design: Design; factors: FactorDef[]; builds: Build[]; labs: Lab[]; homeLabId: number | null }) {
   const plan = usePlanRuns(projectId);
-  const [parentId, setParentId] = useState('');
-  const [labsByBlock, setLabsByBlock] = useState<Record<string, string>>({});
-  const [loading, setLoading] = useState('');
-  const [area, setArea] = useState('');
-  const [note, setNote] = useState('');
-  const [heldText, setHeldText] = useState<Record<string, string>>({});
   const [done, setDone] = useState<Build[] | null>(null);
-  const blocks = Array.from({ length: design.info.blocks }, (_, i) => i + 1);
+  const [defaults] = useState(() => initialPlanRunsValues(design, factors, homeLabId));
+  const { register, handleSubmit, watch, setValue, getFieldState, formState } = useForm<PlanRunsFormValues>({ defaultValues: defaults, resolver: planRunsResolver(design, factors) });
+  const e = formState.errors;
+  const blocks = Object.keys(defaults.labsByBlock);
   const parents = builds.filter((b) => b.status !== 'planned' && b.status !== 'discarded');
+  const parentId = watch('parentId');
   const parent = parents.find((b) => String(b.id) === parentId);
-  const outside = useMemo(() => factors.filter((f) => !design.factorKeys.includes(f.key)), [factors, design.factorKeys]);
-  const heldValue = (f: FactorDef) => heldText[f.key] ?? defaultHeld(f, parent);
+  const outside = heldFactors(design, factors);
 
-  const submit = () => {
-    const byBlock: Record<string, number> = {};
-    for (const block of blocks) {
-      const chosen = labsByBlock[String(block)] ?? (homeLabId != null ? String(homeLabId) : '');
-      if (chosen) byBlock[String(block)] = Number(chosen);
-    }
-    const held: Record<string, number | string> = {};
-    for (const f of outside) {
-      const text = heldValue(f).trim();
-      held[f.key] = f.kind === 'continuous' ? Number(text.replace(',', '.')) : text;
-    }
-    const info = design.info;
-    plan.mutate(
-      {
-        runs: design.runs,
-        parentId: parentId ? Number(parentId) : null,
-        labsByBlock: byBlock,
-        loadingMgCm2: loading ? Number(loading) : null,
-        areaCm2: area ? Number(area) : null,
-        note: note.trim() || undefined,
-        designKind: design.kind,
-        seed: info.seed,
-        held,
-        designSettings: { variant: info.variant ?? null, alpha: info.alpha ?? null, centerPoints: info.centerPoints, replicates: info.replicates, blocks: info.blocks, generators: info.generators ?? null, runsByType: info.runsByType },
-      },
-      { onSuccess: (created) => setDone(created) },
-    );
-  };
+  // A chosen parent supplies the held values not typed by hand.
+  useEffect(() => {
+    for (const f of outside) if (!getFieldState(`held.${f.key}`).isDirty) setValue(`held.${f.key}`, defaultHeld(f, parent));
+  }, [parent]);
 
-  if (done) {
-    return (
-      <div role="status" className="flex flex-col gap-2 text-sm">
-        <p><strong>{done.length} planned builds</strong> added: <span className="num">{done[0]?.code}</span> to <span className="num">{done[done.length - 1]?.code}</span>, in build order, each linked to this design.</p>
-        <p><Link to={`/projects/${projectId}`} className="text-copper-700 hover:underline">Open the builds table</Link> to record each one as it is made.</p>
-        <div><Button onClick={() => { setDone(null); plan.reset(); }}>Plan again</Button></div>
-      </div>
-    );
-  }
+  if (done) return <PlannedNote projectId={projectId} done={done} onAgain={() => { setDone(null); plan.reset(); }} />;
   return (
-    <div className="flex flex-col gap-3">
+    <form noValidate aria-label="Turn into planned builds" className="flex flex-col gap-3" onSubmit={handleSubmit((body) => plan.mutate(body as unknown as PlanRunsBody, { onSuccess: (created) => setDone(created) }))}>
       <div className="grid grid-cols-2 gap-3">
-        <Field label="Parent build (optional)" hint="the build these recipes start from">
+        <Field label="Parent build (optional)" hint="the build these recipes start from" error={e.parentId?.message}>
           {(p) => (
-            <Select {...p} value={parentId} onChange={(e) => setParentId(e.target.value)}>
+            <Select {...p} {...register('parentId')}>
               <option value="">none</option>
               {parents.map((b) => <option key={b.id} value={b.id}>{b.code}{b.changeNote ? ` — ${b.changeNote.slice(0, 40)}` : ''}</option>)}
             </Select>
           )}
         </Field>
-        <Field label="Note for every build" hint="written into each change note">
-          {(p) => <Input {...p} value={note} maxLength={300} onChange={(e) => setNote(e.target.value)} placeholder="binder × activation screen" />}
+        <Field label="Note for every build" hint="written into each change note" error={e.note?.message}>
+          {(p) => <Input {...p} maxLength={300} {...register('note')} placeholder="binder × activation screen" />}
         </Field>
-        <Field label="Catalyst loading (mg/cm²)">{(p) => <Input {...p} inputMode="decimal" value={loading} onChange={(e) => setLoading(e.target.value)} placeholder="3.0" />}</Field>
-        <Field label="Active area (cm²)">{(p) => <Input {...p} inputMode="decimal" value={area} onChange={(e) => setArea(e.target.value)} placeholder="25" />}</Field>
+        <Field label="Catalyst loading (mg/cm²)" error={e.loading?.message}>{(p) => <Input {...p} inputMode="decimal" {...register('loading')} placeholder="3.0" />}</Field>
+        <Field label="Active area (cm²)" error={e.area?.message}>{(p) => <Input {...p} inputMode="decimal" {...register('area')} placeholder="25" />}</Field>
       </div>
       {outside.length > 0 && (
         <fieldset className="flex flex-col gap-2 rounded-md border border-line p-3">
@@ -93,12 +64,12 @@ export function PlanRunsPanel({ projectId, design, factors, builds, labs, homeLa
           <div className="grid grid-cols-2 gap-3">
             {outside.map((f) =>
               f.kind === 'continuous' ? (
-                <Field key={f.key} label={`${f.label}${f.unit ? ` (${f.unit})` : ''}`} hint={`range ${f.low}–${f.high}${f.unit ? ` ${f.unit}` : ''}${parent ? `; ${parent.code} has ${parent.factors[f.key] ?? '—'}` : ''}`}>
-                  {(p) => <Input {...p} inputMode="decimal" value={heldValue(f)} onChange={(e) => setHeldText((s) => ({ ...s, [f.key]: e.target.value }))} />}
+                <Field key={f.key} label={`${f.label}${f.unit ? ` (${f.unit})` : ''}`} hint={`range ${f.low}–${f.high}${f.unit ? ` ${f.unit}` : ''}${parent ? `; ${parent.code} has ${parent.factors[f.key] ?? '—'}` : ''}`} error={e.held?.[f.key]?.message}>
+                  {(p) => <Input {...p} inputMode="decimal" {...register(`held.${f.key}`)} />}
                 </Field>
               ) : (
-                <Field key={f.key} label={f.label}>
-                  {(p) => <Select {...p} value={heldValue(f)} onChange={(e) => setHeldText((s) => ({ ...s, [f.key]: e.target.value }))}>{(f.levels ?? []).map((l) => <option key={l} value={l}>{l}</option>)}</Select>}
+                <Field key={f.key} label={f.label} error={e.held?.[f.key]?.message}>
+                  {(p) => <Select {...p} {...register(`held.${f.key}`)}>{(f.levels ?? []).map((l) => <option key={l} value={l}>{l}</option>)}</Select>}
                 </Field>
               ),
             )}
@@ -107,9 +78,9 @@ export function PlanRunsPanel({ projectId, design, factors, builds, labs, homeLa
       )}
       <div className="grid grid-cols-2 gap-3">
         {blocks.map((block) => (
-          <Field key={block} label={`Lab for block ${block}`}>
+          <Field key={block} label={`Lab for block ${block}`} error={e.labsByBlock?.[block]?.message}>
             {(p) => (
-              <Select {...p} value={labsByBlock[String(block)] ?? (homeLabId != null ? String(homeLabId) : '')} onChange={(e) => setLabsByBlock((s) => ({ ...s, [String(block)]: e.target.value }))}>
+              <Select {...p} {...register(`labsByBlock.${block}`)}>
                 <option value="">not set</option>
                 {labs.map((l) => <option key={l.id} value={l.id}>{l.name}</option>)}
               </Select>
@@ -117,10 +88,11 @@ export function PlanRunsPanel({ projectId, design, factors, builds, labs, homeLa
           </Field>
         ))}
       </div>
+      {e.root?.message && <p role="alert" className="text-xs text-rust-700">{e.root.message}</p>}
       <ErrorNote error={plan.error} />
       <div>
-        <Button variant="primary" onClick={submit} disabled={plan.isPending}>{plan.isPending ? 'Planning…' : `Plan ${design.runs.length} builds`}</Button>
+        <Button type="submit" variant="primary" disabled={plan.isPending}>{plan.isPending ? 'Planning…' : `Plan ${design.runs.length} builds`}</Button>
       </div>
-    </div>
+    </form>
   );
 }

@@ -1,12 +1,15 @@
 // The review thread at the foot of a build page: comments by anyone who may comment, a PI's
 // verdict (approved / needs work, always with a comment), and the build's history of changes.
 import { useState } from 'react';
+import { useForm, type Resolver } from 'react-hook-form';
 import { nextStatus, type BuildStatus } from '@shared/builds/status';
+import { commentSchema, verdictSchema, type CommentBody, type VerdictBody } from '@shared/schemas/review';
 import { Panel, ErrorNote, Loading } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
 import { Field, Textarea } from '@/components/ui/field';
 import { fieldLabel, formatDateTime, formatFieldValue } from '@/lib/format';
 import { ApiError } from '@/lib/api-client';
+import { schemaResolver } from '@/lib/schema-form';
 import { useAddComment, useBuildAudit, useGiveVerdict, useReviews, type AuditEntry, type ReviewEntry } from '../api/reviews';
 
 function VerdictMark({ verdict }: { verdict: 'approved' | 'needs-work' }) {
@@ -61,27 +64,38 @@ function History({ buildId }: { buildId: number }) {
   );
 }
 
+type SendKind = 'comment' | 'approved' | 'needs-work';
+interface ThreadFormValues {
+  text: string;
+  /** which button sent the text */
+  kind: SendKind;
+}
+
+/** A comment is checked by the comment schema, a verdict by the verdict schema (a verdict always has its reason). */
+const threadResolver: Resolver<ThreadFormValues> = (values, context, options) =>
+  values.kind === 'comment'
+    ? schemaResolver<ThreadFormValues, CommentBody>({ schema: commentSchema, toBody: (v) => ({ body: v.text }), fieldOf: () => 'text' })(values, context, options)
+    : schemaResolver<ThreadFormValues, VerdictBody>({ schema: verdictSchema, toBody: (v) => ({ verdict: v.kind, body: v.text }), fieldOf: () => 'text' })(values, context, options);
+
 export function ReviewThread({ buildId, projectId, permissions, status }: { buildId: number; projectId: number; permissions: { review: boolean; comment: boolean }; status: string }) {
   const thread = useReviews(buildId);
   const comment = useAddComment(buildId, projectId);
   const verdict = useGiveVerdict(buildId, projectId);
-  const [text, setText] = useState('');
-  const [missing, setMissing] = useState<string | undefined>();
+  const form = useForm<ThreadFormValues>({ defaultValues: { text: '', kind: 'comment' }, resolver: threadResolver });
   const [showHistory, setShowHistory] = useState(false);
   // the same transition rule the server applies to a verdict
   const canVerdict = permissions.review && nextStatus(status as BuildStatus, { kind: 'verdict' }).ok;
   const busy = comment.isPending || verdict.isPending;
   const serverError = (comment.error ?? verdict.error) as ApiError | null;
 
-  const send = (kind: 'comment' | 'approved' | 'needs-work') => {
-    if (!text.trim()) {
-      setMissing(kind === 'comment' ? 'Write a comment first.' : 'A verdict needs a comment: say why, in a sentence or two.');
-      return;
-    }
-    setMissing(undefined);
-    const done = { onSuccess: () => setText('') };
-    if (kind === 'comment') comment.mutate(text.trim(), done);
-    else verdict.mutate({ verdict: kind, body: text.trim() }, done);
+  const send = (kind: SendKind) => {
+    form.setValue('kind', kind);
+    void form.handleSubmit((checked) => {
+      const done = { onSuccess: () => form.reset({ text: '', kind: 'comment' }) };
+      const body = checked as unknown as CommentBody | VerdictBody;
+      if ('verdict' in body) verdict.mutate(body, done);
+      else comment.mutate(body.body, done);
+    })();
   };
 
   const reviews = thread.data?.reviews ?? [];
@@ -101,8 +115,8 @@ export function ReviewThread({ buildId, projectId, permissions, status }: { buil
           )}
           {(permissions.comment || permissions.review) ? (
             <div className="mt-3 space-y-2 border-t border-line pt-3">
-              <Field label={canVerdict ? 'Comment or verdict' : 'Comment'} error={missing ?? (serverError?.fields?.body)} hint={canVerdict ? 'A verdict moves the build to reviewed and tells its author.' : undefined}>
-                {(props) => <Textarea {...props} rows={3} value={text} onChange={(e) => setText(e.target.value)} placeholder="What you see in the curves, what to try next…" />}
+              <Field label={canVerdict ? 'Comment or verdict' : 'Comment'} error={form.formState.errors.text?.message ?? serverError?.fields?.body} hint={canVerdict ? 'A verdict moves the build to reviewed and tells its author.' : undefined}>
+                {(props) => <Textarea {...props} rows={3} {...form.register('text')} placeholder="What you see in the curves, what to try next…" />}
               </Field>
               {serverError && !serverError.fields?.body && <ErrorNote error={serverError} />}
               <div className="flex flex-wrap gap-2">

@@ -4,15 +4,16 @@
 // the server checks the recipe again and stores the reason on the planned build.
 import { useId, useState } from 'react';
 import { Link } from 'react-router-dom';
+import { useForm, type UseFormRegister } from 'react-hook-form';
 import type { Build, FactorDef } from '@shared/api-types';
-import type { ProposalStrategy } from '@shared/doe/proposals/index';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Select, Textarea } from '@/components/ui/field';
 import { ErrorNote, SafetyNote } from '@/components/ui/panel';
 import { ApiError } from '@/lib/api-client';
-import { useProposals, usePlanProposal, type ProposalItem, type SurfaceRequest, type SurfaceResult } from '../api/surface';
+import { useProposals, usePlanProposal, type ProposalItem, type ProposalsRequest, type SurfaceRequest, type SurfaceResult } from '../api/surface';
 import { displayOf, show, showSetting, showSpread } from './display';
 import { roundSignificant, SETTING_DIGITS } from '@shared/units/significant';
+import { initialProposalsValues, MIN_REASON, proposalsResolver, type ProposalsFormValues } from './proposals-values';
 
 /** A proposal's setting rounded for a lab sheet by the stored-setting rule, kept inside the factor's bounds. */
 function roundInside(value: number, f: FactorDef): number {
@@ -20,12 +21,11 @@ function roundInside(value: number, f: FactorDef): number {
   return Math.min(f.high ?? Infinity, Math.max(f.low ?? -Infinity, rounded));
 }
 
-const MIN_REASON = 10;
-
 function PlanThis({ projectId, request, proposal, factors, onPlanned }: { projectId: number; request: SurfaceRequest; proposal: ProposalItem; factors: FactorDef[]; onPlanned: (b: Build) => void }) {
   const plan = usePlanProposal(projectId);
   const [asking, setAsking] = useState(false);
-  const [reason, setReason] = useState('');
+  const reasonForm = useForm<{ reason: string }>({ defaultValues: { reason: '' } });
+  const reason = reasonForm.watch('reason');
   const reasonId = useId();
   const recipe: Record<string, number | string> = {};
   for (const f of factors) {
@@ -48,9 +48,9 @@ function PlanThis({ projectId, request, proposal, factors, onPlanned }: { projec
     }
     const tooShort = reason.trim().length < MIN_REASON;
     return (
-      <form className="flex w-72 flex-col gap-2" aria-label="Reason for planning a flagged proposal" onSubmit={(e) => { e.preventDefault(); if (!tooShort) send(reason.trim()); }}>
-        <Field label="Why plan it anyway?" hint={`At least ${MIN_REASON} characters; kept on the planned build and shown in its review.`} id={reasonId}>
-          {(p) => <Textarea {...p} rows={3} value={reason} onChange={(e) => setReason(e.target.value)} maxLength={1000} required />}
+      <form noValidate className="flex w-72 flex-col gap-2" aria-label="Reason for planning a flagged proposal" onSubmit={reasonForm.handleSubmit((v) => { if (!tooShort) send(v.reason.trim()); })}>
+        <Field label="Why plan it anyway?" hint={`At least ${MIN_REASON} characters; kept on the planned build and shown in its review.`} id={reasonId} error={plan.error instanceof ApiError ? plan.error.fields.reason : undefined}>
+          {(p) => <Textarea {...p} rows={3} maxLength={1000} required {...reasonForm.register('reason')} />}
         </Field>
         <div className="flex gap-2">
           <Button type="submit" variant="primary" disabled={tooShort || plan.isPending}>{plan.isPending ? 'Planning…' : 'Plan with this reason'}</Button>
@@ -113,39 +113,35 @@ function ProposalCard({ index, p, result, allFactors, projectId, request, canPla
   );
 }
 
+/** "At least" and "at most" for one continuous factor, each error under its row. */
+function BoundsRow({ factor: f, register, minError, maxError }: { factor: FactorDef; register: UseFormRegister<ProposalsFormValues>; minError?: string; maxError?: string }) {
+  const errorId = useId();
+  const error = minError ?? maxError;
+  return (
+    <div className="flex flex-col gap-1">
+      <div className="flex items-end gap-2">
+        <span className="w-36 shrink-0 pb-2 text-sm">{f.label} <span className="text-xs text-ink-500">({f.unit})</span></span>
+        <Input aria-label={`${f.label} at least (${f.unit})`} aria-invalid={Boolean(minError)} aria-describedby={minError ? errorId : undefined} placeholder={`≥ ${f.low}`} inputMode="decimal" {...register(`bounds.${f.key}.min`)} />
+        <Input aria-label={`${f.label} at most (${f.unit})`} aria-invalid={Boolean(maxError)} aria-describedby={maxError ? errorId : undefined} placeholder={`≤ ${f.high}`} inputMode="decimal" {...register(`bounds.${f.key}.max`)} />
+      </div>
+      {error && <p id={errorId} role="alert" className="text-xs text-rust-700">{error}</p>}
+    </div>
+  );
+}
+
 export function ProposalsPanel({ projectId, request, result, allFactors, canPlan }: { projectId: number; request: SurfaceRequest; result: SurfaceResult; allFactors: FactorDef[]; canPlan: boolean }) {
   const proposals = useProposals(projectId);
   const d = displayOf(result.response);
-  const [count, setCount] = useState('3');
-  const [exploratory, setExploratory] = useState('1');
-  const [strategy, setStrategy] = useState<ProposalStrategy>('balance');
-  const [goal, setGoal] = useState<string>(result.response.goal === 'target' ? 'target' : result.response.goal);
-  const [target, setTarget] = useState(result.response.target != null ? String(result.response.target * d.scale) : '');
-  const [bounds, setBounds] = useState<Record<string, { min: string; max: string }>>({});
-  const [fixed, setFixed] = useState<Record<string, string>>({});
+  const [defaults] = useState(() => initialProposalsValues({ goal: result.response.goal, target: result.response.target ?? null, scale: d.scale }));
+  const { register, handleSubmit, watch, formState } = useForm<ProposalsFormValues>({ defaultValues: defaults, resolver: proposalsResolver(request, d.scale, allFactors, d.unit) });
+  const e = formState.errors;
+  const goal = watch('goal');
   const [planned, setPlanned] = useState<Record<number, Build>>({});
 
-  const submit = () => {
-    const b: Record<string, { min?: number; max?: number }> = {};
-    for (const [key, v] of Object.entries(bounds)) {
-      const entry: { min?: number; max?: number } = {};
-      if (v.min.trim() !== '') entry.min = Number(v.min);
-      if (v.max.trim() !== '') entry.max = Number(v.max);
-      if (entry.min !== undefined || entry.max !== undefined) b[key] = entry;
-    }
-    const f: Record<string, string> = {};
-    for (const [key, v] of Object.entries(fixed)) if (v) f[key] = v;
+  const submit = handleSubmit((body) => {
     setPlanned({});
-    proposals.mutate({
-      ...request,
-      count: Math.min(10, Math.max(1, Number(count) || 3)),
-      exploratory: Number(exploratory) || 0,
-      strategy,
-      goal: goal === 'target' ? { target: Number(target) / d.scale } : (goal as 'maximize' | 'minimize'),
-      constraints: { bounds: b, fixed: f },
-      seed: 1,
-    });
-  };
+    proposals.mutate(body as unknown as ProposalsRequest);
+  });
 
   const items = proposals.data?.proposals ?? [];
   const inside = items.map((p, i) => ({ p, i })).filter(({ p }) => p.kind === 'supported');
@@ -160,14 +156,15 @@ export function ProposalsPanel({ projectId, request, result, allFactors, canPlan
   );
   return (
     <div className="flex flex-col gap-4">
+    <form noValidate aria-label="Next builds" onSubmit={submit} className="flex flex-col gap-4">
       <div className="grid grid-cols-2 gap-3 md:grid-cols-3">
-        <Field label="Inside the support">{(p) => <Input {...p} inputMode="numeric" value={count} onChange={(e) => setCount(e.target.value)} />}</Field>
-        <Field label="Exploratory">
-          {(p) => <Select {...p} value={exploratory} onChange={(e) => setExploratory(e.target.value)}><option value="0">none</option><option value="1">one</option><option value="2">two</option></Select>}
+        <Field label="Inside the support" error={e.count?.message}>{(p) => <Input {...p} inputMode="numeric" {...register('count')} />}</Field>
+        <Field label="Exploratory" error={e.exploratory?.message}>
+          {(p) => <Select {...p} {...register('exploratory')}><option value="0">none</option><option value="1">one</option><option value="2">two</option></Select>}
         </Field>
-        <Field label="Choose by">
+        <Field label="Choose by" error={e.strategy?.message}>
           {(p) => (
-            <Select {...p} value={strategy} onChange={(e) => setStrategy(e.target.value as ProposalStrategy)}>
+            <Select {...p} {...register('strategy')}>
               <option value="exploit">best predicted</option>
               <option value="explore">most informative</option>
               <option value="balance">balance of the two</option>
@@ -176,29 +173,25 @@ export function ProposalsPanel({ projectId, request, result, allFactors, canPlan
         </Field>
         <Field label="Goal">
           {(p) => (
-            <Select {...p} value={goal} onChange={(e) => setGoal(e.target.value)}>
+            <Select {...p} {...register('goal')}>
               <option value="maximize">as high as possible</option>
               <option value="minimize">as low as possible</option>
               <option value="target">reach a target</option>
             </Select>
           )}
         </Field>
-        {goal === 'target' && <Field label={`Target (${d.unit})`}>{(p) => <Input {...p} inputMode="decimal" value={target} onChange={(e) => setTarget(e.target.value)} />}</Field>}
+        {goal === 'target' && <Field label={`Target (${d.unit})`} error={e.target?.message}>{(p) => <Input {...p} inputMode="decimal" {...register('target')} />}</Field>}
       </div>
       <details>
         <summary className="cursor-pointer text-sm text-copper-700">Limits on the recipe (keep a factor below a value, or use one level)</summary>
         <div className="mt-2 grid grid-cols-1 gap-2 md:grid-cols-2">
           {allFactors.map((f) =>
             f.kind === 'continuous' ? (
-              <div key={f.key} className="flex items-end gap-2">
-                <span className="w-36 shrink-0 pb-2 text-sm">{f.label} <span className="text-xs text-ink-500">({f.unit})</span></span>
-                <Input aria-label={`${f.label} at least (${f.unit})`} placeholder={`≥ ${f.low}`} inputMode="decimal" value={bounds[f.key]?.min ?? ''} onChange={(e) => setBounds((s) => ({ ...s, [f.key]: { min: e.target.value, max: s[f.key]?.max ?? '' } }))} />
-                <Input aria-label={`${f.label} at most (${f.unit})`} placeholder={`≤ ${f.high}`} inputMode="decimal" value={bounds[f.key]?.max ?? ''} onChange={(e) => setBounds((s) => ({ ...s, [f.key]: { min: s[f.key]?.min ?? '', max: e.target.value } }))} />
-              </div>
+              <BoundsRow key={f.key} factor={f} register={register} minError={e.bounds?.[f.key]?.min?.message} maxError={e.bounds?.[f.key]?.max?.message} />
             ) : (
-              <Field key={f.key} label={f.label}>
+              <Field key={f.key} label={f.label} error={e.fixed?.[f.key]?.message}>
                 {(p) => (
-                  <Select {...p} value={fixed[f.key] ?? ''} onChange={(e) => setFixed((s) => ({ ...s, [f.key]: e.target.value }))}>
+                  <Select {...p} {...register(`fixed.${f.key}`)}>
                     <option value="">any level</option>
                     {(f.levels ?? []).map((l) => <option key={l} value={l}>{l} only</option>)}
                   </Select>
@@ -208,8 +201,10 @@ export function ProposalsPanel({ projectId, request, result, allFactors, canPlan
           )}
         </div>
       </details>
-      <div><Button variant="primary" onClick={submit} disabled={proposals.isPending}>{proposals.isPending ? 'Proposing…' : 'Propose next builds'}</Button></div>
+      {e.root?.message && <p role="alert" className="text-xs text-rust-700">{e.root.message}</p>}
+      <div><Button type="submit" variant="primary" disabled={proposals.isPending}>{proposals.isPending ? 'Proposing…' : 'Propose next builds'}</Button></div>
       <ErrorNote error={proposals.error} />
+    </form>
       {anyCaution && (
         <SafetyNote>
           <strong>Before you make these:</strong> hydrogen and fuel vapours (methanol, dimethyl ether) burn easily; hot concentrated phosphoric acid is corrosive;
