@@ -14,6 +14,7 @@ import { listFactors, listResponses } from '../projects/service';
 import { roundSignificant, SETTING_DIGITS } from '../../shared/units/significant';
 import { isFlammableFuel } from '../../shared/builds/flammable-fuel';
 import type { FactorDef, ResponseDef } from '../../shared/schemas/project';
+import { MIN_PLAN_REASON_CHARS } from '../../shared/schemas/doe';
 import type {
   Build,
   DesignBody,
@@ -627,8 +628,8 @@ export function planProposal(ctx: AppContext, access: ProjectAccess, body: PlanP
   if (!support.inside) flags.push(`Outside the builds' support. ${support.reasons.join(' ')}`);
   if (limit.hitsLimit && limit.note) flags.push(limit.note);
   const reason = body.reason?.trim() ?? '';
-  if (flags.length > 0 && reason.length < 10) {
-    throw new AppError(422, 'reason-required', `This recipe is flagged — ${flags.join(' ')} Say in a sentence (reason, at least 10 characters) why it should be built anyway.`, { fields: [{ path: 'reason', message: 'a reason of at least 10 characters is needed for a flagged proposal' }], flags });
+  if (flags.length > 0 && reason.length < MIN_PLAN_REASON_CHARS) {
+    throw new AppError(422, 'reason-required', `This recipe is flagged — ${flags.join(' ')} Say in a sentence (reason, at least ${MIN_PLAN_REASON_CHARS} characters) why it should be built anyway.`, { fields: [{ path: 'reason', message: `a reason of at least ${MIN_PLAN_REASON_CHARS} characters is needed for a flagged proposal` }], flags });
   }
   const kind = flags.length > 0 ? 'flagged proposal' : 'proposal';
   const build = createBuild(ctx, access, {

@@ -99,6 +99,9 @@ export const proposalsRequestSchema = surfaceRequestSchema.extend({
 });
 export type ProposalsRequest = z.infer<typeof proposalsRequestSchema>;
 
+/** The shortest reason accepted for planning a flagged proposal, in characters. */
+export const MIN_PLAN_REASON_CHARS = 10;
+
 /** POST /api/projects/:id/proposals/plan: the fit a proposal came from, the recipe, and a reason when it is flagged. */
 export const planProposalSchema = surfaceRequestSchema.extend({
   recipe: z.record(z.string(), factorValue),

@@ -10,7 +10,9 @@ import { schemaResolver } from '@/lib/schema-form';
 /** Most proposals asked for at once: more than a campaign's next round, and slow to compute. */
 export const MAX_PROPOSALS = 10;
 /** Shortest reason accepted for planning a flagged proposal (the server refuses shorter ones). */
-export const MIN_REASON = 10;
+import { MIN_PLAN_REASON_CHARS } from '@shared/schemas/doe';
+
+export const MIN_REASON = MIN_PLAN_REASON_CHARS;
 
 export interface ProposalsFormValues {
   /** proposals inside the support, as typed */
