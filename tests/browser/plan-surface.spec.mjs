@@ -56,7 +56,7 @@ export default async function ({ url, browser, signIn, artifacts }) {
   await runs.getByRole('cell', { name: '-1', exact: true }).first().waitFor();
   // the factors the design leaves out are held at values the researcher sees and can change
   const held = page.getByRole('group', { name: 'Held in every build (not varied by the design)' });
-  await held.getByLabel('Cell temperature (°C)').fill('185');
+  await held.getByLabel('Operating temperature (°C)').fill('185');
   await page.getByLabel('Note for every build').fill('activation screen');
   await assertNoDeveloperText(page, factorKeys, 'plan page');
   await page.getByRole('button', { name: 'Plan 16 builds' }).click();
