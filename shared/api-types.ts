@@ -16,6 +16,7 @@ export type * from './api-types/lineage';
 export type * from './api-types/review';
 export type * from './api-types/uploads';
 export type * from './api-types/record';
+export type * from './api-types/review-pack';
 
 export interface Me {
   user: { id: number; email: string; name: string; isAdmin: boolean; labId: number | null; labKind: 'home' | 'partner' | null };

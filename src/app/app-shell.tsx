@@ -46,7 +46,7 @@ export function AppShell() {
   return (
     <div className="flex min-h-screen flex-col md:flex-row">
       {/* narrow screens: a top bar whose button opens the rail over the page */}
-      <div className="sticky top-0 z-30 flex items-center justify-between bg-ink-900 px-4 py-2.5 md:hidden">
+      <div className="app-topbar sticky top-0 z-30 flex items-center justify-between bg-ink-900 px-4 py-2.5 md:hidden">
         <Logo />
         <button type="button" className="rounded-md px-2.5 py-1 text-sm text-ink-100 hover:bg-ink-800" aria-expanded={open} aria-controls="main-rail" onClick={() => setOpen((o) => !o)}>
           {open ? 'Close' : 'Menu'}
@@ -75,6 +75,7 @@ export function AppShell() {
                   <RailLink to={`/projects/${p.id}/durability`} indent>Durability</RailLink>
                   {canPlan(p.myRole) && <RailLink to={`/projects/${p.id}/surface`} indent>Surface</RailLink>}
                   {canPlan(p.myRole) && <RailLink to={`/projects/${p.id}/plan`} indent>Plan</RailLink>}
+                  <RailLink to={`/projects/${p.id}/review-pack`} indent>Review pack</RailLink>
                   <RailLink to={`/projects/${p.id}/settings`} indent>Settings</RailLink>
                 </div>
               )}

@@ -26,6 +26,7 @@ export const router = createBrowserRouter([
           { path: '/projects/:projectId/upload', lazy: lazy(() => import('./routes/upload')) },
           { path: '/projects/:projectId/compare', lazy: lazy(() => import('./routes/compare')) },
           { path: '/projects/:projectId/gains', lazy: lazy(() => import('./routes/gains')) },
+          { path: '/projects/:projectId/review-pack', lazy: lazy(() => import('./routes/review-pack')) },
           { path: '/projects/:projectId/durability', lazy: lazy(() => import('./routes/durability')) },
           { path: '/projects/:projectId/lineage', lazy: lazy(() => import('./routes/lineage')) },
           { path: '/projects/:projectId/surface', lazy: lazy(() => import('./routes/surface')) },

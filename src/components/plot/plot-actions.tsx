@@ -6,7 +6,7 @@ import { downloadText, exportPlot, exportPlotCsv } from './export';
 
 export function PlotActions({ target, fileName, csv, label = 'plot' }: { target: RefObject<HTMLElement | null>; fileName: string; csv?: () => string; label?: string }) {
   return (
-    <span className="flex gap-1.5" role="group" aria-label={`Export the ${label}`}>
+    <span className="print-hidden flex gap-1.5" role="group" aria-label={`Export the ${label}`}>
       <Button onClick={() => exportPlot(target.current, 'png', fileName)} aria-label={`Export the ${label} as PNG`}>PNG</Button>
       <Button onClick={() => exportPlot(target.current, 'svg', fileName)} aria-label={`Export the ${label} as SVG`}>SVG</Button>
       <Button onClick={() => (csv ? downloadText(csv(), `${fileName}.csv`) : exportPlotCsv(target.current, fileName))} aria-label={`Export the ${label}'s data as CSV`}>CSV</Button>
