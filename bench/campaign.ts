@@ -10,11 +10,11 @@ import {
   fitSurface,
   latinHypercube,
   proposeBuilds,
-  seededUniform,
   type Factor,
   type Observation,
   type Proposal,
 } from '../shared/doe/index';
+import { mulberry32 } from '../shared/stats/random';
 
 // The invented campaign: four recipe factors and a GDL choice, response V at 0.2 A/cm² in V.
 export const FACTORS: Factor[] = [
@@ -80,7 +80,7 @@ export function optimum(): { value: number; recipe: Record<string, number | stri
 
 /** Normal noise from a seeded uniform stream (Box–Muller). */
 function noiseSource(seed: number): () => number {
-  const uniform = seededUniform(seed);
+  const uniform = mulberry32(seed);
   return () => {
     const u1 = Math.max(1e-12, uniform());
     const u2 = uniform();
@@ -211,7 +211,7 @@ export function oneFactorAtATime(seed: number, target: number, budget = 40): Cam
 
 /** Random recipes, uniform over the box and the levels. */
 export function randomBuilds(seed: number, target: number, budget = 3000): CampaignResult {
-  const uniform = seededUniform(seed * 31 + 17);
+  const uniform = mulberry32(seed * 31 + 17);
   let found: number | null = null;
   let bestTrue = -Infinity;
   for (let i = 1; i <= budget && found === null; i++) {

@@ -2,7 +2,8 @@
 // and one categorical factor of 3 levels) plus 10 proposals, against the bare least-squares
 // solve of the same coded model matrix by ml-matrix. Aim: the whole call under 100 ms.
 import { Matrix, solve } from 'ml-matrix';
-import { encodePoint, fitSurface, modelRow, proposeBuilds, seededUniform, type Factor, type Observation } from '../shared/doe/index';
+import { encodePoint, fitSurface, modelRow, proposeBuilds, type Factor, type Observation } from '../shared/doe/index';
+import { mulberry32 } from '../shared/stats/random';
 
 const FACTORS: Factor[] = [
   { key: 'binder', kind: 'continuous', low: 10, high: 40, unit: 'wt %' },
@@ -14,7 +15,7 @@ const FACTORS: Factor[] = [
 
 /** 500 invented builds: a smooth made-up V at j_ref (V) with a ridge, a GDL offset and 3 mV noise. */
 function inventBuilds(count: number, seed: number): Observation[] {
-  const random = seededUniform(seed);
+  const random = mulberry32(seed);
   const rows: Observation[] = [];
   const gdlOffset: Record<string, number> = { 'woven carbon': 0, 'carbon paper': -0.006, felt: 0.004 };
   for (let i = 0; i < count; i++) {

@@ -3,6 +3,7 @@
 import { OpenAPIRegistry, OpenApiGeneratorV3, extendZodWithOpenApi } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
 import { PROJECT_ACTIONS } from '../shared/auth/permissions';
+import { CURVE_METRICS, CURVE_METRIC_KEYS } from '../shared/curves/metric-catalogue';
 import { ROUTES } from './features';
 import { TEXT_PARAMS, type Permission, type RouteDoc } from './lib/route';
 
@@ -27,12 +28,26 @@ export function describePermission(permission: Permission): string {
   return `Who may (${permission.action}): ${rule.roles.join(', ')} in ${SCOPE_WORDS[permission.on]}${admins}.${partner}`;
 }
 
+/** The metrics object of a curve, from the metric catalogue: each key with its unit and the kinds that carry it. */
+function curveMetricsSchema() {
+  const fields = CURVE_METRIC_KEYS.map((key) => {
+    const m = CURVE_METRICS[key];
+    const unit = m.unit ? `, ${m.unit}` : ', dimensionless';
+    const pending = m.kinds.filter((kind) => !(m.computedOn as readonly string[]).includes(kind));
+    const later = pending.length ? ` Not computed yet on ${pending.join(', ')} curves (null).` : '';
+    return [key, z.number().nullable().optional().describe(`${m.label}${unit} (${m.kinds.join(', ')}): ${m.description}; ${m.goal === 'maximize' ? 'higher' : 'lower'} is better.${later}`)];
+  });
+  return z.object(Object.fromEntries(fields)).describe('Metrics of a curve in fixed units; null with a reason in metricNotes when a metric cannot be computed.');
+}
+
 let cached: unknown = null;
 
 export function openApiDocument(): unknown {
   if (cached) return cached;
   const registry = new OpenAPIRegistry();
   registry.register('Error', errorSchema);
+  registry.register('CurveMetricKey', z.enum(CURVE_METRIC_KEYS as [string, ...string[]]).describe('The key of a curve metric'));
+  registry.register('CurveMetrics', curveMetricsSchema());
   registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'cw_session' });
   registry.registerComponent('securitySchemes', 'token', { type: 'http', scheme: 'bearer' });
   for (const route of ROUTES) {

@@ -24,7 +24,12 @@ let standIn: Promise<string> | null = null;
  * accounts and accounts without a password, so sign-in timing does not reveal which it was.
  */
 export async function verifyAgainstNothing(password: string): Promise<false> {
-  standIn ??= hashPassword(`stand-in-${Math.random()}-${Date.now()}`);
-  await verifyPassword(await standIn, password);
+  await verifyPassword(await standInHash(), password);
   return false;
+}
+
+/** The stand-in hash itself (made with the same parameters as every real one). */
+export function standInHash(): Promise<string> {
+  standIn ??= hashPassword(`stand-in-${Math.random()}-${Date.now()}`);
+  return standIn;
 }

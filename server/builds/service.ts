@@ -10,6 +10,7 @@ import { dataVersion } from '../db/data-version';
 import { checkFactorValues, type buildCreateSchema, type buildUpdateSchema, type BuildListQuery, type RecordChoice } from '../../shared/schemas/build';
 import type { Build, RecordCurveIds } from '../../shared/api-types';
 import type { CurveKind, CurveMetrics } from '../../shared/curves/types';
+import { metricsOfKind } from '../../shared/curves/metric-catalogue';
 import { buildPermissions, labForNewBuild } from '../../shared/auth/permissions';
 import { becameTested, nextStatus } from '../../shared/builds/status';
 import { audit } from '../lib/audit';
@@ -28,11 +29,6 @@ const parent = alias(builds, 'parent');
 /** A build as the API lists it: one definition, shared/api-types `Build`. */
 export type BuildListItem = Build;
 
-const METRIC_FROM_KIND: Record<string, string[]> = {
-  polarization: ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'],
-  durability: ['degradationRate', 'breakInHours'],
-  hold: ['degradationRate'],
-};
 
 interface CurveMetricRow {
   id: number;
@@ -67,7 +63,7 @@ function summarizeMetrics(rows: CurveMetricRow[], metricsVersion: number) {
     if (!row.isRecord) continue;
     entry.records[row.kind as CurveKind] = row.id;
     if (row.metrics && (row.metricsVersion === metricsVersion || row.kind !== 'polarization')) {
-      for (const key of METRIC_FROM_KIND[row.kind] ?? []) {
+      for (const key of metricsOfKind(row.kind as CurveKind)) {
         const v = (row.metrics as unknown as Record<string, number | null | undefined>)[key];
         if (v !== undefined) entry.values[key] = v;
       }

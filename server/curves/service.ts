@@ -11,10 +11,11 @@ import { recogniseHeaderUnit } from '../../shared/units/recognise-header-unit';
 import { currentSlip, hfrSlip, voltageSlip } from '../../shared/curves/unit-plausibility';
 import type { ParsedTable } from '../../shared/curves';
 import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
+import { median } from '../../shared/stats/median';
 import { CurveFileError } from '../../shared/curves/types';
 import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, HfrUnit, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
-import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
+import { metricEntry, metricsOfKind, nullMetrics } from '../../shared/curves/metric-catalogue';
 import { parseUpload } from '../uploads/parse-runner';
 import { audit } from '../lib/audit';
 import { AppError, forbidden, notFound } from '../lib/errors';
@@ -94,8 +95,7 @@ function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options
   const d = durabilityMetrics(curve, options ?? {});
   return {
     metrics: {
-      vAtRef: null, vAtRefIrFree: null, jAtRef: null, jAtRefIrFree: null, massActivity: null,
-      peakPower: null, ocv: null, tafelSlope: null, hfr: null,
+      ...nullMetrics(metricsOfKind('polarization')),
       degradationRate: d.degradationRate, breakInHours: d.breakInHours,
     },
     metricNotes: d.degradationRate == null ? { degradationRate: d.notes.join(' ') || 'not enough data after break-in' } : {},
@@ -116,10 +116,7 @@ function sampledMedian(values: Float64Array | undefined): number | null {
   const stride = Math.max(1, Math.floor(values.length / 10_000));
   const sample: number[] = [];
   for (let i = 0; i < values.length; i += stride) if (Number.isFinite(values[i])) sample.push(values[i]);
-  if (sample.length === 0) return null;
-  sample.sort((a, b) => a - b);
-  const mid = sample.length >> 1;
-  return sample.length % 2 ? sample[mid] : (sample[mid - 1] + sample[mid]) / 2;
+  return sample.length === 0 ? null : median(sample);
 }
 
 function durabilitySummary(d: ReturnType<typeof durabilityMetrics>): Record<string, number | string | boolean | null> {
@@ -412,7 +409,7 @@ function placeWholeFileError(error: unknown, table: ParsedTable, mapping: Column
 }
 
 // Metrics read off the loaded part of a curve: an OCV or HFR alone does not make a polarization curve.
-const LOADED_METRICS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'tafelSlope'] as const;
+const LOADED_METRICS = metricsOfKind('polarization').filter((key) => key !== 'ocv' && key !== 'hfr');
 
 /** A polarization curve from which not one loaded-curve metric can be read is refused, with what the data span. */
 function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: string, table: ParsedTable, mapping: ColumnMapping) {
@@ -426,7 +423,7 @@ function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: st
     }
     return low <= high ? `${low.toFixed(digits)} to ${high.toFixed(digits)}` : 'none';
   };
-  const reasons = Object.entries(result.metricNotes).map(([key, note]) => `${CURVE_METRIC_INFO[key]?.label ?? key}: ${note}`).slice(0, 4).join('; ');
+  const reasons = Object.entries(result.metricNotes).map(([key, note]) => `${metricEntry(key)?.label ?? key}: ${note}`).slice(0, 4).join('; ');
   const first = table.dataLines[0];
   const last = table.dataLines[table.dataLines.length - 1];
   const voltage = mapping.voltage ?? mapping.voltageIrFree;

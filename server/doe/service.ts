@@ -3,14 +3,16 @@
 // next builds. The statistics live in shared/doe; this file finds the data, checks the rules
 // and turns input errors from the shared code into 4xx answers.
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
-import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
+import { findResponse, knownResponseKeys } from '../../shared/curves/metric-catalogue';
 import type { AppContext } from '../context';
 import { builds, designs, labs, users } from '../db/schema';
 import { audit } from '../lib/audit';
 import { AppError } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
 import { createBuild, listBuilds } from '../builds/service';
-import { listFactors, listResponses, METRIC_KEYS } from '../projects/service';
+import { listFactors, listResponses } from '../projects/service';
+import { roundSignificant, SETTING_DIGITS } from '../../shared/units/significant';
+import { isFlammableFuel } from '../../shared/builds/flammable-fuel';
 import type { FactorDef, ResponseDef } from '../../shared/schemas/project';
 import type {
   Build,
@@ -127,7 +129,7 @@ export function generateProjectDesign(ctx: AppContext, access: ProjectAccess, bo
 function roundSetting(value: number): number {
   // designs carry 12 significant digits; a lab sheet needs far fewer, and rounding must not
   // push a value across a bound, so the bound check below runs on the rounded value
-  return Number(value.toPrecision(6));
+  return roundSignificant(value, SETTING_DIGITS);
 }
 
 function checkValue(def: FactorDef, value: number | string, path: string, where: string, issues: FieldIssue[]): number | string | undefined {
@@ -280,16 +282,10 @@ export function listProjectDesigns(ctx: AppContext, access: ProjectAccess): Stor
 
 
 function responseInfo(defs: ResponseDef[], key: string, path = 'response'): ResponseInfo {
-  if (METRIC_KEYS.includes(key)) {
-    const info = CURVE_METRIC_INFO[key];
-    return { key, label: info?.label ?? key, unit: info?.unit ?? '', source: 'curve', goal: info?.goal ?? 'maximize', target: null };
-  }
-  const def = defs.find((d) => d.key === key);
-  if (!def) {
-    const known = [...METRIC_KEYS, ...defs.map((d) => d.key)].join(', ');
-    throw invalid(400, 'validation', `Invalid body: ${path}: "${key}" is neither a curve metric nor a hand-entered response of this project (one of ${known})`, [{ path, message: 'unknown response' }]);
-  }
-  return { key, label: def.label, unit: def.unit, source: 'hand-entered', goal: def.goal, target: def.target ?? null };
+  const found = findResponse(key, defs);
+  if (found) return found;
+  const known = knownResponseKeys(defs).join(', ');
+  throw invalid(400, 'validation', `Invalid body: ${path}: "${key}" is neither a curve metric nor a hand-entered response of this project (one of ${known})`, [{ path, message: 'unknown response' }]);
 }
 
 const MODEL_NAMES: Record<string, string> = {
@@ -517,8 +513,6 @@ function codedDistance(chosen: FactorDef[], a: Record<string, number | string>, 
   return Math.sqrt(sum);
 }
 
-const FUEL = /\b(h2|hydrogen|methanol|meoh|ethanol|dme|dimethyl|fuel|reformate|co)\b/i;
-
 function cautionsFor(proposal: Record<string, number | string>, defs: FactorDef[], observedMax: Record<string, number>, gases: string[]): string[] {
   const out: string[] = [];
   for (const f of defs) {
@@ -529,11 +523,11 @@ function cautionsFor(proposal: Record<string, number | string>, defs: FactorDef[
       const max = observedMax[f.key];
       if (isTemperature && max !== undefined && value > max + 1e-9) out.push(`${f.label} ${Number(value.toPrecision(4))} ${f.unit} is above the highest tested (${max} ${f.unit})`);
       if (isPressure) out.push(`${f.label} is set to ${Number(value.toPrecision(4))} ${f.unit}: pressurised gas lines`);
-    } else if (typeof value === 'string' && FUEL.test(value) && /gas|fuel|anode/i.test(f.key)) {
+    } else if (typeof value === 'string' && isFlammableFuel(value) && /gas|fuel|anode/i.test(f.key)) {
       out.push(`${f.label} uses ${value}, a flammable fuel`);
     }
   }
-  const fuels = gases.filter((g) => FUEL.test(g.split('/')[0] ?? ''));
+  const fuels = gases.filter((g) => isFlammableFuel(g.split('/')[0]));
   if (fuels.length) out.push(`tested on ${fuels.join(', ')}: flammable fuel on the anode`);
   return out;
 }

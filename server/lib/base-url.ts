@@ -56,7 +56,7 @@ export function requireLinkBase(env: Env, req?: Pick<Request, 'protocol' | 'get'
   return base;
 }
 
-/** Every link the app puts in an e-mail, built on one base (linkBase / requireLinkBase). */
+/** Every link the app puts in an e-mail, built on one base; callers get them from emailLinks. */
 export function appLinks(base: string) {
   const root = base.replace(/\/+$/, '');
   return {
@@ -65,6 +65,16 @@ export function appLinks(base: string) {
     build: (projectId: number, buildId: number) => `${root}/projects/${projectId}/builds/${buildId}`,
     settings: (projectId: number) => `${root}/projects/${projectId}/settings`,
   };
+}
+
+export type AppLinks = ReturnType<typeof appLinks>;
+
+/**
+ * The links of an e-mail, built the one way: on requireLinkBase, so an invitation or a notice
+ * never carries a made-up address (a 503 naming PUBLIC_URL instead, in production without one).
+ */
+export function emailLinks(env: Env, req?: Pick<Request, 'protocol' | 'get'>): AppLinks {
+  return appLinks(requireLinkBase(env, req));
 }
 
 /**

@@ -4,24 +4,23 @@ import type { AppContext } from '../context';
 import type { ProjectAccess } from '../auth/access';
 import { AppError } from '../lib/errors';
 import { listBuilds } from '../builds/service';
-import { listFactors, listResponses, METRIC_KEYS } from '../projects/service';
+import { listFactors, listResponses } from '../projects/service';
 import { bestPath, buildLineageTree, describeChanges, diffRecipe, groupReplicates, type LineageGoal, type LineageTree, type RecipeChange, type ReplicateGrouping } from '../../shared/lineage';
 import type { Build, LineageData, ResponseInfo } from '../../shared/api-types';
-import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
-
-const CURVE_RESPONSES = CURVE_METRIC_INFO;
+import { curveResponses, findResponse, knownResponseKeys } from '../../shared/curves/metric-catalogue';
 
 /** The curve metrics and hand-entered responses a project can chart. */
 export function projectResponses(ctx: AppContext, projectId: number): ResponseInfo[] {
-  const list: ResponseInfo[] = METRIC_KEYS.filter((k) => CURVE_RESPONSES[k]).map((key) => ({ key, ...CURVE_RESPONSES[key], target: null, source: 'curve' as const }));
+  const list: ResponseInfo[] = curveResponses();
   for (const r of listResponses(ctx, projectId)) list.push({ key: r.key, label: r.label, unit: r.unit, goal: r.goal, target: r.target, source: 'hand-entered' });
   return list;
 }
 
 export function resolveResponse(ctx: AppContext, projectId: number, key: string): ResponseInfo {
-  const found = projectResponses(ctx, projectId).find((r) => r.key === key);
+  const defs = listResponses(ctx, projectId);
+  const found = findResponse(key, defs);
   if (!found) {
-    const known = projectResponses(ctx, projectId).map((r) => r.key).join(', ');
+    const known = knownResponseKeys(defs).join(', ');
     throw new AppError(400, 'validation', `Invalid query: response: "${key}" is neither a curve metric nor a hand-entered response of this project (known: ${known})`, { fields: [{ path: 'response', message: 'unknown response' }] });
   }
   return found;

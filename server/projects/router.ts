@@ -2,7 +2,7 @@
 import { factorCreateSchema, notifySchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
 import { inviteCreateSchema, membershipSetSchema } from '../../shared/schemas/auth';
 import { defineFeature, route } from '../lib/route';
-import { requireLinkBase } from '../lib/base-url';
+import { emailLinks } from '../lib/base-url';
 import { allowedActions } from '../../shared/auth/permissions';
 import * as projects from './service';
 
@@ -80,6 +80,6 @@ export const projectsFeature = defineFeature('projects', [
   route({
     method: 'post', path: '/api/projects/{id}/invitations', tag: 'projects', permission: { action: 'invite', on: 'project' }, body: inviteCreateSchema, status: 201,
     summary: 'Invite someone by e-mail (link valid 7 days, once)',
-    handle: ({ ctx, req, access, body }) => projects.invite(ctx, access, body, requireLinkBase(ctx.env, req)),
+    handle: ({ ctx, req, access, body }) => projects.invite(ctx, access, body, emailLinks(ctx.env, req)),
   }),
 ]);

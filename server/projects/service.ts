@@ -8,11 +8,12 @@ import { inviteCreateSchema } from '../../shared/schemas/auth';
 import type { z } from 'zod';
 import { audit } from '../lib/audit';
 import { escapeHtml } from '../lib/escape-html';
-import { appLinks } from '../lib/base-url';
+import type { AppLinks } from '../lib/base-url';
 import { AppError, conflict, notFound } from '../lib/errors';
 import type { ProjectAccess } from '../auth/access';
 import { newToken, sha256 } from '../auth/tokens';
 import { recomputeProjectMetrics } from '../curves/service';
+import { isCurveMetric } from '../../shared/curves/metric-catalogue';
 
 type ProjectRow = typeof projects.$inferSelect;
 
@@ -154,12 +155,11 @@ export function listResponses(ctx: AppContext, projectId: number): ResponseDef[]
   return ctx.db.select().from(responseDefs).where(eq(responseDefs.projectId, projectId)).orderBy(asc(responseDefs.id)).all().map(responseView);
 }
 
-/** Keys the curve metrics already use; hand-entered responses must not shadow them. */
-export const METRIC_KEYS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr', 'degradationRate', 'breakInHours'];
 
 export function addResponse(ctx: AppContext, access: ProjectAccess, body: z.output<typeof responseCreateSchema>) {
   const { db } = ctx;
-  if (METRIC_KEYS.includes(body.key)) throw conflict(`"${body.key}" is a curve metric; choose another key for a hand-entered response.`, { fields: [{ path: 'key', message: 'reserved for a curve metric' }] });
+  // Every catalogue key is reserved, computed yet or not, so a hand-entered response never shadows a metric.
+  if (isCurveMetric(body.key)) throw conflict(`"${body.key}" is a curve metric; choose another key for a hand-entered response.`, { fields: [{ path: 'key', message: 'reserved for a curve metric' }] });
   const exists = db.select({ id: responseDefs.id }).from(responseDefs).where(and(eq(responseDefs.projectId, access.projectId), eq(responseDefs.key, body.key))).get();
   if (exists) throw conflict(`A response with key "${body.key}" already exists in this project.`, { fields: [{ path: 'key', message: 'already used' }] });
   const row = db.insert(responseDefs).values({ projectId: access.projectId, key: body.key, label: body.label, unit: body.unit, goal: body.goal, target: body.target ?? null }).returning().get();
@@ -224,14 +224,14 @@ export function setNotify(ctx: AppContext, access: ProjectAccess, body: NotifyBo
 }
 
 /**
- * Invite someone by e-mail (the link is built on `baseUrl`, the address people use to reach the app). A person who already has an account is added to the project at once
+ * Invite someone by e-mail (the links come from emailLinks: the address people use to reach the app). A person who already has an account is added to the project at once
  * (with a notice e-mail) instead of getting an invitation they could never accept.
  */
-export async function invite(ctx: AppContext, access: ProjectAccess, body: z.output<typeof inviteCreateSchema>, baseUrl: string) {
+export async function invite(ctx: AppContext, access: ProjectAccess, body: z.output<typeof inviteCreateSchema>, links: AppLinks) {
   const { db } = ctx;
   const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
   const account = db.select().from(users).where(eq(users.email, body.email)).get();
-  if (account?.passwordHash) return { invitation: null, member: await addExistingAccount(ctx, access, project, account, body, baseUrl) };
+  if (account?.passwordHash) return { invitation: null, member: await addExistingAccount(ctx, access, project, account, body, links) };
   if (body.role === 'partner' && body.labId == null) {
     const existing = db.select({ labId: users.labId }).from(users).where(eq(users.email, body.email)).get();
     if (!existing?.labId) throw new AppError(400, 'validation', 'A partner invitation needs the partner lab (labId) the person belongs to.', { fields: [{ path: 'labId', message: 'required for partners' }] });
@@ -240,7 +240,7 @@ export async function invite(ctx: AppContext, access: ProjectAccess, body: z.out
   const token = newToken();
   const expiresAt = new Date(Date.now() + 7 * 86400_000).toISOString();
   const row = db.insert(invitations).values({ tokenHash: sha256(token), email: body.email, projectId: access.projectId, role: body.role, labId: body.labId ?? null, invitedBy: access.user.id, expiresAt }).returning().get();
-  const link = appLinks(baseUrl).invitation(token);
+  const link = links.invitation(token);
   await ctx.mailer.send({
     to: body.email,
     subject: `You are invited to “${project.name}” on Cellwright`,
@@ -251,14 +251,14 @@ export async function invite(ctx: AppContext, access: ProjectAccess, body: z.out
   return { invitation: { id: row.id, email: row.email, role: row.role, expiresAt }, member: null };
 }
 
-async function addExistingAccount(ctx: AppContext, access: ProjectAccess, project: ProjectRow, account: typeof users.$inferSelect, body: z.output<typeof inviteCreateSchema>, baseUrl: string) {
+async function addExistingAccount(ctx: AppContext, access: ProjectAccess, project: ProjectRow, account: typeof users.$inferSelect, body: z.output<typeof inviteCreateSchema>, links: AppLinks) {
   const { db } = ctx;
   const current = db.select().from(memberships).where(and(eq(memberships.projectId, project.id), eq(memberships.userId, account.id))).get();
   if (current) throw new AppError(409, 'already-member', `${account.name} (${account.email}) is already a member of this project as ${current.role}; change the role in the members list instead.`, { userId: account.id, role: current.role });
   if (body.role === 'partner' && body.labId == null && account.labId == null) throw new AppError(400, 'validation', 'A partner needs the partner lab (labId) the person belongs to.', { fields: [{ path: 'labId', message: 'required for partners' }] });
   db.insert(memberships).values({ projectId: project.id, userId: account.id, role: body.role }).run();
   audit(db, { userId: access.user.id, action: 'create', entity: 'membership', entityId: account.id, projectId: project.id, after: { userId: account.id, role: body.role, via: 'invitation of an existing account' } });
-  const link = appLinks(baseUrl).project(project.id);
+  const link = links.project(project.id);
   try {
     await ctx.mailer.send({
       to: account.email,

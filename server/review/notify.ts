@@ -9,13 +9,10 @@ import { builds, labs, memberships, pendingNotices, projects, users } from '../d
 import { escapeHtml } from '../lib/escape-html';
 import type { CurveKind } from '../../shared/curves/types';
 import { becameTested, nextStatus } from '../../shared/builds/status';
-import { appLinks, linkBase } from '../lib/base-url';
+import { emailLinks } from '../lib/base-url';
 
 type BuildRow = typeof builds.$inferSelect;
 
-function appUrl(ctx: AppContext): string {
-  return linkBase(ctx.env) ?? `http://localhost:${ctx.env.PORT}`;
-}
 
 
 /** Members of a project with one of the roles who want notices, minus the person who acted. */
@@ -53,7 +50,7 @@ async function sendAll(ctx: AppContext, to: { id: number; email: string; digest:
 function context(ctx: AppContext, build: BuildRow) {
   const project = ctx.db.select({ id: projects.id, name: projects.name }).from(projects).where(eq(projects.id, build.projectId)).get()!;
   const lab = build.labId != null ? ctx.db.select({ name: labs.name }).from(labs).where(eq(labs.id, build.labId)).get()?.name ?? null : null;
-  const links = appLinks(appUrl(ctx));
+  const links = emailLinks(ctx.env);
   return { project, lab, link: links.build(project.id, build.id), settings: links.settings(project.id) };
 }
 

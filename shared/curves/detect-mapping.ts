@@ -83,35 +83,29 @@ function quoted(table: ParsedTable, index: number): string {
   return `"${table.header[index]}"`;
 }
 
-/**
- * Parsed table → a column mapping guess. Header units are believed first
- * (recogniseHeaderUnit); a header with no unit gets one from the values: voltage up to ~2 → V,
- * up to ~2000 → mV; current and HFR take the one unit (A/cm², mA/cm², and with the area A, mA;
- * Ω·cm², mΩ·cm², Ω, mΩ) under which the values are a cell's (5 mA/cm²–5 A/cm²; 0.02–3 Ω·cm²),
- * and ask (`ambiguous`) when several fit. An iR-corrected voltage column ("E_iR-free (V)")
- * maps to `voltageIrFree`, beside the measured voltage or alone. Two measured voltage columns →
- * the first, ambiguous. A current column ≤ 0 throughout is marked `negated`; one that changes
- * sign asks. A time column makes the kind `durability` unless `kind` is given — except when the
- * current steps through ≥ 4 levels over its range with no level holding half the readings,
- * which is a polarization curve with a clock (no question); in between, it asks. A current
- * ≈ 0 throughout with a time column → `hold`. Finally every mapped column is checked for unit
- * slips (findUnitSlips): the plausible unit is proposed and the detection asks, naming the line.
- * Reference: magnitudes are those of single cells (common practice in the trade):
- * 0–1.2 V, 0–3 A/cm², HFR 0.05–1 Ω·cm².
- * Cost: O(rows × columns).
- * @example detectMapping(parseDelimitedText('j (A/cm2),U (V)\n0.2,0.65\n')).mapping // { current: {column:0,unit:'A/cm2'}, voltage: {column:1,unit:'V'} }
- */
-export function detectMapping(table: ParsedTable, kind?: CurveKind, options: DetectMappingOptions = {}): MappingDetection {
-  const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? null;
-  if (table === null || typeof table !== 'object' || !Array.isArray(table.header) || !Array.isArray(table.columns)) {
-    throw new TypeError('detectMapping: table must be a ParsedTable');
-  }
+/** What the detection knows while it reads a table: each column's reading and statistics, and the reasons so far. */
+interface Detection {
+  table: ParsedTable;
+  areaCm2: number | null;
+  reasons: string[];
+  /** set when a person should confirm the mapping */
+  ambiguous: boolean;
+  readings: ColumnReading[];
+  matches: (HeaderUnitMatch | null)[];
+  stats: (ColumnStats | null)[];
+  ofQuantity: (quantity: HeaderQuantity) => ColumnReading[];
+  /** numeric columns whose header names no quantity */
+  unknownNumeric: ColumnReading[];
+  /** a header unit text was present but not understood (and the cells did not give one) */
+  unitTextIgnored: (reading: ColumnReading) => boolean;
+}
+
+/** Step 1: each column's header reading (quantity, unit, iR-free) and its statistics. */
+function readColumns(table: ParsedTable, areaCm2: number | null): Detection {
   const reasons: string[] = [];
-  let ambiguous = false;
   const readings: ColumnReading[] = [];
   const matches: (HeaderUnitMatch | null)[] = [];
   const stats: (ColumnStats | null)[] = [];
-
   for (let index = 0; index < table.header.length; index++) {
     const values = table.columns[index];
     const columnKind = table.columnKinds[index];
@@ -139,8 +133,12 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
     const match = matches[reading.index];
     return match !== null && match.unitText !== null && match.unit === null && reading.unitSource !== 'cells';
   };
+  return { table, areaCm2, reasons, ambiguous: false, readings, matches, stats, ofQuantity, unknownNumeric, unitTextIgnored };
+}
 
-  // ---- voltage: the measured cell voltage, and an iR-free (iR-corrected) one when named so
+/** Step 2: the measured cell voltage, and an iR-free (iR-corrected) one when named so; units from the values when the header gives none. */
+function findVoltage(d: Detection) {
+  const { table, reasons, readings, stats, ofQuantity, unknownNumeric, unitTextIgnored } = d;
   let voltageReading: ColumnReading | null = null;
   let irFreeReading: ColumnReading | null = null;
   const voltageCandidates = ofQuantity('voltage');
@@ -150,12 +148,12 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
     voltageReading = measured[0] ?? null;
     irFreeReading = corrected[0] ?? null;
     if (measured.length > 1) {
-      ambiguous = true;
+      d.ambiguous = true;
       const names = measured.map((reading) => quoted(table, reading.index)).join(' and ');
       reasons.push(`${measured.length} voltage columns: ${names}; using ${quoted(table, measured[0].index)} as the cell voltage; confirm`);
     }
     if (corrected.length > 1) {
-      ambiguous = true;
+      d.ambiguous = true;
       const names = corrected.map((reading) => quoted(table, reading.index)).join(' and ');
       reasons.push(`${corrected.length} iR-free voltage columns: ${names}; using ${quoted(table, corrected[0].index)}; confirm`);
     }
@@ -187,7 +185,7 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
         const columnStatistics = stats[best.index] as ColumnStats;
         voltageReading = { ...best, quantity: 'voltage', unit, unitSource: 'values' };
         readings[best.index] = voltageReading;
-        ambiguous = true;
+        d.ambiguous = true;
         reasons.push(`no header names a voltage; ${quoted(table, best.index)} (${formatRange(columnStatistics, unit)}) read as the cell voltage; confirm`);
         break;
       }
@@ -200,21 +198,25 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
     const unit: VoltageUnit = columnStatistics.maxAbs <= 2 ? 'V' : 'mV';
     const filled: ColumnReading = { ...reading, unit, unitSource: 'values' };
     readings[reading.index] = filled;
-    if (unitTextIgnored(filled) || columnStatistics.maxAbs > 2000) ambiguous = true;
+    if (unitTextIgnored(filled) || columnStatistics.maxAbs > 2000) d.ambiguous = true;
     reasons.push(`${quoted(table, reading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unit}`);
     return filled;
   };
   voltageReading = unitFromValues(voltageReading);
   irFreeReading = unitFromValues(irFreeReading);
+  return { voltageReading, irFreeReading };
+}
 
-  // ---- current
+/** Step 3: the current column and its unit; a load current logged negative is flipped, one that changes sign asks. */
+function findCurrent(d: Detection, voltageReading: ColumnReading | null) {
+  const { table, areaCm2, reasons, readings, stats, ofQuantity, unknownNumeric } = d;
   let currentReading: ColumnReading | null = null;
   const currentCandidates = ofQuantity('current');
   if (currentCandidates.length > 0) {
     const densities = currentCandidates.filter((reading) => reading.unit === 'A/cm2' || reading.unit === 'mA/cm2');
     currentReading = densities.length > 0 ? densities[0] : currentCandidates[0];
     if (currentCandidates.length > 1 && densities.length !== 1) {
-      ambiguous = true;
+      d.ambiguous = true;
       const names = currentCandidates.map((reading) => quoted(table, reading.index)).join(' and ');
       reasons.push(`${currentCandidates.length} current columns: ${names}; using ${quoted(table, currentReading.index)}; confirm`);
     } else if (currentCandidates.length > 1) {
@@ -226,7 +228,7 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
       const columnStatistics = stats[reading.index];
       if (columnStatistics === null || columnStatistics.min < -0.1 * Math.max(columnStatistics.maxAbs, 1e-12)) continue;
       currentReading = { ...reading, quantity: 'current', unit: null, unitSource: null };
-      ambiguous = true;
+      d.ambiguous = true;
       reasons.push(`no header names a current; ${quoted(table, reading.index)} read as current; confirm`);
       break;
     }
@@ -247,7 +249,7 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
       if (plausible.length === 1 && areaCm2 !== null) {
         reasons.push(`${quoted(table, currentReading.index)} has no unit we read; ${formatRange(columnStatistics)} can only be ${unitLabel(unit)} on ${areaCm2} cm² (other units give less than 5 mA/cm² or more than 5 A/cm²)`);
       } else {
-        ambiguous = true;
+        d.ambiguous = true;
         const others = plausible.filter((other) => other !== unit).map(unitLabel);
         const alternatives = others.length > 0 ? others.join(' or ') : areaCm2 === null ? 'a total current in A or mA' : 'another unit';
         reasons.push(`${quoted(table, currentReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unitLabel(unit)} (${alternatives} would look the same); confirm`);
@@ -266,7 +268,7 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
         currentNegated = true;
         reasons.push(`${quoted(table, currentReading.index)} is negative throughout (${formatRange(columnStatistics, currentReading.unit)}): read as load current logged with a negative sign, values × −1`);
       } else if (columnStatistics.min < -noise && columnStatistics.max > noise) {
-        ambiguous = true;
+        d.ambiguous = true;
         const values = table.columns[currentReading.index] as Float64Array;
         let change = -1;
         for (let row = 1; row < values.length; row++) {
@@ -280,14 +282,18 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
       }
     }
   }
+  return { currentReading, currentNegated };
+}
 
-  // ---- HFR
+/** Step 4: the HFR column and its unit (from the values when the header gives none). */
+function findHfr(d: Detection): ColumnReading | null {
+  const { table, areaCm2, reasons, readings, stats, ofQuantity } = d;
   let hfrReading: ColumnReading | null = null;
   const hfrCandidates = ofQuantity('hfr');
   if (hfrCandidates.length > 0) {
     hfrReading = hfrCandidates[0];
     if (hfrCandidates.length > 1) {
-      ambiguous = true;
+      d.ambiguous = true;
       reasons.push(`${hfrCandidates.length} resistance columns; using ${quoted(table, hfrReading.index)}; confirm`);
     }
     if (hfrReading.unit === null) {
@@ -302,15 +308,19 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
         if (plausible.length === 1 && areaCm2 !== null) {
           reasons.push(`${quoted(table, hfrReading.index)} has no unit we read; ${formatRange(columnStatistics)} can only be ${unitLabel(unit)}${unit === 'ohm' || unit === 'mohm' ? ` on ${areaCm2} cm²` : ''} (other units give no cell's HFR)`);
         } else {
-          ambiguous = true;
+          d.ambiguous = true;
           reasons.push(`${quoted(table, hfrReading.index)} has no unit we read; values ${formatRange(columnStatistics)} read as ${unitLabel(unit)} (a cell resistance in Ω or mΩ would need the area); confirm`);
         }
       }
     }
     readings[hfrReading.index] = hfrReading;
   }
+  return hfrReading;
+}
 
-  // ---- time
+/** Step 5: the time column: an elapsed time before a clock. */
+function findTime(d: Detection): ColumnReading | null {
+  const { table, reasons, readings, ofQuantity } = d;
   let timeReading: ColumnReading | null = null;
   const timeCandidates = ofQuantity('time');
   if (timeCandidates.length > 0) {
@@ -320,14 +330,18 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
     timeReading = elapsed[0] ?? clocks[0] ?? timeCandidates[0];
     if (timeReading.unit === null) {
       timeReading = { ...timeReading, unit: 's', unitSource: 'values' };
-      ambiguous = true;
+      d.ambiguous = true;
       reasons.push(`${quoted(table, timeReading.index)} has no unit we read; read as seconds; confirm`);
     }
     if (timeCandidates.length > 1) reasons.push(`several time columns; using ${quoted(table, timeReading.index)}`);
     readings[timeReading.index] = timeReading;
   }
+  return timeReading;
+}
 
-  // ---- temperature
+/** Step 6: the temperature column, the cell's when several. */
+function findTemperature(d: Detection): ColumnReading | null {
+  const { table, reasons, readings, stats, ofQuantity } = d;
   let temperatureReading: ColumnReading | null = null;
   const temperatureCandidates = ofQuantity('temperature');
   if (temperatureCandidates.length > 0) {
@@ -341,8 +355,24 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
     }
     readings[temperatureReading.index] = temperatureReading;
   }
+  return temperatureReading;
+}
 
-  // ---- kind
+/** The columns found for each role. */
+interface Found {
+  voltageReading: ColumnReading | null;
+  irFreeReading: ColumnReading | null;
+  currentReading: ColumnReading | null;
+  currentNegated: boolean;
+  hfrReading: ColumnReading | null;
+  timeReading: ColumnReading | null;
+  temperatureReading: ColumnReading | null;
+}
+
+/** Step 7: the curve kind: the caller's, else from the time column and how the current steps. */
+function detectKind(d: Detection, found: Found, kind: CurveKind | undefined): CurveKind {
+  const { table, reasons, stats } = d;
+  const { voltageReading, irFreeReading, currentReading, timeReading } = found;
   let detectedKind: CurveKind;
   let timeUnitGuessed = false;
   if (timeReading !== null && timeReading.unitSource === 'values') timeUnitGuessed = true;
@@ -369,7 +399,7 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
       } else if (!spansRange || levels.length <= 2 || modalShare >= 0.8) {
         reasons.push(`time column present and the current held at one level (${Math.round(modalShare * 100)} % of readings): read as a durability log`);
       } else {
-        ambiguous = true;
+        d.ambiguous = true;
         detectedKind = modalShare < 0.65 && voltageSpan > 0.1 ? 'polarization' : 'durability';
         reasons.push(
           `time column present; the current takes ${levels.length} levels over ${range} with ${Math.round(modalShare * 100)} % of readings at the most common one: read as ${detectedKind === 'polarization' ? 'a polarization curve' : 'a durability log'}; confirm the kind`,
@@ -382,24 +412,16 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
     detectedKind = 'polarization';
   }
   if (timeUnitGuessed && timeReading !== null && detectedKind !== 'polarization') {
-    ambiguous = true;
+    d.ambiguous = true;
     reasons.push(`${quoted(table, timeReading.index)} has no unit we read; read as seconds; confirm`);
   }
+  return detectedKind;
+}
 
-  const anyVoltage = voltageReading ?? irFreeReading;
-  if (anyVoltage === null || anyVoltage.unit === null) {
-    reasons.push('no voltage column found: name it e.g. "Voltage (V)" or "U (mV)", or choose the columns by hand');
-    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
-  }
-  if (detectedKind === 'polarization' && (currentReading === null || currentReading.unit === null)) {
-    reasons.push('no current column found for a polarization curve: name it e.g. "Current density (A/cm2)", or choose the columns by hand');
-    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
-  }
-  if (detectedKind === 'durability' && timeReading === null) {
-    reasons.push('no time column found for a durability log: name it e.g. "Time (h)", or choose the columns by hand');
-    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
-  }
-
+/** Step 8: the mapping from the columns found. */
+function mappingOf(d: Detection, found: Found): ColumnMapping {
+  const { areaCm2, reasons } = d;
+  const { voltageReading, irFreeReading, currentReading, currentNegated, hfrReading, timeReading, temperatureReading } = found;
   const mapping: ColumnMapping = {};
   if (voltageReading !== null && voltageReading.unit !== null) mapping.voltage = { column: voltageReading.index, unit: voltageReading.unit as VoltageUnit };
   if (irFreeReading !== null && irFreeReading.unit !== null) mapping.voltageIrFree = { column: irFreeReading.index, unit: irFreeReading.unit as VoltageUnit };
@@ -415,16 +437,69 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
   if ((mapping.current?.unit === 'A' || mapping.current?.unit === 'mA' || mapping.hfr?.unit === 'ohm' || mapping.hfr?.unit === 'mohm') && areaCm2 === null) {
     reasons.push('total current or cell resistance: the active area (cm²) is needed, and neither the file nor the build states it');
   }
+  return mapping;
+}
 
-  // ---- unit slips: propose the unit that makes the column a cell's, and ask
+/** Step 9: unit slips: propose the unit that makes each column a cell's, and ask. */
+function askAboutUnitSlips(d: Detection, mapping: ColumnMapping, detectedKind: CurveKind): void {
+  const { table, areaCm2, reasons } = d;
   for (const slip of findUnitSlips(table, mapping, detectedKind, areaCm2)) {
-    ambiguous = true;
+    d.ambiguous = true;
     const entry = mapping[slip.role] as { column: number; unit: string };
     const line = table.dataLines[slip.row];
     reasons.push(`line ${line}, column ${quoted(table, entry.column)}: ${slip.message}`);
     if (slip.proposed !== null) entry.unit = slip.proposed;
   }
-  return { mapping, ambiguous, reasons, kind: detectedKind, columns: readings };
+}
+
+/**
+ * Parsed table → a column mapping guess. Header units are believed first
+ * (recogniseHeaderUnit); a header with no unit gets one from the values: voltage up to ~2 → V,
+ * up to ~2000 → mV; current and HFR take the one unit (A/cm², mA/cm², and with the area A, mA;
+ * Ω·cm², mΩ·cm², Ω, mΩ) under which the values are a cell's (5 mA/cm²–5 A/cm²; 0.02–3 Ω·cm²),
+ * and ask (`ambiguous`) when several fit. An iR-corrected voltage column ("E_iR-free (V)")
+ * maps to `voltageIrFree`, beside the measured voltage or alone. Two measured voltage columns →
+ * the first, ambiguous. A current column ≤ 0 throughout is marked `negated`; one that changes
+ * sign asks. A time column makes the kind `durability` unless `kind` is given — except when the
+ * current steps through ≥ 4 levels over its range with no level holding half the readings,
+ * which is a polarization curve with a clock (no question); in between, it asks. A current
+ * ≈ 0 throughout with a time column → `hold`. Finally every mapped column is checked for unit
+ * slips (findUnitSlips): the plausible unit is proposed and the detection asks, naming the line.
+ * Reference: magnitudes are those of single cells (common practice in the trade):
+ * 0–1.2 V, 0–3 A/cm², HFR 0.05–1 Ω·cm².
+ * Cost: O(rows × columns).
+ * @example detectMapping(parseDelimitedText('j (A/cm2),U (V)\n0.2,0.65\n')).mapping // { current: {column:0,unit:'A/cm2'}, voltage: {column:1,unit:'V'} }
+ */
+export function detectMapping(table: ParsedTable, kind?: CurveKind, options: DetectMappingOptions = {}): MappingDetection {
+  const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? null;
+  if (table === null || typeof table !== 'object' || !Array.isArray(table.header) || !Array.isArray(table.columns)) {
+    throw new TypeError('detectMapping: table must be a ParsedTable');
+  }
+  const d = readColumns(table, areaCm2);
+  const { reasons, readings } = d;
+  const { voltageReading, irFreeReading } = findVoltage(d);
+  const { currentReading, currentNegated } = findCurrent(d, voltageReading);
+  const found: Found = { voltageReading, irFreeReading, currentReading, currentNegated, hfrReading: findHfr(d), timeReading: findTime(d), temperatureReading: findTemperature(d) };
+  const { timeReading } = found;
+  const detectedKind = detectKind(d, found, kind);
+
+  const anyVoltage = voltageReading ?? irFreeReading;
+  if (anyVoltage === null || anyVoltage.unit === null) {
+    reasons.push('no voltage column found: name it e.g. "Voltage (V)" or "U (mV)", or choose the columns by hand');
+    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
+  }
+  if (detectedKind === 'polarization' && (currentReading === null || currentReading.unit === null)) {
+    reasons.push('no current column found for a polarization curve: name it e.g. "Current density (A/cm2)", or choose the columns by hand');
+    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
+  }
+  if (detectedKind === 'durability' && timeReading === null) {
+    reasons.push('no time column found for a durability log: name it e.g. "Time (h)", or choose the columns by hand');
+    return { mapping: null, ambiguous: true, reasons, kind: detectedKind, columns: readings };
+  }
+
+  const mapping = mappingOf(d, found);
+  askAboutUnitSlips(d, mapping, detectedKind);
+  return { mapping, ambiguous: d.ambiguous, reasons, kind: detectedKind, columns: readings };
 }
 
 /**

@@ -33,3 +33,4 @@ export {
   writeCurveCsv,
 } from './semi-empirical';
 export type { SemiEmpiricalParams, GenerateCurveOptions, CurveCsvShape, WriteCurveCsvOptions } from './semi-empirical';
+export * from './metric-catalogue';

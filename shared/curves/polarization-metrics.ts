@@ -7,6 +7,9 @@ import type { CurveMetrics, MetricKey } from './types';
 import { stepAverage } from './step-average';
 import type { CurveStep, CurveSweep, StepAverageOptions } from './step-average';
 import { CompensatedSum } from '../stats/compensated-sum';
+import { lineSlope } from '../stats/linear-fit';
+import { metricsOfKind, nullMetrics } from './metric-catalogue';
+import { median } from '../stats/median';
 
 export interface PolarizationMetricsOptions {
   step?: StepAverageOptions;
@@ -159,26 +162,6 @@ function crossing(curve: Curve, voltage: number, kineticLimit: number): Crossing
   };
 }
 
-// Least-squares slope, centred two-pass with compensated sums (log10 j values bunched in one decade).
-function leastSquaresSlope(x: readonly number[], y: readonly number[]): number {
-  const n = x.length;
-  const sumX = new CompensatedSum();
-  const sumY = new CompensatedSum();
-  for (let index = 0; index < n; index++) {
-    sumX.add(x[index]);
-    sumY.add(y[index]);
-  }
-  const meanX = sumX.value() / n;
-  const meanY = sumY.value() / n;
-  const sxy = new CompensatedSum();
-  const sxx = new CompensatedSum();
-  for (let index = 0; index < n; index++) {
-    const dx = x[index] - meanX;
-    sxy.add(dx * (y[index] - meanY));
-    sxx.add(dx * dx);
-  }
-  return sxy.value() / sxx.value();
-}
 
 function checkInputs(curve: CurveData, ref: ReferencePoint, loading: BuildLoading): void {
   if (curve === null || typeof curve !== 'object' || !(curve.j instanceof Float64Array) || !(curve.v instanceof Float64Array)) {
@@ -224,7 +207,7 @@ function checkInputs(curve: CurveData, ref: ReferencePoint, loading: BuildLoadin
  *   the kinetic window (default 5–50 mA/cm²), at least 3 steps; otherwise null (no other window).
  * - hfr, Ω·cm²: median of the HFR readings present and > 0.
  * iR-free V is the file's own iR-free column when it has one, else V + j·HFR per reading.
- * Reference: definitions of domain.md (Cellwright); Tafel analysis as in Bard & Faulkner,
+ * Reference: the metric definitions of the README (Metric definitions); Tafel analysis as in Bard & Faulkner,
  * Electrochemical Methods, 2nd ed., §3.4; adding the H₂ crossover current to the measured current
  * for kinetic analysis is common practice in the trade.
  * Cost: O(n log n) for n readings.
@@ -232,8 +215,47 @@ function checkInputs(curve: CurveData, ref: ReferencePoint, loading: BuildLoadin
  *   loading or options are malformed.
  * @example polarizationMetrics(curve, { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' }, { loadingMgCm2: 1 }).metrics.vAtRef
  */
-export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loading: BuildLoading, options: PolarizationMetricsOptions = {}): MetricsResult {
-  checkInputs(curve, ref, loading);
+/** What every metric is read from: the checked options, the step-averaged curves and the words of the method. */
+interface Reading {
+  curve: CurveData;
+  ref: ReferencePoint;
+  loading: BuildLoading;
+  averaged: ReturnType<typeof stepAverage>;
+  steps: readonly CurveStep[];
+  /** whether the file gives a measured cell voltage at all */
+  anyV: boolean;
+  fileIrFree: boolean;
+  irFreeAvailable: boolean;
+  irFreeSource: string;
+  sweepCurves: SweepCurves[];
+  measured: Curve;
+  irFree: Curve;
+  /** the iR-free curve with the crossover current added to j */
+  kinetic: Curve;
+  /** the measured curve with the crossover current added to j */
+  kineticMeasured: Curve;
+  stepsWithoutIrFree: number;
+  kineticLimit: number;
+  crossover: number;
+  crossoverText: string;
+  readText: string;
+  stepText: string;
+  window: readonly [number, number];
+  jRef: number;
+  vRef: number;
+}
+
+/** The metrics object being filled, with the note and method of each metric. */
+interface MetricsDraft {
+  metrics: CurveMetrics;
+  metricNotes: Partial<Record<MetricKey, string>>;
+  method: Partial<Record<MetricKey, MetricMethod>>;
+}
+
+const NO_IR_FREE = 'no HFR or iR-free voltage column: iR-free voltage cannot be computed';
+
+/** Step 1: check the options, step-average the curve and build the loaded curve(s) the metrics read. */
+function readCurve(curve: CurveData, ref: ReferencePoint, loading: BuildLoading, options: PolarizationMetricsOptions): Reading {
   const window = options.tafelWindow ?? DEFAULT_TAFEL_WINDOW;
   if (!(window[0] > 0 && window[1] > window[0])) throw new RangeError(`polarizationMetrics: tafelWindow must be 0 < low < high, got ${window[0]}–${window[1]}`);
   const kineticLimit = options.kineticLimitAcm2 ?? DEFAULT_KINETIC_LIMIT;
@@ -284,25 +306,15 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
           : `${averaged.sweeps.length} ${averaged.sweeps[0].direction} sweeps, dwells at one set point averaged`;
   const readText = `loaded steps only (the open-circuit reading is never interpolated from), no extrapolation; linear in j, or in log j where the lower step is below ${kineticLimit} A/cm²; ${orderText}`;
   const stepText = averaged.method;
-
-  const metrics: CurveMetrics = {
-    vAtRef: null,
-    vAtRefIrFree: null,
-    jAtRef: null,
-    jAtRefIrFree: null,
-    massActivity: null,
-    peakPower: null,
-    ocv: null,
-    tafelSlope: null,
-    hfr: null,
+  return {
+    curve, ref, loading, averaged, steps, anyV, fileIrFree, irFreeAvailable, irFreeSource, sweepCurves, measured, irFree, kinetic, kineticMeasured,
+    stepsWithoutIrFree, kineticLimit, crossover, crossoverText, readText, stepText, window, jRef: ref.refCurrentDensity, vRef: ref.refVoltage,
   };
-  const metricNotes: Partial<Record<MetricKey, string>> = {};
-  const method: Partial<Record<MetricKey, MetricMethod>> = {};
-  const jRef = ref.refCurrentDensity;
-  const vRef = ref.refVoltage;
-  const noIrFree = 'no HFR or iR-free voltage column: iR-free voltage cannot be computed';
+}
 
-  // ---- V at j_ref
+/** V and iR-free V at j_ref. */
+function readVoltageAtRef(r: Reading, { metrics, metricNotes, method }: MetricsDraft): void {
+  const { curve, anyV, fileIrFree, irFreeAvailable, irFreeSource, measured, irFree, kineticLimit, readText, jRef, stepText } = r;
   const vAt = (target: Curve): { value: number | null; note: string | null } => {
     if (target.j.length === 0) return { value: null, note: 'not reached: no loaded steps' };
     const value = interpolate(target.j, target.y, jRef, kineticLimit);
@@ -323,10 +335,13 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
     metrics.vAtRefIrFree = vAtRefIrFree.value;
     if (vAtRefIrFree.note !== null) metricNotes.vAtRefIrFree = vAtRefIrFree.note;
   } else {
-    metricNotes.vAtRefIrFree = noIrFree;
+    metricNotes.vAtRefIrFree = NO_IR_FREE;
   }
+}
 
-  // ---- j at V_ref
+/** j and iR-free j where the voltage first falls through V_ref. */
+function readCurrentAtRef(r: Reading, { metrics, metricNotes, method }: MetricsDraft): void {
+  const { curve, anyV, fileIrFree, irFreeAvailable, irFreeSource, measured, kinetic, kineticLimit, crossover, crossoverText, readText, vRef } = r;
   method.jAtRef = { method: `first fall of V through V_ref: ${readText}`, inputs: { vRef } };
   if (anyV) {
     const jAtRef = crossing(measured, vRef, kineticLimit);
@@ -345,16 +360,19 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
     if (jAtRefIrFree.note !== null) metricNotes.jAtRefIrFree = jAtRefIrFree.note;
     else if (crossover > 0) metricNotes.jAtRefIrFree = `includes the H₂ crossover current (${Number((crossover * 1000).toPrecision(3))} mA/cm²)`;
   } else {
-    metricNotes.jAtRefIrFree = noIrFree;
+    metricNotes.jAtRefIrFree = NO_IR_FREE;
   }
+}
 
-  // ---- mass activity
+/** Mass activity from j at V_ref and the loading on the chosen basis (after readCurrentAtRef). */
+function readMassActivity(r: Reading, { metrics, metricNotes, method }: MetricsDraft): void {
+  const { ref, loading, anyV, irFreeAvailable, kineticMeasured, kineticLimit, crossover, crossoverText, vRef } = r;
   const loadingValue = ref.loadingBasis === 'metal' ? (loading.metalLoadingMgCm2 ?? null) : loading.loadingMgCm2;
   let activityJ: number | null = null;
   let activityNote: string | undefined;
   if (ref.irFree) {
     activityJ = metrics.jAtRefIrFree;
-    activityNote = irFreeAvailable ? metricNotes.jAtRefIrFree : noIrFree;
+    activityNote = irFreeAvailable ? metricNotes.jAtRefIrFree : NO_IR_FREE;
   } else if (anyV) {
     const measuredCrossing = crossing(kineticMeasured, vRef, kineticLimit);
     activityJ = measuredCrossing.j;
@@ -375,8 +393,11 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
     metrics.massActivity = activityJ / (loadingValue * 1e-3);
     metricNotes.massActivity = `A/g ${basisText} at ${vRef} V${ref.irFree ? ' iR-free' : ''}${crossoverText}`;
   }
+}
 
-  // ---- peak power: the highest measured point
+/** Peak power: the highest measured j·V. */
+function readPeakPower(r: Reading, { metrics, metricNotes, method }: MetricsDraft): void {
+  const { anyV, measured } = r;
   method.peakPower = { method: 'highest measured j·V among the loaded step-averaged points (no fit, no extrapolation)', inputs: {} };
   if (!anyV) {
     metricNotes.peakPower = ONLY_IR_FREE;
@@ -394,8 +415,11 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
       metricNotes.peakPower = 'no loaded point with positive power';
     }
   }
+}
 
-  // ---- OCV: the zero-current set point only
+/** OCV: the zero-current set point only. */
+function readOcv(r: Reading, { metrics, metricNotes, method }: MetricsDraft): void {
+  const { averaged, steps, measured } = r;
   const open = averaged.openCircuitStep === null ? null : steps[averaged.openCircuitStep];
   method.ocv = { method: 'mean voltage of the readings at the zero-current set point (the open-circuit step, averaged as a dwell)', inputs: { readings: open?.readings ?? 0 } };
   if (open !== null && open.v !== null) {
@@ -412,8 +436,11 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
         ? `no reading at zero current: potentiostatic steps without an open-circuit reading${lowest}`
         : `no reading at zero current (no open-circuit step)${lowest}`;
   }
+}
 
-  // ---- Tafel slope: the kinetic window only, on iR-free voltage
+/** Tafel slope over the kinetic window, on iR-free voltage. */
+function readTafelSlope(r: Reading, { metrics, metricNotes, method }: MetricsDraft): void {
+  const { irFreeAvailable, irFreeSource, kinetic, crossover, crossoverText, window } = r;
   const windowText = rangeText(window[0], window[1]);
   const inWindow: number[] = [];
   for (let index = 0; index < kinetic.j.length; index++) {
@@ -424,23 +451,28 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
     inputs: { window: `${formatJ(window[0])}–${formatJ(window[1])} A/cm²`, points: irFreeAvailable ? inWindow.length : 0, irFree: irFreeAvailable, h2CrossoverAcm2: crossover },
   };
   if (!irFreeAvailable) {
-    metricNotes.tafelSlope = `${noIrFree} (kinetic window ${windowText})`;
+    metricNotes.tafelSlope = `${NO_IR_FREE} (kinetic window ${windowText})`;
   } else if (inWindow.length < 3) {
     metricNotes.tafelSlope = `only ${inWindow.length} loaded step${inWindow.length === 1 ? '' : 's'} with an iR-free voltage in the kinetic window ${windowText}; at least 3 needed`;
   } else {
-    const slope = leastSquaresSlope(
+    const slope = lineSlope(
       inWindow.map((index) => Math.log10(kinetic.j[index])),
       inWindow.map((index) => kinetic.y[index]),
     );
-    if (slope >= 0) {
+    if (slope === null) {
+      metricNotes.tafelSlope = `the loaded steps in the kinetic window ${windowText} share one current density: no Tafel line`;
+    } else if (slope >= 0) {
       metricNotes.tafelSlope = `iR-free voltage does not fall with current in the kinetic window ${windowText}: no Tafel line`;
     } else {
       metrics.tafelSlope = -slope * 1000;
       metricNotes.tafelSlope = `fitted on iR-free V over ${windowText} (${inWindow.length} steps${crossoverText})`;
     }
   }
+}
 
-  // ---- HFR: median of the readings present and > 0
+/** HFR: median of the readings present and > 0. */
+function readHfr(r: Reading, { metrics, metricNotes, method }: MetricsDraft): void {
+  const { curve, averaged, steps } = r;
   if (curve.hfr !== undefined) {
     const values: number[] = [];
     for (const step of steps) {
@@ -449,9 +481,7 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
     }
     method.hfr = { method: 'median of the HFR readings (missing and zero readings left out)', inputs: { readings: values.length } };
     if (values.length > 0) {
-      values.sort((a, b) => a - b);
-      const middle = values.length >> 1;
-      metrics.hfr = values.length % 2 === 1 ? values[middle] : (values[middle - 1] + values[middle]) / 2;
+      metrics.hfr = median(values);
       if (averaged.hfrMissing > 0) metricNotes.hfr = `${averaged.hfrMissing} HFR reading${averaged.hfrMissing === 1 ? '' : 's'} missing or 0, left out`;
     } else {
       metricNotes.hfr = 'no HFR readings (every HFR cell is missing or 0)';
@@ -460,12 +490,21 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
     method.hfr = { method: 'median of the HFR readings', inputs: { readings: 0 } };
     metricNotes.hfr = 'no HFR column';
   }
+}
+
+/** Adds to the iR-free metrics a note on loaded steps that had no iR-free reading. */
+function noteStepsWithoutIrFree(r: Reading, { metricNotes }: MetricsDraft): void {
+  const { stepsWithoutIrFree } = r;
   if (stepsWithoutIrFree > 0) {
     const text = `${stepsWithoutIrFree} loaded step${stepsWithoutIrFree === 1 ? '' : 's'} without an HFR or iR-free reading left out of the iR-free curve`;
     for (const key of ['vAtRefIrFree', 'jAtRefIrFree', 'tafelSlope'] as const) metricNotes[key] = metricNotes[key] ? `${metricNotes[key]}; ${text}` : text;
   }
+}
 
-  // ---- summary
+/** The facts about the curve beside the metrics: steps, sweeps, hysteresis, what was left out. */
+function summarize(r: Reading, metrics: CurveMetrics): MetricsResult['summary'] {
+  const { curve, averaged, steps, anyV, fileIrFree, irFreeAvailable, sweepCurves, measured, irFree, kineticLimit, crossover, jRef } = r;
+  const open = averaged.openCircuitStep === null ? null : steps[averaged.openCircuitStep];
   const upSweeps = sweepCurves.filter((sweep) => sweep.direction === 'up');
   const downSweeps = sweepCurves.filter((sweep) => sweep.direction === 'down');
   const summary: MetricsResult['summary'] = {
@@ -513,7 +552,22 @@ export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loadi
     else summary.vAtRefDown = metrics.vAtRef;
   }
   if (averaged.notes.length > 0) summary.stepNotes = averaged.notes.join('; ');
-  return { metrics, metricNotes, method, summary };
+  return summary;
+}
+
+export function polarizationMetrics(curve: CurveData, ref: ReferencePoint, loading: BuildLoading, options: PolarizationMetricsOptions = {}): MetricsResult {
+  checkInputs(curve, ref, loading);
+  const r = readCurve(curve, ref, loading, options);
+  const draft: MetricsDraft = { metrics: nullMetrics(metricsOfKind('polarization')), metricNotes: {}, method: {} };
+  readVoltageAtRef(r, draft);
+  readCurrentAtRef(r, draft);
+  readMassActivity(r, draft);
+  readPeakPower(r, draft);
+  readOcv(r, draft);
+  readTafelSlope(r, draft);
+  readHfr(r, draft);
+  noteStepsWithoutIrFree(r, draft);
+  return { ...draft, summary: summarize(r, draft.metrics) };
 }
 
 function formatJ(value: number): string {

@@ -3,7 +3,7 @@
 import type { CurveData } from './types';
 import { fromCurrentDensity } from '../units/current-density';
 import { fromOhmCm2 } from '../units/area-specific-resistance';
-import { mulberry32 } from '../stats/mulberry32';
+import { mulberry32 } from '../stats/random';
 
 /** Gas constant, J/(mol·K) — CODATA 2018 (exact since the 2019 SI redefinition). */
 export const GAS_CONSTANT = 8.314462618;
@@ -80,7 +80,7 @@ export function semiEmpiricalVoltage(params: SemiEmpiricalParams, currentDensity
   return params.e0 - activation - ohmic - massTransport;
 }
 
-/** Seeded uniform numbers in [0, 1): the one mulberry32 (shared/stats/mulberry32), re-exported here for curve callers. */
+/** Seeded uniform numbers in [0, 1): the one mulberry32 (shared/stats/random), re-exported here for curve callers. */
 export { mulberry32 };
 
 function gaussian(random: () => number): number {

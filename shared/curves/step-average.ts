@@ -4,6 +4,7 @@
 // where the order carries meaning (a forward and a backward sweep kept apart, dwell transients).
 import type { CurveData } from './types';
 import { CompensatedSum } from '../stats/compensated-sum';
+import { median } from '../stats/median';
 
 export interface StepAverageOptions {
   /** sorted neighbouring currents belong to one set point when within this fraction of the current…; default 0.01 */
@@ -189,11 +190,6 @@ function groupLevels(values: ArrayLike<number>, relative: number, absolute: numb
   return { levelOf, centres, counts, recutReadings };
 }
 
-function median(values: number[]): number {
-  const sorted = Float64Array.from(values).sort();
-  const middle = sorted.length >> 1;
-  return sorted.length % 2 === 1 ? sorted[middle] : (sorted[middle - 1] + sorted[middle]) / 2;
-}
 
 // Voltage control when the voltage sits at a few exact set points (sorted voltages fall into
 // narrow groups with clear gaps, no continuum) while the current within each varies far more than

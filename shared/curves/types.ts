@@ -1,5 +1,6 @@
 // Shared shapes for curve files, parsed columns and the metrics pulled from them.
 // Units inside the code: A/cm², V, Ω·cm², °C, mg/cm², hours.
+import type { CURVE_METRICS, CurveMetricKey } from './metric-catalogue';
 
 export type CurveKind = 'polarization' | 'durability' | 'hold';
 
@@ -86,22 +87,16 @@ export interface BuildLoading {
   metalLoadingMgCm2?: number | null;
 }
 
-/** Metrics object of product.md; units fixed. null = could not be computed (see metricNotes). */
-export interface CurveMetrics {
-  vAtRef: number | null; // V
-  vAtRefIrFree: number | null; // V
-  jAtRef: number | null; // A/cm² at V_ref
-  jAtRefIrFree: number | null; // A/cm² at V_ref on iR-free voltage
-  massActivity: number | null; // A/g
-  peakPower: number | null; // W/cm²
-  ocv: number | null; // V
-  tafelSlope: number | null; // mV/dec
-  hfr: number | null; // Ω·cm²
-  degradationRate?: number | null; // µV/h, positive = losing voltage
-  breakInHours?: number | null; // h
-}
+type PolarizationMetricKey = { [K in CurveMetricKey]: 'polarization' extends (typeof CURVE_METRICS)[K]['kinds'][number] ? K : never }[CurveMetricKey];
 
-export type MetricKey = keyof CurveMetrics;
+/**
+ * The metrics object of a curve, keyed and unit-fixed by the catalogue (metric-catalogue.ts):
+ * every polarization metric is present, the other kinds' metrics when that kind computed them.
+ * null = could not be computed (see metricNotes).
+ */
+export type CurveMetrics = { [K in PolarizationMetricKey]: number | null } & { [K in Exclude<CurveMetricKey, PolarizationMetricKey>]?: number | null };
+
+export type MetricKey = CurveMetricKey;
 
 /** How one metric was obtained: a short human sentence plus the inputs used. */
 export interface MetricMethod {

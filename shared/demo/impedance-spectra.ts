@@ -4,7 +4,7 @@
 import { circuitImpedance } from '../impedance/circuit-impedance';
 import type { CircuitParameters } from '../impedance/types';
 import type { SemiEmpiricalParams } from '../curves/semi-empirical';
-import { mulberry32, normalGenerator } from '../durability/seeded-random';
+import { mulberry32, normalGenerator } from '../stats/random';
 
 export interface DemoImpedanceOptions {
   /** DC current density the spectrum is taken at, A/cm²; default 0.2 */

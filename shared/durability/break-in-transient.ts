@@ -3,6 +3,7 @@
 // transient would still leak into a straight-line rate fitted after a given break-in end.
 import { lowerBound } from './sorted-search';
 import { fitTrend } from './trend-fit';
+import { lineSlope } from '../stats/linear-fit';
 
 export interface TransientOptions {
   /** averaging block, h; default 1 */
@@ -140,24 +141,9 @@ function fitExponential(blocks: Blocks, t0: number, tau: number): ExponentialFit
   return { slope, amplitude, rss, residuals, amplitudeVarianceFactor: stt / determinant };
 }
 
-// Least-squares slope of f(t) over the given block times (one line, no segments).
+// Least-squares slope of f(t) over the given block times (one line, no segments); 0 when the times do not spread.
 function slopeOf(times: readonly number[], values: readonly number[]): number {
-  const n = times.length;
-  let meanT = 0;
-  let meanF = 0;
-  for (let i = 0; i < n; i++) {
-    meanT += times[i];
-    meanF += values[i];
-  }
-  meanT /= n;
-  meanF /= n;
-  let sxx = 0;
-  let sxy = 0;
-  for (let i = 0; i < n; i++) {
-    sxx += (times[i] - meanT) ** 2;
-    sxy += (times[i] - meanT) * (values[i] - meanF);
-  }
-  return sxx > 0 ? sxy / sxx : 0;
+  return lineSlope(times, values) ?? 0;
 }
 
 /**

@@ -119,24 +119,15 @@ function rateOf(fit: TrendFit | null): { rate: number | null; low: number | null
   return { rate: -fit.slope * 1e6, low: -fit.high * 1e6, high: -fit.low * 1e6 };
 }
 
-/**
- * Durability metrics: degradation rate = −slope of V against time after break-in, µV/h.
- * Steps: drop rows with non-finite values; find interruptions (gaps, restarts, current changes); turn
- * time resets into a continuing clock; leave out rows at another current; split the run into segments
- * at restarts and current changes; find (or take) the end of break-in; fit one common slope with a
- * separate intercept per segment on 1 h block means (a restart shifts V, it must not be fitted
- * through); widen the slope's standard error for lag-1 autocorrelation of the block residuals
- * (effective n = N·(1 − ρ)/(1 + ρ)) and take the t quantile with df = effective n − segments − 1.
- * Hours to loss are read only inside the data; beyond it the projected value is reported separately.
- * An open-circuit hold ('hold', current ≈ 0) goes through the same steps.
- * Reference: domain guide (degradation rate definition); Santer et al. (2000) J. Geophys. Res. 105,
- * 7337 (effective sample size); Draper & Smith, "Applied Regression Analysis" (common-slope model).
- * Cost: O(n) time (break-in search O(4n)); O(n) memory only when rows must be dropped or re-timed.
- * @throws RangeError when the curve is a polarization curve, has no time column, its arrays differ in
- *   length, or an option is out of range.
- * @example durabilityMetrics(curve).degradationRate // e.g. 8.1 (µV/h)
- */
-export function durabilityMetrics(curve: CurveData, options: DurabilityOptions = {}): DurabilityMetrics {
+/** The options, checked, with their defaults. */
+interface CheckedOptions {
+  lossFraction: number;
+  confidence: number;
+  blockHours: number;
+}
+
+/** Step 1: the curve and the options are usable, or a RangeError says which is not. */
+function checkOptions(curve: CurveData, options: DurabilityOptions): CheckedOptions & { tIn: Float64Array } {
   if (curve.kind !== 'durability' && curve.kind !== 'hold') {
     throw new RangeError(`durabilityMetrics: curve kind must be 'durability' or 'hold', got '${curve.kind}'`);
   }
@@ -161,11 +152,11 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
       throw new RangeError(`durabilityMetrics: a window needs finite fromHours < toHours, got ${window.fromHours} to ${window.toHours}`);
     }
   }
+  return { tIn, lossFraction, confidence, blockHours };
+}
 
-  const notes: string[] = [];
-  if (curve.kind === 'hold') notes.push('open-circuit hold: the rate is the loss of open-circuit voltage, fitted the same way');
-
-  // Rows with a non-finite value cannot be placed on the line; drop them and say so.
+/** Step 2: rows with a non-finite value cannot be placed on the line; drop them and say so. */
+function dropNonFiniteRows(curve: CurveData, tIn: Float64Array, notes: string[]): { t: Float64Array; v: Float64Array; j: Float64Array } {
   let t: Float64Array = tIn;
   let v: Float64Array = curve.v;
   let j: Float64Array = curve.j;
@@ -188,20 +179,24 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     }
     notes.push(`${tIn.length - finiteRows} rows with a missing or non-numeric value were left out`);
   }
+  return { t, v, j };
+}
+
+/** The result when no rate can be given: everything empty but the reason, the options and what is known of the run. */
+function noRate(t: Float64Array, options: DurabilityOptions, checked: CheckedOptions, notes: readonly string[], reason: string, breakInRule: string): DurabilityMetrics {
   const n = t.length;
-  const breakInRuleUser = 'set by the user';
-  const empty = (reason: string, breakInRule: string): DurabilityMetrics => ({
+  return {
     degradationRate: null,
     low: null,
     high: null,
-    confidence,
+    confidence: checked.confidence,
     breakInHours: options.breakInHours ?? (n > 0 ? t[0] : 0),
     breakInRule,
     breakInSource: options.breakInHours !== undefined ? 'user' : 'fallback',
     fitWindow: null,
     hoursRun: n > 1 ? t[n - 1] - t[0] : 0,
     voltageLossMv: null,
-    lossFraction,
+    lossFraction: checked.lossFraction,
     hoursToLoss: null,
     projectedHoursToLoss: null,
     windows: (options.windows ?? []).map((w) => ({ ...w, rate: null, low: null, high: null, n: 0 })),
@@ -214,12 +209,13 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     intervalAssumptions: INTERVAL_ASSUMPTIONS,
     method: '',
     notes: [...notes, reason],
-  });
-  if (n < 3) return empty(`degradation rate not computed: ${n} usable rows, at least 3 needed`, options.breakInHours !== undefined ? breakInRuleUser : '');
+  };
+}
 
-  const interruptions = detectInterruptions(t, v, j, options.interruptions);
-
-  // A time reset (a second run appended) becomes a continuing clock, so that hours keep adding up.
+/** Step 3: a time reset (a second run appended) becomes a continuing clock, so that hours keep adding up. */
+function continueClock(tIn: Float64Array, interruptions: Interruption[], notes: string[]): Float64Array {
+  let t = tIn;
+  const n = t.length;
   let hasReset = false;
   for (const event of interruptions) if (event.kind === 'restart' && event.voltageStep === null) hasReset = true;
   if (hasReset) {
@@ -245,10 +241,23 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
       }
     }
   }
-  const hoursRun = t[n - 1] - t[0];
+  return t;
+}
 
-  // Rows at another current do not belong to this constant-current line; restarts and the return
-  // from another current begin new segments.
+/** The rows the line is fitted to, and where its segments start (restarts, returns from another current). */
+interface FitRows {
+  tFit: Float64Array;
+  vFit: Float64Array;
+  segmentStarts: number[];
+  segmentKind: Map<number, 'restart' | 'current-change'>;
+}
+
+/**
+ * Step 4: rows at another current do not belong to this constant-current line; restarts and the
+ * return from another current begin new segments.
+ */
+function rowsToFit(t: Float64Array, v: Float64Array, interruptions: Interruption[], notes: string[]): FitRows {
+  const n = t.length;
   const excluded = new Uint8Array(n);
   const boundaryKind = new Map<number, 'restart' | 'current-change'>();
   let excludedRows = 0;
@@ -295,16 +304,20 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     }
     segmentStarts.sort((a, b) => a - b);
   }
-  for (const event of interruptions) notes.push(`${event.kind} at ${fmt(event.startHours, 1)} h: ${event.detail}`);
-  if (tFit.length < 3) return { ...empty('degradation rate not computed: fewer than 3 rows at the held current', ''), interruptions, hoursRun };
+  return { tFit, vFit, segmentStarts, segmentKind };
+}
 
-  // Break-in: the user's value wins; otherwise the moving-window rule; otherwise a stated fallback.
+const BREAK_IN_RULE_USER = 'set by the user';
+
+/** Step 5: break-in: the user's value wins; otherwise the moving-window rule; otherwise a stated fallback. */
+function chooseBreakIn(rows: FitRows, options: DurabilityOptions, blockHours: number, notes: string[]) {
+  const { tFit, vFit, segmentStarts } = rows;
   let breakInHours: number;
   let breakInRule: string;
   let breakInSource: DurabilityMetrics['breakInSource'];
   if (options.breakInHours !== undefined) {
     breakInHours = options.breakInHours;
-    breakInRule = breakInRuleUser;
+    breakInRule = BREAK_IN_RULE_USER;
     breakInSource = 'user';
   } else {
     const detected = detectBreakIn(tFit, vFit, { ...options.breakIn, segmentStarts, blockHours });
@@ -323,9 +336,18 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
       notes.push(`break-in rule not applied (${detected.note}); fitted from the first row`);
     }
   }
+  return { breakInHours, breakInRule, breakInSource };
+}
 
-  // A transient still under way at the chosen end biases the rate: move the end later (detected or
-  // fallback break-in) or warn (set by the user); when it never settles inside the run, give no rate.
+/**
+ * Step 6: a transient still under way at the chosen end biases the rate: move the end later
+ * (detected or fallback break-in) or warn (set by the user); stillSettling when it never settles
+ * inside the run (then no rate is given).
+ */
+function settleBreakIn(rows: FitRows, chosen: ReturnType<typeof chooseBreakIn>, blockHours: number, notes: string[]) {
+  const { tFit, vFit, segmentStarts } = rows;
+  let { breakInHours, breakInRule } = chosen;
+  const { breakInSource } = chosen;
   const transient = checkBreakInTransient(tFit, vFit, breakInHours, { blockHours, segmentStarts });
   const transientText = transient
     ? `a fitted break-in transient (${fmt(transient.amplitudeV * 1000, 1)} mV, time constant ${fmt(transient.tauHours, 0)} h) would bias a rate fitted from ` +
@@ -343,6 +365,119 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
       breakInRule += '; moved later to where a line-plus-exponential fit of the whole log shows the transient biasing the rate by at most half its standard error';
     }
   }
+  return { breakInHours, breakInRule, breakInSource, transient, transientText, stillSettling };
+}
+
+/** Step 8: each segment's own rate and its ends on the common-slope line. */
+function segmentsOf(trend: TrendFit, rows: FitRows, from: number, blockHours: number, confidence: number): DurabilitySegment[] {
+  const { tFit, vFit, segmentKind } = rows;
+  const slope = trend.slope;
+  return trend.segments.map((segment) => {
+    const alone = segment.points >= 3 ? fitTrend(tFit, vFit, { from: segment.fromIndex, to: segment.toIndex, blockHours, confidence }) : null;
+    return {
+      fromHours: segment.fromHours,
+      toHours: segment.toHours,
+      n: segment.points,
+      startedBy: segment.fromIndex === from ? 'start' : (segmentKind.get(segment.fromIndex) ?? 'start'),
+      ...rateOf(alone),
+      startV: segment.meanV + slope * (segment.fromHours - segment.meanT),
+      endV: segment.meanV + slope * (segment.toHours - segment.meanT),
+    };
+  });
+}
+
+/** Step 9: the straight line checked against its halves: a break-in still under way bends it. */
+function checkHalves(rows: FitRows, from: number, blockHours: number, confidence: number) {
+  const { tFit, vFit, segmentStarts } = rows;
+  let linearity: DurabilityMetrics['linearity'] = null;
+  const fitFromHours = tFit[from];
+  const fitToHours = tFit[tFit.length - 1];
+  const middle = lowerBound(tFit, fitFromHours + (fitToHours - fitFromHours) / 2);
+  const firstHalf = fitTrend(tFit, vFit, { from, to: middle, segmentStarts, blockHours, confidence });
+  const secondHalf = fitTrend(tFit, vFit, { from: middle, to: tFit.length, segmentStarts, blockHours, confidence });
+  if (firstHalf && secondHalf) {
+    const difference = firstHalf.slope - secondHalf.slope;
+    const standardError = Math.sqrt(firstHalf.slopeSE ** 2 + secondHalf.slopeSE ** 2);
+    const bent = Math.abs(difference) > Math.max(BEND_STANDARD_ERRORS * standardError, BEND_MIN_SLOPE);
+    // A settling transient: the voltage falls faster early on, or rises early on (conditioning gain).
+    const settling = bent && (firstHalf.slope < secondHalf.slope || firstHalf.slope > 0);
+    linearity = {
+      firstHalfRate: -firstHalf.slope * 1e6,
+      secondHalfRate: -secondHalf.slope * 1e6,
+      standardError: standardError * 1e6,
+      verdict: !bent ? 'straight' : settling ? 'still-in-break-in' : 'accelerating',
+    };
+  }
+  const halvesText = linearity
+    ? `first half of the fit window ${fmt(linearity.firstHalfRate, 1)} µV/h, second half ${fmt(linearity.secondHalfRate, 1)} µV/h (±${fmt(linearity.standardError, 1)} µV/h)`
+    : '';
+  return { linearity, halvesText, fitFromHours, fitToHours };
+}
+
+/** Step 10: hours to a stated loss, read off the fitted lines inside the data only; a projection beyond it is kept apart. */
+function hoursToLossOf(trend: TrendFit, segments: DurabilitySegment[], lossFraction: number, notes: string[]) {
+  const first = segments[0];
+  const slope = trend.slope;
+  const target = first.startV * (1 - lossFraction);
+  let hoursToLoss: number | null = null;
+  for (let s = 0; s < trend.segments.length && hoursToLoss === null; s++) {
+    const segment = segments[s];
+    if (segment.startV <= target) hoursToLoss = segment.fromHours;
+    else if (segment.endV <= target) hoursToLoss = trend.segments[s].meanT + (target - trend.segments[s].meanV) / slope;
+  }
+  let projectedHoursToLoss: DurabilityMetrics['projectedHoursToLoss'] = null;
+  if (hoursToLoss === null) {
+    if (slope < 0) {
+      const lastTrend = trend.segments[trend.segments.length - 1];
+      projectedHoursToLoss = { hours: lastTrend.meanT + (target - lastTrend.meanV) / slope, projected: true };
+      notes.push(
+        `${fmt(lossFraction * 100, 0)} % voltage loss not reached in the data; the straight line would reach it at ` +
+          `${fmt(projectedHoursToLoss.hours, 0)} h (projected — an extrapolation)`,
+      );
+    } else {
+      notes.push(`${fmt(lossFraction * 100, 0)} % voltage loss not reached, and the fitted voltage is not falling`);
+    }
+  }
+  return { hoursToLoss, projectedHoursToLoss };
+}
+
+/**
+ * Durability metrics: degradation rate = −slope of V against time after break-in, µV/h.
+ * Steps: drop rows with non-finite values; find interruptions (gaps, restarts, current changes); turn
+ * time resets into a continuing clock; leave out rows at another current; split the run into segments
+ * at restarts and current changes; find (or take) the end of break-in; fit one common slope with a
+ * separate intercept per segment on 1 h block means (a restart shifts V, it must not be fitted
+ * through); widen the slope's standard error for lag-1 autocorrelation of the block residuals
+ * (effective n = N·(1 − ρ)/(1 + ρ)) and take the t quantile with df = effective n − segments − 1.
+ * Hours to loss are read only inside the data; beyond it the projected value is reported separately.
+ * An open-circuit hold ('hold', current ≈ 0) goes through the same steps.
+ * Reference: degradation rate as −dV/dt after break-in (common practice in the trade); Santer et al. (2000) J. Geophys. Res. 105,
+ * 7337 (effective sample size); Draper & Smith, "Applied Regression Analysis" (common-slope model).
+ * Cost: O(n) time (break-in search O(4n)); O(n) memory only when rows must be dropped or re-timed.
+ * @throws RangeError when the curve is a polarization curve, has no time column, its arrays differ in
+ *   length, or an option is out of range.
+ * @example durabilityMetrics(curve).degradationRate // e.g. 8.1 (µV/h)
+ */
+export function durabilityMetrics(curve: CurveData, options: DurabilityOptions = {}): DurabilityMetrics {
+  const checked = checkOptions(curve, options);
+  const { tIn, lossFraction, confidence, blockHours } = checked;
+  const notes: string[] = [];
+  if (curve.kind === 'hold') notes.push('open-circuit hold: the rate is the loss of open-circuit voltage, fitted the same way');
+  const rowsIn = dropNonFiniteRows(curve, tIn, notes);
+  const { v, j } = rowsIn;
+  const n = rowsIn.t.length;
+  const empty = (reason: string, breakInRule: string) => noRate(rowsIn.t, options, checked, notes, reason, breakInRule);
+  if (n < 3) return empty(`degradation rate not computed: ${n} usable rows, at least 3 needed`, options.breakInHours !== undefined ? BREAK_IN_RULE_USER : '');
+
+  const interruptions = detectInterruptions(rowsIn.t, v, j, options.interruptions);
+  const t = continueClock(rowsIn.t, interruptions, notes);
+  const hoursRun = t[n - 1] - t[0];
+  const rows = rowsToFit(t, v, interruptions, notes);
+  const { tFit, vFit, segmentStarts } = rows;
+  for (const event of interruptions) notes.push(`${event.kind} at ${fmt(event.startHours, 1)} h: ${event.detail}`);
+  if (tFit.length < 3) return { ...empty('degradation rate not computed: fewer than 3 rows at the held current', ''), interruptions, hoursRun };
+
+  const { breakInHours, breakInRule, breakInSource, transient, transientText, stillSettling } = settleBreakIn(rows, chooseBreakIn(rows, options, blockHours, notes), blockHours, notes);
   if (stillSettling) {
     const fitFrom = lowerBound(tFit, breakInHours);
     notes.push(`still in break-in: ${transientText}, and it does not fade enough before the end of the run; no degradation rate is given`);
@@ -380,19 +515,7 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
   }
 
   const { rate, low, high } = rateOf(trend);
-  const slope = trend.slope;
-  const segments: DurabilitySegment[] = trend.segments.map((segment) => {
-    const alone = segment.points >= 3 ? fitTrend(tFit, vFit, { from: segment.fromIndex, to: segment.toIndex, blockHours, confidence }) : null;
-    return {
-      fromHours: segment.fromHours,
-      toHours: segment.toHours,
-      n: segment.points,
-      startedBy: segment.fromIndex === from ? 'start' : (segmentKind.get(segment.fromIndex) ?? 'start'),
-      ...rateOf(alone),
-      startV: segment.meanV + slope * (segment.fromHours - segment.meanT),
-      endV: segment.meanV + slope * (segment.toHours - segment.meanT),
-    };
-  });
+  const segments = segmentsOf(trend, rows, from, blockHours, confidence);
   const first = segments[0];
   const last = segments[segments.length - 1];
   const voltageLossMv = (first.startV - last.endV) * 1000;
@@ -405,29 +528,7 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     );
   }
 
-  // The straight line checked against its halves: a break-in still under way bends it.
-  let linearity: DurabilityMetrics['linearity'] = null;
-  const fitFromHours = tFit[from];
-  const fitToHours = tFit[tFit.length - 1];
-  const middle = lowerBound(tFit, fitFromHours + (fitToHours - fitFromHours) / 2);
-  const firstHalf = fitTrend(tFit, vFit, { from, to: middle, segmentStarts, blockHours, confidence });
-  const secondHalf = fitTrend(tFit, vFit, { from: middle, to: tFit.length, segmentStarts, blockHours, confidence });
-  if (firstHalf && secondHalf) {
-    const difference = firstHalf.slope - secondHalf.slope;
-    const standardError = Math.sqrt(firstHalf.slopeSE ** 2 + secondHalf.slopeSE ** 2);
-    const bent = Math.abs(difference) > Math.max(BEND_STANDARD_ERRORS * standardError, BEND_MIN_SLOPE);
-    // A settling transient: the voltage falls faster early on, or rises early on (conditioning gain).
-    const settling = bent && (firstHalf.slope < secondHalf.slope || firstHalf.slope > 0);
-    linearity = {
-      firstHalfRate: -firstHalf.slope * 1e6,
-      secondHalfRate: -secondHalf.slope * 1e6,
-      standardError: standardError * 1e6,
-      verdict: !bent ? 'straight' : settling ? 'still-in-break-in' : 'accelerating',
-    };
-  }
-  const halvesText = linearity
-    ? `first half of the fit window ${fmt(linearity.firstHalfRate, 1)} µV/h, second half ${fmt(linearity.secondHalfRate, 1)} µV/h (±${fmt(linearity.standardError, 1)} µV/h)`
-    : '';
+  const { linearity, halvesText, fitFromHours, fitToHours } = checkHalves(rows, from, blockHours, confidence);
   if (linearity?.verdict === 'accelerating') notes.push(`the loss accelerates: ${halvesText}; the rate is the average over the fit window`);
   if (linearity?.verdict === 'still-in-break-in') {
     notes.push(
@@ -453,27 +554,7 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
     };
   }
 
-  // Hours to a stated loss, read off the fitted lines inside the data only.
-  const target = first.startV * (1 - lossFraction);
-  let hoursToLoss: number | null = null;
-  for (let s = 0; s < trend.segments.length && hoursToLoss === null; s++) {
-    const segment = segments[s];
-    if (segment.startV <= target) hoursToLoss = segment.fromHours;
-    else if (segment.endV <= target) hoursToLoss = trend.segments[s].meanT + (target - trend.segments[s].meanV) / slope;
-  }
-  let projectedHoursToLoss: DurabilityMetrics['projectedHoursToLoss'] = null;
-  if (hoursToLoss === null) {
-    if (slope < 0) {
-      const lastTrend = trend.segments[trend.segments.length - 1];
-      projectedHoursToLoss = { hours: lastTrend.meanT + (target - lastTrend.meanV) / slope, projected: true };
-      notes.push(
-        `${fmt(lossFraction * 100, 0)} % voltage loss not reached in the data; the straight line would reach it at ` +
-          `${fmt(projectedHoursToLoss.hours, 0)} h (projected — an extrapolation)`,
-      );
-    } else {
-      notes.push(`${fmt(lossFraction * 100, 0)} % voltage loss not reached, and the fitted voltage is not falling`);
-    }
-  }
+  const { hoursToLoss, projectedHoursToLoss } = hoursToLossOf(trend, segments, lossFraction, notes);
 
   const seInflation = trend.slopeSE / trend.slopeSEUncorrected;
   notes.push(

@@ -12,7 +12,7 @@ export type { DownsampleOptions } from './downsample';
 export { generateSyntheticLog } from './synthetic-log';
 export type { SyntheticLogOptions } from './synthetic-log';
 export { writeDurabilityCsv, DURABILITY_CSV_HEADER } from './write-durability-csv';
-export { mulberry32, normalGenerator } from './seeded-random';
+export { mulberry32, normalGenerator } from '../stats/random';
 export { lowerBound, upperBound } from './sorted-search';
 export { TYPICAL_DEGRADATION_BAND } from './typical-band';
 export { checkBreakInTransient } from './break-in-transient';

@@ -1,7 +1,7 @@
 // Invented durability logs (voltage vs time at constant current) with a known degradation rate,
 // break-in, noise and optional restart / gap / current change — for tests and the demo seed.
 import type { CurveData } from '../curves/types';
-import { mulberry32, normalGenerator } from './seeded-random';
+import { mulberry32, normalGenerator } from '../stats/random';
 
 export interface SyntheticLogOptions {
   /** length of the run, h */

@@ -1,6 +1,7 @@
 // A short Levenberg–Marquardt least-squares solver over ml-matrix, for residual vectors with an
 // analytic Jacobian (complex impedance residuals are stacked as real and imaginary parts).
 import { Matrix, QrDecomposition, inverse } from 'ml-matrix';
+import { compensatedSumOfSquares } from '../stats/compensated-sum';
 
 export interface LeastSquaresProblem {
   /** starting parameter vector */
@@ -37,17 +38,7 @@ export interface LeastSquaresResult {
   atBound: number[];
 }
 
-function sumSquares(values: Float64Array): number {
-  let sum = 0;
-  let compensation = 0;
-  for (let i = 0; i < values.length; i++) {
-    const term = values[i] * values[i];
-    const next = sum + term;
-    compensation += sum >= term ? sum - next + term : term - next + sum;
-    sum = next;
-  }
-  return sum + compensation;
-}
+const sumSquares = compensatedSumOfSquares;
 
 function finite(values: Float64Array): boolean {
   for (let i = 0; i < values.length; i++) if (!Number.isFinite(values[i])) return false;

@@ -1,9 +1,10 @@
 // One line of text for a list of recipe changes, as people write change notes.
 import type { RecipeChange } from './recipe-diff';
+import { roundSignificantText, SETTING_DIGITS } from '../units/significant';
 
 function show(value: number | string | null): string {
   if (value === null) return '(none)';
-  if (typeof value === 'number') return Number(value.toPrecision(6)).toString();
+  if (typeof value === 'number') return roundSignificantText(value, SETTING_DIGITS);
   return value;
 }
 

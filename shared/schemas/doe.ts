@@ -1,6 +1,7 @@
 // Designed-experiment request schemas: generate a design, plan its runs as builds, fit a
 // response surface, propose the next builds, plan one proposal.
 import { z } from 'zod';
+import { responseFieldDescription } from '../curves/metric-catalogue';
 import type { DesignKind } from '../doe/designs/types';
 
 export const DESIGN_KINDS = ['full-factorial-2', 'fractional-factorial', 'full-factorial-3', 'central-composite', 'box-behnken', 'latin-hypercube'] as const satisfies readonly DesignKind[];
@@ -71,7 +72,7 @@ const modelSchema = z.union([
 
 /** POST /api/projects/:id/surface */
 export const surfaceRequestSchema = z.object({
-  response: z.string().min(1),
+  response: z.string().min(1).describe(responseFieldDescription()),
   /** a model, or "auto": the simplest adequate model the builds support, chosen by leave-one-out error */
   model: modelSchema.default('linear'),
   /** factor keys to fit over; default every factor of the project that can be estimated */

@@ -1,10 +1,11 @@
 // Query schemas of the gains waterfall and the lineage view: which response, along which builds.
 import { z } from 'zod';
+import { responseFieldDescription } from '../curves/metric-catalogue';
 
 /** the longest chain of builds a gains waterfall takes */
 export const MAX_CHAIN = 60;
 
-const responseKey = z.string().trim().min(1).max(64).default('vAtRef');
+const responseKey = z.string().trim().min(1).max(64).default('vAtRef').describe(responseFieldDescription());
 
 export const gainsQuery = z.object({
   response: responseKey,

@@ -1,5 +1,8 @@
-// A running sum whose rounding error does not grow with the number of terms (step averages,
-// Tafel fits and OCV means over long curves).
+// Neumaier's compensated summation, the one implementation: a running sum whose rounding error
+// does not grow with the number of terms (step averages, Tafel and trend fits, OCV means, model
+// predictions, sums of squared residuals). The class takes terms one at a time; the functions
+// below sum an array or a dot product with it.
+import { sum } from 'simple-statistics';
 
 /**
  * Neumaier's compensated sum, fed one term at a time: alongside the running sum it keeps the
@@ -22,4 +25,37 @@ export class CompensatedSum {
   value(): number {
     return this.sum + this.compensation;
   }
+}
+
+/**
+ * Compensated sum of an array: simple-statistics' sum, the same Neumaier (Kahan–Babuška)
+ * algorithm as CompensatedSum; 0 for an empty array.
+ * Cost: O(n).
+ * @example compensatedSum([1e16, 1, -1e16]) // 1
+ */
+export function compensatedSum(values: ArrayLike<number>): number {
+  return sum(values as number[]);
+}
+
+/**
+ * Compensated dot product Σ a_i·b_i of two equal-length vectors (the products are rounded once
+ * each, their sum is compensated).
+ * Cost: O(n).
+ * @example compensatedDot([1e16, 1, -1e16], [1, 1, 1]) // 1
+ */
+export function compensatedDot(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  const sum = new CompensatedSum();
+  for (let i = 0; i < a.length; i++) sum.add(a[i] * b[i]);
+  return sum.value();
+}
+
+/**
+ * Compensated Σ x_i² (sums of squared residuals).
+ * Cost: O(n).
+ * @example compensatedSumOfSquares([3, 4]) // 25
+ */
+export function compensatedSumOfSquares(values: ArrayLike<number>): number {
+  const sum = new CompensatedSum();
+  for (let i = 0; i < values.length; i++) sum.add(values[i] * values[i]);
+  return sum.value();
 }

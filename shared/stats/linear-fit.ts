@@ -1,5 +1,6 @@
 // Straight-line least-squares fit y = intercept + slope·x with standard errors, written to
 // stay accurate on long, offset data (durability logs: 10⁵–10⁶ points of ~0.6 V at hours 0–5000).
+import { CompensatedSum } from './compensated-sum';
 
 /** Result of a straight-line fit. */
 export interface LineFit {
@@ -62,79 +63,79 @@ export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>, range?: Inde
   if (n < 3) throw new RangeError(`fitLine: at least 3 points are needed, got ${n}`);
 
   // Pass 1: means with Neumaier compensation (also catches non-finite values).
-  let sumX = 0;
-  let compX = 0;
-  let sumY = 0;
-  let compY = 0;
+  const sumX = new CompensatedSum();
+  const sumY = new CompensatedSum();
   for (let i = from; i < to; i++) {
     const xi = x[i];
     const yi = y[i];
     if (!Number.isFinite(xi) || !Number.isFinite(yi)) {
       throw new RangeError(`fitLine: values must be finite numbers, got x[${i}] = ${xi}, y[${i}] = ${yi}`);
     }
-    let next = sumX + xi;
-    compX += Math.abs(sumX) >= Math.abs(xi) ? sumX - next + xi : xi - next + sumX;
-    sumX = next;
-    next = sumY + yi;
-    compY += Math.abs(sumY) >= Math.abs(yi) ? sumY - next + yi : yi - next + sumY;
-    sumY = next;
+    sumX.add(xi);
+    sumY.add(yi);
   }
-  const meanX0 = (sumX + compX) / n;
-  const meanY0 = (sumY + compY) / n;
+  const meanX0 = sumX.value() / n;
+  const meanY0 = sumY.value() / n;
 
   // Pass 2: centred sums. Σdx and Σdy are not exactly zero in floating point; their remainders
   // correct both the means and the sums of squares (Chan, Golub & LeVeque's corrected two-pass).
   let sdx = 0;
   let sdy = 0;
-  let sxx = 0;
-  let cxx = 0;
-  let sxy = 0;
-  let cxy = 0;
-  let syy = 0;
-  let cyy = 0;
+  const sxx = new CompensatedSum();
+  const sxy = new CompensatedSum();
+  const syy = new CompensatedSum();
   for (let i = from; i < to; i++) {
     const dx = x[i] - meanX0;
     const dy = y[i] - meanY0;
     sdx += dx;
     sdy += dy;
-    let term = dx * dx;
-    let next = sxx + term;
-    cxx += sxx >= term ? sxx - next + term : term - next + sxx;
-    sxx = next;
-    term = dx * dy;
-    next = sxy + term;
-    cxy += Math.abs(sxy) >= Math.abs(term) ? sxy - next + term : term - next + sxy;
-    sxy = next;
-    term = dy * dy;
-    next = syy + term;
-    cyy += syy >= term ? syy - next + term : term - next + syy;
-    syy = next;
+    sxx.add(dx * dx);
+    sxy.add(dx * dy);
+    syy.add(dy * dy);
   }
   const meanX = meanX0 + sdx / n;
   const meanY = meanY0 + sdy / n;
-  const Sxx = sxx + cxx - (sdx * sdx) / n;
-  const Sxy = sxy + cxy - (sdx * sdy) / n;
-  const Syy = syy + cyy - (sdy * sdy) / n;
+  const Sxx = sxx.value() - (sdx * sdx) / n;
+  const Sxy = sxy.value() - (sdx * sdy) / n;
+  const Syy = syy.value() - (sdy * sdy) / n;
   if (!(Sxx > 0)) throw new RangeError(`fitLine: x must not be constant, got all x = ${x[from]}`);
 
   const slope = Sxy / Sxx;
   const intercept = meanY - slope * meanX;
 
   // Pass 3: residuals summed directly (about the centred line, so no large offsets enter).
-  let rss = 0;
-  let crss = 0;
+  const residualSquares = new CompensatedSum();
   for (let i = from; i < to; i++) {
     const r = y[i] - meanY - slope * (x[i] - meanX);
-    const term = r * r;
-    const next = rss + term;
-    crss += rss >= term ? rss - next + term : term - next + rss;
-    rss = next;
+    residualSquares.add(r * r);
   }
-  rss += crss;
+  const rss = residualSquares.value();
 
   const residualSD = Math.sqrt(rss / (n - 2));
   const slopeSE = residualSD / Math.sqrt(Sxx);
   const interceptSE = residualSD * Math.sqrt(1 / n + (meanX * meanX) / Sxx);
   const r2 = Syy > 0 ? 1 - rss / Syy : 1;
   return { slope, intercept, slopeSE, interceptSE, residualSD, r2, n, meanX, meanY, sxx: Sxx, rss };
+}
+
+/**
+ * The least-squares slope alone, for callers that need no standard errors: fitLine's slope for
+ * three or more points, the two-point slope for two, null when x is constant, fewer than two
+ * points are given, or a value is not finite.
+ * Cost: O(n).
+ * @throws never.
+ * @example lineSlope([0, 1, 2], [1, 3, 5]) // 2
+ */
+export function lineSlope(x: ArrayLike<number>, y: ArrayLike<number>): number | null {
+  if (x.length !== y.length || x.length < 2) return null;
+  if (x.length === 2) {
+    const slope = (y[1] - y[0]) / (x[1] - x[0]);
+    return Number.isFinite(slope) ? slope : null;
+  }
+  try {
+    return fitLine(x, y).slope;
+  } catch (error) {
+    if (error instanceof RangeError) return null;
+    throw error;
+  }
 }

@@ -1,9 +1,12 @@
 // Numbers with their units, consistently: metric keys and method inputs know their label, display
 // unit, scale and digits, so no key, raw float or "undefined" reaches the screen. One formatter
 // (formatQuantity) serves metric values, method inputs and responses everywhere.
+import { CURVE_METRICS, CURVE_METRIC_KEYS } from '@shared/curves/metric-catalogue';
+import { roundSignificantText, SETTING_DIGITS } from '@shared/units/significant';
 export interface MetricInfo {
   key: string;
   label: string;
+  /** display unit */
   unit: string;
   /** multiply the stored value (internal units) by this for display */
   scale: number;
@@ -12,19 +15,13 @@ export interface MetricInfo {
   description: string;
 }
 
-export const METRICS: Record<string, MetricInfo> = {
-  vAtRef: { key: 'vAtRef', label: 'V at j_ref', unit: 'mV', scale: 1000, digits: 0, higherIsBetter: true, description: 'cell voltage interpolated at the reference current density' },
-  vAtRefIrFree: { key: 'vAtRefIrFree', label: 'iR-free V at j_ref', unit: 'mV', scale: 1000, digits: 0, higherIsBetter: true, description: 'V + j·HFR at the reference current density' },
-  jAtRef: { key: 'jAtRef', label: 'j at V_ref', unit: 'mA/cm²', scale: 1000, digits: 1, higherIsBetter: true, description: 'current density where the curve crosses the reference voltage' },
-  jAtRefIrFree: { key: 'jAtRefIrFree', label: 'iR-free j at V_ref', unit: 'mA/cm²', scale: 1000, digits: 1, higherIsBetter: true, description: 'current density where the iR-free curve crosses the reference voltage' },
-  massActivity: { key: 'massActivity', label: 'Mass activity', unit: 'A/g', scale: 1, digits: 2, higherIsBetter: true, description: 'j at V_ref divided by catalyst (or metal) loading' },
-  peakPower: { key: 'peakPower', label: 'Peak power', unit: 'mW/cm²', scale: 1000, digits: 0, higherIsBetter: true, description: 'highest j·V measured' },
-  ocv: { key: 'ocv', label: 'OCV', unit: 'mV', scale: 1000, digits: 0, higherIsBetter: true, description: 'voltage at open circuit' },
-  tafelSlope: { key: 'tafelSlope', label: 'Tafel slope', unit: 'mV/dec', scale: 1, digits: 1, higherIsBetter: false, description: 'dV/dlog10(j) on iR-free data in the kinetic window' },
-  hfr: { key: 'hfr', label: 'HFR', unit: 'mΩ·cm²', scale: 1000, digits: 0, higherIsBetter: false, description: 'median high-frequency resistance' },
-  degradationRate: { key: 'degradationRate', label: 'Degradation', unit: 'µV/h', scale: 1, digits: 1, higherIsBetter: false, description: 'voltage loss rate after break-in (positive = losing voltage)' },
-  breakInHours: { key: 'breakInHours', label: 'Break-in', unit: 'h', scale: 1, digits: 0, higherIsBetter: false, description: 'period excluded from the degradation fit' },
-};
+/** The client's format table, one row per catalogue metric (shared/curves/metric-catalogue.ts). */
+export const METRICS: Record<string, MetricInfo> = Object.fromEntries(
+  CURVE_METRIC_KEYS.map((key) => {
+    const m = CURVE_METRICS[key];
+    return [key, { key, label: m.label, unit: m.displayUnit, scale: m.scale, digits: m.digits, higherIsBetter: m.goal === 'maximize', description: m.description }];
+  }),
+);
 
 /** Method inputs and other named quantities that are not metrics (internal units as stored). */
 const INPUTS: Record<string, { label: string; unit?: string; scale?: number; digits?: number; kind?: 'yes-no' | 'count' | 'text' }> = {
@@ -167,7 +164,7 @@ export function fieldLabel(key: string, labels?: Record<string, string>): string
 export function formatFieldValue(value: unknown, labels?: Record<string, string>, depth = 0): string {
   if (value === null || value === undefined || value === '') return '—';
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
-  if (typeof value === 'number') return Number.isFinite(value) ? String(Number(value.toPrecision(6))) : '—';
+  if (typeof value === 'number') return Number.isFinite(value) ? roundSignificantText(value, SETTING_DIGITS) : '—';
   if (Array.isArray(value)) return value.map((v) => formatFieldValue(v, labels, depth + 1)).join(', ');
   if (typeof value === 'object') {
     if (depth > 1) return '…';

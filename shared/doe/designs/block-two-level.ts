@@ -4,7 +4,7 @@
 // two-factor interactions.
 import { DesignInputError } from './design-input-error';
 import { compareWords, wordLength, wordOfMask } from './factor-letters';
-import { mulberry32 } from '../random';
+import { mulberry32 } from '../../stats/random';
 import type { CorePoint, TwoLevelStructure } from './types';
 
 export interface TwoLevelBlocking {

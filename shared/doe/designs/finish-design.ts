@@ -12,7 +12,7 @@ import { MAX_DESIGN_RUNS, fullFactorial2 } from './full-factorial-2';
 import { fullFactorial3 } from './full-factorial-3';
 import { latinHypercube } from './latin-hypercube';
 import { checkDesignRequest } from './validate-design-request';
-import { deriveSeed, freshSeed, mulberry32, shuffle } from '../random';
+import { deriveSeed, freshSeed, mulberry32, shuffle } from '../../stats/random';
 import type { CheckedDesignRequest } from './validate-design-request';
 import type { CoreDesign, CorePoint, Design, DesignInfo, DesignRequest, DesignRun, PointType } from './types';
 

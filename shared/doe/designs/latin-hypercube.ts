@@ -3,8 +3,8 @@
 // criterion (make the smallest distance between two points as large as possible).
 import { DesignInputError } from './design-input-error';
 import { MAX_DESIGN_RUNS } from './full-factorial-2';
-import { mulberry32, shuffle } from '../random';
-import type { RandomSource } from '../random';
+import { mulberry32, shuffle } from '../../stats/random';
+import type { RandomSource } from '../../stats/random';
 import type { CoreDesign, CorePoint } from './types';
 
 export interface LatinHypercubeOptions {

@@ -3,9 +3,7 @@
 // activities, power and resistances cannot go below zero. A prediction past a limit is held at
 // the limit and flagged, never shown as a number to trust.
 import { reversibleCellVoltage } from './reversible-voltage';
-
-const VOLTAGES = new Set(['vAtRef', 'vAtRefIrFree', 'ocv']);
-const NON_NEGATIVE = new Set(['jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope', 'breakInHours']);
+import { metricLimit } from '../../curves/metric-catalogue';
 
 export interface LimitContext {
   /** response key (curve metric keys have known physics; others have no limits) */
@@ -57,7 +55,7 @@ export interface BoundedValue {
  */
 export function limitsAt(context: LimitContext, point: Record<string, number | string>): LimitAtPoint {
   const out: LimitAtPoint = { upper: null, lower: null, upperWhy: null, lowerWhy: null };
-  if (VOLTAGES.has(context.response)) {
+  if (metricLimit(context.response) === 'cell-voltage') {
     let temperature: number | null = null;
     if (context.cellTemperatureFactor && typeof point[context.cellTemperatureFactor] === 'number') temperature = point[context.cellTemperatureFactor] as number;
     else if (context.testTemperatureC != null && Number.isFinite(context.testTemperatureC)) temperature = context.testTemperatureC;
@@ -77,7 +75,7 @@ export function limitsAt(context: LimitContext, point: Record<string, number | s
       out.upperWhy = 'the highest open-circuit voltage measured';
     }
   }
-  if (NON_NEGATIVE.has(context.response)) {
+  if (metricLimit(context.response) === 'non-negative') {
     out.lower = 0;
     out.lowerWhy = 'zero';
   }

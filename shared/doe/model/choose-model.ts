@@ -5,7 +5,8 @@ import { DoeInputError } from './errors';
 import { encodePoint } from './encode';
 import { checkRows, resolveFactors, settingsKey } from './factors';
 import { termLabel } from './labels';
-import { compensatedSum, qrLeastSquares } from './numeric';
+import { qrLeastSquares } from './numeric';
+import { compensatedSum } from '../../stats/compensated-sum';
 import { buildModelTerms, modelRow, termName } from './terms';
 import type { Factor, ModelColumn, ModelTerm, Observation } from './types';
 

@@ -4,7 +4,8 @@ import { fUpperP, tTwoSidedP } from '../../stats/distributions';
 import { DoeInputError } from './errors';
 import { encodePoint } from './encode';
 import { checkRows, resolveFactors, rowPlace, settingsKey } from './factors';
-import { compensatedDot, compensatedSum, qrLeastSquares } from './numeric';
+import { qrLeastSquares } from './numeric';
+import { compensatedDot, compensatedSum } from '../../stats/compensated-sum';
 import { buildModelTerms, modelRow } from './terms';
 import { columnLabel, factorName, termLabel } from './labels';
 import type {
@@ -96,23 +97,50 @@ function describeRows(indices: number[], rows: Observation[]): string {
   return indices.length > 6 ? `${shown.join('; ')} and ${indices.length - 6} more` : shown.join('; ');
 }
 
-/**
- * Fits a response-surface model by least squares.
- * Definition: continuous factors are coded −1…+1 over low/high (data min/max when not
- * given), categorical factors are treatment coded; coefficients come from a Householder QR
- * of the coded model matrix (never the normal equations), (XᵀX)⁻¹ = R⁻¹R⁻ᵀ. Actual-unit
- * coefficients and their standard errors follow exactly from the linear map that expands the
- * coded polynomial. ANOVA: model/residual about the mean; lack of fit = residual − pure error,
- * pure error from the spread within groups of runs with identical settings; partial SS per
- * term. PRESS = Σ(eᵢ/(1 − hᵢᵢ))², predicted R² = 1 − PRESS/SS_total.
- * Reference: Montgomery, Design and Analysis of Experiments, ch. 10–11; Myers, Montgomery &
- * Anderson-Cook, Response Surface Methodology, ch. 2–3; NIST/SEMATECH e-Handbook §4.4.
- * Cost: O(n·p²) for n runs and p model columns.
- * @throws DoeInputError: 'invalid-factor', 'invalid-row', 'invalid-model', or 'too-few-runs'
- *   when there are no more runs than model columns (n ≤ p).
- * @example fitSurface({ factors, rows, model: 'quadratic' }).coefficients[1].coded
- */
-export function fitSurface(input: FitSurfaceInput): SurfaceFit {
+/** The runs as the fit sees them: resolved factors, model columns, coded rows and replicate groups. */
+interface Design {
+  input: FitSurfaceInput;
+  rows: Observation[];
+  responseKey: string | undefined;
+  factors: ResolvedFactor[];
+  built: ReturnType<typeof buildModelTerms>;
+  columns: ModelColumn[];
+  warnings: string[];
+  n: number;
+  p: number;
+  encodedRows: ReturnType<typeof encodePoint>[];
+  x: number[][];
+  y: number[];
+  /** run indices by identical factor settings */
+  groups: Map<string, number[]>;
+  distinctRuns: number;
+}
+
+/** The least-squares solution and what follows from it directly. */
+interface Solved {
+  estimated: number[];
+  aliased: number[];
+  beta: number[];
+  rInverse: number[][];
+  rank: number;
+  predicted: number[];
+  residuals: number[];
+  ssTotal: number;
+  ssResidual: number;
+  dfResidual: number;
+  mse: number;
+  dfModel: number;
+  ssModel: number;
+  /** (XᵀX)⁻¹ of the estimated columns */
+  cov: number[][];
+  leverage: number[];
+  press: number | null;
+  /** model column → its position among the estimated columns */
+  positionOf: Map<number, number>;
+}
+
+/** Step 1: check the input, build the model columns, code the runs and group replicates. */
+function prepareDesign(input: FitSurfaceInput): Design {
   if (!input || typeof input !== 'object') {
     throw new DoeInputError('invalid-row', 'fitSurface: input must be an object { factors, rows, model } (input)');
   }
@@ -149,7 +177,12 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
   if (distinctRuns < p) {
     warnings.push(`Only ${distinctRuns} distinct factor settings for ${p} model columns: the model cannot be fully estimated; use a smaller model or add runs.`);
   }
+  return { input, rows, responseKey, factors, built, columns, warnings, n, p, encodedRows, x, y, groups, distinctRuns };
+}
 
+/** Step 2: Householder QR with rank checks; residuals, sums of squares, (XᵀX)⁻¹, leverages and PRESS. */
+function solve(design: Design): Solved {
+  const { factors, columns, warnings, n, x, y } = design;
   const ls = qrLeastSquares(x, y);
   const { estimated, aliased, beta, rInverse } = ls;
   const rank = estimated.length;
@@ -207,13 +240,18 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     pressTerms.push(deleted * deleted);
   }
   if (press !== null) press = compensatedSum(pressTerms);
-
-  // coded coefficients, SEs, t, p, VIF; aliased columns are reported with coded 0
-  const codedAll = new Array<number>(p).fill(0);
   const positionOf = new Map<number, number>();
+  estimated.forEach((j, position) => positionOf.set(j, position));
+  return { estimated, aliased, beta, rInverse, rank, predicted, residuals, ssTotal, ssResidual, dfResidual, mse, dfModel, ssModel, cov, leverage, press, positionOf };
+}
+
+/** Step 3: coded and actual-unit coefficients with SEs, t, p and VIF; aliased columns reported with coded 0. */
+function coefficientTable(design: Design, solved: Solved): Coefficient[] {
+  const { factors, columns, warnings, n, p, x } = design;
+  const { estimated, beta, rInverse, rank, dfResidual, mse, cov, positionOf } = solved;
+  const codedAll = new Array<number>(p).fill(0);
   estimated.forEach((j, position) => {
     codedAll[j] = beta[position];
-    positionOf.set(j, position);
   });
   const map = codedToActualMap(factors, columns);
   const coefficients: Coefficient[] = [];
@@ -267,7 +305,13 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
   if (highVif.length > 0) {
     warnings.push(`Variance inflation above ${VIF_LIMIT} (correlated terms, unstable coefficients): ${highVif.join(', ')}.`);
   }
+  return coefficients;
+}
 
+/** Step 4: partial (adjusted) SS of each term given all others. */
+function termRowsOf(design: Design, solved: Solved): AnovaTermRow[] {
+  const { factors, built, columns, n, p, x, y } = design;
+  const { estimated, beta, ssResidual, dfResidual, mse, cov, positionOf } = solved;
   // partial (adjusted) SS of each term given all others: b_Tᵀ (C_TT)⁻¹ b_T
   const termRows: AnovaTermRow[] = [];
   for (const term of built.terms) {
@@ -298,7 +342,13 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
     const f = ms / mse;
     termRows.push({ term: term.name, label: termLabel(factors, term), ss, df, ms, f: finiteOrNull(f), p: Number.isFinite(f) ? fUpperP(f, df, dfResidual) : null });
   }
+  return termRows;
+}
 
+/** Step 5: the ANOVA table: model, residual, total, terms, and pure error / lack of fit from replicates. */
+function anovaOf(design: Design, solved: Solved, termRows: AnovaTermRow[]): Anova {
+  const { warnings, n, y, groups } = design;
+  const { ssTotal, ssResidual, dfResidual, mse, dfModel, ssModel } = solved;
   const fModel = dfModel > 0 ? ssModel / dfModel / mse : NaN;
   const anova: Anova = {
     model: {
@@ -344,8 +394,13 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
   } else {
     warnings.push('No replicated settings: pure error and lack of fit cannot be separated (replicate a centre point to test lack of fit).');
   }
+  return anova;
+}
 
-  // leverage, range and data-quality warnings
+/** Step 6: leverage, coverage of the ranges, units, blocks and degenerate-response warnings. */
+function addDataWarnings(design: Design, solved: Solved): void {
+  const { rows, factors, warnings, n, encodedRows } = design;
+  const { rank, ssTotal, ssResidual, leverage, press } = solved;
   const leverageLimit = (2 * rank) / n;
   if (leverageLimit < 1) {
     const high: number[] = [];
@@ -379,7 +434,32 @@ export function fitSurface(input: FitSurfaceInput): SurfaceFit {
   if (blocks.size > 1) warnings.push(`The runs carry ${blocks.size} blocks; block effects are not part of this model.`);
   if (ssTotal === 0) warnings.push('The response does not vary across the builds: nothing to model.');
   if (ssResidual === 0 && ssTotal > 0) warnings.push('The residual error is zero: the model reproduces every run exactly, so standard errors and tests are not meaningful.');
+}
 
+/**
+ * Fits a response-surface model by least squares.
+ * Definition: continuous factors are coded −1…+1 over low/high (data min/max when not
+ * given), categorical factors are treatment coded; coefficients come from a Householder QR
+ * of the coded model matrix (never the normal equations), (XᵀX)⁻¹ = R⁻¹R⁻ᵀ. Actual-unit
+ * coefficients and their standard errors follow exactly from the linear map that expands the
+ * coded polynomial. ANOVA: model/residual about the mean; lack of fit = residual − pure error,
+ * pure error from the spread within groups of runs with identical settings; partial SS per
+ * term. PRESS = Σ(eᵢ/(1 − hᵢᵢ))², predicted R² = 1 − PRESS/SS_total.
+ * Reference: Montgomery, Design and Analysis of Experiments, ch. 10–11; Myers, Montgomery &
+ * Anderson-Cook, Response Surface Methodology, ch. 2–3; NIST/SEMATECH e-Handbook §4.4.
+ * Cost: O(n·p²) for n runs and p model columns.
+ * @throws DoeInputError: 'invalid-factor', 'invalid-row', 'invalid-model', or 'too-few-runs'
+ *   when there are no more runs than model columns (n ≤ p).
+ * @example fitSurface({ factors, rows, model: 'quadratic' }).coefficients[1].coded
+ */
+export function fitSurface(input: FitSurfaceInput): SurfaceFit {
+  const design = prepareDesign(input);
+  const solved = solve(design);
+  const coefficients = coefficientTable(design, solved);
+  const anova = anovaOf(design, solved, termRowsOf(design, solved));
+  addDataWarnings(design, solved);
+  const { responseKey, factors, built, columns, warnings, n, groups, distinctRuns } = design;
+  const { estimated, rInverse, beta, residuals, predicted, ssTotal, ssResidual, dfResidual, mse, leverage, press } = solved;
   const r2 = ssTotal > 0 ? 1 - ssResidual / ssTotal : 0;
   const adjR2 = ssTotal > 0 ? 1 - (ssResidual / dfResidual) / (ssTotal / (n - 1)) : 0;
   const predR2 = press !== null && ssTotal > 0 ? 1 - press / ssTotal : null;

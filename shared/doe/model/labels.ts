@@ -1,6 +1,7 @@
 // Words for factors, terms and model columns as a person reads them ("PTFE binder × Cell
 // temperature", "GDL: carbon paper", "PTFE binder²"), never the keys the code uses.
 import type { Factor, ModelColumn, ModelTerm, ResolvedFactor } from './types';
+import { roundSignificantText, TEXT_DIGITS } from '../../units/significant';
 
 type Named = Pick<Factor | ResolvedFactor, 'key' | 'label' | 'unit'>;
 
@@ -49,8 +50,6 @@ export function termLabel(factors: Named[], term: Pick<ModelTerm, 'powers'>): st
 }
 
 /** A number with at most `digits` significant digits and no float noise, for sentences. Cost: O(1). */
-export function roundForText(value: number, digits = 4): string {
-  if (!Number.isFinite(value)) return String(value);
-  if (value === 0) return '0';
-  return String(Number(value.toPrecision(digits)));
+export function roundForText(value: number, digits = TEXT_DIGITS): string {
+  return roundSignificantText(value, digits);
 }

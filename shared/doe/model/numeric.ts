@@ -1,38 +1,6 @@
-// Small numerical helpers for the model code: compensated sums and dot products, the
+// Small numerical helpers for the model code: the compensated sums of shared/stats, the
 // QR least-squares solve with rank detection, and triangular inverses.
 import { Matrix, QrDecomposition } from 'ml-matrix';
-
-/**
- * Neumaier's compensated sum: like Kahan's, but also exact when a new term is larger than
- * the running sum. Reference: Neumaier (1974), ZAMM 54, 39–51. Cost: O(n).
- * @example compensatedSum([1e16, 1, -1e16]) // 1
- */
-export function compensatedSum(values: ArrayLike<number>): number {
-  let sum = 0;
-  let compensation = 0;
-  for (let i = 0; i < values.length; i++) {
-    const value = values[i];
-    const t = sum + value;
-    if (Math.abs(sum) >= Math.abs(value)) compensation += sum - t + value;
-    else compensation += value - t + sum;
-    sum = t;
-  }
-  return sum + compensation;
-}
-
-/** Compensated dot product of two equal-length vectors. Cost: O(n). */
-export function compensatedDot(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  let sum = 0;
-  let compensation = 0;
-  for (let i = 0; i < a.length; i++) {
-    const value = a[i] * b[i];
-    const t = sum + value;
-    if (Math.abs(sum) >= Math.abs(value)) compensation += sum - t + value;
-    else compensation += value - t + sum;
-    sum = t;
-  }
-  return sum + compensation;
-}
 
 /** Inverse of an upper-triangular matrix by back substitution. Cost: O(p³/3). */
 export function upperTriangularInverse(r: number[][]): number[][] {

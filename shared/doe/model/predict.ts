@@ -1,6 +1,7 @@
 // Prediction from a fitted surface at a point given in actual units, with 95 % confidence and
 // prediction intervals, and the extrapolation check used by plots and proposals.
 import { tQuantile } from '../../stats/distributions';
+import { CompensatedSum } from '../../stats/compensated-sum';
 import { encodePoint } from './encode';
 import { modelRow } from './terms';
 import { factorName, roundForText } from './labels';
@@ -32,16 +33,9 @@ export function rowLeverage(basis: FitBasis, row: number[]): number {
 
 /** Fitted value of a model row: estimated columns times their coded coefficients. */
 export function rowValue(basis: FitBasis, row: number[]): number {
-  let sum = 0;
-  let compensation = 0;
-  for (let a = 0; a < basis.estimated.length; a++) {
-    const value = row[basis.estimated[a]] * basis.beta[a];
-    const t = sum + value;
-    if (Math.abs(sum) >= Math.abs(value)) compensation += sum - t + value;
-    else compensation += value - t + sum;
-    sum = t;
-  }
-  return sum + compensation;
+  const sum = new CompensatedSum();
+  for (let a = 0; a < basis.estimated.length; a++) sum.add(row[basis.estimated[a]] * basis.beta[a]);
+  return sum.value();
 }
 
 /**

@@ -1,6 +1,6 @@
 // How far to trust a fitted surface, in the response's own unit: how well it predicts a build
 // it has not seen (leave-one-out), against how much builds of the same recipe differ.
-import { compensatedSum } from './numeric';
+import { compensatedSum } from '../../stats/compensated-sum';
 import type { SurfaceFit } from './types';
 
 /**

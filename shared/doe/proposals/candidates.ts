@@ -86,7 +86,7 @@ function levelCombinations(levelChoices: string[][], random: () => number): stri
  * Reference: candidate-set approach of exchange algorithms, Atkinson, Donev & Tobias,
  * Optimum Experimental Designs, with SAS (2007), ch. 12.
  * Cost: O((2^d + 400 + 40·d)·L) candidates for L level combinations.
- * @example candidateSet({ dimensions: 2, levelChoices: [['paper', 'cloth']] }, seededUniform(1)).length
+ * @example candidateSet({ dimensions: 2, levelChoices: [['paper', 'cloth']] }, mulberry32(1)).length
  */
 export function candidateSet(plan: CandidatePlan, random: () => number): Candidate[] {
   const { dimensions, levelChoices } = plan;

@@ -10,4 +10,3 @@ export {
   type ProposalKind,
 } from './propose';
 export { candidateSet, type Candidate, type CandidatePlan } from './candidates';
-export { seededUniform } from './prng';

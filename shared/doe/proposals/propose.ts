@@ -16,7 +16,7 @@ import { checkSupport, type SupportCheck } from '../model/trust-region';
 import type { Factor, ResolvedFactor, SurfaceFit } from '../model/types';
 import { boundPrediction, limitsAt, type BoundedValue, type LimitContext } from '../limits/response-limits';
 import { candidateSet, type Candidate } from './candidates';
-import { seededUniform } from './prng';
+import { mulberry32 } from '../../stats/random';
 
 export type ProposalGoal = 'maximize' | 'minimize' | { target: number };
 export type ProposalStrategy = 'exploit' | 'explore' | 'balance';
@@ -277,7 +277,7 @@ export function proposeBuilds(input: ProposeInput): Proposal[] {
   const space = searchSpace(fit, input.factors, constraints, input.hold ?? {});
   const freeContinuous = space.filter((entry) => entry.kind === 'continuous' && entry.fixed === undefined && entry.max > entry.min);
   const freeCategorical = space.filter((entry) => entry.kind === 'categorical' && entry.levels.length > 1);
-  const random = seededUniform(input.seed ?? 1);
+  const random = mulberry32(input.seed ?? 1);
   const plan = { dimensions: freeContinuous.length, levelChoices: freeCategorical.map((entry) => entry.levels) };
   const candidates = candidateSet(plan, random);
   // a second set over the part of the allowed box the builds span, so the trust region is

@@ -14,6 +14,10 @@ import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/
 import { Button } from '@/components/ui/button';
 import { METRICS, formatMetric, formatNumber } from '@/lib/format';
 import { comparedCurvesCsv } from '@/features/curves/components/compare-csv';
+import type { CurveMetricKey } from '@shared/curves/metric-catalogue';
+
+/** The metrics side by side in the comparison table (catalogue keys, catalogue order). */
+const COMPARED_METRICS: CurveMetricKey[] = ['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope'];
 
 /** The conditions the chosen builds share, or their spread ("160–180 °C"). */
 function sharedConditions(all: (TestConditions | null | undefined)[], settings: { refCurrentDensity: number; refVoltage: number }): string {
@@ -99,10 +103,10 @@ export default function ComparePage() {
           {ids.length > 0 && (
             <Panel title="Metrics at the project reference point">
               <table className="w-full text-sm">
-                <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Build</th>{['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope'].map((k) => <th key={k}>{METRICS[k]!.label}</th>)}</tr></thead>
+                <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Build</th>{COMPARED_METRICS.map((k) => <th key={k}>{METRICS[k]!.label}</th>)}</tr></thead>
                 <tbody className="divide-y divide-line">
                   {details.map((d) => d.data && (
-                    <tr key={d.data.build.id}><td className="py-1 font-medium">{d.data.build.code}</td>{['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope'].map((k) => <td key={k} className="num">{formatMetric(k, d.data!.build.values[k])}</td>)}</tr>
+                    <tr key={d.data.build.id}><td className="py-1 font-medium">{d.data.build.code}</td>{COMPARED_METRICS.map((k) => <td key={k} className="num">{formatMetric(k, d.data!.build.values[k])}</td>)}</tr>
                   ))}
                 </tbody>
               </table>

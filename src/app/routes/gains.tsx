@@ -13,12 +13,10 @@ import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/
 import { Field, Select } from '@/components/ui/field';
 import { formatNumber, responseDisplay } from '@/lib/format';
 import type { Build, ProjectSettings } from '@shared/api-types';
+import { referenceConditions } from '@shared/curves/metric-catalogue';
 
 function conditionsText(responseKey: string, settings: ProjectSettings, chainBuilds: Build[]): string {
-  const parts: string[] = [];
-  if (responseKey.startsWith('vAtRef')) parts.push(`at j_ref = ${formatNumber(settings.refCurrentDensity, 2)} A/cm²${responseKey === 'vAtRefIrFree' ? ', iR-free' : ''}`);
-  if (responseKey.startsWith('jAtRef') || responseKey === 'massActivity') parts.push(`at V_ref = ${formatNumber(settings.refVoltage, 2)} V${settings.irFree || responseKey.endsWith('IrFree') ? ', iR-free' : ''}`);
-  if (responseKey === 'massActivity') parts.push(`per g of ${settings.loadingBasis === 'metal' ? 'metal' : 'catalyst'}`);
+  const parts = referenceConditions(responseKey, settings, formatNumber);
   const temps = chainBuilds.map((b) => b.testConditions?.temperatureC).filter((t): t is number => typeof t === 'number');
   if (temps.length) {
     const lo = Math.min(...temps), hi = Math.max(...temps);

@@ -1,8 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { circuitImpedance, fitCircuit, SpectrumFitError, CIRCUIT_PARAMETERS } from '../../../shared/impedance';
 import type { CircuitParameters } from '../../../shared/impedance';
-import { mulberry32 } from '../../../shared/stats/mulberry32';
-import { normalGenerator } from '../../../shared/durability/seeded-random';
+import { mulberry32, normalGenerator } from '../../../shared/stats/random';
 import * as Scipy from './scipy-fixture';
 
 const FREQUENCIES = Array.from({ length: 61 }, (_, k) => 1e5 * Math.pow(10, -k / 10)); // 100 kHz → 0.1 Hz, 10 per decade

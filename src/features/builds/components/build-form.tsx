@@ -10,6 +10,7 @@ import { Button } from '@/components/ui/button';
 import { ErrorNote, Panel, SafetyNote } from '@/components/ui/panel';
 import { ApiError } from '@/lib/api-client';
 import { useEffect } from 'react';
+import { isFlammableFuel } from '@shared/builds/flammable-fuel';
 
 const num = (v: unknown) => (v === '' || v == null || (typeof v === 'number' && Number.isNaN(v)) ? undefined : Number(v));
 
@@ -55,9 +56,7 @@ export function buildToForm(b: Build): FormValues {
   };
 }
 
-function mentionsFuel(gas: string | null | undefined) {
-  return /h2|hydrogen|methanol|meoh|dme|dimethyl|reformate|co\b/i.test(gas ?? '');
-}
+const mentionsFuel = isFlammableFuel;
 
 export function BuildForm({ factors, responses, labs, builds, initial, lockLabId, submitLabel, onSubmit, pending, serverError }: {
   factors: FactorDef[];

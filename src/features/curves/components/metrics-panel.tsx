@@ -4,10 +4,12 @@ import { useMemo, useState } from 'react';
 import type { CurvePoints, CurveSummary, ProjectSettings } from '@shared/api-types';
 import type { CurveMetrics, MetricsResult } from '@shared/curves/types';
 import { polarizationMetrics } from '@shared/curves';
+import { metricsOfKind } from '@shared/curves/metric-catalogue';
 import { METRICS, formatMetric, formatNumber, formatQuantity } from '@/lib/format';
 import { Hint } from '@/components/ui/hint';
 
-const ORDER = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'] as const;
+/** Catalogue order of the metrics a polarization curve carries. */
+const ORDER = metricsOfKind('polarization');
 
 /** How a metric was obtained, for people: the method, its inputs with units, the reference point. */
 export function methodText(result: Pick<MetricsResult, 'method' | 'metricNotes'>, key: string, settings: ProjectSettings) {

@@ -1,20 +1,11 @@
 // How a response is shown: curve metrics in their display units (mV, mA/cm², …), hand-entered
 // responses in their own unit. The API works in internal units (V, A/cm²); we scale at the edge.
-import { METRICS, formatNumber } from '@/lib/format';
-import type { ResponseInfo } from '../api/surface';
+import { formatNumber, responseDisplay, type ResponseDisplay } from '@/lib/format';
 
-export interface Display {
-  label: string;
-  unit: string;
-  scale: number;
-  digits: number;
-}
+export type Display = ResponseDisplay;
 
-export function displayOf(response: Pick<ResponseInfo, 'key' | 'label' | 'unit'>): Display {
-  const metric = METRICS[response.key];
-  if (metric) return { label: metric.label, unit: metric.unit, scale: metric.scale, digits: metric.digits };
-  return { label: response.label, unit: response.unit, scale: 1, digits: 3 };
-}
+/** A response's display: the one rule of the format table (responseDisplay). */
+export const displayOf = responseDisplay;
 
 /** A value in display units with its unit. */
 export function show(value: number | null | undefined, d: Display, extraDigits = 0): string {

@@ -12,10 +12,11 @@ import { ErrorNote, SafetyNote } from '@/components/ui/panel';
 import { ApiError } from '@/lib/api-client';
 import { useProposals, usePlanProposal, type ProposalItem, type SurfaceRequest, type SurfaceResult } from '../api/surface';
 import { displayOf, show, showSetting, showSpread } from './display';
+import { roundSignificant, SETTING_DIGITS } from '@shared/units/significant';
 
-/** A proposal's setting rounded for a lab sheet, kept inside the factor's bounds. */
+/** A proposal's setting rounded for a lab sheet by the stored-setting rule, kept inside the factor's bounds. */
 function roundInside(value: number, f: FactorDef): number {
-  const rounded = Number(value.toPrecision(5));
+  const rounded = roundSignificant(value, SETTING_DIGITS);
   return Math.min(f.high ?? Infinity, Math.max(f.low ?? -Infinity, rounded));
 }
 

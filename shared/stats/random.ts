@@ -1,7 +1,14 @@
-// Seeded pseudo-random numbers for designed experiments: the same seed must give the same
-// Latin hypercube and the same run order on the server, in the browser and in a year's time,
-// so Math.random (unseeded, engine-specific) is never used for anything that is stored.
-import { mulberry32 as uniformFromSeed } from '../stats/mulberry32';
+// Seeded pseudo-random numbers, one generator and one seed rule for the whole code base:
+// designed experiments (Latin hypercubes, D-optimal starts, run order), proposals, Monte Carlo
+// checks, synthetic curves and durability logs, the demo seed and the tests all draw from it, so a
+// seed gives the same numbers on the server, in the browser and in a year's time. Math.random
+// (unseeded, engine-specific) is never used for anything that is stored or compared.
+//
+// Seed rule: a seed is an integer (any sign); it is reduced modulo 2³² the way `seed >>> 0`
+// does, so -1 and 4294967295 give the same stream. Anything else (a fraction, NaN, ±Infinity, a
+// string) is refused with a RangeError naming the function. Streams are pinned by
+// tests/unit/stats/random.test.ts against an independent Python reimplementation
+// (tests/reference/mulberry32.py); changing the generator or the rule changes every stored design.
 
 /** A source of uniform numbers in [0, 1). */
 export type RandomSource = () => number;
@@ -13,15 +20,26 @@ function checkSeed(functionName: string, seed: number): void {
 }
 
 /**
- * mulberry32 (the one implementation, shared/stats/mulberry32) with this module's seed rule:
- * uniform numbers in [0, 1), the same for a seed on every platform.
+ * mulberry32: a 32-bit-state generator returning uniform numbers in [0, 1).
+ * Each call adds the Weyl constant 0x6D2B79F5 to the state and mixes it with two
+ * multiply-xorshift rounds; the mixed 32-bit value divided by 2³² is the result.
+ * Reference: the public-domain "mulberry32" generator (2017; period 2³²). Good enough for test
+ * noise, demo data, shuffling run orders, drawing Latin hypercubes and candidate sets; NOT for
+ * cryptography nor for statistics that need long periods.
  * Cost: O(1) per draw.
- * @throws RangeError when the seed is not an integer (any integer is reduced modulo 2³²).
- * @example const random = mulberry32(42); random() // same number on every platform
+ * @throws RangeError when the seed is not an integer (see the seed rule above).
+ * @example mulberry32(42)() // 0.6011037519201636 on every run and platform
  */
 export function mulberry32(seed: number): RandomSource {
   checkSeed('mulberry32', seed);
-  return uniformFromSeed(seed);
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
 }
 
 /**
@@ -86,4 +104,28 @@ export function shuffle<T>(items: readonly T[], random: RandomSource): T[] {
 export function seededShuffle<T>(items: readonly T[], seed: number): T[] {
   checkSeed('seededShuffle', seed);
   return shuffle(items, mulberry32(seed));
+}
+
+/**
+ * Standard normal draws from a uniform generator (Box–Muller, both values of each pair used).
+ * Reference: Box & Muller (1958), Ann. Math. Stat. 29, 610–611.
+ * Cost: O(1) per draw.
+ * @throws never.
+ * @example const gauss = normalGenerator(mulberry32(7)); gauss() // ~N(0, 1)
+ */
+export function normalGenerator(uniform: () => number): () => number {
+  let spare: number | null = null;
+  return () => {
+    if (spare !== null) {
+      const value = spare;
+      spare = null;
+      return value;
+    }
+    let u = 0;
+    while (u <= Number.MIN_VALUE) u = uniform(); // log(0) guard
+    const w = uniform();
+    const radius = Math.sqrt(-2 * Math.log(u));
+    spare = radius * Math.sin(2 * Math.PI * w);
+    return radius * Math.cos(2 * Math.PI * w);
+  };
 }

@@ -1,7 +1,28 @@
 import { describe, it, expect } from 'vitest';
-import { deriveSeed, mulberry32, seededShuffle, shuffle } from '../../../shared/doe/random';
+import { deriveSeed, mulberry32, seededShuffle, shuffle } from '../../../shared/stats/random';
+
+// First ten draws for seeds 0, 1 and 42, from an independent Python reimplementation of mulberry32
+// (tests/reference/mulberry32.py, plain integers mod 2^32). A design generated today depends on
+// these streams: if one changes, every stored design changes.
+const PINNED: Record<number, number[]> = {
+  0: [0.26642920868471265, 0.0003297457005828619, 0.2232720274478197, 0.1462021479383111, 0.46732782293111086, 0.5450490827206522, 0.6152513844426721, 0.6489853798411787, 0.45600721263326705, 0.581218967679888],
+  1: [0.6270739405881613, 0.002735721180215478, 0.5274470399599522, 0.9810509674716741, 0.9683778982143849, 0.281103502959013, 0.6128388606011868, 0.7207431411370635, 0.425796952098608, 0.9948229456786066],
+  42: [0.6011037519201636, 0.44829055899754167, 0.8524657934904099, 0.6697340414393693, 0.17481389874592423, 0.5265925421845168, 0.2732279943302274, 0.6247446539346129, 0.8654746483080089, 0.4723170551005751],
+};
 
 describe('mulberry32', () => {
+  it('gives the pinned first ten draws for seeds 0, 1 and 42 (tests/reference/mulberry32.py)', () => {
+    for (const [seed, expected] of Object.entries(PINNED)) {
+      const random = mulberry32(Number(seed));
+      expect(Array.from({ length: 10 }, () => random()), `seed ${seed}`).toEqual(expected);
+    }
+  });
+
+  it('reads a seed beyond 2^32 modulo 2^32 (tests/reference/mulberry32.py: 2^32 + 42 gives the stream of 42)', () => {
+    const random = mulberry32(2 ** 32 + 42);
+    expect(Array.from({ length: 10 }, () => random())).toEqual(PINNED[42]);
+  });
+
   it('gives the same sequence for the same seed and a different one for another seed', () => {
     const first = mulberry32(20240611);
     const second = mulberry32(20240611);
@@ -42,6 +63,7 @@ describe('mulberry32', () => {
     expect(mulberry32(-1)()).toBe(mulberry32(4294967295)());
     expect(() => mulberry32(1.5)).toThrow('mulberry32: seed: must be an integer');
     expect(() => mulberry32(Number.NaN)).toThrow(RangeError);
+    expect(() => mulberry32(Number.POSITIVE_INFINITY)).toThrow('mulberry32: seed: must be an integer');
   });
 });
 
