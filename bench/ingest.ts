@@ -10,6 +10,7 @@ import { createContext } from '../server/bootstrap';
 import { createApp } from '../server/app';
 import { seedDemo } from '../server/seed/seed';
 import { curvePoints, loadCurve } from '../server/curves/service';
+import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { median, rssSampler, signIn } from './lib';
 
 const file = process.argv[2]!;
@@ -70,9 +71,14 @@ const poller = (async () => {
     await new Promise((r) => setTimeout(r, 20));
   }
 })();
+// the longest stall of the server's event loop while the upload is handled (other requests wait that long)
+const loopDelay = monitorEventLoopDelay({ resolution: 5 });
+loopDelay.enable();
 started = performance.now();
 const curve = await upload(uploadId);
 const ingestMs = performance.now() - started;
+loopDelay.disable();
+const longestStallMs = loopDelay.max / 1e6;
 const peakRss = sampler.stop();
 polling = false;
 await poller;
@@ -114,6 +120,6 @@ server.close();
 ctx.db.$client.close();
 fs.rmSync(dir, { recursive: true, force: true });
 console.log(JSON.stringify({
-  ingest: { ms: ingestMs, rows: curve.pointCount, bytes, idleRssBytes: idleRss, peakRssBytes: peakRss, maxRssKb: process.resourceUsage().maxRSS, phasesSeen: [...phases], phaseStartMs: phaseStart, worstProgressPollMs: worstPollMs, degradationRate: curve.metrics.degradationRate, low: curve.summary.degradationLow, high: curve.summary.degradationHigh, breakInHours: curve.metrics.breakInHours, interruptions: JSON.parse(String(curve.summary.interruptions)).length },
+  ingest: { ms: ingestMs, rows: curve.pointCount, bytes, idleRssBytes: idleRss, peakRssBytes: peakRss, maxRssKb: process.resourceUsage().maxRSS, phasesSeen: [...phases], phaseStartMs: phaseStart, worstProgressPollMs: worstPollMs, longestStallMs, degradationRate: curve.metrics.degradationRate, low: curve.summary.degradationLow, high: curve.summary.degradationHigh, breakInHours: curve.metrics.breakInHours, interruptions: JSON.parse(String(curve.summary.interruptions)).length },
   readBack: { httpMedianMs: median(httpMs), httpZoomMedianMs: median(zoomMs), serviceMedianMs: median(serviceMs), rawBlobMedianMs: median(rawMs), blobBytes, plotPoints },
 }));

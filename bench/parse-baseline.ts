@@ -1,10 +1,14 @@
-// Baselines for the ingest figure: the raw parse of the same bytes by plain CSV parsers — papaparse
-// (fast mode, strings; and with numbers) and a hand-rolled split loop with Number() — best of 3 each.
+// Baselines for the ingest figure: the raw parse of the same bytes by plain CSV parsers — uDSV's
+// typed columns (schema inferred from the text, every column a number array), papaparse (fast mode,
+// strings; and with numbers) and a hand-rolled split loop with Number() — best of 3 each.
 import fs from 'node:fs';
 import Papa from 'papaparse';
+import { inferSchema, initParser } from 'udsv';
 import { rssSampler } from './lib';
 
 const file = process.argv[2]!;
+// `udsv` as the second argument: only uDSV's typed parse, once (the interleaved ingest runs)
+const onlyUdsv = process.argv[3] === 'udsv';
 const gc = (globalThis as { gc?: () => void }).gc;
 
 function timeBest(run: () => number, repeats = 3) {
@@ -25,7 +29,18 @@ function timeBest(run: () => number, repeats = 3) {
 }
 
 // The read from disk is part of both sides' job, so it is timed here too.
+const udsvTyped = () => {
+    const text = fs.readFileSync(file, 'utf8');
+    const parser = initParser(inferSchema(text));
+    const columns = parser.typedCols(text) as unknown as number[][];
+    return columns[0]!.length;
+};
+if (onlyUdsv) {
+  console.log(JSON.stringify({ udsvTyped: timeBest(udsvTyped, 1) }));
+  process.exit(0);
+}
 const results = {
+  udsvTyped: timeBest(udsvTyped),
   papaparseFast: timeBest(() => {
     const text = fs.readFileSync(file, 'utf8');
     return Papa.parse<string[]>(text, { fastMode: true, skipEmptyLines: true }).data.length - 1;

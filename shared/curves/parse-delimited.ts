@@ -59,6 +59,98 @@ function checkLineBounds(text: string, line: number): void {
 const DETECTION_MAX_LINES = 256;
 const DETECTION_MAX_CHARS = 1 << 20;
 const DETECTION_DATA_ROWS = 64;
+// ---- The numeric fast path: a station log's data line of plain numbers ("12.5,0.2,0.6512") read
+// straight from its character codes, without splitting it into cell strings. Any line it does not
+// recognise at once (quotes, spaces, units, grouping marks, empty cells, a different cell count)
+// goes the general way, so every rule and message stays the general path's.
+
+const POWERS_OF_TEN = Array.from({ length: 23 }, (_, exponent) => Number(`1e${exponent}`));
+
+/**
+ * Reads one line of `cells` plain numbers separated by `delimiterCode` into `out`.
+ * Definition: each cell is [+-]digits[mark digits][(e|E)[+-]digits] with `markCode` the decimal mark;
+ * the value is exactly `Number()` of the cell (Clinger's fast path — an integer mantissa below 2^53
+ * scaled by an exact power of ten 10^0…10^22 rounds correctly in one operation; other cells are
+ * handed to Number()).
+ * Reference: W. D. Clinger, "How to read floating point numbers accurately", PLDI 1990.
+ * Cost: O(line length), no allocation for cells of at most 15 significant digits.
+ * @returns false (and `out` partly written) when the line is not such a row.
+ * @example readPlainNumbers('1.5,-2e3', 44, 46, 2, out) // true; out = [1.5, -2000]
+ */
+export function readPlainNumbers(text: string, delimiterCode: number, markCode: number, cells: number, out: Float64Array): boolean {
+  const length = text.length;
+  let index = 0;
+  for (let cell = 0; cell < cells; cell++) {
+    const start = index;
+    let negative = false;
+    let code = index < length ? text.charCodeAt(index) : -1;
+    if (code === 45 || code === 43) {
+      negative = code === 45;
+      index++;
+      code = index < length ? text.charCodeAt(index) : -1;
+    }
+    let mantissa = 0;
+    let digits = 0;
+    let significant = 0;
+    let scale = 0;
+    while (code >= 48 && code <= 57) {
+      if (significant > 0 || code !== 48) significant++;
+      mantissa = mantissa * 10 + (code - 48);
+      digits++;
+      index++;
+      code = index < length ? text.charCodeAt(index) : -1;
+    }
+    if (code === markCode) {
+      index++;
+      code = index < length ? text.charCodeAt(index) : -1;
+      while (code >= 48 && code <= 57) {
+        if (significant > 0 || code !== 48) significant++;
+        mantissa = mantissa * 10 + (code - 48);
+        digits++;
+        scale--;
+        index++;
+        code = index < length ? text.charCodeAt(index) : -1;
+      }
+    }
+    if (digits === 0) return false;
+    let exponent = 0;
+    if (code === 101 || code === 69) {
+      index++;
+      code = index < length ? text.charCodeAt(index) : -1;
+      let exponentNegative = false;
+      if (code === 45 || code === 43) {
+        exponentNegative = code === 45;
+        index++;
+        code = index < length ? text.charCodeAt(index) : -1;
+      }
+      let exponentDigits = 0;
+      while (code >= 48 && code <= 57) {
+        exponent = exponent * 10 + (code - 48);
+        exponentDigits++;
+        index++;
+        code = index < length ? text.charCodeAt(index) : -1;
+      }
+      if (exponentDigits === 0 || exponentDigits > 4) return false;
+      if (exponentNegative) exponent = -exponent;
+    }
+    const atEnd = cell === cells - 1;
+    if (atEnd ? index !== length : code !== delimiterCode) return false;
+    const power = scale + exponent;
+    let value: number;
+    if (significant <= 15 && power >= -22 && power <= 22) {
+      value = power < 0 ? mantissa / POWERS_OF_TEN[-power] : mantissa * POWERS_OF_TEN[power];
+    } else {
+      let cellText = text.slice(negative || text.charCodeAt(start) === 43 ? start + 1 : start, index);
+      if (markCode !== 46) cellText = cellText.replace(String.fromCharCode(markCode), '.');
+      value = Number(cellText);
+      if (value - value !== 0) return false;
+    }
+    out[cell] = negative ? -value : value;
+    index++;
+  }
+  return true;
+}
+
 const KIND_SAMPLE_ROWS = 200;
 const MESSAGE_CELL_MAX = 40;
 
@@ -654,6 +746,9 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
   let missing: ({ count: number; firstLine: number; firstText: string } | null)[] = [];
   let grouped: number[] = [];
   let scratch = new Float64Array(0);
+  // the numeric fast path applies when every column is a stored number and cells are split by one character
+  let plainDelimiter = -1;
+  let plainMark = 46;
   // Lines after the table: once a line that is not data starts a tail, everything up to the end
   // is left out, unless data of the table's shape comes back (then the tail was text inside it).
   interface Tail {
@@ -781,7 +876,18 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     tail = null;
   }
 
+  // A plain numeric row in the middle of the table, past the preview rows: read and stored at once.
+  function acceptPlainRow(text: string, line: number): boolean {
+    if (tail !== null || rowCount < previewRows || rowCount >= maxRows) return false;
+    if (!readPlainNumbers(text, plainDelimiter, plainMark, storedColumns.length, scratch)) return false;
+    for (let index = 0; index < scratch.length; index++) growable[index].push(scratch[index]);
+    dataLines.push(line);
+    rowCount++;
+    return true;
+  }
+
   function acceptDataLine(text: string, line: number): void {
+    if (plainDelimiter >= 0 && acceptPlainRow(text, line)) return;
     if (text.length === 0 || isBlankText(text)) return;
     if (isCommentLine(text, delimiter)) return;
     if (text === headerText || text === unitText) {
@@ -868,6 +974,11 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     missing = storedColumns.map(() => null);
     grouped = storedColumns.map(() => 0);
     scratch = new Float64Array(storedColumns.length);
+    const allNumbers = storedColumns.length === header.length && storedKinds.every((kind) => kind === 'number');
+    plainDelimiter = allNumbers && delimiter !== 'whitespace' ? delimiter.charCodeAt(0) : -1;
+    plainMark = decimalComma ? 44 : 46;
+    // a decimal comma with comma-separated cells cannot be read without the general rules
+    if (plainDelimiter === plainMark) plainDelimiter = -1;
     for (const entry of buffered) {
       if (entry.line > firstDataLine) acceptDataLine(entry.text, entry.line);
     }

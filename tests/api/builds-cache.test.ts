@@ -52,3 +52,21 @@ describe('builds list cache', () => {
     expect(await noteOf('C-007')).toBe('edited through the API');
   });
 });
+
+describe('compressed answers', () => {
+  it('sends the builds list gzip-compressed to a client that accepts it, and the same JSON', async () => {
+    const plain = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`).set('accept-encoding', 'identity');
+    const gzipped = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`).set('accept-encoding', 'gzip');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(gzipped.headers['content-encoding']).toBe('gzip');
+    expect(gzipped.body).toEqual(plain.body); // supertest decodes gzip
+  });
+
+  it('sends a raw uploaded file as stored, never re-encoded', async () => {
+    const build = await h.as.viewer.get(`/api/builds/${ids.build('C-004')}`);
+    const fileId = (build.body.curves as { fileId: number }[])[0]!.fileId;
+    const raw = await h.as.viewer.get(`/api/files/${fileId}/raw`).set('accept-encoding', 'gzip');
+    expect(raw.status).toBe(200);
+    expect(raw.headers['content-encoding']).toBeUndefined();
+  });
+});

@@ -9,7 +9,11 @@ import { PLOT_CONFIG, merge, themedData, themedLayout } from './theme';
 export { OKABE_ITO } from './theme';
 export { exportPlot, exportPlotCsv } from './export';
 
-const Cartesian = lazy(() => import('./plotly'));
+// The plotting chunk starts loading as soon as a page that draws charts is opened, beside the
+// page's data requests rather than after them (a failed early load is tried again when drawn).
+const cartesianChunk = import('./plotly');
+cartesianChunk.catch(() => {});
+const Cartesian = lazy(() => cartesianChunk.catch(() => import('./plotly')));
 
 export type PlotProps = Omit<PlotParams, 'layout' | 'config' | 'data'> & {
   data: unknown[];
@@ -34,6 +38,16 @@ function unlink(graph: HTMLElement) {
   }
 }
 
+/**
+ * Performance marks for the first-plot figure of `npm run bench`: `cw:plot-slot` when the first
+ * chart's place on the page is laid out, `cw:first-plot` when the first chart has drawn. With
+ * `?noplot` in the address the chart itself is left out (the bench's page-without-plot baseline).
+ */
+function markOnce(name: string) {
+  if (typeof performance !== 'undefined' && performance.getEntriesByName(name).length === 0) performance.mark(name);
+}
+const withoutPlots = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noplot');
+
 /** The chart's laid-out width in px, rounded so small resizes do not re-theme. */
 function useWidth() {
   const ref = useRef<HTMLDivElement>(null);
@@ -54,6 +68,8 @@ export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & {
   const { fileName = 'cellwright-plot', config, layout, style, title, subtitle, onInitialized, onUpdate, data, ...rest } = props;
   const [box, width] = useWidth();
   const height = typeof style?.height === 'number' ? style.height : 420;
+  if (width > 0) markOnce('cw:plot-slot');
+  if (withoutPlots) return <div ref={box} data-plot-bundle={bundle} className="min-w-0" style={{ height }} />;
   return (
     <div ref={box} data-plot-bundle={bundle} className="min-w-0">
       {width > 0 && (
@@ -64,7 +80,7 @@ export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & {
             data={themedData(data, width)}
             layout={themedLayout(layout, { width, title, subtitle })}
             config={merge({ ...PLOT_CONFIG, toImageButtonOptions: { format: 'png', filename: fileName, scale: 2 } }, config)}
-            onInitialized={(figure, graph) => { unlink(graph); onInitialized?.(figure, graph); }}
+            onInitialized={(figure, graph) => { unlink(graph); markOnce('cw:first-plot'); onInitialized?.(figure, graph); }}
             onUpdate={(figure, graph) => { unlink(graph); onUpdate?.(figure, graph); }}
             {...rest}
           />
