@@ -19,4 +19,11 @@ export const CURVE_METRIC_INFO: Readonly<Record<string, CurveMetricInfo>> = {
   hfr: { label: 'HFR', unit: 'Ω·cm²', goal: 'minimize' },
   degradationRate: { label: 'Degradation rate', unit: 'µV/h', goal: 'minimize' },
   breakInHours: { label: 'Break-in', unit: 'h', goal: 'minimize' },
+  onsetHours: { label: 'Hours to failure onset', unit: 'h', goal: 'maximize' },
+  holdDecay: { label: 'Hold decay', unit: 'mV/h', goal: 'minimize' },
+  holdLoss: { label: 'Hold loss', unit: 'mV', goal: 'minimize' },
+  rct: { label: 'Charge-transfer resistance R_ct', unit: 'Ω·cm²', goal: 'minimize' },
+  cpeQ: { label: 'CPE coefficient Q', unit: 'F·s^(n−1)·cm⁻²', goal: 'maximize' },
+  cpeN: { label: 'CPE exponent n', unit: '', goal: 'maximize' },
+  sigmaW: { label: 'Warburg coefficient σ_W', unit: 'Ω·cm²·s^(−1/2)', goal: 'minimize' },
 };

@@ -24,6 +24,13 @@ export const METRICS: Record<string, MetricInfo> = {
   hfr: { key: 'hfr', label: 'HFR', unit: 'mΩ·cm²', scale: 1000, digits: 0, higherIsBetter: false, description: 'median high-frequency resistance' },
   degradationRate: { key: 'degradationRate', label: 'Degradation', unit: 'µV/h', scale: 1, digits: 1, higherIsBetter: false, description: 'voltage loss rate after break-in (positive = losing voltage)' },
   breakInHours: { key: 'breakInHours', label: 'Break-in', unit: 'h', scale: 1, digits: 0, higherIsBetter: false, description: 'period excluded from the degradation fit' },
+  onsetHours: { key: 'onsetHours', label: 'Failure onset', unit: 'h', scale: 1, digits: 0, higherIsBetter: true, description: 'hours until the loss rate rose well above the stable rate (two-piece line fit)' },
+  holdDecay: { key: 'holdDecay', label: 'Hold decay', unit: 'mV/h', scale: 1, digits: 2, higherIsBetter: false, description: 'open-circuit voltage loss rate after settling' },
+  holdLoss: { key: 'holdLoss', label: 'Hold loss', unit: 'mV', scale: 1, digits: 1, higherIsBetter: false, description: 'open-circuit voltage lost over the hold after settling' },
+  rct: { key: 'rct', label: 'R_ct', unit: 'mΩ·cm²', scale: 1000, digits: 0, higherIsBetter: false, description: 'charge-transfer resistance from the equivalent-circuit fit' },
+  cpeQ: { key: 'cpeQ', label: 'CPE Q', unit: 'mF·s^(n−1)/cm²', scale: 1000, digits: 2, higherIsBetter: true, description: 'constant-phase element coefficient from the fit' },
+  cpeN: { key: 'cpeN', label: 'CPE n', unit: '', scale: 1, digits: 3, higherIsBetter: true, description: 'constant-phase element exponent (1 = ideal capacitor)' },
+  sigmaW: { key: 'sigmaW', label: 'Warburg σ_W', unit: 'mΩ·cm²·s^(−1/2)', scale: 1000, digits: 1, higherIsBetter: false, description: 'Warburg coefficient from the fit with diffusion' },
 };
 
 /** Method inputs and other named quantities that are not metrics (internal units as stored). */
@@ -120,7 +127,8 @@ export function formatMetric(key: string, value: number | null | undefined): str
   const info = METRICS[key];
   if (!info) return formatSignificant(value, 3);
   if (value == null || !Number.isFinite(value)) return '—';
-  return `${formatNumber(value * info.scale, info.digits)} ${info.unit}`;
+  const shown = formatNumber(value * info.scale, info.digits);
+  return info.unit ? `${shown} ${info.unit}` : shown;
 }
 
 export function formatDate(iso: string | null | undefined): string {
