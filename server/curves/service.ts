@@ -108,7 +108,11 @@ function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options
   const d = durabilityMetrics(curve, options ?? {});
   const extra: { metrics: Partial<CurveMetrics>; notes: MetricsResult['metricNotes']; method: MetricsResult['method']; summary: MetricsResult['summary'] } = { metrics: {}, notes: {}, method: {}, summary: {} };
   if (curve.kind === 'durability') {
-    const onset = onsetMetric(curve, onsetRuleOf(settings.onsetRule, options?.onsetRule));
+    // the search starts after break-in unless a rule says where
+    const startGiven = settings.onsetRule?.startHours !== undefined || options?.onsetRule?.startHours !== undefined;
+    const rule = onsetRuleOf(settings.onsetRule, options?.onsetRule);
+    if (!startGiven && d.breakInHours != null) rule.startHours = d.breakInHours;
+    const onset = onsetMetric(curve, rule);
     extra.metrics.onsetHours = onset.value;
     if (onset.note) extra.notes.onsetHours = onset.note;
     extra.method.onsetHours = onset.method;

@@ -156,6 +156,7 @@ export const MATRIX: MatrixRow[] = [
   { method: 'post', path: '/api/projects/{id}/surface', send: (_h, c) => c.post(`/api/projects/${C()}/surface`, { response: 'vAtRef', model: 'linear' }) },
   { method: 'post', path: '/api/projects/{id}/proposals', send: (_h, c) => c.post(`/api/projects/${C()}/proposals`, { response: 'vAtRef', model: 'linear', count: 2 }) },
   { method: 'get', path: '/api/projects/{id}/gains', send: (_h, c) => c.get(`/api/projects/${C()}/gains?response=vAtRef`) },
+  { method: 'post', path: '/api/projects/{id}/series', send: (_h, c) => c.post(`/api/projects/${C()}/series`, { variable: 'temperature' }) },
   { method: 'get', path: '/api/projects/{id}/lineage', send: (_h, c) => c.get(`/api/projects/${C()}/lineage?response=vAtRef`) },
   { method: 'get', path: '/api/builds/{id}/reviews', send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/reviews`) },
   { method: 'post', path: '/api/builds/{id}/reviews', send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/reviews`, { body: unique('matrix comment ') }) },
