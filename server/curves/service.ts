@@ -641,12 +641,12 @@ function remeasure(ctx: AppContext, rows: CurveRow[]): number {
   return count;
 }
 
-/** Re-measure every polarization curve of a project at its current reference point (after settings change). */
-export function recomputeProjectMetrics(ctx: AppContext, projectId: number): number {
+/** Re-measure a project's curves of the given kinds (polarization by default) after its settings changed. */
+export function recomputeProjectMetrics(ctx: AppContext, projectId: number, kinds: CurveKind[] = ['polarization']): number {
   const { db } = ctx;
   const buildIds = db.select({ id: builds.id }).from(builds).where(eq(builds.projectId, projectId)).all().map((b) => b.id);
   if (buildIds.length === 0) return 0;
-  return remeasure(ctx, db.select().from(curves).where(and(inArray(curves.buildId, buildIds), eq(curves.kind, 'polarization'))).all());
+  return remeasure(ctx, db.select().from(curves).where(and(inArray(curves.buildId, buildIds), inArray(curves.kind, kinds))).all());
 }
 
 /** Re-measure a build's polarization curves after its loading or H₂ crossover changed. */

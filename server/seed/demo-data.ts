@@ -177,7 +177,7 @@ export const PROJECTS: DemoProject[] = [
     name: 'Methanol-tolerant anode at 200–240 °C',
     description: 'PtRu anode for cells fed methanol/water vapour: Ru fraction, loading, support and cell temperature. Trade activity against noble-metal cost.',
     codePrefix: 'A',
-    settings: { refCurrentDensity: 0.2, refVoltage: 0.5, irFree: true, loadingBasis: 'metal' },
+    settings: { refCurrentDensity: 0.2, refVoltage: 0.5, irFree: true, loadingBasis: 'metal', metalPrices: [{ metal: 'PtRu', pricePerGram: 29.5, currency: 'EUR', date: '2026-11-02', source: 'invented supplier quote, alloy blend per g' }] },
     factors: [
       { key: 'ruFraction', label: 'Ru fraction', unit: 'at %', kind: 'continuous', low: 20, high: 60 },
       { key: 'anodeLoading', label: 'Anode loading', unit: 'mg/cm²', kind: 'continuous', low: 0.5, high: 2.0 },

@@ -42,6 +42,10 @@ export const projectSettingsSchema = z.object({
 });
 export type ProjectSettings = z.infer<typeof projectSettingsSchema>;
 
+/** PUT /api/projects/:id/metal-prices: the whole list of prices (one currency, each metal once). */
+export const metalPricesSchema = z.object({ prices: projectSettingsSchema.shape.metalPrices.unwrap() });
+export type MetalPricesBody = z.infer<typeof metalPricesSchema>;
+
 export const DEFAULT_SETTINGS: ProjectSettings = {
   refCurrentDensity: 0.2,
   refVoltage: 0.6,

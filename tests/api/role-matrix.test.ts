@@ -87,6 +87,7 @@ export const MATRIX: MatrixRow[] = [
   { method: 'post', path: '/api/projects', send: (_h, c) => c.post('/api/projects', { name: unique('Matrix project '), settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } }) },
   { method: 'get', path: '/api/projects/{id}', send: (_h, c) => c.get(`/api/projects/${C()}`) },
   { method: 'patch', path: '/api/projects/{id}', send: (_h, c) => c.patch(`/api/projects/${C()}`, { description: unique('desc ') }) },
+  { method: 'put', path: '/api/projects/{id}/metal-prices', send: (_h, c) => c.put(`/api/projects/${C()}/metal-prices`, { prices: [{ metal: 'Pt', pricePerGram: 31, currency: 'EUR', date: '2026-11-02', source: 'invented quote' }] }) },
   { method: 'get', path: '/api/projects/{id}/permissions', send: (_h, c) => c.get(`/api/projects/${C()}/permissions`) },
   { method: 'get', path: '/api/projects/{id}/factors', send: (_h, c) => c.get(`/api/projects/${C()}/factors`) },
   { method: 'post', path: '/api/projects/{id}/factors', send: (_h, c) => c.post(`/api/projects/${C()}/factors`, { key: unique('inkSolids'), label: 'Ink solids', unit: 'wt %', kind: 'continuous', low: 1, high: 5 }) },

@@ -102,3 +102,30 @@ describe('demo holds, accelerated test and impedance', () => {
     }
   });
 });
+
+describe('PUT /api/projects/:id/metal-prices', () => {
+  it('stores prices entered by the PI, audited, kept when the reference point is edited', async () => {
+    const prices = [{ metal: 'Pt', pricePerGram: 31.2, currency: 'EUR', date: '2026-11-20', source: 'invented quote' }];
+    const res = await h.as.pi.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.metalPrices).toEqual(prices);
+    const audited = h.ctx.db.$client.prepare("select count(*) as n from audit_log where entity = 'metal-prices'").get() as { n: number };
+    expect(audited.n).toBe(1);
+    const edit = await h.as.pi.patch(`/api/projects/${ids.project('C')}`, { settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } });
+    expect(edit.status).toBe(200);
+    expect(edit.body.project.settings.metalPrices).toEqual(prices);
+  });
+
+  it('refuses a researcher, two currencies and a metal priced twice, naming the field', async () => {
+    const one = { metal: 'Pt', pricePerGram: 31.2, currency: 'EUR', date: '2026-11-20', source: 'invented quote' };
+    expect((await h.as.researcher.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices: [one] })).status).toBe(403);
+    const twice = await h.as.pi.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices: [one, { ...one }] });
+    expect(twice.status).toBe(400);
+    expect(twice.body.error.message).toMatch(/prices\.1\.metal/);
+    const currencies = await h.as.pi.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices: [one, { ...one, metal: 'Ru', currency: 'USD' }] });
+    expect(currencies.status).toBe(400);
+    const badDate = await h.as.pi.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices: [{ ...one, date: '20 Nov' }] });
+    expect(badDate.status).toBe(400);
+    expect(JSON.stringify(badDate.body)).toMatch(/date/);
+  });
+});
