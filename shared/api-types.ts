@@ -147,3 +147,4 @@ export interface UploadPreview {
   /** the active area the build records, cm² (pre-filled where the file gives none) */
   buildAreaCm2?: number | null;
 }
+export type * from './api-types/series';
