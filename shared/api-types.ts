@@ -114,6 +114,10 @@ export interface CurvePoints {
   vIrFree?: (number | null)[] | null;
   tHours?: number[] | null;
   temperatureC?: number[] | null;
+  /** impedance spectra: frequency (Hz, falling), Z′ and Z″ (Ω·cm², Z″ = Im Z) */
+  frequencyHz?: number[];
+  zReal?: number[];
+  zImag?: number[];
   downsampled: boolean;
   total: number;
 }

@@ -30,8 +30,10 @@ export type BuildListItem = Build;
 
 const METRIC_FROM_KIND: Record<string, string[]> = {
   polarization: ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'],
-  durability: ['degradationRate', 'breakInHours'],
-  hold: ['degradationRate'],
+  durability: ['degradationRate', 'breakInHours', 'onsetHours'],
+  hold: ['degradationRate', 'holdDecay', 'holdLoss'],
+  // the spectrum's HFR stays on the curve: the build's `hfr` is the polarization curve's
+  impedance: ['rct', 'cpeQ', 'cpeN'],
 };
 
 interface CurveMetricRow {

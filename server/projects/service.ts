@@ -178,7 +178,7 @@ export function listResponses(ctx: AppContext, projectId: number): ResponseDef[]
 }
 
 /** Keys the curve metrics already use; hand-entered responses must not shadow them. */
-export const METRIC_KEYS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr', 'degradationRate', 'breakInHours'];
+export const METRIC_KEYS = ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr', 'degradationRate', 'breakInHours', 'onsetHours', 'holdDecay', 'holdLoss', 'rct', 'cpeQ', 'cpeN'];
 
 export function addResponse(ctx: AppContext, access: ProjectAccess, body: z.output<typeof responseCreateSchema>) {
   const { db } = ctx;
