@@ -32,9 +32,7 @@ function ResultCard({ data }: { data: SeriesData }) {
   return (
     <div className="space-y-2" data-testid="series-result">
       <div className="text-xs font-medium uppercase tracking-wide text-ink-500">{arrhenius ? 'Apparent activation energy Eₐ' : 'Apparent reaction order'}</div>
-      <Hint hint={data.method ?? 'not computed'}>
-        <div className="font-mono text-2xl font-semibold tabular-nums text-ink-950">{estimateText(data)}</div>
-      </Hint>
+      <div className="font-mono text-2xl font-semibold tabular-nums text-ink-950">{estimateText(data)}</div>
       <div className="text-sm text-ink-700">{intervalText(data)}</div>
       {!arrhenius && data.noDependenceWithinNoise === true && (
         <p className="flex items-center gap-1.5 text-sm font-medium text-ink-800"><span aria-hidden>○</span> no dependence within noise: the interval holds zero</p>
@@ -104,7 +102,7 @@ export default function SeriesPage() {
           )}
         </Panel>
         <div className="space-y-4">
-          <Panel title="Series">
+          <Panel title="Choose the series">
             <div className="space-y-3">
               <Field label="Series variable">
                 {(props) => (

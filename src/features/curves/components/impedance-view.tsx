@@ -30,8 +30,8 @@ function parse<T>(text: unknown): T | null {
 function modelLine(summary: Record<string, unknown>) {
   const params = parse<CircuitParameters>(summary.fitParameters);
   const circuit = summary.circuit as CircuitKind | null;
-  const from = Number(summary.fitFromHz);
-  const to = Number(summary.fitToHz);
+  const from = Math.min(Number(summary.fitFromHz), Number(summary.fitToHz));
+  const to = Math.max(Number(summary.fitFromHz), Number(summary.fitToHz));
   if (!params || !circuit || !(from > 0) || !(to > from)) return null;
   const decades = Math.log10(to / from);
   const n = Math.max(20, Math.round(decades * 20));
@@ -116,7 +116,8 @@ export function ImpedancePlots({ curve, points, title, fileName }: { curve: Curv
   const re = (points.zReal ?? []).map((v) => v * 1000);
   const negIm = (points.zImag ?? []).map((v) => -v * 1000);
   const modulus = f.map((_, k) => Math.hypot(points.zReal![k]!, points.zImag![k]!) * 1000);
-  const phase = f.map((_, k) => (Math.atan2(points.zImag![k]!, points.zReal![k]!) * 180) / Math.PI);
+  // −phase, so a capacitive arc plots upwards as in the Nyquist plot
+  const phase = f.map((_, k) => (-Math.atan2(points.zImag![k]!, points.zReal![k]!) * 180) / Math.PI);
   const hover = f.map((fk) => `${formatSignificant(fk, 3)} Hz`);
   const subtitle = `${curve.label} · Ω·cm² ×1000 (mΩ·cm²) · ${String(summary.circuit ?? 'no fit') === 'charge-transfer-diffusion' ? 'fit: R_Ω + CPE ∥ (R_ct + Warburg)' : 'fit: R_Ω + (R_ct ∥ CPE)'}`;
   const modelRe = model?.re.map((v) => v * 1000) ?? [];
@@ -149,19 +150,19 @@ export function ImpedancePlots({ curve, points, title, fileName }: { curve: Curv
           <LazyPlot
             fileName={`${fileName}-bode`}
             title={`${title} · Bode`}
-            subtitle="modulus (left axis, circles) and phase (right axis, triangles) against frequency"
+            subtitle="modulus (left axis, circles) and −phase (right axis, triangles) against frequency"
             data={[
               { type: 'scatter', mode: 'markers', x: f, y: modulus, name: '|Z| measured', marker: { color: DATA, size: 6, symbol: 'circle-open' }, hovertemplate: '%{x:.3s} Hz<br>|Z| %{y:.1f} mΩ·cm²<extra></extra>' },
-              { type: 'scatter', mode: 'markers', x: f, y: phase, name: 'phase measured', yaxis: 'y2', marker: { color: OKABE_ITO[2], size: 6, symbol: 'triangle-up-open' }, hovertemplate: '%{x:.3s} Hz<br>phase %{y:.1f}°<extra></extra>' },
+              { type: 'scatter', mode: 'markers', x: f, y: phase, name: '−phase measured', yaxis: 'y2', marker: { color: OKABE_ITO[2], size: 6, symbol: 'triangle-up-open' }, hovertemplate: '%{x:.3s} Hz<br>−phase %{y:.1f}°<extra></extra>' },
               ...(model ? [
                 { type: 'scatter', mode: 'lines', x: model.f, y: model.f.map((_, k) => Math.hypot(model.re[k]!, model.im[k]!) * 1000), name: '|Z| fitted', line: { color: FIT, width: 2 }, hoverinfo: 'skip' },
-                { type: 'scatter', mode: 'lines', x: model.f, y: model.f.map((_, k) => (Math.atan2(model.im[k]!, model.re[k]!) * 180) / Math.PI), name: 'phase fitted', yaxis: 'y2', line: { color: FIT, width: 2, dash: 'dot' }, hoverinfo: 'skip' },
+                { type: 'scatter', mode: 'lines', x: model.f, y: model.f.map((_, k) => (-Math.atan2(model.im[k]!, model.re[k]!) * 180) / Math.PI), name: '−phase fitted', yaxis: 'y2', line: { color: FIT, width: 2, dash: 'dot' }, hoverinfo: 'skip' },
               ] : []),
             ] as never}
             layout={{
               xaxis: { title: { text: 'frequency (Hz)' }, type: 'log' },
               yaxis: { title: { text: '|Z| (mΩ·cm²)' }, type: 'log' },
-              yaxis2: { title: { text: 'phase (°)' }, overlaying: 'y', side: 'right', zeroline: false, showgrid: false },
+              yaxis2: { title: { text: '−phase (°)' }, overlaying: 'y', side: 'right', zeroline: false, showgrid: false, tickmode: 'auto', nticks: 6 },
               height: 360, legend: { orientation: 'h', y: -0.3 }, margin: { r: 70 },
             } as never}
             style={{ height: 360 }}

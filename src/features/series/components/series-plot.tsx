@@ -38,7 +38,7 @@ export function SeriesPlot({ data, subtitle, fileName }: { data: SeriesData; sub
   const lineX = [lo - pad, hi + pad];
   const lineY = data.fit ? lineX.map((x) => data.fit!.intercept + (data.fit!.slope * x) / scale) : [];
   const xTitle = arrhenius ? '1000/T (1/K)' : 'ln(p / kPa), absolute pressure';
-  const yTitle = `ln(j / A·cm⁻²) at ${formatNumber(data.atVoltageIrFree, 2)} V iR-free`;
+  const yTitle = 'ln(j / A·cm⁻²)';
   const title = arrhenius ? 'Arrhenius plot' : 'Reaction-order plot';
   return (
     <div>
