@@ -49,4 +49,12 @@ export default async function ({ url, browser, signIn, artifacts }) {
   assert.match(await page.getByRole('table', { name: 'Equivalent-circuit fit' }).innerText(), /charge-transfer resistance R_ct/);
   await checkPage(page, 'build page, impedance spectrum');
   await page.screenshot({ path: path.join(artifacts, 'build-impedance.png'), fullPage: true });
+
+  // the durability page compares the open-circuit holds and the time to failure onset
+  await page.goto(`${url}/projects/${anode.id}/durability`);
+  await page.getByRole('heading', { name: 'Open-circuit holds' }).waitFor();
+  assert.match(await page.getByRole('list', { name: 'Builds that reached each milestone' }).innerText(), /reached 1000 h/);
+  await page.locator('.js-plotly-plot .scatterlayer path.js-line').first().waitFor();
+  await checkPage(page, 'durability page with holds and survival');
+  await page.screenshot({ path: path.join(artifacts, 'durability-holds-survival.png'), fullPage: true });
 }
