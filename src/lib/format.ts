@@ -185,3 +185,8 @@ export function formatFieldValue(value: unknown, labels?: Record<string, string>
   }
   return String(value);
 }
+
+/** Mass activity named by its potential and basis: "Mass activity at 0.6 V iR-free, per g metal". */
+export function massActivityLabel(settings: { refVoltage: number; irFree: boolean; loadingBasis: 'catalyst' | 'metal' }): string {
+  return `Mass activity at ${formatNumber(settings.refVoltage, 2)} V${settings.irFree ? ' iR-free' : ''}, per g ${settings.loadingBasis}`;
+}

@@ -47,8 +47,21 @@ export default async function ({ url, browser, signIn, artifacts }) {
   assert.match(metrics, /R_ct\s+\d+ mΩ·cm²/);
   assert.match(await page.getByTestId('hfr-comparison').innerText(), /agree within 5 mΩ·cm²/);
   assert.match(await page.getByRole('table', { name: 'Equivalent-circuit fit' }).innerText(), /charge-transfer resistance R_ct/);
+  const economy = await page.getByRole('list', { name: 'Precious-metal economy' }).innerText();
+  assert.match(economy, /0\.400 mg\/cm²/); // the build's measured metal loading (invented)
+  assert.match(economy, /[\d.]+ g\/kW/);
+  assert.match(economy, /[\d.]+ EUR\/kW/);
+  assert.match(economy, /price of 02 Nov 2026/);
   await checkPage(page, 'build page, impedance spectrum');
   await page.screenshot({ path: path.join(artifacts, 'build-impedance.png'), fullPage: true });
+
+  // the builds table shows g/kW and cost per kW beside every build; the PI's settings hold the prices
+  await page.goto(`${url}/projects/${anode.id}`);
+  await page.getByRole('columnheader', { name: /Precious metal/ }).waitFor();
+  await checkPage(page, 'builds table with the metal economy');
+  await page.goto(`${url}/projects/${anode.id}/settings`);
+  await page.getByRole('heading', { name: 'Precious-metal prices' }).waitFor();
+  await checkPage(page, 'settings with metal prices (researcher, read only)');
 
   // the durability page compares the open-circuit holds and the time to failure onset
   await page.goto(`${url}/projects/${anode.id}/durability`);

@@ -21,6 +21,7 @@ import { Button, LinkButton } from '@/components/ui/button';
 import { useConfirm } from '@/components/ui/confirm-dialog';
 import { formatDate, formatNumber, withUnit } from '@/lib/format';
 import { ReviewThread } from '@/features/review/components/review-thread';
+import { MetalEconomyFigures } from '@/features/builds/components/metal-economy';
 
 function Recipe({ detail, factors }: { detail: BuildDetail; factors: FactorDef[] }) {
   const b = detail.build;
@@ -248,6 +249,7 @@ export default function BuildPage() {
         <Panel title="Test conditions"><Conditions detail={d} /></Panel>
         <Panel title="Lineage"><Lineage detail={d} projectId={projectId} /></Panel>
       </div>
+      <Panel title="Precious-metal economy" className="mt-4"><MetalEconomyFigures build={b} settings={project.data.settings} /></Panel>
       {responses.data!.length > 0 && (
         <Panel title="Hand-entered responses" className="mt-4">
           <dl className="flex flex-wrap gap-8 text-sm">
