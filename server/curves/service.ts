@@ -299,7 +299,8 @@ export async function ingestUpload(
     let result: MetricsResult;
     const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
     const impedanceColumns = options.kind === undefined || options.kind === 'impedance' ? detectImpedanceColumns(table) : null;
-    if (options.kind === 'impedance' || impedanceColumns?.mapping) {
+    // a confirmed mapping without a frequency column is not a spectrum, whatever the headers suggest
+    if (options.kind === 'impedance' || (impedanceColumns?.mapping && !(options.mapping && !options.mapping.frequency))) {
       // an impedance spectrum: frequency, Z′ and Z″ (or |Z| and phase), measured by the circuit fit
       kind = 'impedance';
       const confirmed = options.mapping as ImpedanceMapping | undefined;

@@ -104,3 +104,20 @@ describe('impedance upload', () => {
     expect(res.body.error.message).toMatch(/area/);
   });
 });
+
+describe('impedance mapping confirmed by hand', () => {
+  it('takes a confirmed mapping for headers it cannot read, and asks when none is given', async () => {
+    const lines = ['col A,col B,col C'];
+    FREQUENCIES.forEach((f, k) => lines.push([f, Z.real[k], Z.imag[k]].join(',')));
+    const ask = await upload('anon.csv', lines.join('\n'), { kind: 'impedance' });
+    expect(ask.status).toBe(422);
+    expect(ask.body.error.code).toBe('mapping-needed');
+    const mapping = { frequency: { column: 0, unit: 'Hz' }, zReal: { column: 1, unit: 'ohm*cm2' }, zImag: { column: 2, unit: 'ohm*cm2' } };
+    const res = await upload('anon.csv', lines.join('\n'), { kind: 'impedance', mapping: JSON.stringify(mapping) });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(Math.abs((res.body.curve as Curve).metrics.rct! / TRUE.rCt - 1)).toBeLessThan(1e-6); // derived by hand, as above
+    const bad = await upload('anon.csv', lines.join('\n'), { kind: 'impedance', mapping: JSON.stringify({ frequency: { column: 0, unit: 'Hz' } }) });
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body)).toMatch(/zReal/);
+  });
+});

@@ -34,7 +34,16 @@ const QUANTITIES = [
   { key: 'temperature', label: 'Temperature', units: ['C', 'K'] },
 ] as const;
 
-const UNIT_LABEL: Record<string, string> = { 'A/cm2': 'A/cm²', 'mA/cm2': 'mA/cm²', A: 'A (total)', mA: 'mA (total)', V: 'V', mV: 'mV', 'ohm*cm2': 'Ω·cm²', 'mohm*cm2': 'mΩ·cm²', ohm: 'Ω (total)', mohm: 'mΩ (total)', s: 's', min: 'min', h: 'h', timestamp: 'date/time', C: '°C', K: 'K' };
+/** The columns of an impedance spectrum: Z′ and Z″, or |Z| and phase when that is all a file gives. */
+const IMPEDANCE_QUANTITIES = [
+  { key: 'frequency', label: 'Frequency', units: ['Hz', 'kHz', 'MHz', 'rad/s'] },
+  { key: 'zReal', label: 'Z′ (real part)', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
+  { key: 'zImag', label: 'Z″ or −Z″ (sign detected)', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
+  { key: 'magnitude', label: '|Z| (instead of Z′, Z″)', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
+  { key: 'phase', label: 'Phase (with |Z|)', units: ['deg', 'rad'] },
+] as const;
+
+const UNIT_LABEL: Record<string, string> = { 'A/cm2': 'A/cm²', 'mA/cm2': 'mA/cm²', A: 'A (total)', mA: 'mA (total)', V: 'V', mV: 'mV', 'ohm*cm2': 'Ω·cm²', 'mohm*cm2': 'mΩ·cm²', ohm: 'Ω (total)', mohm: 'mΩ (total)', s: 's', min: 'min', h: 'h', timestamp: 'date/time', C: '°C', K: 'K', Hz: 'Hz', kHz: 'kHz', MHz: 'MHz', 'rad/s': 'rad/s', deg: 'degrees', rad: 'radians' };
 
 type MappingEntry = { column: number; unit: string; negated?: boolean };
 
@@ -48,9 +57,10 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
   const buildArea = preview.buildAreaCm2 ?? null;
   const [area, setArea] = useState<string>(fileArea != null ? String(fileArea) : buildArea != null ? String(buildArea) : '');
   const [sheet, setSheet] = useState(preview.sheet ?? '');
-  const needsArea = ['A', 'mA'].includes(mapping.current?.unit ?? '') || ['ohm', 'mohm'].includes(mapping.hfr?.unit ?? '');
+  const needsArea = ['A', 'mA'].includes(mapping.current?.unit ?? '') || ['ohm', 'mohm'].includes(mapping.hfr?.unit ?? '') || (kind === 'impedance' && ['ohm', 'mohm'].includes(mapping.zReal?.unit ?? mapping.magnitude?.unit ?? ''));
   const areaSource = area === '' ? null : fileArea != null && Number(area) === fileArea ? 'from the file' : buildArea != null && Number(area) === buildArea ? 'the build’s recorded area' : 'entered here';
-  const hasVoltage = Boolean(mapping.voltage || mapping.voltageIrFree);
+  const hasVoltage = kind === 'impedance' ? Boolean(mapping.frequency && ((mapping.zReal && mapping.zImag) || (mapping.magnitude && mapping.phase))) : Boolean(mapping.voltage || mapping.voltageIrFree);
+  const quantities = kind === 'impedance' ? IMPEDANCE_QUANTITIES : QUANTITIES;
   return (
     <div className="mt-2 rounded-md border border-copper-500/40 bg-copper-100/40 p-3">
       <p className="text-sm font-medium text-ink-900">Confirm the columns of {preview.fileName ?? 'this file'}</p>
@@ -65,7 +75,7 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
       <div className="mt-3 grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
         <label className="text-xs text-ink-700">Curve kind
           <Select value={kind} onChange={(e) => setKind(e.target.value as CurveKind)} aria-label="Curve kind">
-            <option value="polarization">polarization</option><option value="durability">durability</option><option value="hold">hold (open circuit)</option>
+            <option value="polarization">polarization</option><option value="durability">durability</option><option value="hold">hold (open circuit)</option><option value="impedance">impedance spectrum</option>
           </Select>
         </label>
         {preview.sheets && preview.sheets.length > 1 && (
@@ -73,7 +83,7 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
             <Select value={sheet} onChange={(e) => setSheet(e.target.value)} aria-label="Sheet">{preview.sheets.map((s) => <option key={s}>{s}</option>)}</Select>
           </label>
         )}
-        {QUANTITIES.map((q) => (
+        {quantities.map((q) => (
           <div key={q.key} className="flex items-end gap-1">
             <label className="flex-1 text-xs text-ink-700">{q.label} column
               <Select aria-label={`${q.label} column`} value={mapping[q.key]?.column ?? ''} onChange={(e) => setMapping((m) => ({ ...m, [q.key]: e.target.value === '' ? undefined : { ...m[q.key], column: Number(e.target.value), unit: m[q.key]?.unit ?? q.units[0] } }))}>
@@ -104,7 +114,7 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
         </label>
       </div>
       <div className="mt-3 flex gap-2">
-        <Button variant="primary" disabled={!hasVoltage} onClick={() => onConfirm(Object.fromEntries(Object.entries(mapping).filter(([, v]) => v)) as unknown as ColumnMapping, { kind, saveProfileAs: profileName || undefined, areaCm2: area ? Number(area) : undefined, sheet: sheet || undefined })}>
+        <Button variant="primary" disabled={!hasVoltage} onClick={() => onConfirm(Object.fromEntries(Object.entries(mapping).filter(([key, v]) => v && quantities.some((q) => q.key === key))) as unknown as ColumnMapping, { kind, saveProfileAs: profileName || undefined, areaCm2: area ? Number(area) : undefined, sheet: sheet || undefined })}>
           Use these columns
         </Button>
         <Button onClick={onCancel}>Skip this file</Button>
