@@ -145,14 +145,14 @@ function anodeBuilds(): DemoBuild[] {
     b('A-008', { ...base, ruFraction: 45, cellTemp: 240, anodeLoading: 1.0 }, { parent: 'A-004', changeNote: 'cell at 240 °C', status: 'planned', builtOn: '2026-11-26', plannedOn: '2026-11-19' }),
     // a temperature series of one recipe (160/180/200 °C) and a pressure series at 200 °C
     ...[160, 180, 200].map((cellTemp, index) =>
-      b(`A-0${10 + index}`, { ...base, ruFraction: 40, cellTemp }, { parent: 'A-003', changeNote: `temperature series: cell at ${cellTemp} °C`, builtOn: '2026-11-02', testedOn: '2026-11-04', series: { kind: 'temperature', index }, impedanceAt: 0.2, responses: { costPerCm2: 0.79 } }),
+      b(`A-0${10 + index}`, { ...base, ruFraction: 40, cellTemp }, { parent: 'A-003', changeNote: `temperature series: cell at ${cellTemp} °C`, builtOn: '2026-11-02', testedOn: '2026-11-04', status: 'reviewed', series: { kind: 'temperature', index }, impedanceAt: 0.2, responses: { costPerCm2: 0.79 } }),
     ),
     ...[0, 50, 100, 150].map((backPressureKPa, index) => ({
-      ...b(`A-0${13 + index}`, { ...base, ruFraction: 40, anodeLoading: 1.5, cellTemp: 200 }, { parent: 'A-003', changeNote: `pressure series: ${backPressureKPa} kPa(g) back-pressure`, builtOn: '2026-11-09', testedOn: '2026-11-11', series: { kind: 'pressure', index }, responses: { costPerCm2: 0.79 } }),
+      ...b(`A-0${13 + index}`, { ...base, ruFraction: 40, anodeLoading: 1.5, cellTemp: 200 }, { parent: 'A-003', changeNote: `pressure series: ${backPressureKPa} kPa(g) back-pressure`, builtOn: '2026-11-09', testedOn: '2026-11-11', status: 'reviewed', series: { kind: 'pressure', index }, responses: { costPerCm2: 0.79 } }),
       conditions: { ...anodeConditions, backPressureKPa },
     })),
-    b('A-017', { ...base, ruFraction: 40, anodeLoading: 2.0, cellTemp: 200 }, { parent: 'A-003', changeNote: '100 h open-circuit hold at 200 °C', builtOn: '2026-11-12', testedOn: '2026-11-16', impedanceAt: 0.2, hold: { hours: 100, decayMvPerH: 0.9 } }),
-    b('A-018', { ...base, ruFraction: 40, anodeLoading: 2.0, cellTemp: 200, support: 'graphitised carbon' }, { parent: 'A-003', changeNote: 'accelerated test at 0.6 A/cm², graphitised support', builtOn: '2026-11-12', testedOn: '2026-11-16', accelerated: { hours: 1500, onsetHours: 900 }, hold: { hours: 100, decayMvPerH: 0.4 } }),
+    b('A-017', { ...base, ruFraction: 40, anodeLoading: 2.0, cellTemp: 200 }, { parent: 'A-003', changeNote: '100 h open-circuit hold at 200 °C', builtOn: '2026-11-12', testedOn: '2026-11-16', status: 'reviewed', impedanceAt: 0.2, hold: { hours: 100, decayMvPerH: 0.9 } }),
+    b('A-018', { ...base, ruFraction: 40, anodeLoading: 2.0, cellTemp: 200, support: 'graphitised carbon' }, { parent: 'A-003', changeNote: 'accelerated test at 0.6 A/cm², graphitised support', builtOn: '2026-11-12', testedOn: '2026-11-16', status: 'reviewed', accelerated: { hours: 1500, onsetHours: 900 }, hold: { hours: 100, decayMvPerH: 0.4 } }),
   ];
 }
 
