@@ -42,7 +42,8 @@ export function analyseProjectSeries(ctx: AppContext, access: ProjectAccess, bod
     .where(and(inArray(curves.buildId, chosen.map((b) => b.id)), eq(curves.kind, 'polarization'), eq(curves.isRecord, true)))
     .all();
   const curveOf = new Map(recordRows.map((row) => [row.buildId, row]));
-  const noCurve = chosen.filter((b) => !curveOf.has(b.id));
+  // planned builds have no curves yet by nature; only built and tested ones are worth naming
+  const noCurve = chosen.filter((b) => !curveOf.has(b.id) && b.status !== 'planned');
   const withCurve = chosen.filter((b) => curveOf.has(b.id));
   const leftOutWithoutCurve = noCurve.map((b) => ({ buildId: b.id, code: b.code, reason: 'no polarization curve of record' }));
   const keys = seriesKeysOf(body.variable, recipeFactors);

@@ -18,20 +18,20 @@ const VARIABLES = { temperature: 'Cell temperature → activation energy', press
 function estimateText(data: SeriesData): string {
   if (data.estimate == null) return '—';
   const digits = data.kind === 'arrhenius' ? 1 : 2;
-  return `${formatNumber(data.estimate, digits)}${data.unit ? ` ${data.unit}` : ''}`;
+  return `${formatNumber(data.estimate, digits)}${data.unit && data.unit !== 'dimensionless' ? ` ${data.unit}` : ''}`;
 }
 
 function intervalText(data: SeriesData): string {
   if (data.low == null || data.high == null) return 'no interval: two builds leave no degrees of freedom';
   const digits = data.kind === 'arrhenius' ? 1 : 2;
-  return `${Math.round(data.confidence * 100)} % interval ${formatNumber(data.low, digits)} to ${formatNumber(data.high, digits)}${data.unit ? ` ${data.unit}` : ''}`;
+  return `${Math.round(data.confidence * 100)} % interval ${formatNumber(data.low, digits)} to ${formatNumber(data.high, digits)}${data.unit && data.unit !== 'dimensionless' ? ` ${data.unit}` : ''}`;
 }
 
 function ResultCard({ data }: { data: SeriesData }) {
   const arrhenius = data.kind === 'arrhenius';
   return (
     <div className="space-y-2" data-testid="series-result">
-      <div className="text-xs font-medium uppercase tracking-wide text-ink-500">{arrhenius ? 'Apparent activation energy Eₐ' : 'Apparent reaction order'}</div>
+      <div className="text-xs font-medium uppercase tracking-wide text-ink-500">{arrhenius ? 'Apparent activation energy Eₐ' : 'Apparent reaction order (dimensionless)'}</div>
       <div className="font-mono text-2xl font-semibold tabular-nums text-ink-950">{estimateText(data)}</div>
       <div className="text-sm text-ink-700">{intervalText(data)}</div>
       {!arrhenius && data.noDependenceWithinNoise === true && (
