@@ -41,14 +41,15 @@ const num = (value: unknown): number | null => (typeof value === 'number' && Num
 /**
  * A build's precious-metal economy.
  * Definition: metal loading = the build's measured metal loading (a loading × metal content from
- * the catalyst's records is not available yet: "needs the catalyst's metal content"); power = V_ref
+ * the catalyst's records is not available yet: "needs the catalyst's metal content"), counted as
+ * precious only when the project names a precious metal by recording its price; power = V_ref
  * × j at V_ref on the measured cell voltage when the curve reaches V_ref, else the peak power;
  * g/kW and cost per kW by metalEconomy. The loading counts as one priced metal when the project
  * records exactly one metal price; with several prices the split by metal is needed for a cost.
  * Reference: as metalEconomy (unit algebra: 1 mg/W = 1 g/kW).
  * Cost: O(prices).
  * @throws never for stored values (non-finite inputs give nulls with notes).
- * @example buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: 0.4, values: { peakPower: 0.5 } }, { refVoltage: 0.6 }).gPerKw // 0.8
+ * @example buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: 0.4, values: { peakPower: 0.5 } }, { refVoltage: 0.6, metalPrices: [ptPrice] }).gPerKw // 0.8
  */
 export function buildEconomy(build: BuildEconomyInput, settings: BuildEconomySettings): BuildEconomy {
   const metal = num(build.metalLoadingMgCm2);
@@ -68,9 +69,14 @@ export function buildEconomy(build: BuildEconomyInput, settings: BuildEconomySet
     costPerKw: null, costUnit: null, priceDate: null, priceSource: null, costNote: null, method, economy: null,
   };
   if (metal === null) return { ...empty, loadingNote: 'needs the catalyst’s metal content (or a measured metal loading)', powerNote: 'needs the metal loading', costNote: 'needs the metal loading' };
+  // the project names its precious metals by pricing them; a metal loading of a PGM-free catalyst (Fe, Co) is not one
+  if (prices.length === 0) {
+    const why = 'no precious metal named: a PI records each precious metal with its price in the project settings (none for a PGM-free electrode)';
+    return { ...empty, loadingSource: null, metalLoadingMgCm2: null, loadingNote: why, powerNote: why, costNote: why };
+  }
   if (power === null) return { ...empty, powerNote: 'needs a polarization curve that reaches V_ref or gives a peak power', costNote: 'needs g/kW' };
   const priced = prices.length === 1 ? prices[0]! : null;
-  const metalName = priced?.metal ?? 'precious metal';
+  const metalName = priced?.metal ?? prices.map((p) => p.metal).join('+');
   let economy: MetalEconomy;
   try {
     economy = metalEconomy({ electrodes: [{ electrode: 'MEA', metals: [{ metal: metalName, loadingMgCm2: metal }] }], powerDensityWcm2: power, powerLabel: powerLabel!, prices: priced ? [priced] : undefined });
@@ -79,8 +85,7 @@ export function buildEconomy(build: BuildEconomyInput, settings: BuildEconomySet
     return { ...empty, costNote: error.message.replace(/^\w+: /, '') };
   }
   const result: BuildEconomy = { ...empty, gPerKw: economy.gPerKw, economy };
-  if (prices.length === 0) result.costNote = 'no metal price recorded for the project (PI: project settings)';
-  else if (!priced) result.costNote = `needs the catalyst’s metal content per metal to price ${prices.map((p) => p.metal).join(' and ')} separately`;
+  if (!priced) result.costNote = `needs the catalyst’s metal content per metal to price ${prices.map((p) => p.metal).join(' and ')} separately`;
   else if (economy.cost) {
     result.costPerKw = economy.cost.costPerKw;
     result.costUnit = economy.cost.unit;

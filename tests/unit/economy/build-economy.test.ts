@@ -18,12 +18,15 @@ describe('buildEconomy', () => {
 
   it('falls back to peak power, and says what is missing', () => {
     // derived by hand: 0.4 mg/cm² ÷ 0.5 W/cm² = 0.8 g/kW
-    const peak = buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: 0.4, values: { jAtRef: null, peakPower: 0.5 } }, { refVoltage: 0.6 });
+    const peak = buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: 0.4, values: { jAtRef: null, peakPower: 0.5 } }, { refVoltage: 0.6, metalPrices: [PRICE] });
     expect(peak.gPerKw).toBeCloseTo(0.8, 12);
     expect(peak.powerLabel).toMatch(/peak/);
-    expect(peak.costPerKw).toBeNull();
-    expect(peak.costNote).toMatch(/no metal price/);
-    const noMetal = buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: null, values: { peakPower: 0.5 } }, { refVoltage: 0.6 });
+    expect(peak.costPerKw).toBeCloseTo(24, 10); // 0.8 g/kW × 30 EUR/g (derived by hand)
+    // no precious metal named (a PGM-free project): no figures, and why
+    const pgmFree = buildEconomy({ loadingMgCm2: 3, metalLoadingMgCm2: 0.06, values: { peakPower: 0.5 } }, { refVoltage: 0.6 });
+    expect(pgmFree.gPerKw).toBeNull();
+    expect(pgmFree.loadingNote).toMatch(/no precious metal named/);
+    const noMetal = buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: null, values: { peakPower: 0.5 } }, { refVoltage: 0.6, metalPrices: [PRICE] });
     expect(noMetal.gPerKw).toBeNull();
     expect(noMetal.loadingNote).toMatch(/needs the catalyst’s metal content/);
     const twoPrices = buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: 0.4, values: { peakPower: 0.5 } }, { refVoltage: 0.6, metalPrices: [PRICE, { ...PRICE, metal: 'Ru', pricePerGram: 15 }] });
