@@ -129,3 +129,17 @@ describe('PUT /api/projects/:id/metal-prices', () => {
     expect(JSON.stringify(badDate.body)).toMatch(/date/);
   });
 });
+
+describe('project rules for long logs', () => {
+  it('a PI sets the onset and settling rules in the settings; the logs are measured again by them', async () => {
+    const project = (await h.as.pi.get(`/api/projects/${ids.project('A')}`)).body.project ?? (await h.as.pi.get(`/api/projects/${ids.project('A')}`)).body;
+    const settings = { ...project.settings, onsetRule: { minRateRatio: 40 }, holdRule: { settleMinutes: 30 } };
+    const res = await h.as.pi.patch(`/api/projects/${ids.project('A')}`, { settings });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.project.recomputedCurves).toBeGreaterThan(0);
+    const ast = (await curvesOf('A-018')).find((c) => c.kind === 'durability')!;
+    expect(ast.method.onsetHours.inputs.rule).toMatch(/minRateRatio 40/);
+    const hold = (await curvesOf('A-017')).find((c) => c.kind === 'hold')!;
+    expect(hold.method.holdDecay.method).toMatch(/first 30 min/);
+  });
+});
