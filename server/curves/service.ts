@@ -10,7 +10,7 @@ import { STANDARD_ATMOSPHERE_KPA } from '../../shared/curves';
 import { recogniseHeaderUnit } from '../../shared/units/recognise-header-unit';
 import { currentSlip, hfrSlip, voltageSlip } from '../../shared/curves/unit-plausibility';
 import type { ParsedTable } from '../../shared/curves';
-import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
+import { durabilityMetrics, downsampleForPlot, upperBound } from '../../shared/durability';
 import { CurveFileError } from '../../shared/curves/types';
 import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, CurveMetrics, HfrUnit, ImpedanceMapping, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
@@ -105,7 +105,7 @@ function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options
   }
   if (curve.kind === 'impedance') return impedanceResult(curve, { circuit: options?.circuit });
   const settings = ref as ReferencePoint & Partial<Pick<ProjectSettings, 'onsetRule' | 'holdRule'>>;
-  const d = durabilityMetrics(curve, options ?? {});
+  let d = durabilityMetrics(curve, options ?? {});
   const extra: { metrics: Partial<CurveMetrics>; notes: MetricsResult['metricNotes']; method: MetricsResult['method']; summary: MetricsResult['summary'] } = { metrics: {}, notes: {}, method: {}, summary: {} };
   if (curve.kind === 'durability') {
     // the search starts after break-in unless a rule says where
@@ -117,6 +117,19 @@ function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options
     if (onset.note) extra.notes.onsetHours = onset.note;
     extra.method.onsetHours = onset.method;
     extra.summary = onset.summary;
+    // after an onset of rapid failure the loss is no longer the steady rate: fit the rate up to it
+    if (onset.value !== null && curve.tHours && !(options?.windows?.length)) {
+      const cut = upperBound(curve.tHours, onset.value);
+      const part = (column: Float64Array | undefined) => column?.subarray(0, cut);
+      try {
+        const before = durabilityMetrics({ ...curve, j: curve.j.subarray(0, cut), v: curve.v.subarray(0, cut), hfr: part(curve.hfr), tHours: part(curve.tHours), temperatureC: part(curve.temperatureC), vIrFree: part(curve.vIrFree) }, options ?? {});
+        const upTo = `rate fitted up to the onset of rapid failure at ${Math.round(onset.value)} h`;
+        d = { ...before, method: before.method ? `${before.method}; ${upTo}` : upTo, notes: [...(before.notes ?? []), upTo] };
+        extra.summary.rateUpToOnset = true;
+      } catch (error) {
+        if (!(error instanceof RangeError)) throw error;
+      }
+    }
   } else {
     const hold = holdMetricValues(curve, holdRuleOf(settings.holdRule, options?.holdRule));
     Object.assign(extra, { metrics: hold.metrics, notes: hold.notes, method: hold.method, summary: hold.summary });

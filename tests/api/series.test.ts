@@ -76,6 +76,10 @@ describe('demo holds, accelerated test and impedance', () => {
     const ast = (await curvesOf('A-018')).find((c) => c.kind === 'durability')!;
     expect(Math.abs(ast.metrics.onsetHours! - 900)).toBeLessThan(100); // 900 h: the invented change point; tolerance from memory
     expect(ast.method.onsetHours.inputs.rule).toMatch(/minRateRatio 3/);
+    // the steady rate is fitted up to the onset only (the invented log loses 15 µV/h before it)
+    expect(ast.method.degradationRate.method).toMatch(/up to the onset of rapid failure at 9\d\d h/);
+    expect(Number(ast.summary.degradationLow)).toBeLessThan(15);
+    expect(Number(ast.summary.degradationHigh)).toBeGreaterThan(15);
     const steady = (await curvesOf('C-010')).find((c) => c.kind === 'durability')!;
     expect(steady.metrics.onsetHours).toBeNull();
     expect(steady.metricNotes.onsetHours).toMatch(/no onset/);

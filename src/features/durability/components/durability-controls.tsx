@@ -98,7 +98,7 @@ export function DurabilityControls({ curve, update, canEdit }: { curve: CurveSum
           <>
             <div title={curve.method.holdDecay?.method}><dt className="text-xs text-ink-500">Hold decay</dt><dd className="num">{curve.metrics.holdDecay == null ? '—' : `${formatNumber(curve.metrics.holdDecay, 2)} mV/h`}</dd></div>
             <div title={curve.method.holdLoss?.method}><dt className="text-xs text-ink-500">Loss over the hold</dt><dd className="num">{curve.metrics.holdLoss == null ? '—' : `${formatNumber(curve.metrics.holdLoss, 1)} mV`}</dd></div>
-            <p className="col-span-2 text-[11px] text-ink-500">Settling rule: the first minutes after the load is removed are skipped ({(() => { try { const r = JSON.parse(String(s.holdRule ?? '{}')) as { settleMinutes?: number; edgeMinutes?: number }; return `${r.settleMinutes ?? 15} min; loss from the first and last ${r.edgeMinutes ?? 10} min of the rest`; } catch { return '15 min'; } })()}).</p>
+            <div className="col-span-2"><dt className="sr-only">Settling rule</dt><dd className="text-[11px] text-ink-500">Settling rule: the first minutes after the load is removed are skipped ({(() => { try { const r = JSON.parse(String(s.holdRule ?? '{}')) as { settleMinutes?: number; edgeMinutes?: number }; return `${r.settleMinutes ?? 15} min; loss from the first and last ${r.edgeMinutes ?? 10} min of the rest`; } catch { return '15 min'; } })()}).</dd></div>
           </>
         )}
         <div><dt className="text-xs text-ink-500">Break-in</dt><dd className="num">{curve.metrics.breakInHours == null ? '—' : `${formatNumber(curve.metrics.breakInHours, 0)} h`} <span className="text-[11px] text-ink-500">({source === 'user' ? 'set by hand' : source})</span></dd></div>
