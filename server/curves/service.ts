@@ -124,7 +124,8 @@ function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options
       try {
         const before = durabilityMetrics({ ...curve, j: curve.j.subarray(0, cut), v: curve.v.subarray(0, cut), hfr: part(curve.hfr), tHours: part(curve.tHours), temperatureC: part(curve.temperatureC), vIrFree: part(curve.vIrFree) }, options ?? {});
         const upTo = `rate fitted up to the onset of rapid failure at ${Math.round(onset.value)} h`;
-        d = { ...before, method: before.method ? `${before.method}; ${upTo}` : upTo, notes: [...(before.notes ?? []), upTo] };
+        // the log ran its whole length: hours run and interruptions stay those of the whole log
+        d = { ...before, hoursRun: d.hoursRun, interruptions: d.interruptions, method: before.method ? `${before.method}; ${upTo}` : upTo, notes: [...(before.notes ?? []), upTo] };
         extra.summary.rateUpToOnset = true;
       } catch (error) {
         if (!(error instanceof RangeError)) throw error;
