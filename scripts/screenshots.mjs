@@ -24,6 +24,8 @@ try {
     ['gains', '/projects/1/gains'],
     ['lineage', '/projects/1/lineage'],
     ['durability', '/projects/1/durability'],
+    ['series', '/projects/2/series'],
+    ['durability-anode', '/projects/2/durability'],
     ['account', '/account'],
     ['surface', '/projects/1/surface'],
     ['plan', '/projects/1/plan'],

@@ -117,6 +117,10 @@ export interface CurvePoints {
   vIrFree?: (number | null)[] | null;
   tHours?: number[] | null;
   temperatureC?: number[] | null;
+  /** impedance spectra: frequency (Hz, falling), Z′ and Z″ (Ω·cm², Z″ = Im Z) */
+  frequencyHz?: number[];
+  zReal?: number[];
+  zImag?: number[];
   downsampled: boolean;
   total: number;
 }
@@ -159,3 +163,4 @@ export interface PlanProposalResult {
   support: SupportCheck;
   limit: BoundedValue;
 }
+export type * from './api-types/series';

@@ -64,6 +64,8 @@ function summarizeMetrics(rows: CurveMetricRow[], metricsVersion: number) {
     entry.records[row.kind as CurveKind] = row.id;
     if (row.metrics && (row.metricsVersion === metricsVersion || row.kind !== 'polarization')) {
       for (const key of metricsOfKind(row.kind as CurveKind)) {
+        // a spectrum's HFR stays on its curve: the build's `hfr` is its polarization curve's
+        if (row.kind === 'impedance' && key === 'hfr') continue;
         const v = (row.metrics as unknown as Record<string, number | null | undefined>)[key];
         if (v !== undefined) entry.values[key] = v;
       }

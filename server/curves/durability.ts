@@ -5,7 +5,7 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { AppContext } from '../context';
 import { builds, curves, labs } from '../db/schema';
 import type { ProjectAccess } from '../auth/access';
-import { TYPICAL_DEGRADATION_BAND } from '../../shared/durability';
+import { DEFAULT_ONSET_RULE, TYPICAL_DEGRADATION_BAND, kaplanMeier, survivalAt, survivalUnits } from '../../shared/durability';
 import type { DurabilityComparison, DurabilityRow } from '../../shared/api-types';
 
 const num = (value: unknown): number | null => (typeof value === 'number' && Number.isFinite(value) ? value : null);
@@ -60,11 +60,41 @@ export function durabilityComparison(ctx: AppContext, access: ProjectAccess): Du
       temperatureC: num(s.temperatureC) ?? num(b.testConditions?.temperatureC),
       note: c.metricNotes?.degradationRate ?? null,
       isRecord: c.isRecord,
+      onsetHours: c.kind === 'durability' ? num(c.metrics.onsetHours) : null,
+      onsetNote: c.kind === 'durability' ? (c.metricNotes as Record<string, string> | null)?.onsetHours ?? null : null,
+      onsetRule: typeof s.onsetRule === 'string' ? s.onsetRule : null,
+      holdDecay: c.kind === 'hold' ? num(c.metrics.holdDecay) : null,
+      holdDecayLow: c.kind === 'hold' ? num(s.holdDecayLow) : null,
+      holdDecayHigh: c.kind === 'hold' ? num(s.holdDecayHigh) : null,
+      holdLoss: c.kind === 'hold' ? num(c.metrics.holdLoss) : null,
+      holdRule: typeof s.holdRule === 'string' ? s.holdRule : null,
     };
   });
 }
 
-/** GET /api/projects/:id/durability: the rows and the typical band to read them against. */
+/**
+ * Survival of the builds' durability logs of record: a build fails at its onset of rapid failure,
+ * and a log without one is censored at its length (Kaplan–Meier).
+ */
+function survivalOf(rows: DurabilityRow[]): DurabilityComparison['survival'] {
+  const logs = rows.filter((r) => r.kind === 'durability' && r.isRecord && r.hoursRun != null && r.hoursRun > 0);
+  if (logs.length === 0) return null;
+  const units = survivalUnits(logs.map((r) => ({ buildId: r.buildId, onsetHours: r.onsetHours, hoursRun: r.hoursRun! })));
+  const curve = kaplanMeier(units);
+  const longest = Math.max(...logs.map((r) => r.hoursRun!));
+  // milestones: round hours the trade quotes, up to the longest log
+  const milestones = [500, 1000, 2000, 3000, 5000].filter((hours) => hours <= longest);
+  return {
+    units: units.map((u) => ({ ...u, code: logs.find((r) => r.buildId === u.buildId)!.code })),
+    steps: curve.steps,
+    medianHours: curve.medianHours,
+    method: curve.method,
+    reached: milestones.map((hours) => survivalAt(units, hours)),
+  };
+}
+
+/** GET /api/projects/:id/durability: the rows, the typical band to read them against, and survival. */
 export function durabilityAnswer(ctx: AppContext, access: ProjectAccess): DurabilityComparison {
-  return { curves: durabilityComparison(ctx, access), typicalBand: TYPICAL_DEGRADATION_BAND };
+  const rows = durabilityComparison(ctx, access);
+  return { curves: rows, typicalBand: TYPICAL_DEGRADATION_BAND, survival: survivalOf(rows), onsetRule: DEFAULT_ONSET_RULE };
 }

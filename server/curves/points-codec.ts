@@ -2,8 +2,8 @@
 // Layout: "CWP1" | uint32 pointCount | uint32 columnMask | column arrays in mask order.
 import type { CurveData, CurveKind } from '../../shared/curves/types';
 
-// vIrFree came later: it takes the next bit, so blobs written before it still read.
-const COLUMNS = ['j', 'v', 'hfr', 'tHours', 'temperatureC', 'vIrFree'] as const;
+// vIrFree and the impedance columns came later: each takes the next bit, so older blobs still read.
+const COLUMNS = ['j', 'v', 'hfr', 'tHours', 'temperatureC', 'vIrFree', 'frequencyHz', 'zReal', 'zImag'] as const;
 type ColumnName = (typeof COLUMNS)[number];
 const HEADER = 12;
 
@@ -49,5 +49,6 @@ export function decodePoints(blob: Buffer | Uint8Array, kind: CurveKind): CurveD
   });
   const data: CurveData = { kind, j: out.j ?? new Float64Array(n), v: out.v ?? new Float64Array(n), hfr: out.hfr, tHours: out.tHours, temperatureC: out.temperatureC };
   if (out.vIrFree) data.vIrFree = out.vIrFree;
+  if (out.frequencyHz) Object.assign(data, { frequencyHz: out.frequencyHz, zReal: out.zReal, zImag: out.zImag });
   return data;
 }

@@ -17,7 +17,7 @@ type BuildRow = typeof builds.$inferSelect;
 type Tx = Parameters<Parameters<AppContext['db']['transaction']>[0]>[0];
 type Reader = AppContext['db'] | Tx;
 
-const KIND_WORD: Record<CurveKind, string> = { polarization: 'polarization curve', durability: 'durability log', hold: 'open-circuit hold' };
+const KIND_WORD: Record<CurveKind, string> = { polarization: 'polarization curve', durability: 'durability log', hold: 'open-circuit hold', impedance: 'impedance spectrum' };
 
 /** The build's curve of record of one kind (id and label), or null when it has no curve of that kind. */
 export function recordOf(db: Reader, buildId: number, kind: CurveKind): { id: number; label: string } | null {

@@ -10,10 +10,10 @@ import { STANDARD_ATMOSPHERE_KPA } from '../../shared/curves';
 import { recogniseHeaderUnit } from '../../shared/units/recognise-header-unit';
 import { currentSlip, hfrSlip, voltageSlip } from '../../shared/curves/unit-plausibility';
 import type { ParsedTable } from '../../shared/curves';
-import { durabilityMetrics, downsampleForPlot } from '../../shared/durability';
+import { durabilityMetrics, downsampleForPlot, upperBound } from '../../shared/durability';
 import { median } from '../../shared/stats/median';
 import { CurveFileError } from '../../shared/curves/types';
-import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, HfrUnit, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
+import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, CurveMetrics, HfrUnit, ImpedanceMapping, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
 import { metricEntry, metricsOfKind, nullMetrics } from '../../shared/curves/metric-catalogue';
 import { parseUpload } from '../uploads/parse-runner';
@@ -27,6 +27,12 @@ import type { UploadFields } from '../../shared/api-types';
 import { notifyAfterUpload } from '../review/notify';
 import { nextStatus } from '../../shared/builds/status';
 import { deleteCurveKeepingRecord, recordOf } from './record';
+import { holdMetricValues, holdRuleOf, impedanceResult, onsetMetric, onsetRuleOf } from './kind-metrics';
+import type { OnsetRule } from '../../shared/durability';
+import type { HoldRule } from '../../shared/hold';
+import type { CircuitKind } from '../../shared/impedance';
+import { detectImpedanceColumns, spectrumFromTable } from '../../shared/impedance';
+import type { ProjectSettings } from '../../shared/schemas/project';
 
 /** Give the event loop a turn between the long synchronous steps of a big upload. */
 const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
@@ -46,6 +52,12 @@ export interface DurabilityOptions {
   breakInHours?: number;
   windows?: { fromHours: number; toHours: number }[];
   lossFraction?: number;
+  /** the onset rule of this curve, over the project's (durability logs) */
+  onsetRule?: Partial<OnsetRule>;
+  /** the settling rule of this curve, over the project's (holds) */
+  holdRule?: Partial<HoldRule>;
+  /** impedance: which equivalent circuit to fit (default charge-transfer) */
+  circuit?: CircuitKind;
 }
 
 /** Error raised when the columns need a person to confirm them: 422 with a preview. */
@@ -80,7 +92,7 @@ export function referencePoint(project: typeof projects.$inferSelect): Reference
  * curves measured by an older rule are measured again at start-up, so no stored number predates
  * the rules the README states.
  */
-export const METRICS_ALGORITHM = 2;
+export const METRICS_ALGORITHM = 3;
 
 export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null): MetricsResult {
   const result = measure(curve, ref, build, options);
@@ -92,21 +104,54 @@ function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options
   if (curve.kind === 'polarization') {
     return polarizationMetrics(curve, ref, { loadingMgCm2: build.loadingMgCm2, metalLoadingMgCm2: build.metalLoadingMgCm2 }, { h2CrossoverAcm2: (build.testConditions?.h2CrossoverMAcm2 ?? 0) / 1000 });
   }
-  const d = durabilityMetrics(curve, options ?? {});
+  if (curve.kind === 'impedance') return impedanceResult(curve, { circuit: options?.circuit });
+  const settings = ref as ReferencePoint & Partial<Pick<ProjectSettings, 'onsetRule' | 'holdRule'>>;
+  let d = durabilityMetrics(curve, options ?? {});
+  const extra: { metrics: Partial<CurveMetrics>; notes: MetricsResult['metricNotes']; method: MetricsResult['method']; summary: MetricsResult['summary'] } = { metrics: {}, notes: {}, method: {}, summary: {} };
+  if (curve.kind === 'durability') {
+    // the search starts after break-in unless a rule says where
+    const startGiven = settings.onsetRule?.startHours !== undefined || options?.onsetRule?.startHours !== undefined;
+    const rule = onsetRuleOf(settings.onsetRule, options?.onsetRule);
+    if (!startGiven && d.breakInHours != null) rule.startHours = d.breakInHours;
+    const onset = onsetMetric(curve, rule);
+    extra.metrics.onsetHours = onset.value;
+    if (onset.note) extra.notes.onsetHours = onset.note;
+    extra.method.onsetHours = onset.method;
+    extra.summary = onset.summary;
+    // after an onset of rapid failure the loss is no longer the steady rate: fit the rate up to it
+    if (onset.value !== null && curve.tHours && !(options?.windows?.length)) {
+      const cut = upperBound(curve.tHours, onset.value);
+      const part = (column: Float64Array | undefined) => column?.subarray(0, cut);
+      try {
+        const before = durabilityMetrics({ ...curve, j: curve.j.subarray(0, cut), v: curve.v.subarray(0, cut), hfr: part(curve.hfr), tHours: part(curve.tHours), temperatureC: part(curve.temperatureC), vIrFree: part(curve.vIrFree) }, options ?? {});
+        const upTo = `rate fitted up to the onset of rapid failure at ${Math.round(onset.value)} h`;
+        // the log ran its whole length: hours run and interruptions stay those of the whole log
+        d = { ...before, hoursRun: d.hoursRun, interruptions: d.interruptions, method: before.method ? `${before.method}; ${upTo}` : upTo, notes: [...(before.notes ?? []), upTo] };
+        extra.summary.rateUpToOnset = true;
+      } catch (error) {
+        if (!(error instanceof RangeError)) throw error;
+      }
+    }
+  } else {
+    const hold = holdMetricValues(curve, holdRuleOf(settings.holdRule, options?.holdRule));
+    Object.assign(extra, { metrics: hold.metrics, notes: hold.notes, method: hold.method, summary: hold.summary });
+  }
   return {
     metrics: {
       ...nullMetrics(metricsOfKind('polarization')),
       degradationRate: d.degradationRate, breakInHours: d.breakInHours,
+      ...extra.metrics,
     },
-    metricNotes: d.degradationRate == null ? { degradationRate: d.notes.join(' ') || 'not enough data after break-in' } : {},
+    metricNotes: { ...(d.degradationRate == null ? { degradationRate: d.notes.join(' ') || 'not enough data after break-in' } : {}), ...extra.notes },
     method: {
+      ...extra.method,
       degradationRate: {
         method: d.method || 'straight-line fit of voltage vs time after break-in; restarts and gaps fitted as separate segments; 95 % interval from the slope standard error',
         inputs: { fromHours: d.fitWindow?.fromHours ?? null, toHours: d.fitWindow?.toHours ?? null, breakInRule: d.breakInRule ?? null, assumptions: d.intervalAssumptions, stillInBreakIn: d.stillInBreakIn },
       },
       breakInHours: { method: d.breakInRule ?? 'given by the user', inputs: { breakInHours: d.breakInHours ?? null } },
     },
-    summary: { ...durabilitySummary(d), currentDensity: sampledMedian(curve.j), temperatureC: sampledMedian(curve.temperatureC) },
+    summary: { ...durabilitySummary(d), ...extra.summary, currentDensity: sampledMedian(curve.j), temperatureC: sampledMedian(curve.temperatureC) },
   };
 }
 
@@ -159,12 +204,13 @@ export const PROFILE_REQUIRES: Record<CurveKind, readonly (keyof ColumnMapping)[
   polarization: ['current', 'voltage'],
   durability: ['time', 'voltage'],
   hold: ['time', 'voltage'],
+  impedance: ['frequency', 'zReal', 'zImag'],
 };
-const QUANTITY_WORDS: Record<string, string> = { current: 'current', voltage: 'voltage', hfr: 'HFR', time: 'time', temperature: 'temperature' };
+const QUANTITY_WORDS: Record<string, string> = { current: 'current', voltage: 'voltage', hfr: 'HFR', time: 'time', temperature: 'temperature', frequency: 'frequency', zReal: 'Z′', zImag: 'Z″', magnitude: '|Z|', phase: 'phase' };
 
 function missingForKind(kind: CurveKind, mapping: Partial<Record<string, unknown>>): string[] {
-  // a file's own iR-free voltage column stands in for the cell voltage (the metrics read it)
-  return PROFILE_REQUIRES[kind].filter((quantity) => !mapping[quantity] && !(quantity === 'voltage' && mapping.voltageIrFree));
+  // a file's own iR-free voltage column stands in for the cell voltage; |Z| with phase for Z′ and Z″
+  return PROFILE_REQUIRES[kind].filter((quantity) => !mapping[quantity] && !(quantity === 'voltage' && mapping.voltageIrFree) && !((quantity === 'zReal' || quantity === 'zImag') && mapping.magnitude && mapping.phase));
 }
 
 /** A 400 unless the profile maps every column its kind of curve needs. */
@@ -253,70 +299,116 @@ export async function ingestUpload(
     const { table } = read;
     // the area the upload will use: given with it, else the file's, else the build's record
     const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? build.areaCm2 ?? null;
-    const detection = detectMapping(table, options.kind, { areaCm2 });
-    const kind: CurveKind = options.kind ?? detection.kind;
-    const askExtra = { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null };
-
+    let kind: CurveKind;
     let mapping: ColumnMapping | null = null;
     let mappingSource = 'detected';
     /** why a profile was not used, when one was asked for or named the file's headers */
     let profileNote: string | null = null;
-    if (options.mapping) {
-      checkMappingColumns(options.mapping, table);
-      mapping = options.mapping;
-      mappingSource = 'confirmed';
-    } else if (options.profileId) {
-      const profile = db.select().from(importProfiles).where(eq(importProfiles.id, options.profileId)).get();
-      if (!profile || (profile.projectId != null && profile.projectId !== access.projectId)) throw notFound(`Import profile ${options.profileId}`);
-      const fit = profileToMapping(profile, table, kind, table.conditions.areaCm2 ?? build.areaCm2 ?? null);
-      if (fit.mapping) {
-        mapping = fit.mapping;
-        mappingSource = `profile ${profile.name}`;
-      } else {
-        profileNote = `${fit.problem}; the columns were detected instead`;
-        if (detection.mapping && !detection.ambiguous) mapping = detection.mapping;
-      }
-    } else {
-      const match = findMatchingProfile(ctx, access.projectId, build.labId, table, kind, table.conditions.areaCm2 ?? build.areaCm2 ?? null);
-      profileNote = match.note;
-      if (match.profile) {
-        mapping = match.mapping;
-        mappingSource = `profile ${match.profile.name}`;
-      } else if (detection.mapping && !detection.ambiguous) {
-        mapping = detection.mapping;
-      }
-    }
-
-    if (options.previewOnly) {
-      return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, profileNote, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null } };
-    }
-    if (!mapping) throw mappingNeeded(table, detection, { ...askExtra, ...(profileNote && { profileMismatch: profileNote }) });
-
-    options.progress?.phase('measuring', null);
-    await yieldToEventLoop();
-    let data: ReturnType<typeof applyMapping>;
-    try {
-      data = applyMapping(table, mapping, { kind, areaCm2, reuseColumns: true });
-      checkEnoughData(data);
-    } catch (error) {
-      throw asUnprocessable(placeWholeFileError(error, table, mapping), upload.originalName);
-    }
-    const notes = importNotes(table, data.notes);
-    if (mappingSource.startsWith('profile')) notes.unshift(`columns and units from the import ${mappingSource.replace(/^profile /, 'profile "')}"`);
-    const { mismatches, notes: conditionNotes } = compareConditions(table.conditions, build);
-    notes.push(...conditionNotes);
-    // The mapped columns now live in `data` (converted in place); let the rest go before measuring.
-    table.columns.fill(null);
-    const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+    let data: CurveData & { areaCm2: number | null };
+    let notes: string[];
+    let mismatches: ConditionMismatch[];
     let result: MetricsResult;
-    try {
-      result = computeMetrics(data, referencePoint(project), build);
-      if (kind === 'durability') checkHoursAfterBreakIn(data, result.metrics.breakInHours ?? null);
-    } catch (error) {
-      if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
-      throw asUnprocessable(placeWholeFileError(error, table, mapping), upload.originalName);
+    const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+    const impedanceColumns = options.kind === undefined || options.kind === 'impedance' ? detectImpedanceColumns(table) : null;
+    // a confirmed mapping without a frequency column is not a spectrum, whatever the headers suggest
+    if (options.kind === 'impedance' || (impedanceColumns?.mapping && !(options.mapping && !options.mapping.frequency))) {
+      // an impedance spectrum: frequency, Z′ and Z″ (or |Z| and phase), measured by the circuit fit
+      kind = 'impedance';
+      const confirmed = options.mapping as ImpedanceMapping | undefined;
+      if (confirmed) {
+        checkMappingColumns(confirmed as ColumnMapping, table);
+        if (!confirmed.frequency) throw new AppError(400, 'validation', 'mapping.frequency: an impedance spectrum needs its frequency column.', { fields: [{ path: 'mapping.frequency', message: 'required' }] });
+        mappingSource = 'confirmed';
+      }
+      const impedanceMapping = confirmed ?? impedanceColumns?.mapping ?? null;
+      if (options.previewOnly) {
+        return { preview: { ...previewOf(table), detected: impedanceColumns?.mapping ?? null, applied: impedanceMapping, mappingSource, profileNote, ambiguous: false, reasons: impedanceColumns?.reasons ?? [], kind, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null } };
+      }
+      if (!impedanceMapping) {
+        throw new AppError(422, 'mapping-needed', `${upload.originalName}: please confirm the columns: ${(impedanceColumns?.reasons ?? ['the frequency, Z′ and Z″ columns could not be recognised']).join('; ')}.`, { preview: { ...previewOf(table), buildAreaCm2: build.areaCm2 ?? null }, detected: null, kind, reasons: impedanceColumns?.reasons ?? [], fileName: upload.originalName });
+      }
+      mapping = impedanceMapping as ColumnMapping;
+      let spectrum;
+      try {
+        spectrum = spectrumFromTable(table, impedanceMapping, areaCm2);
+      } catch (error) {
+        throw asUnprocessable(error, upload.originalName);
+      }
+      const n = spectrum.frequencyHz.length;
+      data = { kind, j: new Float64Array(n).fill(NaN), v: new Float64Array(n).fill(NaN), frequencyHz: spectrum.frequencyHz, zReal: spectrum.zReal, zImag: spectrum.zImag, areaCm2: spectrum.areaFactor === 1 || spectrum.areaFactor === 1e-3 ? null : areaCm2 };
+      notes = [...importNotes(table, []), ...(impedanceColumns && !confirmed ? impedanceColumns.reasons : []), ...spectrum.notes];
+      const compared = compareConditions(table.conditions, build);
+      mismatches = compared.mismatches;
+      notes.push(...compared.notes);
+      table.columns.fill(null);
+      try {
+        result = computeMetrics(data, referencePoint(project), build);
+      } catch (error) {
+        if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
+        throw error;
+      }
+      result.summary.signConvention = spectrum.convention;
+      result.summary.areaFactor = spectrum.areaFactor;
+    } else {
+      const detection = detectMapping(table, options.kind, { areaCm2 });
+      kind = options.kind ?? detection.kind;
+      const askExtra = { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null };
+
+      if (options.mapping) {
+        checkMappingColumns(options.mapping, table);
+        mapping = options.mapping;
+        mappingSource = 'confirmed';
+      } else if (options.profileId) {
+        const profile = db.select().from(importProfiles).where(eq(importProfiles.id, options.profileId)).get();
+        if (!profile || (profile.projectId != null && profile.projectId !== access.projectId)) throw notFound(`Import profile ${options.profileId}`);
+        const fit = profileToMapping(profile, table, kind, table.conditions.areaCm2 ?? build.areaCm2 ?? null);
+        if (fit.mapping) {
+          mapping = fit.mapping;
+          mappingSource = `profile ${profile.name}`;
+        } else {
+          profileNote = `${fit.problem}; the columns were detected instead`;
+          if (detection.mapping && !detection.ambiguous) mapping = detection.mapping;
+        }
+      } else {
+        const match = findMatchingProfile(ctx, access.projectId, build.labId, table, kind, table.conditions.areaCm2 ?? build.areaCm2 ?? null);
+        profileNote = match.note;
+        if (match.profile) {
+          mapping = match.mapping;
+          mappingSource = `profile ${match.profile.name}`;
+        } else if (detection.mapping && !detection.ambiguous) {
+          mapping = detection.mapping;
+        }
+      }
+
+      if (options.previewOnly) {
+        return { preview: { ...previewOf(table), detected: detection.mapping, applied: mapping, mappingSource, profileNote, ambiguous: detection.ambiguous, reasons: detection.reasons, kind, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null } };
+      }
+      if (!mapping) throw mappingNeeded(table, detection, { ...askExtra, ...(profileNote && { profileMismatch: profileNote }) });
+
+      options.progress?.phase('measuring', null);
+      await yieldToEventLoop();
+      try {
+        data = applyMapping(table, mapping, { kind, areaCm2, reuseColumns: true });
+        checkEnoughData(data);
+      } catch (error) {
+        throw asUnprocessable(placeWholeFileError(error, table, mapping!), upload.originalName);
+      }
+      notes = importNotes(table, (data as ReturnType<typeof applyMapping>).notes);
+      if (mappingSource.startsWith('profile')) notes.unshift(`columns and units from the import ${mappingSource.replace(/^profile /, 'profile "')}"`);
+      const compared = compareConditions(table.conditions, build);
+      mismatches = compared.mismatches;
+      notes.push(...compared.notes);
+      // The mapped columns now live in `data` (converted in place); let the rest go before measuring.
+      table.columns.fill(null);
+      try {
+        result = computeMetrics(data, referencePoint(project), build);
+        if (kind === 'durability') checkHoursAfterBreakIn(data, result.metrics.breakInHours ?? null);
+      } catch (error) {
+        if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
+        throw asUnprocessable(placeWholeFileError(error, table, mapping!), upload.originalName);
+      }
+      if (kind === 'polarization') refuseEmptyMetrics(result, data, upload.originalName, table, mapping!);
     }
-    if (kind === 'polarization') refuseEmptyMetrics(result, data, upload.originalName, table, mapping);
     options.progress?.phase('storing', null);
     await yieldToEventLoop();
     const points = encodePoints(data);
@@ -523,6 +615,7 @@ export function curvePoints(row: CurveRow, options: { maxPoints?: number; fromHo
     vIrFree: data.vIrFree ? Array.from(data.vIrFree) : null,
     tHours: data.tHours ? Array.from(data.tHours) : null,
     temperatureC: data.temperatureC ? Array.from(data.temperatureC) : null,
+    ...(data.frequencyHz && { frequencyHz: Array.from(data.frequencyHz), zReal: Array.from(data.zReal!), zImag: Array.from(data.zImag!) }),
     downsampled: false,
     total: data.v.length,
   };
@@ -560,12 +653,12 @@ function remeasure(ctx: AppContext, rows: CurveRow[]): number {
   return count;
 }
 
-/** Re-measure every polarization curve of a project at its current reference point (after settings change). */
-export function recomputeProjectMetrics(ctx: AppContext, projectId: number): number {
+/** Re-measure a project's curves of the given kinds (polarization by default) after its settings changed. */
+export function recomputeProjectMetrics(ctx: AppContext, projectId: number, kinds: CurveKind[] = ['polarization']): number {
   const { db } = ctx;
   const buildIds = db.select({ id: builds.id }).from(builds).where(eq(builds.projectId, projectId)).all().map((b) => b.id);
   if (buildIds.length === 0) return 0;
-  return remeasure(ctx, db.select().from(curves).where(and(inArray(curves.buildId, buildIds), eq(curves.kind, 'polarization'))).all());
+  return remeasure(ctx, db.select().from(curves).where(and(inArray(curves.buildId, buildIds), inArray(curves.kind, kinds))).all());
 }
 
 /** Re-measure a build's polarization curves after its loading or H₂ crossover changed. */
@@ -628,7 +721,7 @@ export function deleteProfile(ctx: AppContext, access: ProjectAccess, profile: t
 }
 
 /** Re-measure one curve with new options (e.g. a break-in the user set by hand). */
-export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: CurveRow, options: Omit<DurabilityOptions, 'breakInHours'> & { breakInHours?: number | null }) {
+export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: CurveRow, options: { [K in keyof DurabilityOptions]?: DurabilityOptions[K] | null }) {
   const { db } = ctx;
   const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
   const build = db.select().from(builds).where(eq(builds.id, row.buildId)).get()!;
@@ -638,7 +731,9 @@ export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: 
     if (value === null) delete merged[key as keyof DurabilityOptions];
     else if (value !== undefined) (merged as Record<string, unknown>)[key] = value;
   }
-  if (row.kind === 'polarization') throw new AppError(400, 'validation', 'Break-in, windows and loss fraction apply to durability and hold curves only.', { fields: [{ path: 'breakInHours', message: 'not a durability curve' }] });
+  if (row.kind === 'polarization') throw new AppError(400, 'validation', 'Break-in, windows, loss fraction and the onset and settling rules apply to durability and hold curves only; the circuit to impedance spectra.', { fields: [{ path: Object.keys(options)[0] ?? 'breakInHours', message: 'not a durability curve' }] });
+  if (row.kind === 'impedance' && Object.keys(options).some((key) => key !== 'circuit')) throw new AppError(400, 'validation', 'An impedance spectrum takes only the circuit option.', { fields: Object.keys(options).filter((key) => key !== 'circuit').map((key) => ({ path: key, message: 'not for an impedance spectrum' })) });
+  if (row.kind !== 'impedance' && options.circuit != null) throw new AppError(400, 'validation', 'circuit: only an impedance spectrum is fitted with a circuit.', { fields: [{ path: 'circuit', message: 'not an impedance spectrum' }] });
   for (const w of merged.windows ?? []) {
     if (!(w.toHours > w.fromHours)) throw new AppError(400, 'validation', `windows: a window must end after it starts, got ${w.fromHours}–${w.toHours} h.`, { fields: [{ path: 'windows', message: 'toHours must be above fromHours' }] });
   }

@@ -178,7 +178,7 @@ export const curves = sqliteTable('curves', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   buildId: integer('build_id').notNull().references(() => builds.id, { onDelete: 'cascade' }),
   fileId: integer('file_id').references(() => files.id),
-  kind: text('kind', { enum: ['polarization', 'durability', 'hold'] }).notNull(),
+  kind: text('kind', { enum: ['polarization', 'durability', 'hold', 'impedance'] }).notNull(),
   label: text('label').notNull().default(''),
   mapping: text('mapping', { mode: 'json' }).$type<ColumnMapping>(),
   conditions: text('conditions', { mode: 'json' }).$type<FileConditions>(),
@@ -208,7 +208,7 @@ export const importProfiles = sqliteTable('import_profiles', {
   name: text('name').notNull(),
   /** mapping by header text, so it survives column reordering */
   mapping: text('mapping', { mode: 'json' }).$type<Record<string, { header: string; unit: string; negated?: boolean }>>().notNull(),
-  kind: text('kind', { enum: ['polarization', 'durability', 'hold'] }).notNull().default('polarization'),
+  kind: text('kind', { enum: ['polarization', 'durability', 'hold', 'impedance'] }).notNull().default('polarization'),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: createdAt(),
 });

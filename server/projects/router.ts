@@ -1,5 +1,5 @@
 // HTTP for projects, their factors and hand-entered responses, members, notices and invitations.
-import { factorCreateSchema, notifySchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
+import { factorCreateSchema, metalPricesSchema, notifySchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
 import { inviteCreateSchema, membershipSetSchema } from '../../shared/schemas/auth';
 import { defineFeature, route } from '../lib/route';
 import { emailLinks } from '../lib/base-url';
@@ -26,6 +26,11 @@ export const projectsFeature = defineFeature('projects', [
     method: 'patch', path: '/api/projects/{id}', tag: 'projects', permission: { action: 'editSettings', on: 'project' }, body: projectUpdateSchema,
     summary: 'Update a project; a new reference point recomputes every curve’s metrics',
     handle: ({ ctx, access, body }) => ({ project: projects.updateProject(ctx, access, body) }),
+  }),
+  route({
+    method: 'put', path: '/api/projects/{id}/metal-prices', tag: 'projects', permission: { action: 'editSettings', on: 'project' }, body: metalPricesSchema,
+    summary: 'Replace the project’s precious-metal prices ({prices: [{metal, pricePerGram, currency, date, source}]}, entered by hand, one currency) → {metalPrices}; audited',
+    handle: ({ ctx, access, body }) => projects.setMetalPrices(ctx, access, body.prices),
   }),
   route({
     method: 'get', path: '/api/projects/{id}/permissions', tag: 'projects', permission: { action: 'read', on: 'project' },

@@ -2,7 +2,7 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { AppContext, AuthUser } from '../context';
 import { builds, factors, invitations, labs, memberships, projects, responseDefs, users } from '../db/schema';
-import type { FactorDef, NotifyBody, ResponseDef, ProjectRole } from '../../shared/schemas/project';
+import type { FactorDef, NotifyBody, ResponseDef, ProjectRole, ProjectSettings } from '../../shared/schemas/project';
 import { factorCreateSchema, projectCreateSchema, projectUpdateSchema, responseCreateSchema } from '../../shared/schemas/project';
 import { inviteCreateSchema } from '../../shared/schemas/auth';
 import type { z } from 'zod';
@@ -73,14 +73,17 @@ export function getProject(ctx: AppContext, access: ProjectAccess) {
 export function updateProject(ctx: AppContext, access: ProjectAccess, body: z.output<typeof projectUpdateSchema>) {
   const { db } = ctx;
   const before = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
-  const settingsChanged = body.settings !== undefined && JSON.stringify(body.settings) !== JSON.stringify(before.settings);
+  // settings merge: a form that edits the reference point keeps the rules and prices it does not show
+  const settings = body.settings === undefined ? undefined : { ...before.settings, ...body.settings };
+  const settingsChanged = settings !== undefined && JSON.stringify(settings) !== JSON.stringify(before.settings);
+  const rulesChanged = settings !== undefined && (JSON.stringify(settings.onsetRule ?? null) !== JSON.stringify(before.settings.onsetRule ?? null) || JSON.stringify(settings.holdRule ?? null) !== JSON.stringify(before.settings.holdRule ?? null));
   const after = db
     .update(projects)
     .set({
       ...(body.name !== undefined && { name: body.name }),
       ...(body.description !== undefined && { description: body.description }),
       ...(body.codePrefix !== undefined && { codePrefix: body.codePrefix }),
-      ...(body.settings !== undefined && { settings: body.settings }),
+      ...(settings !== undefined && { settings }),
       ...(settingsChanged && { metricsVersion: before.metricsVersion + 1 }),
       updatedAt: new Date().toISOString(),
     })
@@ -89,8 +92,28 @@ export function updateProject(ctx: AppContext, access: ProjectAccess, body: z.ou
     .get();
   audit(db, { userId: access.user.id, action: 'update', entity: 'project', entityId: after.id, projectId: after.id, before, after });
   let recomputed = 0;
-  if (settingsChanged) recomputed = recomputeProjectMetrics(ctx, access.projectId);
+  if (settingsChanged) recomputed = recomputeProjectMetrics(ctx, access.projectId, rulesChanged ? ['polarization', 'durability', 'hold'] : ['polarization']);
   return { ...projectView(after, access.role), recomputedCurves: recomputed };
+}
+
+/** Replace the project's metal prices (entered by hand, never fetched); audited, metrics untouched. */
+export function setMetalPrices(ctx: AppContext, access: ProjectAccess, prices: NonNullable<ProjectSettings['metalPrices']>) {
+  const { db } = ctx;
+  const seen = new Set<string>();
+  const fields = prices.flatMap((price, index) => {
+    const key = price.metal.trim().toLowerCase();
+    const repeated = seen.has(key);
+    seen.add(key);
+    return repeated ? [{ path: `prices.${index}.metal`, message: `${price.metal} is priced twice` }] : [];
+  });
+  const currencies = new Set(prices.map((price) => price.currency.trim().toUpperCase()));
+  if (currencies.size > 1) fields.push({ path: 'prices', message: `one currency for all prices (got ${[...currencies].join(', ')}); no conversion is made` });
+  if (fields.length) throw new AppError(400, 'validation', `Invalid request: ${fields.map((f) => `${f.path}: ${f.message}`).join('; ')}`, { fields });
+  const before = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
+  const settings = { ...before.settings, metalPrices: prices };
+  const after = db.update(projects).set({ settings, updatedAt: new Date().toISOString() }).where(eq(projects.id, access.projectId)).returning().get();
+  audit(db, { userId: access.user.id, action: 'update', entity: 'metal-prices', entityId: after.id, projectId: after.id, before: { metalPrices: before.settings.metalPrices ?? [] }, after: { metalPrices: prices } });
+  return { metalPrices: prices };
 }
 
 export function factorView(row: typeof factors.$inferSelect): FactorDef {

@@ -11,6 +11,7 @@ import type { DemoBuild } from './demo-data';
 import type { ProjectSettings } from '../../shared/schemas/project';
 import { generatePolarizationCurve, mulberry32, tafelSlopeTheory, writeCurveCsv, type SemiEmpiricalParams, type CurveCsvShape } from '../../shared/curves';
 import { generateSyntheticLog, writeDurabilityCsv } from '../../shared/durability';
+import { demoAcceleratedTest, demoImpedanceSpectrum, demoOcvHold, demoPressureSeries, demoTemperatureSeries } from '../../shared/demo';
 import { builds, users } from '../db/schema';
 import { eq } from 'drizzle-orm';
 import { ingestUpload, type UploadOptions } from '../curves/service';
@@ -89,9 +90,11 @@ export async function addDemoCurves(ctx: AppContext, job: DemoCurveJob): Promise
   const scatter = mulberry32(hashSeed(`${b.code}-scatter`));
   const offset = 0.005 * Math.sqrt(-2 * Math.log(1 - scatter())) * Math.cos(2 * Math.PI * scatter());
   const base = demoParams(b);
-  const params = { ...base, e0: base.e0 + offset };
+  let params = { ...base, e0: base.e0 + offset };
   const jMax = params.limitingCurrentDensity * 0.92;
-  const curve = generatePolarizationCurve(params, {
+  const series = b.series ? seriesMember(b.series) : null;
+  if (series) params = series.params;
+  const curve = series ? series.curve : generatePolarizationCurve(params, {
     jPoints: J_STEPS.filter((j) => j < jMax),
     readingsPerStep: 3,
     noiseV: 0.0015,
@@ -129,4 +132,35 @@ export async function addDemoCurves(ctx: AppContext, job: DemoCurveJob): Promise
     });
     await ingestText(ctx, job, user, `${b.code}_durability_${b.durability.hours}h.csv`, writeDurabilityCsv(log), { kind: 'durability', label: `${b.durability.hours} h at 0.2 A/cm²` });
   }
+  if (b.impedanceAt) {
+    // a spectrum at the polarization curve's own parameters (R_Ω is the curve's HFR), total Ω as a station writes it
+    const { spectrum } = demoImpedanceSpectrum(params, { dcCurrentDensity: b.impedanceAt, seed: hashSeed(`${b.code}-eis`), noiseFraction: 0.003 });
+    const lines = [`# ${b.code} impedance at ${b.impedanceAt} A/cm²`, `Cell area: ${b.areaCm2} cm2`, "Freq (Hz),Z' (Ohm),-Z'' (Ohm)"];
+    for (let k = 0; k < spectrum.frequencyHz.length; k++) lines.push([spectrum.frequencyHz[k].toPrecision(6), (spectrum.zReal[k] / b.areaCm2).toPrecision(6), (-spectrum.zImag[k] / b.areaCm2).toPrecision(6)].join(','));
+    await ingestText(ctx, job, user, `${b.code}_eis_${Math.round(b.impedanceAt * 1000)}mA.csv`, lines.join('\n') + '\n', { kind: 'impedance', label: `impedance at ${b.impedanceAt} A/cm²` });
+  }
+  if (b.hold) {
+    const hold = demoOcvHold({ hours: b.hold.hours, decayMvPerH: b.hold.decayMvPerH, temperatureC: b.conditions.temperatureC ?? 200, seed: hashSeed(`${b.code}-hold`) });
+    await ingestText(ctx, job, user, `${b.code}_ocv_hold_${b.hold.hours}h.csv`, writeDurabilityCsv(hold), { kind: 'hold', label: `${b.hold.hours} h open-circuit hold` });
+  }
+  if (b.accelerated) {
+    const log = demoAcceleratedTest({ hours: b.accelerated.hours, onsetHours: b.accelerated.onsetHours, currentDensity: 0.6, temperatureC: b.conditions.temperatureC ?? 180, seed: hashSeed(`${b.code}-ast`) });
+    await ingestText(ctx, job, user, `${b.code}_accelerated_${b.accelerated.hours}h.csv`, writeDurabilityCsv(log), { kind: 'durability', label: `accelerated test, ${b.accelerated.hours} h at 0.6 A/cm²` });
+  }
+}
+
+// One invented temperature series (Eₐ 55 kJ/mol) and one pressure series (order 0.5), made once.
+let temperatureSeries: ReturnType<typeof demoTemperatureSeries> | null = null;
+let pressureSeries: ReturnType<typeof demoPressureSeries> | null = null;
+/** Apparent activation energy of the demo temperature series, kJ/mol (invented). */
+export const DEMO_ACTIVATION_ENERGY = 55;
+/** Apparent reaction order of the demo pressure series (invented). */
+export const DEMO_REACTION_ORDER = 0.5;
+function seriesMember(series: { kind: 'temperature' | 'pressure'; index: number }) {
+  if (series.kind === 'temperature') {
+    temperatureSeries ??= demoTemperatureSeries({ activationEnergyKJmol: DEMO_ACTIVATION_ENERGY, temperaturesC: [160, 180, 200], seed: 41 });
+    return temperatureSeries[series.index]!;
+  }
+  pressureSeries ??= demoPressureSeries({ order: DEMO_REACTION_ORDER, pressuresKPa: [0, 50, 100, 150].map((gauge) => gauge + 101.325), temperatureC: 200, seed: 43 });
+  return pressureSeries[series.index]!;
 }

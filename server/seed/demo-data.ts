@@ -50,6 +50,14 @@ export interface DemoBuild {
   responses?: Record<string, number>;
   /** a durability log for this build (hours, seeded degradation rate µV/h) */
   durability?: { hours: number; rateUvPerH: number; restartAtHours?: number };
+  /** a member of an invented temperature or pressure series: its polarization curve comes from the series generator */
+  series?: { kind: 'temperature' | 'pressure'; index: number };
+  /** an impedance spectrum at this DC current density, A/cm² */
+  impedanceAt?: number;
+  /** an open-circuit hold (hours, decay mV/h) */
+  hold?: { hours: number; decayMvPerH: number };
+  /** an accelerated test at 0.6 A/cm² (hours, onset of rapid failure in h or none) */
+  accelerated?: { hours: number; onsetHours: number | null };
 }
 
 export interface DemoProject {
@@ -135,6 +143,16 @@ function anodeBuilds(): DemoBuild[] {
     b('A-006', { ...base, ruFraction: 45, cellTemp: 220, support: 'graphitised carbon' }, { parent: 'A-004', changeNote: 'graphitised support', builtOn: '2026-10-29', testedOn: '2026-10-31', responses: { costPerCm2: 0.88 } }),
     b('A-007', { ...base, ruFraction: 60, cellTemp: 220 }, { parent: 'A-004', changeNote: 'Ru pushed to 60 at %', builtOn: '2026-11-05', testedOn: '2026-11-07', lab: 'ridgeway', operator: 'partner2', responses: { costPerCm2: 0.74 } }),
     b('A-008', { ...base, ruFraction: 45, cellTemp: 240, anodeLoading: 1.0 }, { parent: 'A-004', changeNote: 'cell at 240 °C', status: 'planned', builtOn: '2026-11-26', plannedOn: '2026-11-19' }),
+    // a temperature series of one recipe (160/180/200 °C) and a pressure series at 200 °C
+    ...[160, 180, 200].map((cellTemp, index) =>
+      b(`A-0${10 + index}`, { ...base, ruFraction: 40, cellTemp }, { parent: 'A-003', changeNote: `temperature series: cell at ${cellTemp} °C`, builtOn: '2026-11-02', testedOn: '2026-11-04', status: 'reviewed', series: { kind: 'temperature', index }, impedanceAt: 0.2, responses: { costPerCm2: 0.79 } }),
+    ),
+    ...[0, 50, 100, 150].map((backPressureKPa, index) => ({
+      ...b(`A-0${13 + index}`, { ...base, ruFraction: 40, anodeLoading: 1.5, cellTemp: 200 }, { parent: 'A-003', changeNote: `pressure series: ${backPressureKPa} kPa(g) back-pressure`, builtOn: '2026-11-09', testedOn: '2026-11-11', status: 'reviewed', series: { kind: 'pressure', index }, responses: { costPerCm2: 0.79 } }),
+      conditions: { ...anodeConditions, backPressureKPa },
+    })),
+    b('A-017', { ...base, ruFraction: 40, anodeLoading: 2.0, cellTemp: 200 }, { parent: 'A-003', changeNote: '100 h open-circuit hold at 200 °C', builtOn: '2026-11-12', testedOn: '2026-11-16', status: 'reviewed', impedanceAt: 0.2, hold: { hours: 100, decayMvPerH: 0.9 } }),
+    b('A-018', { ...base, ruFraction: 40, anodeLoading: 2.0, cellTemp: 200, support: 'graphitised carbon' }, { parent: 'A-003', changeNote: 'accelerated test at 0.6 A/cm², graphitised support', builtOn: '2026-11-12', testedOn: '2026-11-16', status: 'reviewed', accelerated: { hours: 1500, onsetHours: 900 }, hold: { hours: 100, decayMvPerH: 0.4 } }),
   ];
 }
 
@@ -159,7 +177,7 @@ export const PROJECTS: DemoProject[] = [
     name: 'Methanol-tolerant anode at 200–240 °C',
     description: 'PtRu anode for cells fed methanol/water vapour: Ru fraction, loading, support and cell temperature. Trade activity against noble-metal cost.',
     codePrefix: 'A',
-    settings: { refCurrentDensity: 0.2, refVoltage: 0.5, irFree: true, loadingBasis: 'metal' },
+    settings: { refCurrentDensity: 0.2, refVoltage: 0.5, irFree: true, loadingBasis: 'metal', metalPrices: [{ metal: 'PtRu', pricePerGram: 29.5, currency: 'EUR', date: '2026-11-02', source: 'invented supplier quote, alloy blend per g' }] },
     factors: [
       { key: 'ruFraction', label: 'Ru fraction', unit: 'at %', kind: 'continuous', low: 20, high: 60 },
       { key: 'anodeLoading', label: 'Anode loading', unit: 'mg/cm²', kind: 'continuous', low: 0.5, high: 2.0 },

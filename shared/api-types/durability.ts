@@ -1,3 +1,4 @@
+import type { OnsetRule, SurvivalAt, SurvivalStep, SurvivalUnit } from '../durability';
 // Answer of GET /api/projects/:id/durability: every durability / hold curve of a project's builds
 // with its rate, 95 % interval, hours run, break-in and held conditions (from stored summaries).
 
@@ -28,9 +29,31 @@ export interface DurabilityRow {
   note: string | null;
   /** the build's curve of record of this kind; comparisons use these rows */
   isRecord: boolean;
+  /** durability: hours to the onset of rapid failure, null when none was found (see onsetNote) */
+  onsetHours: number | null;
+  onsetNote: string | null;
+  /** the onset rule used, as JSON text */
+  onsetRule: string | null;
+  /** hold: open-circuit voltage decay, mV/h, with its 95 % interval, and the loss over the hold, mV */
+  holdDecay: number | null;
+  holdDecayLow: number | null;
+  holdDecayHigh: number | null;
+  holdLoss: number | null;
+  /** the settling rule used, as JSON text */
+  holdRule: string | null;
 }
 
 export interface DurabilityComparison {
   curves: DurabilityRow[];
   typicalBand: { standard: readonly [number, number]; improved: number };
+  /** Kaplan–Meier survival of the durability logs of record (failure = onset), or null without logs */
+  survival: {
+    units: (SurvivalUnit & { code: string })[];
+    steps: SurvivalStep[];
+    medianHours: number | null;
+    method: string;
+    reached: SurvivalAt[];
+  } | null;
+  /** the default onset rule (a project setting or a curve option overrides it) */
+  onsetRule: OnsetRule;
 }

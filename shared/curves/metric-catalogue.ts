@@ -82,7 +82,7 @@ export const CURVE_METRICS = {
   },
   hfr: {
     label: 'HFR', description: 'high-frequency resistance: median of the logged values, or the real-axis intercept of a spectrum',
-    kinds: ['polarization', 'impedance'], computedOn: ['polarization'], unit: 'Ω·cm²', displayUnit: 'mΩ·cm²', scale: 1000, digits: 0, goal: 'minimize', limit: 'non-negative',
+    kinds: ['polarization', 'impedance'], computedOn: ['polarization', 'impedance'], unit: 'Ω·cm²', displayUnit: 'mΩ·cm²', scale: 1000, digits: 0, goal: 'minimize', limit: 'non-negative',
   },
   degradationRate: {
     label: 'Degradation rate', description: 'voltage loss rate after break-in (positive = losing voltage)',
@@ -93,28 +93,32 @@ export const CURVE_METRICS = {
     kinds: ['durability'], computedOn: ['durability'], unit: 'h', displayUnit: 'h', scale: 1, digits: 0, goal: 'minimize', limit: 'non-negative',
   },
   onsetHours: {
-    label: 'Onset of rapid loss', description: 'hours to the start of rapid failure; empty when none is found',
-    kinds: ['durability'], computedOn: [], unit: 'h', displayUnit: 'h', scale: 1, digits: 0, goal: 'maximize', limit: 'non-negative',
+    label: 'Failure onset', description: 'hours until the loss rate rose well above the stable rate (two-piece line fit); empty when none is found',
+    kinds: ['durability'], computedOn: ['durability'], unit: 'h', displayUnit: 'h', scale: 1, digits: 0, goal: 'maximize', limit: 'non-negative',
   },
   holdDecay: {
-    label: 'Hold decay', description: 'rate of voltage fall during the open-circuit hold after settling (positive = falling)',
-    kinds: ['hold'], computedOn: [], unit: 'mV/h', displayUnit: 'mV/h', scale: 1, digits: 2, goal: 'minimize',
+    label: 'Hold decay', description: 'rate of open-circuit voltage fall during the hold after settling (positive = falling)',
+    kinds: ['hold'], computedOn: ['hold'], unit: 'mV/h', displayUnit: 'mV/h', scale: 1, digits: 2, goal: 'minimize',
   },
   holdLoss: {
-    label: 'Hold loss', description: 'voltage lost between the start and the end of the hold window',
-    kinds: ['hold'], computedOn: [], unit: 'mV', displayUnit: 'mV', scale: 1, digits: 1, goal: 'minimize',
+    label: 'Hold loss', description: 'open-circuit voltage lost over the hold after settling',
+    kinds: ['hold'], computedOn: ['hold'], unit: 'mV', displayUnit: 'mV', scale: 1, digits: 1, goal: 'minimize',
   },
   rct: {
     label: 'R_ct', description: 'charge-transfer resistance from the equivalent-circuit fit of the spectrum',
-    kinds: ['impedance'], computedOn: [], unit: 'Ω·cm²', displayUnit: 'mΩ·cm²', scale: 1000, digits: 0, goal: 'minimize', limit: 'non-negative',
+    kinds: ['impedance'], computedOn: ['impedance'], unit: 'Ω·cm²', displayUnit: 'mΩ·cm²', scale: 1000, digits: 0, goal: 'minimize', limit: 'non-negative',
   },
   cpeQ: {
     label: 'CPE Q', description: 'constant-phase-element coefficient of the equivalent-circuit fit',
-    kinds: ['impedance'], computedOn: [], unit: 'F·s^(n−1)·cm⁻²', displayUnit: 'F·s^(n−1)·cm⁻²', scale: 1, digits: 4, goal: 'maximize', limit: 'non-negative',
+    kinds: ['impedance'], computedOn: ['impedance'], unit: 'F·s^(n−1)·cm⁻²', displayUnit: 'mF·s^(n−1)/cm²', scale: 1000, digits: 2, goal: 'maximize', limit: 'non-negative',
   },
   cpeN: {
     label: 'CPE n', description: 'constant-phase-element exponent (1 = ideal capacitor)',
-    kinds: ['impedance'], computedOn: [], unit: '', displayUnit: '', scale: 1, digits: 2, goal: 'maximize', limit: 'non-negative',
+    kinds: ['impedance'], computedOn: ['impedance'], unit: '', displayUnit: '', scale: 1, digits: 3, goal: 'maximize', limit: 'non-negative',
+  },
+  sigmaW: {
+    label: 'Warburg σ_W', description: 'Warburg coefficient, from a fit with diffusion chosen for the spectrum (empty with the default charge-transfer circuit)',
+    kinds: ['impedance'], computedOn: [], unit: 'Ω·cm²·s^(−1/2)', displayUnit: 'mΩ·cm²·s^(−1/2)', scale: 1000, digits: 1, goal: 'minimize', limit: 'non-negative',
   },
 } as const satisfies Record<string, CurveMetricEntry>;
 

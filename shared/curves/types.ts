@@ -2,7 +2,7 @@
 // Units inside the code: A/cm², V, Ω·cm², °C, mg/cm², hours.
 import type { CURVE_METRICS, CurveMetricKey } from './metric-catalogue';
 
-export type CurveKind = 'polarization' | 'durability' | 'hold';
+export type CurveKind = 'polarization' | 'durability' | 'hold' | 'impedance';
 
 export type CurrentUnit = 'A/cm2' | 'mA/cm2' | 'A' | 'mA';
 export type VoltageUnit = 'V' | 'mV';
@@ -27,6 +27,24 @@ export interface ColumnMapping {
   hfr?: { column: number; unit: HfrUnit };
   time?: { column: number; unit: TimeUnit };
   temperature?: { column: number; unit: TemperatureUnit };
+  /** impedance spectra: frequency, Z′ and Z″ (or |Z| and phase); see ImpedanceMapping */
+  frequency?: ImpedanceMapping['frequency'];
+  zReal?: ImpedanceMapping['zReal'];
+  zImag?: ImpedanceMapping['zImag'];
+  magnitude?: ImpedanceMapping['magnitude'];
+  phase?: ImpedanceMapping['phase'];
+}
+
+/**
+ * The columns of an impedance spectrum. `zImag.negatedHeader`: the header writes −Z″ (the sign is
+ * detected from the values either way). |Z| with phase stands in for Z′ and Z″.
+ */
+export interface ImpedanceMapping {
+  frequency: { column: number; unit: 'Hz' | 'kHz' | 'MHz' | 'rad/s' };
+  zReal?: { column: number; unit: HfrUnit };
+  zImag?: { column: number; unit: HfrUnit; negatedHeader?: boolean };
+  magnitude?: { column: number; unit: HfrUnit };
+  phase?: { column: number; unit: 'deg' | 'rad' };
 }
 
 /** Conditions read from a file's metadata lines (or a workbook's key–value sheet), when present. */
@@ -65,6 +83,10 @@ export interface CurveData {
   tHours?: Float64Array;
   /** cell temperature, °C */
   temperatureC?: Float64Array;
+  /** impedance spectra: frequency, Hz (falling), and Z′, Z″ in Ω·cm² with Z″ = Im Z; j and v are then NaN */
+  frequencyHz?: Float64Array;
+  zReal?: Float64Array;
+  zImag?: Float64Array;
 }
 
 /** The project's reference point: where metrics are read off every curve. */

@@ -17,3 +17,7 @@ export { lowerBound, upperBound } from './sorted-search';
 export { TYPICAL_DEGRADATION_BAND } from './typical-band';
 export { checkBreakInTransient } from './break-in-transient';
 export type { TransientCheck, TransientOptions } from './break-in-transient';
+export { detectFailureOnset, DEFAULT_ONSET_RULE } from './onset';
+export type { OnsetRule, OnsetResult } from './onset';
+export { kaplanMeier, survivalAt, survivalUnits } from './survival';
+export type { SurvivalUnit, SurvivalStep, SurvivalCurve, SurvivalAt } from './survival';

@@ -9,3 +9,5 @@ export { costPerKw } from './cost-per-kw';
 export type { CostPerKw, MetalPrice } from './cost-per-kw';
 export { metalEconomy } from './metal-economy';
 export type { MetalEconomy, MetalEconomyInput } from './metal-economy';
+export { buildEconomy } from './build-economy';
+export type { BuildEconomy, BuildEconomyInput, BuildEconomySettings } from './build-economy';

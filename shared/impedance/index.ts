@@ -19,3 +19,7 @@ export { bode } from './bode';
 export type { BodePoints } from './bode';
 export { impedanceMetrics } from './impedance-metrics';
 export type { ImpedanceMetricsResult, ImpedanceMetricValues, ImpedanceMetricKey } from './impedance-metrics';
+export { detectImpedanceColumns, looksLikeImpedance, impedanceUnit } from './detect-columns';
+export type { ImpedanceColumnDetection } from './detect-columns';
+export { spectrumFromTable, MIN_SPECTRUM_POINTS } from './spectrum-from-table';
+export type { SpectrumFromTable } from './spectrum-from-table';

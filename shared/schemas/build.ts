@@ -48,7 +48,7 @@ export type BuildListQuery = z.infer<typeof buildListQuery>;
 /** PUT /api/builds/:id/record: make one curve the build's curve of record of its kind. */
 export const recordChoiceSchema = z.object({
   /** optional check: must be the kind of the chosen curve */
-  kind: z.enum(['polarization', 'durability', 'hold']).optional(),
+  kind: z.enum(['polarization', 'durability', 'hold', 'impedance']).optional(),
   curveId: z.number().int().positive(),
 });
 export type RecordChoice = z.infer<typeof recordChoiceSchema>;

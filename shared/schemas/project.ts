@@ -10,8 +10,41 @@ export const projectSettingsSchema = z.object({
   refVoltage: z.number().positive('must be above 0 V').max(1.3, 'must be at most 1.3 V'),
   irFree: z.boolean(),
   loadingBasis: z.enum(['catalyst', 'metal']),
+  /** the rule for the onset of rapid failure in accelerated tests (any number left out: the default) */
+  onsetRule: z
+    .object({
+      startHours: z.number().min(0),
+      blockHours: z.number().positive().max(100),
+      minRateRatio: z.number().min(1).max(100),
+      minRateIncreaseUvPerH: z.number().min(0).max(100000),
+      alpha: z.number().gt(0).lt(0.5),
+      minStableHours: z.number().positive().max(100000),
+      minTailHours: z.number().positive().max(100000),
+      currentTolerance: z.number().gt(0).lt(1),
+    })
+    .partial()
+    .optional(),
+  /** the settling rule of open-circuit holds (any number left out: the default) */
+  holdRule: z.object({ settleMinutes: z.number().min(0).max(1440), edgeMinutes: z.number().positive().max(1440), confidence: z.number().gt(0.5).lt(1) }).partial().optional(),
+  /** precious-metal prices entered by the team (never fetched), newest used per metal */
+  metalPrices: z
+    .array(
+      z.object({
+        metal: z.string().trim().min(1).max(20),
+        pricePerGram: z.number().positive('must be above 0').max(1e6),
+        currency: z.string().trim().min(1).max(8),
+        date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'a date as YYYY-MM-DD'),
+        source: z.string().trim().min(1, 'say where the price came from').max(200),
+      }),
+    )
+    .max(20)
+    .optional(),
 });
 export type ProjectSettings = z.infer<typeof projectSettingsSchema>;
+
+/** PUT /api/projects/:id/metal-prices: the whole list of prices (one currency, each metal once). */
+export const metalPricesSchema = z.object({ prices: projectSettingsSchema.shape.metalPrices.unwrap() });
+export type MetalPricesBody = z.infer<typeof metalPricesSchema>;
 
 export const DEFAULT_SETTINGS: ProjectSettings = {
   refCurrentDensity: 0.2,

@@ -73,6 +73,7 @@ export function AppShell() {
                   <RailLink to={`/projects/${p.id}/lineage`} indent>Lineage</RailLink>
                   <RailLink to={`/projects/${p.id}/gains`} indent>Gains</RailLink>
                   <RailLink to={`/projects/${p.id}/durability`} indent>Durability</RailLink>
+                  <RailLink to={`/projects/${p.id}/series`} indent>Series</RailLink>
                   {canPlan(p.myRole) && <RailLink to={`/projects/${p.id}/surface`} indent>Surface</RailLink>}
                   {canPlan(p.myRole) && <RailLink to={`/projects/${p.id}/plan`} indent>Plan</RailLink>}
                   <RailLink to={`/projects/${p.id}/review-pack`} indent>Review pack</RailLink>

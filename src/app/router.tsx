@@ -28,6 +28,7 @@ export const router = createBrowserRouter([
           { path: '/projects/:projectId/gains', lazy: lazy(() => import('./routes/gains')) },
           { path: '/projects/:projectId/review-pack', lazy: lazy(() => import('./routes/review-pack')) },
           { path: '/projects/:projectId/durability', lazy: lazy(() => import('./routes/durability')) },
+          { path: '/projects/:projectId/series', lazy: lazy(() => import('./routes/series')) },
           { path: '/projects/:projectId/lineage', lazy: lazy(() => import('./routes/lineage')) },
           { path: '/projects/:projectId/surface', lazy: lazy(() => import('./routes/surface')) },
           { path: '/projects/:projectId/plan', lazy: lazy(() => import('./routes/plan')) },

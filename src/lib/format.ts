@@ -117,7 +117,8 @@ export function formatMetric(key: string, value: number | null | undefined): str
   const info = METRICS[key];
   if (!info) return formatSignificant(value, 3);
   if (value == null || !Number.isFinite(value)) return '—';
-  return `${formatNumber(value * info.scale, info.digits)} ${info.unit}`;
+  const shown = formatNumber(value * info.scale, info.digits);
+  return info.unit ? `${shown} ${info.unit}` : shown;
 }
 
 export function formatDate(iso: string | null | undefined): string {
@@ -173,4 +174,9 @@ export function formatFieldValue(value: unknown, labels?: Record<string, string>
     return entries.map(([k, v]) => `${fieldLabel(k, labels)} ${formatFieldValue(v, labels, depth + 1)}`).join('; ');
   }
   return String(value);
+}
+
+/** Mass activity named by its potential and basis: "Mass activity at 0.6 V iR-free, per g metal". */
+export function massActivityLabel(settings: { refVoltage: number; irFree: boolean; loadingBasis: 'catalyst' | 'metal' }): string {
+  return `Mass activity at ${formatNumber(settings.refVoltage, 2)} V${settings.irFree ? ' iR-free' : ''}, per g ${settings.loadingBasis}`;
 }

@@ -66,6 +66,7 @@ export default async function ({ url, browser, signIn }) {
     ['compare', `${p}/compare`, async () => { await page.locator('.js-plotly-plot').first().waitFor(); }],
     ['lineage', `${p}/lineage`],
     ['durability', `${p}/durability`, async () => { await page.locator('.js-plotly-plot').first().waitFor(); }],
+    ['series', `${p}/series`, async () => { await page.getByRole('heading', { name: 'Series', exact: true }).waitFor(); await page.waitForLoadState('networkidle'); }],
     ['surface', `${p}/surface`],
     ['plan', `${p}/plan`],
     ['settings', `${p}/settings`],

@@ -104,7 +104,7 @@ export async function checkA11y(page, label, { exclude = [] } = {}) {
 }
 
 /** Words that look like camelCase but are units or trade terms. */
-const CAMEL_ALLOWED = new Set(['kPa', 'hPa', 'mPa', 'mAh']);
+const CAMEL_ALLOWED = new Set(['kPa', 'hPa', 'mPa', 'mAh', 'kHz', 'mHz']);
 
 /**
  * Fails when any visible text node reads "undefined" or "NaN", or holds a camelCase word (an

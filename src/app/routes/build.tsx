@@ -11,6 +11,7 @@ import { ApiError } from '@/lib/api-client';
 import { formatDateTime } from '@/lib/format';
 import { MetricsList, WhatIfReference } from '@/features/curves/components/metrics-panel';
 import { DurabilityPlot } from '@/features/curves/components/durability-plot';
+import { FitTable, HfrComparison, ImpedanceMetrics, ImpedancePlots } from '@/features/curves/components/impedance-view';
 import { DurabilityControls } from '@/features/durability/components/durability-controls';
 import { DropZone, UploadRows, useUploadBatch } from '@/features/curves/components/upload-panel';
 import { ImportNotes } from '@/features/curves/components/import-notes';
@@ -20,6 +21,7 @@ import { Button, LinkButton } from '@/components/ui/button';
 import { useConfirm } from '@/components/ui/confirm-dialog';
 import { formatDate, formatNumber, withUnit } from '@/lib/format';
 import { ReviewThread } from '@/features/review/components/review-thread';
+import { MetalEconomyFigures } from '@/features/builds/components/metal-economy';
 
 function Recipe({ detail, factors }: { detail: BuildDetail; factors: FactorDef[] }) {
   const b = detail.build;
@@ -117,6 +119,7 @@ function seriesName(c: CurveSummary) {
 function CurveView({ curve, overlays, project, detail }: { curve: CurveSummary; overlays: CurveSummary[]; project: Project; detail: BuildDetail }) {
   const { data, isLoading, error } = useCurve(curve.id);
   const others = useQueries({ queries: (curve.kind === 'polarization' ? overlays : []).map((o) => curveQueryOptions(o.id)) });
+  if (curve.kind === 'impedance') return <ImpedanceView curve={curve} detail={detail} />;
   if (curve.kind !== 'polarization') return <DurabilityView curve={curve} overlays={overlays} />;
   if (isLoading) return <Loading label="Loading points…" />;
   if (error || !data) return <ErrorNote error={error} />;
@@ -147,6 +150,24 @@ function CurveView({ curve, overlays, project, detail }: { curve: CurveSummary; 
         </p>
         <ImportNotes curve={curve} canChoose={detail.permissions.upload} />
         <WhatIfReference curve={curve} points={data.points} settings={project.settings} loading={{ loadingMgCm2: detail.build.loadingMgCm2, metalLoadingMgCm2: detail.build.metalLoadingMgCm2 }} />
+      </div>
+    </div>
+  );
+}
+
+function ImpedanceView({ curve, detail }: { curve: CurveSummary; detail: BuildDetail }) {
+  const { data, isLoading, error } = useCurve(curve.id);
+  if (isLoading) return <Loading label="Loading the spectrum…" />;
+  if (error || !data) return <ErrorNote error={error} />;
+  return (
+    <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+      <div className="min-w-0"><ImpedancePlots curve={curve} points={data.points} title={`${detail.build.code} · ${curveTitle(curve)}`} fileName={`${detail.build.code}-impedance`} /></div>
+      <div className="min-w-0 space-y-3">
+        <ImpedanceMetrics curve={curve} />
+        <HfrComparison curve={curve} polarizationHfr={detail.build.values.hfr} />
+        <FitTable summary={curve.summary as Record<string, unknown>} />
+        <ImportNotes curve={curve} canChoose={detail.permissions.upload} />
+        {curve.fileId && <p className="text-[11px] text-ink-500"><a className="text-copper-700 underline" href={`/api/files/${curve.fileId}/raw`}>raw file</a></p>}
       </div>
     </div>
   );
@@ -228,6 +249,7 @@ export default function BuildPage() {
         <Panel title="Test conditions"><Conditions detail={d} /></Panel>
         <Panel title="Lineage"><Lineage detail={d} projectId={projectId} /></Panel>
       </div>
+      <Panel title="Precious-metal economy" className="mt-4"><MetalEconomyFigures build={b} settings={project.data.settings} /></Panel>
       {responses.data!.length > 0 && (
         <Panel title="Hand-entered responses" className="mt-4">
           <dl className="flex flex-wrap gap-8 text-sm">

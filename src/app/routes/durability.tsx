@@ -11,6 +11,7 @@ import { OKABE_ITO, PLOT_FONT } from '@/components/plot/theme';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { formatNumber } from '@/lib/format';
 import { RecordMark } from '@/features/curves/components/record-parts';
+import { HoldComparison, SurvivalPanel } from '@/features/durability/components/hold-survival';
 
 const fmt = (value: number | null, digits: number, unit: string) => (value == null ? '—' : `${formatNumber(value, digits)} ${unit}`);
 
@@ -19,6 +20,7 @@ function WhiskerChart({ rows, band, title }: { rows: DurabilityRow[]; band: { st
   const shown = rows.filter((r) => r.degradationRate != null && r.kind === 'durability');
   const labels = shown.map((r) => `${r.code} · ${r.label.length > 22 ? `${r.label.slice(0, 21)}…` : r.label}`);
   const conditions = [...new Set(shown.map((r) => `${fmt(r.currentDensity, 2, 'A/cm²')}, ${fmt(r.temperatureC, 0, '°C')}`))].join('; ');
+  if (shown.length === 0) return <p className="text-sm text-ink-500">No log has a degradation rate yet (see each log’s note in the table below).</p>;
   return (
     <div ref={box}>
       <div className="mb-2 flex justify-end"><PlotActions target={box} fileName={title} label="degradation chart" /></div>
@@ -70,7 +72,7 @@ export default function DurabilityPage() {
       <PageHeader
         eyebrow={<Link to={`/projects/${projectId}`} className="hover:underline">{project.data.name}</Link>}
         title="Durability"
-        subtitle="Degradation rate of each build’s constant-current log of record after break-in, with its 95 % interval; open-circuit holds listed apart."
+        subtitle="Degradation rate of each build’s constant-current log of record after break-in, with its 95 % interval; time to the onset of rapid failure; open-circuit holds compared by their decay."
       />
       {curves.length === 0 ? (
         <EmptyState title="No durability logs yet">Upload a long constant-current log to a build (kind “durability”) to compare builds here.</EmptyState>
@@ -91,11 +93,11 @@ export default function DurabilityPage() {
                 <tr className="border-b border-line text-left text-xs text-ink-500">
                   <th className="px-3 py-2">Build</th><th className="px-3 py-2">Log</th><th className="px-3 py-2 text-right">Rate (µV/h)</th><th className="px-3 py-2 text-right">95 % interval (µV/h)</th>
                   <th className="px-3 py-2">Against typical</th><th className="px-3 py-2 text-right">Hours run</th><th className="px-3 py-2 text-right">Break-in</th><th className="px-3 py-2 text-right">Loss over fit</th>
-                  <th className="px-3 py-2 text-right">j</th><th className="px-3 py-2 text-right">T</th><th className="px-3 py-2 text-right">Interruptions</th>
+                  <th className="px-3 py-2 text-right">j</th><th className="px-3 py-2 text-right">T</th><th className="px-3 py-2 text-right">Interruptions</th><th className="px-3 py-2 text-right">Failure onset</th>
                 </tr>
               </thead>
               <tbody>
-                {curves.map((r) => (
+                {curves.filter((r) => r.kind === 'durability').map((r) => (
                   <tr key={r.curveId} className="border-b border-line/60">
                     <td className="px-3 py-1.5"><Link className="font-medium text-copper-700 hover:underline" to={`/projects/${projectId}/builds/${r.buildId}`}>{r.code}</Link>{r.labName && <div className="text-[11px] text-ink-500">{r.labName}</div>}</td>
                     <td className="px-3 py-1.5 text-xs">{r.kind === 'hold' ? 'open-circuit hold · ' : ''}{r.label}{everyLog && r.isRecord && <RecordMark className="ml-1.5" />}</td>
@@ -108,11 +110,20 @@ export default function DurabilityPage() {
                     <td className="num whitespace-nowrap px-3 py-1.5 text-right">{fmt(r.currentDensity, 2, 'A/cm²')}</td>
                     <td className="num whitespace-nowrap px-3 py-1.5 text-right">{fmt(r.temperatureC, 0, '°C')}</td>
                     <td className="num whitespace-nowrap px-3 py-1.5 text-right">{r.interruptions}</td>
+                    <td className="num whitespace-nowrap px-3 py-1.5 text-right" title={r.onsetNote ?? undefined}>{r.onsetHours == null ? 'none found' : fmt(r.onsetHours, 0, 'h')}</td>
                   </tr>
                 ))}
               </tbody>
             </table>
           </Panel>
+          <Panel title="Time to failure onset (accelerated and long tests)" className="mt-4">
+            <SurvivalPanel data={durability.data} title={project.data.name} />
+          </Panel>
+          {curves.some((r) => r.kind === 'hold') && (
+            <Panel title="Open-circuit holds" className="mt-4" bodyClassName="overflow-x-auto p-4">
+              <HoldComparison rows={curves} projectId={projectId} title={project.data.name} />
+            </Panel>
+          )}
         </>
       )}
     </div>

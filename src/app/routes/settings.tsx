@@ -3,6 +3,9 @@
 import { useParams } from 'react-router-dom';
 import { useState } from 'react';
 import type { FactorDef } from '@shared/api-types';
+import type { ProjectRole } from '@shared/schemas/project';
+import { MetalPricesForm } from '@/features/projects/components/metal-prices-form';
+import { LogRulesForm } from '@/features/projects/components/log-rules-form';
 import { useFactors, useMembers, useProject, useResponses, useSaveFactor, useCreateResponse, useUpdateProject, useInvite, useSetNotify } from '@/features/projects/api/projects';
 import { useLabs } from '@/features/builds/api/builds';
 import { ProjectForm } from '@/features/projects/components/project-form';
@@ -52,6 +55,16 @@ export default function Settings() {
           onSubmit={(v) => update.mutate(v, { onSuccess: (r) => setMessage(r.recomputedCurves ? `Saved. ${r.recomputedCurves} curves were re-measured at the new reference point (metrics version ${r.metricsVersion}).` : 'Saved.') })}
         />
         {message && <p role="status" className="mt-2 text-sm text-moss-700">{message}</p>}
+      </Panel>
+
+      <Panel title="Precious-metal prices">
+        <p className="mb-3 text-xs text-ink-500">Entered by hand and never looked up: the cost per kW beside every build uses these, with their date. {canEditSettings(p.myRole) ? 'All in one currency; each metal once.' : 'Only the project’s PI changes these.'}</p>
+        <MetalPricesForm key={JSON.stringify(p.settings.metalPrices ?? [])} projectId={projectId} prices={p.settings.metalPrices ?? []} disabled={!canEditSettings(p.myRole)} />
+      </Panel>
+
+      <Panel title="Rules for long logs">
+        <p className="mb-3 text-xs text-ink-500">When an accelerated test counts as failing, and how long an open-circuit hold settles. A single log can override these on its build page; the rule used is stored with each result. {canEditSettings(p.myRole) ? '' : 'Only the project’s PI changes these.'}</p>
+        <LogRulesForm key={JSON.stringify([p.settings.onsetRule, p.settings.holdRule])} project={p} update={update} disabled={!canEditSettings(p.myRole)} />
       </Panel>
 
       <Panel title="Factors">

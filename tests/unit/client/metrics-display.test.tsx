@@ -31,7 +31,8 @@ describe('metrics list', () => {
     expect(valueOf('j at V_ref')).toBe('74.7 mA/cm²');
     expect(valueOf('HFR')).toBe('120 mΩ·cm²');
     expect(valueOf('Tafel slope')).toBe('98.4 mV/dec');
-    expect(valueOf('Mass activity')).toBe('30.18 A/g');
+    // labelled by its potential and basis, from the project's reference point
+    expect(valueOf(`Mass activity at ${project.settings.refVoltage.toFixed(2)} V${project.settings.irFree ? ' iR-free' : ''}, per g ${project.settings.loadingBasis}`)).toBe('30.18 A/g');
     expect(valueOf('Peak power')).toBe('287 mW/cm²');
     const text = screen.getByRole('list', { name: 'Metrics at the reference point' }).textContent!;
     expect(text).not.toMatch(/null|undefined|NaN|\d\.\d{5,}/);

@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { CURVE_METRICS, CURVE_METRIC_KEYS, computedMetricsOfKind, curveResponses, findResponse, metricsOfKind, referenceConditions, type MetricCurveKind } from '../../../shared/curves/metric-catalogue';
 import { generatePolarizationCurve } from '../../../shared/curves';
 import { generateSyntheticLog } from '../../../shared/durability';
+import { demoAcceleratedTest, demoImpedanceSpectrum } from '../../../shared/demo';
 import { openApiDocument } from '../../../server/openapi';
 import { computeMetrics } from '../../../server/curves/service';
 import { METRICS, formatMetric } from '../../../src/lib/format';
@@ -19,9 +20,11 @@ const LOG = { hours: 300, stepMinutes: 10, v0: 0.6, breakInHours: 40, breakInDro
 /** A curve of each stored kind from the models the fixtures use. */
 function curveOf(kind: MetricCurveKind): CurveData | null {
   if (kind === 'polarization') return generatePolarizationCurve(FIXTURE_MODEL, { jPoints: [0, 0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.4, 0.6, 0.8, 1.0], hfr: FIXTURE_HFR_OHM_CM2 });
-  if (kind === 'durability') return generateSyntheticLog(LOG);
+  // the demo's accelerated test: break-in, a steady rate and an onset of rapid failure at 1,100 h
+  if (kind === 'durability') return demoAcceleratedTest();
   if (kind === 'hold') return { ...generateSyntheticLog(LOG), kind: 'hold' };
-  return null; // impedance spectra are not a stored curve kind yet
+  const { spectrum } = demoImpedanceSpectrum(FIXTURE_MODEL as never, { seed: 3 });
+  return { kind: 'impedance', j: new Float64Array(0), v: new Float64Array(0), ...spectrum } as unknown as CurveData;
 }
 
 const doc = openApiDocument() as { components: { schemas: Record<string, { enum?: string[]; properties?: Record<string, { description?: string }> }> }; paths: Record<string, Record<string, { parameters?: { name: string; description?: string; schema?: { description?: string } }[] }>> };
@@ -68,7 +71,7 @@ describe('metric catalogue', () => {
   }
 
   it('the computation returns no metric the catalogue does not know', () => {
-    for (const kind of ['polarization', 'durability', 'hold'] as const) {
+    for (const kind of ['polarization', 'durability', 'hold', 'impedance'] as const) {
       const keys = Object.keys(computeMetrics(curveOf(kind)!, REF, BUILD).metrics);
       expect(keys.filter((k) => !(k in CURVE_METRICS)), kind).toEqual([]);
     }
@@ -76,8 +79,8 @@ describe('metric catalogue', () => {
 
   it('orders a kind’s metrics as the catalogue does', () => {
     expect(metricsOfKind('polarization')).toEqual(['vAtRef', 'vAtRefIrFree', 'jAtRef', 'jAtRefIrFree', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr']);
-    expect(computedMetricsOfKind('hold')).toEqual(['degradationRate']);
-    expect(metricsOfKind('impedance')).toEqual(['hfr', 'rct', 'cpeQ', 'cpeN']);
+    expect(computedMetricsOfKind('hold')).toEqual(['degradationRate', 'holdDecay', 'holdLoss']);
+    expect(metricsOfKind('impedance')).toEqual(['hfr', 'rct', 'cpeQ', 'cpeN', 'sigmaW']);
   });
 
   it('names the curve-metric responses in the gains query parameter of the OpenAPI document', () => {
@@ -91,7 +94,8 @@ describe('metric catalogue', () => {
     const defs = [{ key: 'thicknessUm', label: 'Electrode thickness', unit: 'µm', goal: 'target' as const, target: 120 }];
     expect(findResponse('vAtRef', defs)).toEqual({ key: 'vAtRef', label: 'V at j_ref', unit: 'V', goal: 'maximize', target: null, source: 'curve' });
     expect(findResponse('thicknessUm', defs)).toEqual({ key: 'thicknessUm', label: 'Electrode thickness', unit: 'µm', goal: 'target', target: 120, source: 'hand-entered' });
-    expect(findResponse('holdDecay', defs)).toBeNull(); // declared, not computed yet: not offered as a response
+    expect(findResponse('holdDecay', defs)?.source).toBe('curve');
+    expect(findResponse('sigmaW', defs)).toBeNull(); // computed only on request (a fit with diffusion): not offered as a response
     expect(findResponse('nope', defs)).toBeNull();
   });
 

@@ -10,7 +10,8 @@ import type { Build, FactorDef, ResponseDef, Project } from '@shared/api-types';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { Input, Select } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
-import { METRICS, formatNumber } from '@/lib/format';
+import { METRICS, formatNumber, formatSignificant, massActivityLabel } from '@/lib/format';
+import { buildEconomy } from '@shared/economy';
 
 const column = createColumnHelper<Build>();
 const METRIC_COLUMNS = ['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope', 'degradationRate'];
@@ -56,13 +57,33 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
           id: `m_${key}`,
           header: () => (
             <span title={`${METRICS[key]!.description}${key === 'vAtRef' ? ` at ${project.settings.refCurrentDensity} A/cm²` : ''}`}>
-              {METRICS[key]!.label} <span className="font-normal text-ink-500">({METRICS[key]!.unit})</span>
+              {key === 'massActivity' ? massActivityLabel(project.settings) : METRICS[key]!.label} <span className="font-normal text-ink-500">({METRICS[key]!.unit})</span>
             </span>
           ),
           cell: (c) => metricCell(key, c.getValue()),
           sortUndefined: 'last',
         }),
       ),
+      column.accessor((b) => buildEconomy(b, project.settings).gPerKw, {
+        id: 'e_gPerKw',
+        header: () => <span title="g of precious metal per kW: measured metal loading ÷ power density at V_ref (else at peak power)">Precious metal <span className="font-normal text-ink-500">(g/kW)</span></span>,
+        cell: (c) => {
+          const e = buildEconomy(c.row.original, project.settings);
+          if (e.gPerKw == null) return <span className="text-ink-500" title={e.loadingNote ?? e.powerNote ?? undefined}>—</span>;
+          return <span className="num block text-right" title={`${e.method.gPerKw}; ${formatNumber(e.metalLoadingMgCm2, 3)} mg/cm² ${e.powerLabel ?? ''}`}>{formatSignificant(e.gPerKw, 3)}</span>;
+        },
+        sortUndefined: 'last',
+      }),
+      column.accessor((b) => buildEconomy(b, project.settings).costPerKw, {
+        id: 'e_cost',
+        header: () => <span title="cost per kW of the precious metal, from the price the project recorded">Metal cost <span className="font-normal text-ink-500">(per kW)</span></span>,
+        cell: (c) => {
+          const e = buildEconomy(c.row.original, project.settings);
+          if (e.costPerKw == null) return <span className="text-ink-500" title={e.costNote ?? undefined}>—</span>;
+          return <span className="num block whitespace-nowrap text-right" title={`${e.method.cost}; price of ${e.priceDate}, ${e.priceSource}`}>{formatNumber(e.costPerKw, 1)} {e.costUnit}</span>;
+        },
+        sortUndefined: 'last',
+      }),
       ...factors.map((f) =>
         column.accessor((b) => b.factors[f.key] ?? null, {
           id: `f_${f.key}`,

@@ -11,7 +11,7 @@ import { METRICS, formatMetric } from '@/lib/format';
 import { useChooseRecord } from '../api/curves';
 import { HEADLINE, KIND_LABEL, KIND_WORD, RecordMark, uploadedOn } from './record-parts';
 
-const KINDS: CurveKind[] = ['polarization', 'durability', 'hold'];
+const KINDS: CurveKind[] = ['polarization', 'durability', 'hold', 'impedance'];
 const label = (c: CurveSummary) => c.label || `curve ${c.id}`;
 
 export function CurveShelf({ curves, build, projectId, canChoose, renderCurve, empty }: {

@@ -16,7 +16,30 @@ export const QUANTITIES = [
   { key: 'time', label: 'Time', units: ['s', 'min', 'h', 'timestamp'] },
   { key: 'temperature', label: 'Temperature', units: ['C', 'K'] },
 ] as const;
-export type QuantityKey = (typeof QUANTITIES)[number]['key'];
+
+/** The columns of an impedance spectrum: Z′ and Z″, or |Z| and phase when that is all a file gives. */
+export const IMPEDANCE_QUANTITIES = [
+  { key: 'frequency', label: 'Frequency', units: ['Hz', 'kHz', 'MHz', 'rad/s'] },
+  { key: 'zReal', label: 'Z′ (real part)', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
+  { key: 'zImag', label: 'Z″ or −Z″ (sign detected)', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
+  { key: 'magnitude', label: '|Z| (instead of Z′, Z″)', units: ['ohm*cm2', 'mohm*cm2', 'ohm', 'mohm'] },
+  { key: 'phase', label: 'Phase (with |Z|)', units: ['deg', 'rad'] },
+] as const;
+
+const ALL_QUANTITIES = [...QUANTITIES, ...IMPEDANCE_QUANTITIES] as const;
+export type QuantityKey = (typeof ALL_QUANTITIES)[number]['key'];
+
+/** The quantities a curve of this kind is read from. */
+export function quantitiesFor(kind: CurveKind): readonly (typeof ALL_QUANTITIES)[number][] {
+  return kind === 'impedance' ? IMPEDANCE_QUANTITIES : QUANTITIES;
+}
+
+/** Whether the chosen columns are enough to read a curve of the form's kind. */
+export function hasEnoughColumns(v: Pick<MappingFormValues, 'kind' | 'columns'>): boolean {
+  const set = (key: QuantityKey) => (v.columns?.[key] ?? '') !== '';
+  if (v.kind === 'impedance') return set('frequency') && ((set('zReal') && set('zImag')) || (set('magnitude') && set('phase')));
+  return set('voltage') || set('voltageIrFree');
+}
 
 export interface MappingFormValues {
   kind: CurveKind;
@@ -56,8 +79,8 @@ export function initialMappingValues(preview: UploadPreview): MappingFormValues 
   return {
     kind: preview.kind,
     sheet: preview.sheet ?? '',
-    columns: Object.fromEntries(QUANTITIES.map((q) => [q.key, detected[q.key] ? String(detected[q.key]!.column) : ''])) as Record<QuantityKey, string>,
-    units: Object.fromEntries(QUANTITIES.map((q) => [q.key, detected[q.key]?.unit ?? q.units[0]])) as Record<QuantityKey, string>,
+    columns: Object.fromEntries(ALL_QUANTITIES.map((q) => [q.key, detected[q.key] ? String(detected[q.key]!.column) : ''])) as Record<QuantityKey, string>,
+    units: Object.fromEntries(ALL_QUANTITIES.map((q) => [q.key, detected[q.key]?.unit ?? q.units[0]])) as Record<QuantityKey, string>,
     negated: detected.current?.negated === true,
     area: area != null ? String(area) : '',
     profileName: '',
@@ -65,12 +88,15 @@ export function initialMappingValues(preview: UploadPreview): MappingFormValues 
 }
 
 /** A total current or a total resistance needs the active area to become per cm². */
-export const needsArea = (v: Pick<MappingFormValues, 'columns' | 'units'>) =>
-  (v.columns?.current !== '' && ['A', 'mA'].includes(v.units?.current ?? '')) || (v.columns?.hfr !== '' && ['ohm', 'mohm'].includes(v.units?.hfr ?? ''));
+export const needsArea = (v: Pick<MappingFormValues, 'columns' | 'units'> & { kind?: CurveKind }) => {
+  const total = (key: QuantityKey) => (v.columns?.[key] ?? '') !== '' && ['ohm', 'mohm'].includes(v.units?.[key] ?? '');
+  if (v.kind === 'impedance') return total('zReal') || total('magnitude');
+  return ((v.columns?.current ?? '') !== '' && ['A', 'mA'].includes(v.units?.current ?? '')) || total('hfr');
+};
 
 export function mappingChoiceFrom(values: MappingFormValues): MappingChoice {
   const mapping: Record<string, { column: number; unit: string; negated?: boolean }> = {};
-  for (const q of QUANTITIES) {
+  for (const q of quantitiesFor(values.kind)) {
     const column = values.columns?.[q.key] ?? '';
     if (column === '') continue;
     mapping[q.key] = { column: Number(column), unit: values.units[q.key] };

@@ -5,7 +5,7 @@ import type { CurvePoints, CurveSummary, ProjectSettings } from '@shared/api-typ
 import type { CurveMetrics, MetricsResult } from '@shared/curves/types';
 import { polarizationMetrics } from '@shared/curves';
 import { metricsOfKind } from '@shared/curves/metric-catalogue';
-import { METRICS, formatMetric, formatNumber, formatQuantity } from '@/lib/format';
+import { METRICS, formatMetric, formatNumber, formatQuantity, massActivityLabel } from '@/lib/format';
 import { Hint } from '@/components/ui/hint';
 
 /** Catalogue order of the metrics a polarization curve carries. */
@@ -36,7 +36,7 @@ export function MetricsList({ result, settings }: { result: Pick<MetricsResult, 
           const note = result.metricNotes[key];
           return (
             <Hint key={key} hint={methodText(result, key, settings)} role="listitem">
-              <div className="text-xs text-ink-500">{METRICS[key]!.label}</div>
+              <div className="text-xs text-ink-500">{key === 'massActivity' ? massActivityLabel(settings) : METRICS[key]!.label}</div>
               <div className="num text-[15px] text-ink-950">{value == null ? <span className="text-ink-500">— <span className="sr-only">not available</span></span> : formatMetric(key, value)}</div>
               {key === 'massActivity' && value != null && settings.loadingBasis === 'metal' && <div className="num whitespace-nowrap text-[12px] text-ink-700">{perMilligram(value)}</div>}
               {note && <div className={`text-[11px] leading-tight ${value == null ? 'text-amber-700' : 'text-ink-500'}`}>{note}</div>}

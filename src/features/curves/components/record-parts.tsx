@@ -5,18 +5,19 @@ import type { CurveSummary, ProjectSettings } from '@shared/api-types';
 import type { CurveKind } from '@shared/curves/types';
 import { METRICS, formatDateTime, formatNumber } from '@/lib/format';
 
-export const KIND_LABEL: Record<CurveKind, string> = { polarization: 'Polarization', durability: 'Durability', hold: 'Open-circuit hold' };
-export const KIND_WORD: Record<CurveKind, string> = { polarization: 'polarization curve', durability: 'durability log', hold: 'open-circuit hold' };
+export const KIND_LABEL: Record<CurveKind, string> = { polarization: 'Polarization', durability: 'Durability', hold: 'Open-circuit hold', impedance: 'Impedance spectrum' };
+export const KIND_WORD: Record<CurveKind, string> = { polarization: 'polarization curve', durability: 'durability log', hold: 'open-circuit hold', impedance: 'impedance spectrum' };
 
 /** The metrics shown side by side when two curves of one kind are compared. */
 export const COMPARED: Record<CurveKind, string[]> = {
   polarization: ['vAtRef', 'vAtRefIrFree', 'jAtRef', 'massActivity', 'peakPower', 'ocv', 'tafelSlope', 'hfr'],
-  durability: ['degradationRate', 'breakInHours'],
-  hold: ['degradationRate'],
+  durability: ['degradationRate', 'breakInHours', 'onsetHours'],
+  hold: ['holdDecay', 'holdLoss', 'degradationRate'],
+  impedance: ['hfr', 'rct', 'cpeQ', 'cpeN'],
 };
 
 /** The one metric a curve is known by in a list. */
-export const HEADLINE: Record<CurveKind, string> = { polarization: 'vAtRef', durability: 'degradationRate', hold: 'degradationRate' };
+export const HEADLINE: Record<CurveKind, string> = { polarization: 'vAtRef', durability: 'degradationRate', hold: 'holdDecay', impedance: 'rct' };
 
 /** new − record in the metric's display unit, signed: "+38 mV"; "—" when either is missing. */
 export function formatDifference(key: string, value: number | null | undefined, reference: number | null | undefined): string {

@@ -9,7 +9,7 @@ import { fetchUploadProgress, newUploadId, uploadCurve, useInvalidateAfterUpload
 import { Button } from '@/components/ui/button';
 import { Input, Select } from '@/components/ui/field';
 import { UploadResult, type StoredUpload } from './upload-result';
-import { initialMappingValues, mappingResolver, needsArea, QUANTITIES, type MappingChoice, type MappingFormValues } from './mapping-values';
+import { hasEnoughColumns, initialMappingValues, mappingResolver, needsArea, quantitiesFor, type MappingChoice, type MappingFormValues } from './mapping-values';
 
 export interface UploadRow {
   key: string;
@@ -27,7 +27,7 @@ export interface UploadRow {
   stored?: StoredUpload;
 }
 
-const UNIT_LABEL: Record<string, string> = { 'A/cm2': 'A/cm²', 'mA/cm2': 'mA/cm²', A: 'A (total)', mA: 'mA (total)', V: 'V', mV: 'mV', 'ohm*cm2': 'Ω·cm²', 'mohm*cm2': 'mΩ·cm²', ohm: 'Ω (total)', mohm: 'mΩ (total)', s: 's', min: 'min', h: 'h', timestamp: 'date/time', C: '°C', K: 'K' };
+const UNIT_LABEL: Record<string, string> = { 'A/cm2': 'A/cm²', 'mA/cm2': 'mA/cm²', A: 'A (total)', mA: 'mA (total)', V: 'V', mV: 'mV', 'ohm*cm2': 'Ω·cm²', 'mohm*cm2': 'mΩ·cm²', ohm: 'Ω (total)', mohm: 'mΩ (total)', s: 's', min: 'min', h: 'h', timestamp: 'date/time', C: '°C', K: 'K', Hz: 'Hz', kHz: 'kHz', MHz: 'MHz', 'rad/s': 'rad/s', deg: 'degrees', rad: 'radians' };
 
 function InlineError({ id, message }: { id: string; message?: string }) {
   return message ? <p id={id} role="alert" className="text-xs text-rust-700">{message}</p> : null;
@@ -44,7 +44,7 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
   const buildArea = preview.buildAreaCm2 ?? null;
   const area = values.area ?? '';
   const areaSource = area === '' ? null : fileArea != null && Number(area) === fileArea ? 'from the file' : buildArea != null && Number(area) === buildArea ? 'the build’s recorded area' : 'entered here';
-  const hasVoltage = values.columns?.voltage !== '' || values.columns?.voltageIrFree !== '';
+  const hasVoltage = hasEnoughColumns(values);
   const submit = handleSubmit((checked) => {
     const { mapping, ...opts } = checked as unknown as MappingChoice;
     onConfirm(mapping, opts);
@@ -63,7 +63,7 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
       <div className="mt-3 grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
         <label className="text-xs text-ink-700">Curve kind
           <Select {...register('kind')} aria-label="Curve kind">
-            <option value="polarization">polarization</option><option value="durability">durability</option><option value="hold">hold (open circuit)</option>
+            <option value="polarization">polarization</option><option value="durability">durability</option><option value="hold">hold (open circuit)</option><option value="impedance">impedance spectrum</option>
           </Select>
         </label>
         {preview.sheets && preview.sheets.length > 1 && (
@@ -71,7 +71,7 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
             <Select {...register('sheet')} aria-label="Sheet">{preview.sheets.map((s) => <option key={s}>{s}</option>)}</Select>
           </label>
         )}
-        {QUANTITIES.map((q) => {
+        {quantitiesFor(values.kind).map((q) => {
           const error = e.columns?.[q.key]?.message ?? e.units?.[q.key]?.message;
           const errorId = `${ids}-${q.key}-error`;
           return (
@@ -93,7 +93,7 @@ export function MappingConfirm({ preview, onConfirm, onCancel }: { preview: Uplo
             </div>
           );
         })}
-        {values.columns?.current !== '' && (
+        {values.kind !== 'impedance' && values.columns?.current !== '' && (
           <label className="flex items-center gap-2 self-end text-xs text-ink-700">
             <input type="checkbox" {...register('negated')} />
             The file logs load current as negative (multiply by −1)

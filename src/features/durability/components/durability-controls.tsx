@@ -66,6 +66,10 @@ export function DurabilityControls({ curve, update, canEdit }: { curve: CurveSum
   const projected = n(s.projectedHoursToLoss);
   const source = String(s.breakInSource ?? 'detected');
   const isHold = curve.kind === 'hold';
+  const onsetRule = (() => { try { return JSON.parse(String(s.onsetRule ?? '{}')) as { minRateRatio?: number; minRateIncreaseUvPerH?: number; alpha?: number; startHours?: number }; } catch { return {}; } })();
+  const [ratio, setRatio] = useState(String(onsetRule.minRateRatio ?? 3));
+  const [rise, setRise] = useState(String(onsetRule.minRateIncreaseUvPerH ?? 20));
+  const ownOnsetRule = Boolean((curve.options as { onsetRule?: unknown } | null)?.onsetRule);
 
   return (
     <div className="space-y-4 text-sm">
@@ -83,6 +87,20 @@ export function DurabilityControls({ curve, update, canEdit }: { curve: CurveSum
           <dd className="num">{hoursToLoss != null ? `${formatNumber(hoursToLoss, 0)} h` : 'not reached'}</dd>
           {hoursToLoss == null && projected != null && <dd className="num text-[11px] text-amber-700">projection: ≈{formatNumber(projected, 0)} h if the line holds (extrapolated past the data)</dd>}
         </div>
+        {!isHold && (
+          <div className="col-span-2" title={curve.method.onsetHours?.method}>
+            <dt className="text-xs text-ink-500">Onset of rapid failure</dt>
+            <dd className="num">{curve.metrics.onsetHours == null ? 'none found' : `${formatNumber(curve.metrics.onsetHours, 0)} h`}{n(s.onsetLowHours) != null && n(s.onsetHighHours) != null && curve.metrics.onsetHours != null ? <span className="text-[11px] text-ink-500"> (range {formatNumber(n(s.onsetLowHours)!, 0)} – {formatNumber(n(s.onsetHighHours)!, 0)} h)</span> : null}</dd>
+            <dd className="text-[11px] text-ink-500">Rule{ownOnsetRule ? ' (set for this log)' : ''}: after break-in, the loss rate after the break at least {onsetRule.minRateRatio ?? 3}× the stable rate and {onsetRule.minRateIncreaseUvPerH ?? 20} µV/h above it, significant at p &lt; {onsetRule.alpha ?? 0.001}.{curve.metricNotes.onsetHours ? ` ${curve.metricNotes.onsetHours}` : ''}</dd>
+          </div>
+        )}
+        {isHold && (
+          <>
+            <div title={curve.method.holdDecay?.method}><dt className="text-xs text-ink-500">Hold decay</dt><dd className="num">{curve.metrics.holdDecay == null ? '—' : `${formatNumber(curve.metrics.holdDecay, 2)} mV/h`}</dd></div>
+            <div title={curve.method.holdLoss?.method}><dt className="text-xs text-ink-500">Loss over the hold</dt><dd className="num">{curve.metrics.holdLoss == null ? '—' : `${formatNumber(curve.metrics.holdLoss, 1)} mV`}</dd></div>
+            <div className="col-span-2"><dt className="sr-only">Settling rule</dt><dd className="text-[11px] text-ink-500">Settling rule: the first minutes after the load is removed are skipped ({(() => { try { const r = JSON.parse(String(s.holdRule ?? '{}')) as { settleMinutes?: number; edgeMinutes?: number }; return `${r.settleMinutes ?? 15} min; loss from the first and last ${r.edgeMinutes ?? 10} min of the rest`; } catch { return '15 min'; } })()}).</dd></div>
+          </>
+        )}
         <div><dt className="text-xs text-ink-500">Break-in</dt><dd className="num">{curve.metrics.breakInHours == null ? '—' : `${formatNumber(curve.metrics.breakInHours, 0)} h`} <span className="text-[11px] text-ink-500">({source === 'user' ? 'set by hand' : source})</span></dd></div>
       </dl>
       {curve.metricNotes.degradationRate && <p className="text-xs text-amber-700">{curve.metricNotes.degradationRate}</p>}
@@ -131,6 +149,18 @@ export function DurabilityControls({ curve, update, canEdit }: { curve: CurveSum
             <label className="text-xs text-ink-700">to (h)<Input type="number" min={0} step="any" className="w-24" value={to} onChange={(e) => setTo(e.target.value)} aria-label="Window to (h)" /></label>
             <Button disabled={from === '' || to === '' || !(Number(to) > Number(from))} onClick={() => update.mutate({ curveId: curve.id, windows: [...(options.windows ?? []), { fromHours: Number(from), toHours: Number(to) }] }, { onSuccess: () => { setFrom(''); setTo(''); } })}>Add window</Button>
           </div>
+          {!isHold && (
+            <div className="flex flex-wrap items-end gap-2">
+              <label className="text-xs text-ink-700">Onset: rate after ≥ × stable
+                <Input type="number" min={1} max={100} step="any" className="w-24" value={ratio} onChange={(e) => setRatio(e.target.value)} aria-label="Onset rate ratio" />
+              </label>
+              <label className="text-xs text-ink-700">and rise ≥ (µV/h)
+                <Input type="number" min={0} step="any" className="w-24" value={rise} onChange={(e) => setRise(e.target.value)} aria-label="Onset rate rise (µV/h)" />
+              </label>
+              <Button disabled={!(Number(ratio) >= 1) || !(Number(rise) >= 0)} onClick={() => update.mutate({ curveId: curve.id, onsetRule: { minRateRatio: Number(ratio), minRateIncreaseUvPerH: Number(rise) } })}>Set onset rule</Button>
+              <Button variant="ghost" disabled={!ownOnsetRule} onClick={() => update.mutate({ curveId: curve.id, onsetRule: null })}>Use project rule</Button>
+            </div>
+          )}
           <div className="flex flex-wrap items-end gap-2">
             <label className="text-xs text-ink-700">End-of-life loss (% of voltage)
               <Input type="number" min={0.1} max={99} step="any" className="w-24" value={loss} onChange={(e) => setLoss(e.target.value)} aria-label="End-of-life loss (%)" />
