@@ -5,10 +5,11 @@ import type { AppContext, AuthUser } from '../context';
 import { can, type ProjectAccess } from '../auth/access';
 import { auditLog, builds, memberships, projects, reviews, users } from '../db/schema';
 import { audit } from '../lib/audit';
-import { conflict } from '../lib/errors';
+import { AppError, conflict } from '../lib/errors';
 import { nextStatus } from '../../shared/builds/status';
 import type { VerdictBody } from '../../shared/schemas/review';
 import { notifyVerdict } from './notify';
+import { getBuildItem } from '../builds/service';
 import type { AuditTrailEntry, ReviewEntry } from '../../shared/api-types';
 
 type BuildRow = typeof builds.$inferSelect;
@@ -40,10 +41,28 @@ export function addComment(ctx: AppContext, access: ProjectAccess, build: BuildR
 }
 
 /** A PI's verdict (who may give one is the route's permission): the build becomes reviewed and its author is told. */
+/** The verdict that stands on a reviewed build: the latest one, with who gave it and when. */
+function standingVerdict(ctx: AppContext, buildId: number) {
+  return ctx.db
+    .select({ verdict: reviews.verdict, at: reviews.createdAt, by: users.name })
+    .from(reviews)
+    .innerJoin(users, eq(users.id, reviews.userId))
+    .where(and(eq(reviews.buildId, buildId), sql`${reviews.verdict} is not null`))
+    .orderBy(desc(reviews.id))
+    .limit(1)
+    .get();
+}
+
 export async function giveVerdict(ctx: AppContext, access: ProjectAccess, build: BuildRow, input: VerdictBody) {
   const step = nextStatus(build.status, { kind: 'verdict' });
   if (!step.ok) {
     throw conflict(`${build.code} is ${build.status}: a verdict needs a build that was made and tested.`, { fields: [{ path: 'verdict', message: `not possible on a ${build.status} build` }] });
+  }
+  // the same verdict twice on a build nobody has changed since: a double click, not a decision
+  const standing = build.status === 'reviewed' ? standingVerdict(ctx, build.id) : undefined;
+  if (standing && standing.verdict === input.verdict && !input.repeat) {
+    const said = input.verdict === 'approved' ? 'approved' : 'marked as needing work';
+    throw new AppError(409, 'verdict-already-given', `${build.code} was already ${said} by ${standing.by} on ${standing.at.slice(0, 10)}; nothing was recorded. Send repeat: true to give the same verdict again.`, { fields: [{ path: 'verdict', message: `already ${said}` }] });
   }
   const { row, after } = ctx.db.transaction((tx) => {
     const row = tx.insert(reviews).values({ buildId: build.id, userId: access.user.id, body: input.body, verdict: input.verdict }).returning().get();
@@ -55,7 +74,9 @@ export async function giveVerdict(ctx: AppContext, access: ProjectAccess, build:
     audit(ctx.db, { userId: access.user.id, action: 'update', entity: 'build', entityId: build.id, projectId: build.projectId, before: { status: build.status }, after: { status: after.status } });
   }
   await notifyVerdict(ctx, access.user, build, input.verdict, input.body);
-  return { review: entry(ctx, row.id), status: after.status };
+  // the next build waiting for this reviewer, so the queue can be cleared one after another
+  const next = awaitingReview(ctx, access.user, 1).find((b) => b.buildId !== build.id) ?? null;
+  return { review: entry(ctx, row.id), status: after.status, nextWaiting: next && { buildId: next.buildId, code: next.code, projectId: next.projectId } };
 }
 
 /** Who changed what on one build, newest first: the build itself, its curves and its reviews. */
@@ -125,18 +146,40 @@ function summarize(entity: string, action: string, after: unknown): string {
   return `${action} ${entity}`;
 }
 
-/** Home: tested builds waiting for a verdict in the projects where I am PI. */
-export function awaitingReview(ctx: AppContext, user: AuthUser, limit = 20) {
+/**
+ * Home: tested builds waiting for a verdict in the projects where I am PI, the longest-waiting
+ * last-changed first as before, each with how long it has waited (whole days since it was tested),
+ * its V at j_ref and the change from its parent's (both of record, V).
+ */
+export function awaitingReview(ctx: AppContext, user: AuthUser, limit = 20, now = new Date()) {
   const piProjects = ctx.db.select({ projectId: memberships.projectId }).from(memberships).where(and(eq(memberships.userId, user.id), eq(memberships.role, 'pi'))).all().map((m) => m.projectId);
   if (piProjects.length === 0) return [];
-  return ctx.db
-    .select({ buildId: builds.id, code: builds.code, projectId: builds.projectId, projectName: projects.name, changeNote: builds.changeNote, status: builds.status, testedOn: builds.testedOn })
+  const rows = ctx.db
+    .select({ buildId: builds.id, code: builds.code, projectId: builds.projectId, projectName: projects.name, changeNote: builds.changeNote, status: builds.status, testedOn: builds.testedOn, parentId: builds.parentId })
     .from(builds)
     .innerJoin(projects, eq(projects.id, builds.projectId))
     .where(and(inArray(builds.projectId, piProjects), eq(builds.status, 'tested')))
     .orderBy(desc(sql`coalesce(${builds.updatedAt}, ${builds.testedOn}, ${builds.createdAt})`), desc(builds.id))
     .limit(limit)
     .all();
+  const valueOf = (buildId: number | null) => {
+    if (buildId == null) return { code: null, value: null };
+    const item = getBuildItem(ctx, buildId);
+    const value = item.values.vAtRef;
+    return { code: item.code, value: typeof value === 'number' ? value : null };
+  };
+  return rows.map(({ parentId, ...row }) => {
+    const own = valueOf(row.buildId);
+    const parent = valueOf(parentId);
+    const since = row.testedOn ? Date.parse(`${row.testedOn}T00:00:00Z`) : NaN;
+    return {
+      ...row,
+      waitingDays: Number.isFinite(since) ? Math.max(0, Math.floor((now.getTime() - since) / 86_400_000)) : null,
+      vAtRef: own.value,
+      parentCode: parent.code,
+      changeFromParent: own.value != null && parent.value != null ? own.value - parent.value : null,
+    };
+  });
 }
 
 /** Home: my builds whose latest verdict is "needs work" (and still stand as reviewed). */

@@ -152,4 +152,23 @@ describe('notices to PIs', () => {
     expect(again.body.sent).toBe(0);
     await h.as.pi.put(`/api/projects/${ids.project('C')}/notify`, { notify: true, digest: false }).expect(200);
   });
+
+  it('refuses the same verdict twice by accident (409), allows it on purpose, and names the next build waiting', async () => {
+    const build = ids.build('C-016');
+    const home = (await h.as.pi.get('/api/home').expect(200)).body.awaitingReview as { code: string; waitingDays: number | null; vAtRef: number | null; parentCode: string | null; changeFromParent: number | null }[];
+    const item = home.find((b) => b.code === 'C-016')!;
+    expect(item.waitingDays).toEqual(expect.any(Number));
+    if (item.vAtRef != null && item.changeFromParent != null) {
+      const parent = (await h.as.pi.get(`/api/builds/${ids.build(item.parentCode!)}`)).body.build.values.vAtRef;
+      expect(item.changeFromParent).toBeCloseTo(item.vAtRef - parent, 12); // the difference of the two values of record (derived by hand)
+    }
+    const first = await h.as.pi.post(`/api/builds/${build}/verdict`, { verdict: 'approved', body: 'Looks right.' }).expect(201);
+    expect(first.body.nextWaiting === null || first.body.nextWaiting.buildId !== build).toBe(true);
+    if (first.body.nextWaiting) expect(home.map((b) => b.code)).toContain(first.body.nextWaiting.code);
+    const twice = await h.as.pi.post(`/api/builds/${build}/verdict`, { verdict: 'approved', body: 'Looks right.' }).expect(409);
+    expect(twice.body.error.code).toBe('verdict-already-given');
+    expect(twice.body.error.message).toContain('C-016 was already approved by Dr. Tobias Renwick');
+    await h.as.pi.post(`/api/builds/${build}/verdict`, { verdict: 'approved', body: 'Confirmed after the meeting.', repeat: true }).expect(201);
+    await h.as.pi.post(`/api/builds/${build}/verdict`, { verdict: 'needs-work', body: 'On second thought: repeat it.' }).expect(201); // a change of mind is not a double click
+  });
 });

@@ -163,7 +163,7 @@ export const MATRIX: MatrixRow[] = [
   { method: 'get', path: '/api/projects/{id}/lineage', send: (_h, c) => c.get(`/api/projects/${C()}/lineage?response=vAtRef`) },
   { method: 'get', path: '/api/builds/{id}/reviews', send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/reviews`) },
   { method: 'post', path: '/api/builds/{id}/reviews', send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/reviews`, { body: unique('matrix comment ') }) },
-  { method: 'post', path: '/api/builds/{id}/verdict', send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/verdict`, { verdict: 'approved', body: unique('matrix verdict ') }) },
+  { method: 'post', path: '/api/builds/{id}/verdict', send: (_h, c) => c.post(`/api/builds/${ids.build('C-014')}/verdict`, { verdict: 'approved', body: unique('matrix verdict '), repeat: true }) },
   { method: 'get', path: '/api/builds/{id}/audit', send: (_h, c) => c.get(`/api/builds/${ids.build('C-014')}/audit`) },
 ];
 

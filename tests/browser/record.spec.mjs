@@ -48,6 +48,9 @@ export default async function ({ url, browser, signIn, artifacts }) {
   const projectPath = buildPath.replace(/\/builds\/\d+$/, '');
   await page.getByLabel('Comment or verdict').fill('Partner check agrees with our baseline trend.');
   await page.getByRole('button', { name: 'Approve' }).click();
+  // the next waiting build opens; C-015 is reviewed
+  await page.getByRole('status').getByText('This is the next build waiting for your review.').waitFor();
+  await page.goBack();
   await page.getByRole('heading', { name: /C-015/ }).getByText('reviewed').waitFor();
   await signOut(page);
 

@@ -39,6 +39,14 @@ export default async function ({ url, browser, signIn }) {
   await checkPage(page, 'build C-009 waiting for review');
   await page.getByLabel('Comment or verdict').fill('GDL swap costs a few mV; keep woven carbon.');
   await page.getByRole('button', { name: 'Approve' }).click();
+  // the next build waiting for a verdict opens at once; back to C-009 to read its thread
+  await page.getByRole('status').getByText('This is the next build waiting for your review.').waitFor();
+  assert.equal(await page.getByRole('heading', { name: /C-009/ }).count(), 0);
+  await checkPage(page, 'next build waiting for review');
+  await page.goBack();
+  await page.getByRole('heading', { name: /C-009/ }).waitFor();
+  // the verdict stands: approving again is not offered
+  assert.equal(await page.getByRole('button', { name: 'Approved' }).isDisabled(), true);
   const thread = page.getByRole('list', { name: 'Review thread' });
   await thread.getByText('GDL swap costs a few mV; keep woven carbon.').waitFor();
   await page.getByRole('heading', { name: /C-009/ }).getByText('reviewed').waitFor();

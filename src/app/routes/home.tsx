@@ -2,6 +2,7 @@
 import { Link } from 'react-router-dom';
 import { useHome } from '@/features/projects/api/projects';
 import { useMe } from '@/features/auth/api/get-me';
+import { ReviewQueue } from '@/features/review/components/review-queue';
 import { PageHeader, Panel, EmptyState, Loading, ErrorNote } from '@/components/ui/panel';
 import { formatDateTime, formatMetric, formatNumber } from '@/lib/format';
 
@@ -33,7 +34,7 @@ export default function Home() {
   return (
     <div className="max-w-6xl">
       <PageHeader eyebrow="Home" title={`Good to see you, ${firstName}`} subtitle="Your projects, the best build in each at its reference point, and what is waiting for you." />
-      <BuildList title="Waiting for my review" items={(data.awaitingReview ?? []).map((b) => ({ ...b, text: b.changeNote }))} />
+      <ReviewQueue items={data.awaitingReview ?? []} />
       <BuildList title="Needs work (my builds)" items={(data.needsWork ?? []).map((b) => ({ ...b, text: b.comment }))} />
       <div className="grid gap-4 md:grid-cols-2">
         {data.projects.length === 0 && (

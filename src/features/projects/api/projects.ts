@@ -11,7 +11,7 @@ export const useProjects = () => useQuery(projectsQueryOptions());
 export interface HomeData {
   projects: (Project & { best: { buildId: number; code: string; vAtRef: number; changeNote: string | null } | null })[];
   recentUploads: { fileId: number; name: string; uploadedAt: string; projectId: number; buildId: number | null; buildCode: string | null; uploadedBy: string | null }[];
-  awaitingReview?: { buildId: number; code: string; projectId: number; projectName: string; changeNote: string | null; status: string }[];
+  awaitingReview?: { buildId: number; code: string; projectId: number; projectName: string; changeNote: string | null; status: string; testedOn: string | null; waitingDays: number | null; vAtRef: number | null; parentCode: string | null; changeFromParent: number | null }[];
   needsWork?: { buildId: number; code: string; projectId: number; projectName: string; comment: string | null }[];
 }
 export const homeQueryOptions = () => queryOptions({ queryKey: ['home'], queryFn: () => api<HomeData>('/home') });

@@ -38,7 +38,7 @@ export function useAddComment(buildId: number, projectId: number) {
 export function useGiveVerdict(buildId: number, projectId: number) {
   const invalidate = useInvalidate(buildId, projectId);
   return useMutation({
-    mutationFn: (input: VerdictBody) => api<{ review: ReviewEntry; status: string }>(`/builds/${buildId}/verdict`, { method: 'POST', body: input }),
+    mutationFn: (input: VerdictBody) => api<{ review: ReviewEntry; status: string; nextWaiting: { buildId: number; code: string; projectId: number } | null }>(`/builds/${buildId}/verdict`, { method: 'POST', body: input }),
     onSuccess: invalidate,
   });
 }

@@ -1,6 +1,7 @@
 // The review thread at the foot of a build page: comments by anyone who may comment, a PI's
 // verdict (approved / needs work, always with a comment), and the build's history of changes.
 import { useState } from 'react';
+import { useLocation, useNavigate } from 'react-router-dom';
 import { useForm, type Resolver } from 'react-hook-form';
 import { nextStatus, type BuildStatus } from '@shared/builds/status';
 import { commentSchema, verdictSchema, type CommentBody, type VerdictBody } from '@shared/schemas/review';
@@ -88,24 +89,35 @@ export function ReviewThread({ buildId, projectId, permissions, status }: { buil
   const busy = comment.isPending || verdict.isPending;
   const serverError = (comment.error ?? verdict.error) as ApiError | null;
 
+  const navigate = useNavigate();
+  const arrivedAfterVerdict = (useLocation().state as { verdictSaved?: boolean } | null)?.verdictSaved === true;
+  const reviews = thread.data?.reviews ?? [];
+  const latestVerdict = [...reviews].reverse().find((r) => r.verdict);
+  // the verdict that stands: giving it again would only repeat it (the server refuses that too)
+  const standing = status === 'reviewed' ? latestVerdict?.verdict ?? null : null;
+
   const send = (kind: SendKind) => {
     form.setValue('kind', kind);
     void form.handleSubmit((checked) => {
-      const done = { onSuccess: () => form.reset({ text: '', kind: 'comment' }) };
       const body = checked as unknown as CommentBody | VerdictBody;
-      if ('verdict' in body) verdict.mutate(body, done);
-      else comment.mutate(body.body, done);
+      if ('verdict' in body) {
+        verdict.mutate(body, {
+          onSuccess: (answer) => {
+            form.reset({ text: '', kind: 'comment' });
+            // clear the queue one build after another: the next one waiting opens
+            if (answer.nextWaiting) navigate(`/projects/${answer.nextWaiting.projectId}/builds/${answer.nextWaiting.buildId}`, { state: { verdictSaved: true } });
+          },
+        });
+      } else comment.mutate(body.body, { onSuccess: () => form.reset({ text: '', kind: 'comment' }) });
     })();
   };
-
-  const reviews = thread.data?.reviews ?? [];
-  const latestVerdict = [...reviews].reverse().find((r) => r.verdict);
   return (
     <Panel
       title={<span className="flex items-center gap-2">Review {latestVerdict?.verdict && <VerdictMark verdict={latestVerdict.verdict} />}</span>}
       className="mt-4"
       actions={<Button variant="ghost" onClick={() => setShowHistory((v) => !v)} aria-expanded={showHistory}>{showHistory ? 'Hide history' : 'Show history'}</Button>}
     >
+      {arrivedAfterVerdict && <p role="status" className="mb-3 rounded-md bg-moss-100 px-3 py-2 text-sm text-moss-700">Your verdict was saved. This is the next build waiting for your review.</p>}
       {thread.isLoading ? <Loading /> : thread.error ? <ErrorNote error={thread.error} /> : (
         <>
           {reviews.length === 0 ? (
@@ -123,11 +135,12 @@ export function ReviewThread({ buildId, projectId, permissions, status }: { buil
                 {permissions.comment && <Button onClick={() => send('comment')} disabled={busy}>Add comment</Button>}
                 {canVerdict && (
                   <>
-                    <Button variant="primary" onClick={() => send('approved')} disabled={busy}>Approve</Button>
-                    <Button variant="danger" onClick={() => send('needs-work')} disabled={busy}>Needs work</Button>
+                    <Button variant="primary" onClick={() => send('approved')} disabled={busy || standing === 'approved'}>{standing === 'approved' ? 'Approved' : 'Approve'}</Button>
+                    <Button variant="danger" onClick={() => send('needs-work')} disabled={busy || standing === 'needs-work'}>{standing === 'needs-work' ? 'Marked: needs work' : 'Needs work'}</Button>
                   </>
                 )}
               </div>
+              {canVerdict && standing && <p className="text-xs text-ink-500">The verdict stands until someone changes it; a new curve of record sends the build back to review.</p>}
               {permissions.review && !canVerdict && <p className="text-xs text-ink-500">A verdict is possible once the build is made and tested (it is {status}).</p>}
             </div>
           ) : (
