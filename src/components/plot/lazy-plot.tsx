@@ -48,14 +48,14 @@ function markOnce(name: string) {
 }
 const withoutPlots = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noplot');
 
-/** The chart's laid-out width in px, rounded so small resizes do not re-theme. */
+/** The chart's laid-out width in px, rounded down to 20 px so small resizes do not re-theme. */
 function useWidth() {
   const ref = useRef<HTMLDivElement>(null);
   const [width, setWidth] = useState(0);
   useLayoutEffect(() => {
     const node = ref.current;
     if (!node) return;
-    const measure = () => setWidth(Math.round(node.getBoundingClientRect().width / 20) * 20);
+    const measure = () => setWidth(Math.floor(node.getBoundingClientRect().width / 20) * 20);
     measure();
     const observer = new ResizeObserver(measure);
     observer.observe(node);
@@ -74,11 +74,12 @@ export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & {
     <div ref={box} data-plot-bundle={bundle} className="min-w-0">
       {width > 0 && (
         <Suspense fallback={<div style={{ height }}><Loading label="Loading the plot…" /></div>}>
+          {/* the chart is drawn at the measured width (the observer above follows the container), so
+              the library's own window-resize handler, which can fire after the chart is gone, is off */}
           <Chart
-            useResizeHandler
             style={{ width: '100%', height: 420, ...style }}
             data={themedData(data, width)}
-            layout={themedLayout(layout, { width, title, subtitle })}
+            layout={{ width, autosize: false, ...themedLayout(layout, { width, title, subtitle }) }}
             config={merge({ ...PLOT_CONFIG, toImageButtonOptions: { format: 'png', filename: fileName, scale: 2 } }, config)}
             onInitialized={(figure, graph) => { unlink(graph); markOnce('cw:first-plot'); onInitialized?.(figure, graph); }}
             onUpdate={(figure, graph) => { unlink(graph); onUpdate?.(figure, graph); }}
