@@ -2,6 +2,7 @@
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import cookieParser from 'cookie-parser';
+import compression from 'compression';
 import { pinoHttp } from 'pino-http';
 import path from 'node:path';
 import fs from 'node:fs';
@@ -48,6 +49,20 @@ export function createApp(ctx: AppContext, options: { serveClient?: boolean } = 
       }),
     );
   }
+  // gzip for JSON answers and the client's text assets above 1 kB (smaller answers gain less than
+  // the header costs). Server-sent events and stored files (sent as uploaded, hash in a header)
+  // go out as they are.
+  app.use(
+    compression({
+      threshold: 1024,
+      filter: (req, res) => {
+        const type = String(res.getHeader('Content-Type') ?? '');
+        if (type.includes('text/event-stream') || res.getHeader('X-Content-SHA256')) return false;
+        if (!/json|javascript|text\/css|text\/html|image\/svg/.test(type)) return false;
+        return compression.filter(req, res);
+      },
+    }),
+  );
   app.use(cookieParser());
   app.use(express.json({ limit: '2mb' }));
 

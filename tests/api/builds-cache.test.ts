@@ -52,3 +52,21 @@ describe('builds list cache', () => {
     expect(await noteOf('C-007')).toBe('edited through the API');
   });
 });
+
+describe('compressed answers', () => {
+  it('gzips a JSON list for a client that accepts it, and the text is the same', async () => {
+    const plain = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`).set('Accept-Encoding', 'identity');
+    const zipped = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`).set('Accept-Encoding', 'gzip');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(zipped.headers['content-encoding']).toBe('gzip');
+    expect(zipped.headers.vary).toMatch(/Accept-Encoding/i);
+    // supertest inflates the body: the list arrives whole
+    expect(zipped.text).toBe(plain.text);
+  });
+
+  it('leaves a small answer as it is (below the 1 kB threshold)', async () => {
+    const res = await h.anonymous.get('/api/health').set('Accept-Encoding', 'gzip');
+    expect(res.status).toBe(200);
+    expect(res.headers['content-encoding']).toBeUndefined();
+  });
+});
