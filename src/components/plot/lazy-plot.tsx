@@ -1,7 +1,7 @@
 // Every 2-D chart of Cellwright: the cartesian plotting bundle loaded lazily, the Cellwright
 // theme applied (./theme.ts), no library toolbar, no outside links, titles wrapped to the chart's
 // width. Plot3D (./plot-3d.tsx) takes the same props for 3-D views.
-import { lazy, Suspense, useLayoutEffect, useRef, useState, type ComponentType, type CSSProperties, type LazyExoticComponent } from 'react';
+import { lazy, Suspense, useEffect, useLayoutEffect, useRef, useState, type ComponentType, type CSSProperties, type LazyExoticComponent } from 'react';
 import type { PlotParams } from 'react-plotly.js/factory';
 import { Loading } from '@/components/ui/panel';
 import { PLOT_CONFIG, merge, themedData, themedLayout } from './theme';
@@ -50,13 +50,31 @@ function useWidth() {
   return [ref, width] as const;
 }
 
+/**
+ * Timing marks for the first-plot figure of `npm run bench`: `cw:first-plot` when the first chart
+ * of a page load has drawn, `cw:plot-slot` when the place of a chart is on screen with its data.
+ * With `?noplot=1` in the address the chart is left out (only the mark is set), so the same page
+ * can be timed without it; nothing links there.
+ */
+const skipPlots = typeof location !== 'undefined' && new URLSearchParams(location.search).get('noplot') === '1';
+function markOnce(name: string) {
+  if (typeof performance === 'undefined' || performance.getEntriesByName(name).length > 0) return;
+  performance.mark(name);
+}
+
+function SkippedPlot({ height }: { height: number }) {
+  useEffect(() => markOnce('cw:plot-slot'), []);
+  return <div style={{ height }} className="grid place-items-center rounded border border-dashed border-slate-300 text-sm text-slate-600">Chart left out for a timing run.</div>;
+}
+
 export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & { component: LazyExoticComponent<ComponentType<PlotParams>>; bundle: '2d' | '3d' }) {
   const { fileName = 'cellwright-plot', config, layout, style, title, subtitle, onInitialized, onUpdate, data, ...rest } = props;
   const [box, width] = useWidth();
   const height = typeof style?.height === 'number' ? style.height : 420;
   return (
     <div ref={box} data-plot-bundle={bundle} className="min-w-0">
-      {width > 0 && (
+      {width > 0 && skipPlots && <SkippedPlot height={height} />}
+      {width > 0 && !skipPlots && (
         <Suspense fallback={<div style={{ height }}><Loading label="Loading the plot…" /></div>}>
           <Chart
             useResizeHandler
@@ -64,7 +82,7 @@ export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & {
             data={themedData(data, width)}
             layout={themedLayout(layout, { width, title, subtitle })}
             config={merge({ ...PLOT_CONFIG, toImageButtonOptions: { format: 'png', filename: fileName, scale: 2 } }, config)}
-            onInitialized={(figure, graph) => { unlink(graph); onInitialized?.(figure, graph); }}
+            onInitialized={(figure, graph) => { unlink(graph); markOnce('cw:plot-slot'); markOnce('cw:first-plot'); onInitialized?.(figure, graph); }}
             onUpdate={(figure, graph) => { unlink(graph); onUpdate?.(figure, graph); }}
             {...rest}
           />
