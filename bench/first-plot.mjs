@@ -24,7 +24,7 @@ try {
   await signIn(page, server.url, 'pi');
   const { projects } = await (await page.request.get(`${server.url}/api/projects`)).json();
   const p = `/projects/${projects.find((x) => /PGM-free cathode/.test(x.name)).id}`;
-  const pages = [['build', `${p}/builds/10`], ['gains', `${p}/gains`], ['surface', `${p}/surface`]];
+  const pages = (process.env.FIRST_PLOT_PAGES ? (x) => x.filter(([n]) => process.env.FIRST_PLOT_PAGES.split(",").includes(n)) : (x) => x)([['build', `${p}/builds/10`], ['gains', `${p}/gains`], ['surface', `${p}/surface`]]);
 
   /** navigation → the mark, in ms (the mark's startTime is measured from the navigation's start) */
   async function timeTo(route, mark) {

@@ -9,7 +9,6 @@ import { PLOT_CONFIG, merge, themedData, themedLayout } from './theme';
 export { OKABE_ITO } from './theme';
 export { exportPlot, exportPlotCsv } from './export';
 
-const Cartesian = lazy(() => import('./plotly'));
 
 export type PlotProps = Omit<PlotParams, 'layout' | 'config' | 'data'> & {
   data: unknown[];
@@ -57,6 +56,11 @@ function useWidth() {
  * can be timed without it; nothing links there.
  */
 const skipPlots = typeof location !== 'undefined' && new URLSearchParams(location.search).get('noplot') === '1';
+// Only pages that draw charts load this module, so the plotting bundle is fetched and compiled as
+// soon as the page's code arrives, while its data is still on the way, not after the data came.
+const cartesianBundle = skipPlots ? null : import('./plotly');
+const Cartesian = lazy(() => cartesianBundle ?? import('./plotly'));
+
 function markOnce(name: string) {
   if (typeof performance === 'undefined' || performance.getEntriesByName(name).length > 0) return;
   performance.mark(name);
