@@ -15,7 +15,7 @@ import { CurveFileError } from '../../shared/curves/types';
 import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, HfrUnit, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
 import { CURVE_METRIC_INFO } from '../../shared/curves/metric-info';
-import { parseUpload } from '../uploads/parse-runner';
+import { durabilityInPool, parseUpload } from '../uploads/parse-runner';
 import { audit } from '../lib/audit';
 import { AppError, forbidden, notFound } from '../lib/errors';
 import { actorOf, requireProfileLab, type ProjectAccess } from '../auth/access';
@@ -28,7 +28,9 @@ import { nextStatus } from '../../shared/builds/status';
 import { deleteCurveKeepingRecord, recordOf } from './record';
 
 /** Give the event loop a turn between the long synchronous steps of a big upload. */
-const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+// a timer turn, not setImmediate: an immediate resumes in the same loop iteration, before timers
+// and new I/O get their turn
+const yieldToEventLoop = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
 
 type BuildRow = typeof builds.$inferSelect;
 type CurveRow = typeof curves.$inferSelect;
@@ -91,7 +93,25 @@ function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options
   if (curve.kind === 'polarization') {
     return polarizationMetrics(curve, ref, { loadingMgCm2: build.loadingMgCm2, metalLoadingMgCm2: build.metalLoadingMgCm2 }, { h2CrossoverAcm2: (build.testConditions?.h2CrossoverMAcm2 ?? 0) / 1000 });
   }
-  const d = durabilityMetrics(curve, options ?? {});
+  return durabilityResult(curve, durabilityMetrics(curve, options ?? {}));
+}
+
+/**
+ * computeMetrics for an upload: a durability or hold log's fit runs in the upload worker pool, so a
+ * million-row log does not hold the event loop for its few hundred ms. The columns are moved to
+ * the worker and back: use the returned curve afterwards.
+ * @throws RangeError as computeMetrics does
+ */
+async function computeMetricsOffThread<C extends CurveData>(ctx: AppContext, curve: C, ref: ReferencePoint, build: BuildRow): Promise<{ curve: C; result: MetricsResult }> {
+  if (curve.kind !== 'durability' && curve.kind !== 'hold') return { curve, result: computeMetrics(curve, ref, build) };
+  const moved = await durabilityInPool(ctx.env, curve, {});
+  const back = moved.curve as C;
+  const result = durabilityResult(back, moved.metrics);
+  result.summary.metricsAlgorithm = METRICS_ALGORITHM;
+  return { curve: back, result };
+}
+
+function durabilityResult(curve: CurveData, d: ReturnType<typeof durabilityMetrics>): MetricsResult {
   return {
     metrics: {
       vAtRef: null, vAtRefIrFree: null, jAtRef: null, jAtRefIrFree: null, massActivity: null,
@@ -256,6 +276,7 @@ export async function ingestUpload(
     const { table } = read;
     // the area the upload will use: given with it, else the file's, else the build's record
     const areaCm2 = options.areaCm2 ?? table.conditions.areaCm2 ?? build.areaCm2 ?? null;
+    await yieldToEventLoop();
     const detection = detectMapping(table, options.kind, { areaCm2 });
     const kind: CurveKind = options.kind ?? detection.kind;
     const askExtra = { fileName: upload.originalName, sheets: read.sheets, sheet: read.sheet, buildAreaCm2: build.areaCm2 ?? null };
@@ -304,6 +325,8 @@ export async function ingestUpload(
     } catch (error) {
       throw asUnprocessable(placeWholeFileError(error, table, mapping), upload.originalName);
     }
+    // each step below runs for a few hundred ms on a million rows: other requests go between them
+    await yieldToEventLoop();
     const notes = importNotes(table, data.notes);
     if (mappingSource.startsWith('profile')) notes.unshift(`columns and units from the import ${mappingSource.replace(/^profile /, 'profile "')}"`);
     const { mismatches, notes: conditionNotes } = compareConditions(table.conditions, build);
@@ -313,7 +336,7 @@ export async function ingestUpload(
     const project = db.select().from(projects).where(eq(projects.id, access.projectId)).get()!;
     let result: MetricsResult;
     try {
-      result = computeMetrics(data, referencePoint(project), build);
+      ({ curve: data, result } = await computeMetricsOffThread(ctx, data, referencePoint(project), build));
       if (kind === 'durability') checkHoursAfterBreakIn(data, result.metrics.breakInHours ?? null);
     } catch (error) {
       if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
@@ -323,6 +346,7 @@ export async function ingestUpload(
     options.progress?.phase('storing', null);
     await yieldToEventLoop();
     const points = encodePoints(data);
+    await yieldToEventLoop();
 
     const { existed } = await ctx.storage.put(read.sha256, upload.tmpPath);
 
