@@ -1,18 +1,19 @@
 // Baselines for the ingest figure: the raw parse of the same bytes by plain CSV parsers — uDSV's
-// typed columns (schema inferred from the text, every column a number array), papaparse (fast mode,
-// strings; and with numbers) and a hand-rolled split loop with Number() — best of 3 each.
+// typed-column parse (numbers per column), papaparse (fast mode, strings; and with numbers) and a
+// hand-rolled split loop with Number(). `node parse-baseline.ts FILE [repeats]`: the median of the
+// repeats for each, with the fastest and slowest beside it.
 import fs from 'node:fs';
 import Papa from 'papaparse';
 import { inferSchema, initParser } from 'udsv';
 import { rssSampler } from './lib';
 
 const file = process.argv[2]!;
-// `udsv` as the second argument: only uDSV's typed parse, once (the interleaved ingest runs)
-const onlyUdsv = process.argv[3] === 'udsv';
 const gc = (globalThis as { gc?: () => void }).gc;
 
-function timeBest(run: () => number, repeats = 3) {
-  let best = Infinity;
+const repeats = Number(process.argv[3] ?? 3);
+
+function timeBest(run: () => number) {
+  const times: number[] = [];
   let rows = 0;
   let peak = 0;
   for (let r = 0; r < repeats; r++) {
@@ -23,24 +24,20 @@ function timeBest(run: () => number, repeats = 3) {
     rows = run();
     const ms = performance.now() - started;
     peak = Math.max(peak, sampler.stop() - before);
-    best = Math.min(best, ms);
+    times.push(ms);
   }
-  return { ms: best, rows, peakDeltaBytes: peak };
+  times.sort((a, b) => a - b);
+  return { ms: times[times.length >> 1]!, minMs: times[0]!, maxMs: times[times.length - 1]!, times, rows, peakDeltaBytes: peak };
 }
 
 // The read from disk is part of both sides' job, so it is timed here too.
-const udsvTyped = () => {
-    const text = fs.readFileSync(file, 'utf8');
-    const parser = initParser(inferSchema(text));
-    const columns = parser.typedCols(text) as unknown as number[][];
-    return columns[0]!.length;
-};
-if (onlyUdsv) {
-  console.log(JSON.stringify({ udsvTyped: timeBest(udsvTyped, 1) }));
-  process.exit(0);
-}
 const results = {
-  udsvTyped: timeBest(udsvTyped),
+  udsvTypedCols: timeBest(() => {
+    const text = fs.readFileSync(file, 'utf8');
+    const schema = inferSchema(text);
+    const cols = initParser(schema).typedCols<number[]>(text);
+    return cols[0]!.length;
+  }),
   papaparseFast: timeBest(() => {
     const text = fs.readFileSync(file, 'utf8');
     return Papa.parse<string[]>(text, { fastMode: true, skipEmptyLines: true }).data.length - 1;

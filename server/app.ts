@@ -49,9 +49,20 @@ export function createApp(ctx: AppContext, options: { serveClient?: boolean } = 
       }),
     );
   }
-  // JSON answers, the client's scripts and CSV exports go out gzip-compressed when the browser
-  // accepts it (a 10,000-build list shrinks about tenfold); raw uploaded files are sent as stored.
-  app.use(compression({ threshold: 1024, filter: (req, res) => !req.originalUrl.startsWith('/api/files/') && compression.filter(req, res) }));
+  // gzip for JSON answers and the client's text assets above 1 kB (smaller answers gain less than
+  // the header costs). Server-sent events and stored files (sent as uploaded, hash in a header)
+  // go out as they are.
+  app.use(
+    compression({
+      threshold: 1024,
+      filter: (req, res) => {
+        const type = String(res.getHeader('Content-Type') ?? '');
+        if (type.includes('text/event-stream') || res.getHeader('X-Content-SHA256')) return false;
+        if (!/json|javascript|text\/css|text\/html|image\/svg/.test(type)) return false;
+        return compression.filter(req, res);
+      },
+    }),
+  );
   app.use(cookieParser());
   app.use(express.json({ limit: '2mb' }));
 

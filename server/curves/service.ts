@@ -16,7 +16,7 @@ import { CurveFileError } from '../../shared/curves/types';
 import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, CurveMetrics, HfrUnit, ImpedanceMapping, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
 import { encodePoints, decodePoints } from './points-codec';
 import { metricEntry, metricsOfKind, nullMetrics } from '../../shared/curves/metric-catalogue';
-import { parseUpload } from '../uploads/parse-runner';
+import { durabilityInPool, parseUpload } from '../uploads/parse-runner';
 import { audit } from '../lib/audit';
 import { AppError, forbidden, notFound } from '../lib/errors';
 import { actorOf, requireProfileLab, type ProjectAccess } from '../auth/access';
@@ -35,7 +35,9 @@ import { detectImpedanceColumns, spectrumFromTable } from '../../shared/impedanc
 import type { ProjectSettings } from '../../shared/schemas/project';
 
 /** Give the event loop a turn between the long synchronous steps of a big upload. */
-const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+// a timer turn, not setImmediate: an immediate resumes in the same loop iteration, before timers
+// and new I/O get their turn
+const yieldToEventLoop = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
 
 type BuildRow = typeof builds.$inferSelect;
 type CurveRow = typeof curves.$inferSelect;
@@ -94,19 +96,23 @@ export function referencePoint(project: typeof projects.$inferSelect): Reference
  */
 export const METRICS_ALGORITHM = 3;
 
-export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null): MetricsResult {
-  const result = measure(curve, ref, build, options);
+/**
+ * `fitted`: the log's durability fit when it was already made (an upload's runs in the worker pool,
+ * so a million-row log does not hold the event loop); otherwise it is made here.
+ */
+export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null, fitted?: ReturnType<typeof durabilityMetrics>): MetricsResult {
+  const result = measure(curve, ref, build, options, fitted);
   result.summary.metricsAlgorithm = METRICS_ALGORITHM;
   return result;
 }
 
-function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null): MetricsResult {
+function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null, fitted?: ReturnType<typeof durabilityMetrics>): MetricsResult {
   if (curve.kind === 'polarization') {
     return polarizationMetrics(curve, ref, { loadingMgCm2: build.loadingMgCm2, metalLoadingMgCm2: build.metalLoadingMgCm2 }, { h2CrossoverAcm2: (build.testConditions?.h2CrossoverMAcm2 ?? 0) / 1000 });
   }
   if (curve.kind === 'impedance') return impedanceResult(curve, { circuit: options?.circuit });
   const settings = ref as ReferencePoint & Partial<Pick<ProjectSettings, 'onsetRule' | 'holdRule'>>;
-  let d = durabilityMetrics(curve, options ?? {});
+  let d = fitted ?? durabilityMetrics(curve, options ?? {});
   const extra: { metrics: Partial<CurveMetrics>; notes: MetricsResult['metricNotes']; method: MetricsResult['method']; summary: MetricsResult['summary'] } = { metrics: {}, notes: {}, method: {}, summary: {} };
   if (curve.kind === 'durability') {
     // the search starts after break-in unless a rule says where
@@ -401,7 +407,15 @@ export async function ingestUpload(
       // The mapped columns now live in `data` (converted in place); let the rest go before measuring.
       table.columns.fill(null);
       try {
-        result = computeMetrics(data, referencePoint(project), build);
+        // a log's durability fit runs in the worker pool (its columns are moved there and back)
+        let fitted: ReturnType<typeof durabilityMetrics> | undefined;
+        if (kind === 'durability' || kind === 'hold') {
+          await yieldToEventLoop();
+          const moved = await durabilityInPool(env, data, {});
+          data = moved.curve as typeof data;
+          fitted = moved.metrics;
+        }
+        result = computeMetrics(data, referencePoint(project), build, null, fitted);
         if (kind === 'durability') checkHoursAfterBreakIn(data, result.metrics.breakInHours ?? null);
       } catch (error) {
         if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
@@ -412,6 +426,7 @@ export async function ingestUpload(
     options.progress?.phase('storing', null);
     await yieldToEventLoop();
     const points = encodePoints(data);
+    await yieldToEventLoop();
 
     const { existed } = await ctx.storage.put(read.sha256, upload.tmpPath);
 

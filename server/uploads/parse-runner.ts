@@ -12,7 +12,9 @@ import { AppError } from '../lib/errors';
 import type { ReadOptions, ReadResult } from '../curves/read-upload';
 import type { WorkbookLimits } from './workbook-guard';
 import { guardedCopyPath } from './guarded-read';
-import type { ParseReply, ParseRequest, SerializedError } from './parse-protocol';
+import type { CurveData } from '../../shared/curves/types';
+import type { DurabilityMetrics, DurabilityOptions } from '../../shared/durability';
+import { curveBuffers, type ParseReply, type SerializedError, type WorkerRequest } from './parse-protocol';
 
 export interface ParsePoolOptions {
   workers: number;
@@ -21,10 +23,10 @@ export interface ParsePoolOptions {
 }
 
 interface Job {
-  request: ParseRequest;
+  request: WorkerRequest;
   fileName: string;
   onBytes?: (bytes: number) => void;
-  resolve: (result: ReadResult) => void;
+  resolve: (result: never) => void;
   reject: (error: unknown) => void;
 }
 
@@ -39,6 +41,7 @@ export function defaultParseWorkers(): number {
 function rebuild(error: SerializedError, fileName: string): Error {
   if (error.kind === 'curve') return new CurveFileError(error.code, error.message, { line: error.line ?? undefined, column: error.column ?? undefined });
   if (error.kind === 'app') return new AppError(error.status, error.code, `${fileName}: ${error.message}`, error.details);
+  if (error.kind === 'range') return new RangeError(error.message);
   return new Error(error.message);
 }
 
@@ -53,6 +56,18 @@ export class ParsePool {
   parse(path: string, options: ReadOptions, limits: WorkbookLimits, fileName = 'the file'): Promise<ReadResult> {
     return new Promise<ReadResult>((resolve, reject) => {
       this.queue.push({ request: { id: this.nextId++, path, sheet: options.sheet, maxRows: options.maxRows, limits }, fileName, onBytes: options.onBytes, resolve, reject });
+      this.dispatch();
+    });
+  }
+
+  /**
+   * durabilityMetrics of a mapped curve in a worker thread. The curve's columns are moved to the
+   * thread and back (not copied): use the returned curve, the one given is emptied meanwhile.
+   * @throws RangeError as durabilityMetrics does
+   */
+  durability(curve: CurveData, options: DurabilityOptions): Promise<{ curve: CurveData; metrics: DurabilityMetrics }> {
+    return new Promise((resolve, reject) => {
+      this.queue.push({ request: { type: 'durability', id: this.nextId++, curve, options }, fileName: 'the curve', resolve, reject });
       this.dispatch();
     });
   }
@@ -127,7 +142,7 @@ export class ParsePool {
     let settled = false;
     this.running++;
     worker.ref();
-    const finish = (outcome: { result?: ReadResult; error?: unknown }, keepWorker: boolean) => {
+    const finish = (outcome: { result?: unknown; error?: unknown }, keepWorker: boolean) => {
       if (settled) return;
       settled = true;
       this.running--;
@@ -141,16 +156,17 @@ export class ParsePool {
       } else {
         this.retire(worker);
         // an ended worker could not remove its guarded copy of a workbook
-        fs.rmSync(guardedCopyPath(job.request.path), { force: true });
+        if (job.request.type !== 'durability') fs.rmSync(guardedCopyPath(job.request.path), { force: true });
       }
       if (outcome.error !== undefined) job.reject(outcome.error);
-      else job.resolve(outcome.result!);
+      else job.resolve(outcome.result as never);
       this.dispatch();
     };
     const onMessage = (reply: ParseReply) => {
       if (reply.type === 'ready' || reply.id !== job.request.id) return;
       if (reply.type === 'bytes') job.onBytes?.(reply.bytes);
       else if (reply.type === 'done') finish({ result: reply.result }, true);
+      else if (reply.type === 'durability') finish({ result: { curve: reply.curve, metrics: reply.metrics } }, true);
       else finish({ error: rebuild(reply.error, job.fileName) }, true);
     };
     const onError = (error: Error & { code?: string }) => {
@@ -172,7 +188,9 @@ export class ParsePool {
         timer = setTimeout(() => {
           finish({ error: new CurveFileError('parse-timeout', `reading the file took longer than ${Number((this.options.timeoutMs / 1000).toFixed(2))} s, the limit per upload (UPLOAD_PARSE_TIMEOUT_MS); nothing was stored. Split the file or save it as CSV.`) }, false);
         }, this.options.timeoutMs);
-        worker.postMessage(job.request);
+        const request = job.request;
+        if (request.type === 'durability') worker.postMessage(request, curveBuffers(request.curve));
+        else worker.postMessage(request);
       },
       (error: unknown) => finish({ error }, false),
     );
@@ -206,6 +224,11 @@ export function workbookLimits(env: Env): WorkbookLimits {
 }
 
 /** readUpload's work, in the pool: same options, same result, or the same errors. */
+/** durabilityMetrics in the pool (see ParsePool.durability). */
+export function durabilityInPool(env: Env, curve: CurveData, options: DurabilityOptions) {
+  return parsePool(env).durability(curve, options);
+}
+
 export function parseUpload(env: Env, path: string, options: ReadOptions, fileName?: string): Promise<ReadResult> {
   return parsePool(env).parse(path, options, workbookLimits(env), fileName);
 }

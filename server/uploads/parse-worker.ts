@@ -5,18 +5,30 @@ import { parentPort } from 'node:worker_threads';
 import { CurveFileError } from '../../shared/curves/types';
 import { AppError } from '../lib/errors';
 import { readUploadGuarded } from './guarded-read';
-import type { ParseRequest, ParseReply, SerializedError } from './parse-protocol';
+import { durabilityMetrics } from '../../shared/durability';
+import { curveBuffers, type WorkerRequest, type ParseReply, type SerializedError } from './parse-protocol';
 
 function serialize(error: unknown): SerializedError {
   if (error instanceof CurveFileError) return { kind: 'curve', code: error.code, message: error.message, line: error.line ?? null, column: error.column ?? null };
   if (error instanceof AppError) return { kind: 'app', status: error.status, code: error.code, message: error.message, details: error.details ?? null };
+  if (error instanceof RangeError) return { kind: 'range', message: error.message };
   return { kind: 'other', message: error instanceof Error ? error.message : String(error) };
 }
 
 const port = parentPort!;
 // the imports above are loaded: the pool starts a job's clock only from here
 port.postMessage({ id: 0, type: 'ready' } satisfies ParseReply);
-port.on('message', async (request: ParseRequest) => {
+port.on('message', async (request: WorkerRequest) => {
+  if (request.type === 'durability') {
+    try {
+      const metrics = durabilityMetrics(request.curve, request.options);
+      // the columns go back as they came, moved rather than copied
+      port.postMessage({ id: request.id, type: 'durability', curve: request.curve, metrics } satisfies ParseReply, curveBuffers(request.curve));
+    } catch (error) {
+      port.postMessage({ id: request.id, type: 'error', error: serialize(error) } satisfies ParseReply);
+    }
+    return;
+  }
   let lastReport = 0;
   try {
     const result = await readUploadGuarded(request.path, {

@@ -1,19 +1,13 @@
 // Every 2-D chart of Cellwright: the cartesian plotting bundle loaded lazily, the Cellwright
 // theme applied (./theme.ts), no library toolbar, no outside links, titles wrapped to the chart's
 // width. Plot3D (./plot-3d.tsx) takes the same props for 3-D views.
-import { lazy, Suspense, useLayoutEffect, useRef, useState, type ComponentType, type CSSProperties, type LazyExoticComponent } from 'react';
+import { lazy, Suspense, useEffect, useLayoutEffect, useRef, useState, type ComponentType, type CSSProperties, type LazyExoticComponent } from 'react';
 import type { PlotParams } from 'react-plotly.js/factory';
 import { Loading } from '@/components/ui/panel';
 import { PLOT_CONFIG, merge, themedData, themedLayout } from './theme';
 
 export { OKABE_ITO } from './theme';
 export { exportPlot, exportPlotCsv } from './export';
-
-// The plotting chunk starts loading as soon as a page that draws charts is opened, beside the
-// page's data requests rather than after them (a failed early load is tried again when drawn).
-const cartesianChunk = import('./plotly');
-cartesianChunk.catch(() => {});
-const Cartesian = lazy(() => cartesianChunk.catch(() => import('./plotly')));
 
 export type PlotProps = Omit<PlotParams, 'layout' | 'config' | 'data'> & {
   data: unknown[];
@@ -38,16 +32,6 @@ function unlink(graph: HTMLElement) {
   }
 }
 
-/**
- * Performance marks for the first-plot figure of `npm run bench`: `cw:plot-slot` when the first
- * chart's place on the page is laid out, `cw:first-plot` when the first chart has drawn. With
- * `?noplot` in the address the chart itself is left out (the bench's page-without-plot baseline).
- */
-function markOnce(name: string) {
-  if (typeof performance !== 'undefined' && performance.getEntriesByName(name).length === 0) performance.mark(name);
-}
-const withoutPlots = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noplot');
-
 /** The chart's laid-out width in px, rounded down to 20 px so small resizes do not re-theme. */
 function useWidth() {
   const ref = useRef<HTMLDivElement>(null);
@@ -64,15 +48,37 @@ function useWidth() {
   return [ref, width] as const;
 }
 
+/**
+ * Timing marks for the first-plot figure of `npm run bench`: `cw:first-plot` when the first chart
+ * of a page load has drawn, `cw:plot-slot` when the place of a chart is on screen with its data.
+ * With `?noplot=1` in the address the chart is left out (only the mark is set), so the same page
+ * can be timed without it; nothing links there.
+ */
+const skipPlots = typeof location !== 'undefined' && new URLSearchParams(location.search).get('noplot') === '1';
+// Only pages that draw charts load this module, so the plotting bundle is fetched and compiled as
+// soon as the page's code arrives, while its data is still on the way, not after the data came.
+const cartesianBundle = skipPlots ? null : import('./plotly');
+cartesianBundle?.catch(() => {}); // a failed early load is tried again when a chart is drawn
+const Cartesian = lazy(() => (cartesianBundle ?? import('./plotly')).catch(() => import('./plotly')));
+
+function markOnce(name: string) {
+  if (typeof performance === 'undefined' || performance.getEntriesByName(name).length > 0) return;
+  performance.mark(name);
+}
+
+function SkippedPlot({ height }: { height: number }) {
+  useEffect(() => markOnce('cw:plot-slot'), []);
+  return <div style={{ height }} className="grid place-items-center rounded border border-dashed border-slate-300 text-sm text-slate-600">Chart left out for a timing run.</div>;
+}
+
 export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & { component: LazyExoticComponent<ComponentType<PlotParams>>; bundle: '2d' | '3d' }) {
   const { fileName = 'cellwright-plot', config, layout, style, title, subtitle, onInitialized, onUpdate, data, ...rest } = props;
   const [box, width] = useWidth();
   const height = typeof style?.height === 'number' ? style.height : 420;
-  if (width > 0) markOnce('cw:plot-slot');
-  if (withoutPlots) return <div ref={box} data-plot-bundle={bundle} className="min-w-0" style={{ height }} />;
   return (
     <div ref={box} data-plot-bundle={bundle} className="min-w-0">
-      {width > 0 && (
+      {width > 0 && skipPlots && <SkippedPlot height={height} />}
+      {width > 0 && !skipPlots && (
         <Suspense fallback={<div style={{ height }}><Loading label="Loading the plot…" /></div>}>
           {/* the chart is drawn at the measured width (the observer above follows the container), so
               the library's own window-resize handler, which can fire after the chart is gone, is off */}
@@ -81,7 +87,7 @@ export function ThemedPlot({ component: Chart, bundle, ...props }: PlotProps & {
             data={themedData(data, width)}
             layout={{ width, autosize: false, ...themedLayout(layout, { width, title, subtitle }) }}
             config={merge({ ...PLOT_CONFIG, toImageButtonOptions: { format: 'png', filename: fileName, scale: 2 } }, config)}
-            onInitialized={(figure, graph) => { unlink(graph); markOnce('cw:first-plot'); onInitialized?.(figure, graph); }}
+            onInitialized={(figure, graph) => { unlink(graph); markOnce('cw:plot-slot'); markOnce('cw:first-plot'); onInitialized?.(figure, graph); }}
             onUpdate={(figure, graph) => { unlink(graph); onUpdate?.(figure, graph); }}
             {...rest}
           />
