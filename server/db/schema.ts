@@ -96,6 +96,8 @@ export const factors = sqliteTable('factors', {
   low: real('low'),
   high: real('high'),
   levels: text('levels', { mode: 'json' }).$type<string[]>(),
+  /** a condition of the test (cell temperature, pressure, gas, stoichiometry), not of the electrode */
+  testVariable: integer('test_variable', { mode: 'boolean' }).notNull().default(false),
   position: integer('position').notNull().default(0),
   createdAt: createdAt(),
 }, (t) => [uniqueIndex('factors_project_key').on(t.projectId, t.key)]);

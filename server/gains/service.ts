@@ -3,7 +3,7 @@
 import type { AppContext } from '../context';
 import type { ProjectAccess } from '../auth/access';
 import { AppError, unprocessable } from '../lib/errors';
-import { computeGains, pooledReplicateSd } from '../../shared/gains';
+import { classifySteps, computeGains, isTestConditionChange, pooledReplicateSd } from '../../shared/gains';
 import { bestPath } from '../../shared/lineage';
 import { listFactors } from '../projects/service';
 import { changesFromParent, goalOf, loadLineage, resolveResponse } from '../lineage/service';
@@ -64,6 +64,13 @@ export function gainsFor(ctx: AppContext, access: ProjectAccess, options: { resp
     throw error;
   }
   const factors = listFactors(ctx, access.projectId);
+  const testVariables = new Set(factors.filter((f) => f.testVariable).map((f) => f.key));
+  const diffs = result.steps.map((step, k) => {
+    const build = lineage.byId.get(step.buildId)!;
+    const previous = k > 0 ? lineage.byId.get(result.steps[k - 1].buildId) : undefined;
+    return changesFromParent(build, previous, factors);
+  });
+  const classified = classifySteps(result.steps.map((step, k) => ({ gain: step.gain, changes: diffs[k]?.changes ?? null })), testVariables);
   return {
     response,
     unit: response.unit,
@@ -72,8 +79,7 @@ export function gainsFor(ctx: AppContext, access: ProjectAccess, options: { resp
     pooledSd: pooled,
     steps: result.steps.map((step, k) => {
       const build = lineage.byId.get(step.buildId)!;
-      const previous = k > 0 ? lineage.byId.get(result.steps[k - 1].buildId) : undefined;
-      const diff = changesFromParent(build, previous, factors);
+      const diff = diffs[k];
       return {
         buildId: step.buildId,
         code: step.code,
@@ -90,9 +96,12 @@ export function gainsFor(ctx: AppContext, access: ProjectAccess, options: { resp
         changeText: diff?.text ?? null,
         replicates: steps[k].replicates,
         status: build.status,
+        changeClass: classified.classes[k],
+        testChanges: (diff?.changes ?? []).filter((c) => isTestConditionChange(c, testVariables)).map((c) => c.label),
       };
     }),
     total: { ...result.total, value: result.steps[result.steps.length - 1].value },
     baseline: result.baseline,
+    byClass: { recipeOnlyTotal: classified.recipeOnlyTotal, testConditionTotal: classified.testConditionTotal, mixedTotal: classified.mixedTotal },
   };
 }

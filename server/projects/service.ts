@@ -117,7 +117,7 @@ export function setMetalPrices(ctx: AppContext, access: ProjectAccess, prices: N
 }
 
 export function factorView(row: typeof factors.$inferSelect): FactorDef {
-  return { id: row.id, key: row.key, label: row.label, unit: row.unit, kind: row.kind, low: row.low, high: row.high, levels: row.levels ?? null };
+  return { id: row.id, key: row.key, label: row.label, unit: row.unit, kind: row.kind, low: row.low, high: row.high, levels: row.levels ?? null, testVariable: row.testVariable };
 }
 
 export function listFactors(ctx: AppContext, projectId: number): FactorDef[] {
@@ -140,6 +140,7 @@ export function addFactor(ctx: AppContext, access: ProjectAccess, body: z.output
       low: body.kind === 'continuous' ? (body.low ?? null) : null,
       high: body.kind === 'continuous' ? (body.high ?? null) : null,
       levels: body.kind === 'categorical' ? (body.levels ?? []) : null,
+      testVariable: body.testVariable,
       position,
     })
     .returning()

@@ -55,6 +55,10 @@ export interface GainsStep {
   /** codes of the builds in the step's replicate group */
   replicates: string[];
   status: string;
+  /** what the step changed: the electrode, the test conditions, both ('mixed'), or nothing recorded; null on the baseline */
+  changeClass: 'electrode' | 'test-conditions' | 'mixed' | 'unchanged' | null;
+  /** the labels of the changed test conditions (empty when none) */
+  testChanges: string[];
 }
 
 export interface GainsData {
@@ -68,4 +72,6 @@ export interface GainsData {
   steps: GainsStep[];
   total: { gain: number; low: number | null; high: number | null; withinNoise: boolean | null; method: string; note: string | null; value: number };
   baseline: { buildId: number; code: string; value: number };
+  /** the overall total split by what the steps changed; the three add up to total.gain */
+  byClass: { recipeOnlyTotal: number; testConditionTotal: number; mixedTotal: number };
 }

@@ -7,3 +7,5 @@ export { pooledReplicateSd } from './pooled-sd';
 export type { PooledSd } from './pooled-sd';
 export { summarizeSample } from './sample-summary';
 export type { SampleSummary } from './sample-summary';
+export { classifySteps, isTestConditionChange } from './classify-steps';
+export type { ChangeClass, ClassifiedStep, StepChange, StepClasses } from './classify-steps';

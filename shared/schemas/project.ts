@@ -82,6 +82,7 @@ export const factorCreateSchema = z
     low: z.number().finite().nullish(),
     high: z.number().finite().nullish(),
     levels: z.array(z.string().trim().min(1).max(60)).nullish(),
+    testVariable: z.boolean().default(false).describe('true when the factor is a test condition (cell temperature, pressure, gas, stoichiometry) rather than part of the electrode'),
   })
   .superRefine((f, ctx) => {
     if (f.kind === 'continuous') {
@@ -106,6 +107,8 @@ export interface FactorDef {
   low: number | null;
   high: number | null;
   levels: string[] | null;
+  /** a test condition rather than part of the electrode */
+  testVariable: boolean;
 }
 
 export const responseCreateSchema = z.object({

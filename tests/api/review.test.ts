@@ -62,6 +62,12 @@ describe('comments and verdicts', () => {
     expect(read.body.build.status).toBe('reviewed');
     const after = await h.as.pi.get('/api/home').expect(200);
     expect(after.body.awaitingReview.map((b: { code: string }) => b.code)).not.toContain('C-009');
+    // the same verdict clicked twice by the same PI, with no new curve of record: refused, nothing stored
+    const threadBefore = await h.as.pi.get(`/api/builds/${build}/reviews`);
+    const again = await h.as.pi.post(`/api/builds/${build}/verdict`, { verdict: 'approved', body: 'Consistent with the HFR rise; keep woven carbon.' }).expect(409);
+    expect(again.body.error.message).toMatch(/already gave C-009/);
+    const threadAfter = await h.as.pi.get(`/api/builds/${build}/reviews`);
+    expect(threadAfter.body).toEqual(threadBefore.body);
     // only PIs have a waiting list
     const researcherHome = await h.as.researcher.get('/api/home').expect(200);
     expect(researcherHome.body.awaitingReview).toEqual([]);

@@ -4,11 +4,11 @@ import type { FactorDef } from '../../../shared/api-types';
 import { designRequestFrom, designResolver, initialDesignValues } from '../../../src/features/plan/components/design-values';
 
 const factors: FactorDef[] = [
-  { id: 1, key: 'binder', label: 'PTFE binder', unit: 'wt %', kind: 'continuous', low: 10, high: 40, levels: null },
-  { id: 2, key: 'activationTemp', label: 'Activation temperature', unit: '°C', kind: 'continuous', low: 300, high: 380, levels: null },
-  { id: 3, key: 'gdl', label: 'GDL', unit: '', kind: 'categorical', low: null, high: null, levels: ['woven carbon', 'carbon paper'] },
-  { id: 4, key: 'activationTime', label: 'Activation time', unit: 'h', kind: 'continuous', low: 1, high: 4, levels: null },
-  { id: 5, key: 'cellTemp', label: 'Cell temperature', unit: '°C', kind: 'continuous', low: 160, high: 200, levels: null },
+  { id: 1, key: 'binder', label: 'PTFE binder', unit: 'wt %', kind: 'continuous', low: 10, high: 40, levels: null, testVariable: false },
+  { id: 2, key: 'activationTemp', label: 'Activation temperature', unit: '°C', kind: 'continuous', low: 300, high: 380, levels: null, testVariable: false },
+  { id: 3, key: 'gdl', label: 'GDL', unit: '', kind: 'categorical', low: null, high: null, levels: ['woven carbon', 'carbon paper'], testVariable: false },
+  { id: 4, key: 'activationTime', label: 'Activation time', unit: 'h', kind: 'continuous', low: 1, high: 4, levels: null, testVariable: false },
+  { id: 5, key: 'cellTemp', label: 'Cell temperature', unit: '°C', kind: 'continuous', low: 160, high: 200, levels: null, testVariable: false },
 ];
 const resolve = async (values: ReturnType<typeof initialDesignValues>) => designResolver(factors)(values, undefined, { fields: {}, shouldUseNativeValidation: false });
 

@@ -15,13 +15,14 @@ function cells(csv: string): string[][] {
 
 describe('exports are safe to open in a spreadsheet', () => {
   it('gains CSV: a change note and a method note that start with = or the minus sign U+2212 are neutralised', () => {
-    const step = { buildId: 1, code: 'B-001', value: 0.61, gain: null, low: null, high: null, withinNoise: null, n: 2, sd: 0.004, method: 'none' as const, note: null, changeNote: null, changeText: null, replicates: ['B-001'], status: 'tested' };
+    const step = { buildId: 1, code: 'B-001', value: 0.61, gain: null, low: null, high: null, withinNoise: null, n: 2, sd: 0.004, method: 'none' as const, note: null, changeNote: null, changeText: null, replicates: ['B-001'], status: 'tested', changeClass: null, testChanges: [] as string[] };
     const data: GainsData = {
       response: { key: 'vAtRef', label: 'V at j_ref', unit: 'V' } as GainsData['response'],
       unit: 'V', confidence: 0.95, chain: 'given', pooledSd: null,
       steps: [step, { ...step, buildId: 2, code: 'B-002', value: 0.63, gain: 0.02, low: 0.01, high: 0.03, withinNoise: false, changeNote: HOSTILE, note: '\u2212cmd|x' }],
       total: { gain: 0.02, low: 0.01, high: 0.03, withinNoise: false, method: 'welch', note: null, value: 0.63 },
       baseline: { buildId: 1, code: 'B-001', value: 0.61 },
+      byClass: { recipeOnlyTotal: 0.02, testConditionTotal: 0, mixedTotal: 0 },
     };
     const rows = cells(gainsCsv(data));
     expect(rows[2]![3]).toBe(`'${HOSTILE}`);

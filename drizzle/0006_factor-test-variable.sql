@@ -1,0 +1,1 @@
+ALTER TABLE `factors` ADD `test_variable` integer DEFAULT false NOT NULL;
