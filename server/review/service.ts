@@ -54,26 +54,12 @@ function standingVerdict(ctx: AppContext, buildId: number) {
 }
 
 export async function giveVerdict(ctx: AppContext, access: ProjectAccess, build: BuildRow, input: VerdictBody) {
-  if (build.status === 'reviewed') {
-    // A change of the curve of record sends a reviewed build back to tested, so a reviewed build whose
-    // latest verdict is this reviewer's has nothing new to judge: the same verdict a second time is
-    // refused (a changed verdict, e.g. "needs work" then "approved", is a deliberate revision).
-    const last = ctx.db
-      .select({ userId: reviews.userId, verdict: reviews.verdict })
-      .from(reviews)
-      .where(and(eq(reviews.buildId, build.id), sql`${reviews.verdict} is not null`))
-      .orderBy(desc(reviews.id))
-      .limit(1)
-      .get();
-    if (last && last.userId === access.user.id && last.verdict === input.verdict) {
-      throw conflict(`You already gave ${build.code} the verdict "${last.verdict}"; a new verdict is possible once a new curve of record is chosen.`, { fields: [{ path: 'verdict', message: 'already given by you' }] });
-    }
-  }
   const step = nextStatus(build.status, { kind: 'verdict' });
   if (!step.ok) {
     throw conflict(`${build.code} is ${build.status}: a verdict needs a build that was made and tested.`, { fields: [{ path: 'verdict', message: `not possible on a ${build.status} build` }] });
   }
-  // the same verdict twice on a build nobody has changed since: a double click, not a decision
+  // the same verdict twice on a build nobody has changed since (a new curve of record sends it
+  // back to tested): a double click, not a decision; a changed verdict is a deliberate revision
   const standing = build.status === 'reviewed' ? standingVerdict(ctx, build.id) : undefined;
   if (standing && standing.verdict === input.verdict && !input.repeat) {
     const said = input.verdict === 'approved' ? 'approved' : 'marked as needing work';

@@ -65,7 +65,7 @@ describe('comments and verdicts', () => {
     // the same verdict clicked twice by the same PI, with no new curve of record: refused, nothing stored
     const threadBefore = await h.as.pi.get(`/api/builds/${build}/reviews`);
     const again = await h.as.pi.post(`/api/builds/${build}/verdict`, { verdict: 'approved', body: 'Consistent with the HFR rise; keep woven carbon.' }).expect(409);
-    expect(again.body.error.message).toMatch(/already gave C-009/);
+    expect(again.body.error.message).toMatch(/C-009 was already approved/);
     const threadAfter = await h.as.pi.get(`/api/builds/${build}/reviews`);
     expect(threadAfter.body).toEqual(threadBefore.body);
     // only PIs have a waiting list
