@@ -13,8 +13,9 @@ import { doeFeature } from './doe/router';
 import { gainsFeature } from './gains/router';
 import { lineageFeature } from './lineage/router';
 import { reviewFeature } from './review/router';
+import { targetsFeature } from './targets/router';
 
-export const FEATURES: Feature[] = [authFeature, homeFeature, projectsFeature, buildsFeature, curvesFeature, adminFeature, uploadsFeature, doeFeature, gainsFeature, lineageFeature, reviewFeature];
+export const FEATURES: Feature[] = [authFeature, homeFeature, projectsFeature, buildsFeature, curvesFeature, adminFeature, uploadsFeature, doeFeature, gainsFeature, lineageFeature, reviewFeature, targetsFeature];
 
 /** Every documented route of every feature. */
 export const ROUTES: RouteDoc[] = FEATURES.flatMap((feature) => feature.routes);

@@ -14,6 +14,7 @@ export type * from './api-types/durability';
 export type * from './api-types/doe';
 export type * from './api-types/lineage';
 export type * from './api-types/review';
+export type * from './schemas/targets';
 export type * from './api-types/uploads';
 export type * from './api-types/record';
 

@@ -111,6 +111,25 @@ export const responseDefs = sqliteTable('responses', {
   createdAt: createdAt(),
 }, (t) => [uniqueIndex('responses_project_key').on(t.projectId, t.key)]);
 
+/** A programme goal on a curve metric or hand-entered response: ≥ or ≤ a value in a unit. */
+export const targets = sqliteTable('targets', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  /** a curve metric key (vAtRef, massActivity …) or a hand-entered response key */
+  metric: text('metric').notNull(),
+  comparator: text('comparator', { enum: ['>=', '<='] }).notNull(),
+  value: real('value').notNull(),
+  unit: text('unit').notNull(),
+  basis: text('basis', { enum: ['catalyst', 'metal'] }),
+  /** the conditions the target is stated at, as the programme writes them */
+  conditions: text('conditions').notNull().default(''),
+  dueDate: text('due_date'),
+  name: text('name').notNull().default(''),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+  updatedAt: text('updated_at'),
+}, (t) => [index('targets_project_idx').on(t.projectId)]);
+
 // A design whose runs were turned into planned builds: what was asked for and what came out,
 // so every build made from it can point back to it.
 export const designs = sqliteTable('designs', {

@@ -61,6 +61,8 @@ export interface DemoProject {
   responses: { key: string; label: string; unit: string; goal: 'maximize' | 'minimize' | 'target' }[];
   members: Record<string, 'pi' | 'researcher' | 'partner' | 'viewer'>;
   builds: DemoBuild[];
+  /** the programme's targets (one met by the demo builds, one not yet) */
+  targets: { metric: string; comparator: '>=' | '<='; value: number; unit: string; basis?: 'catalyst' | 'metal'; conditions: string; dueDate: string; name: string }[];
 }
 
 const cathodeConditions: TestConditions = { temperatureC: 180, anodeGas: 'H2', cathodeGas: 'air', backPressureKPa: 0, anodeStoich: 1.5, cathodeStoich: 2.0 };
@@ -154,6 +156,10 @@ export const PROJECTS: DemoProject[] = [
     responses: [{ key: 'thicknessUm', label: 'Electrode thickness', unit: 'µm', goal: 'target' }],
     members: { pi: 'pi', researcher: 'researcher', partner: 'partner', viewer: 'viewer', partner2: 'partner' },
     builds: cathodeBuilds(),
+    targets: [
+      { metric: 'degradationRate', comparator: '<=', value: 8, unit: 'µV/h', conditions: '0.2 A/cm², 180 °C, H2/air, ambient pressure', dueDate: '2026-12-15', name: 'Durability gate' },
+      { metric: 'vAtRef', comparator: '>=', value: 650, unit: 'mV', conditions: '0.2 A/cm², 180 °C, H2/air, iR-free', dueDate: '2027-03-31', name: 'Stack-ready voltage' },
+    ],
   },
   {
     name: 'Methanol-tolerant anode at 200–240 °C',
@@ -169,5 +175,9 @@ export const PROJECTS: DemoProject[] = [
     responses: [{ key: 'costPerCm2', label: 'Noble-metal cost', unit: '€/cm²', goal: 'minimize' }],
     members: { pi: 'pi', researcher: 'researcher', viewer: 'viewer', partner2: 'partner' },
     builds: anodeBuilds(),
+    targets: [
+      { metric: 'costPerCm2', comparator: '<=', value: 0.8, unit: '€/cm²', conditions: 'noble metal at the programme’s reference prices', dueDate: '2026-12-31', name: 'Cost ceiling' },
+      { metric: 'vAtRef', comparator: '>=', value: 600, unit: 'mV', conditions: '0.2 A/cm², 220 °C, methanol/water vapour vs air, iR-free', dueDate: '2027-06-30', name: 'Methanol-fed voltage' },
+    ],
   },
 ];
