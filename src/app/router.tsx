@@ -30,6 +30,7 @@ export const router = createBrowserRouter([
           { path: '/projects/:projectId/lineage', lazy: lazy(() => import('./routes/lineage')) },
           { path: '/projects/:projectId/surface', lazy: lazy(() => import('./routes/surface')) },
           { path: '/projects/:projectId/plan', lazy: lazy(() => import('./routes/plan')) },
+          { path: '/projects/:projectId/targets', lazy: lazy(() => import('./routes/targets')) },
           { path: '/projects/:projectId/settings', lazy: lazy(() => import('./routes/settings')) },
           { path: '/account', lazy: lazy(() => import('./routes/account')) },
           { path: '/admin/people', lazy: lazy(() => import('./routes/admin-people')) },
