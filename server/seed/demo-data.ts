@@ -176,7 +176,7 @@ export const PROJECTS: DemoProject[] = [
     members: { pi: 'pi', researcher: 'researcher', viewer: 'viewer', partner2: 'partner' },
     builds: anodeBuilds(),
     targets: [
-      { metric: 'costPerCm2', comparator: '<=', value: 0.8, unit: '€/cm²', conditions: 'noble metal at the programme’s reference prices', dueDate: '2026-12-31', name: 'Cost ceiling' },
+      { metric: 'costPerCm2', comparator: '<=', value: 0.8, unit: '€/cm²', conditions: 'the programme’s reference metal prices', dueDate: '2026-12-31', name: 'Cost ceiling' },
       { metric: 'vAtRef', comparator: '>=', value: 600, unit: 'mV', conditions: '0.2 A/cm², 220 °C, methanol/water vapour vs air, iR-free', dueDate: '2027-06-30', name: 'Methanol-fed voltage' },
     ],
   },

@@ -1,0 +1,56 @@
+// Journey: a PI sets a programme target, sees its progress chart, and sees it met on the home
+// card by the build that reached it.
+import assert from 'node:assert/strict';
+import path from 'node:path';
+import { checkPage } from './lib.mjs';
+
+export default async function ({ browser, signIn, artifacts }) {
+  const page = await browser.newPage();
+  await page.setViewportSize({ width: 1400, height: 1000 });
+  await signIn(page, 'pi');
+  await page.getByRole('heading', { name: /Good to see you/ }).waitFor();
+
+  // The anode project's page shows its demo targets in the strip.
+  await page.getByRole('link', { name: /Methanol-tolerant anode/ }).first().click();
+  await page.waitForURL(/\/projects\/\d+$/);
+  const strip = page.getByRole('region', { name: 'Targets' });
+  await strip.waitFor();
+  assert.match(await strip.innerText(), /Cost ceiling[\s\S]*met by A-003/);
+  assert.match(await strip.innerText(), /Methanol-fed voltage[\s\S]*not yet — best [\d.]+ mV \(A-\d{3}\), gap [\d.]+ mV/);
+  await checkPage(page, 'project page with targets');
+  await page.screenshot({ path: path.join(artifacts, 'targets-project.png'), fullPage: true });
+
+  // The PI adds a tighter cost target on the targets page.
+  await page.getByRole('link', { name: 'Targets', exact: true }).click();
+  await page.waitForURL(/\/targets$/);
+  await page.getByRole('heading', { name: 'Targets', exact: true }).waitFor();
+  const form = page.getByRole('form', { name: 'Target form' });
+  await form.getByLabel('Metric or response').selectOption({ label: 'Noble-metal cost (€/cm²)' });
+  await form.getByLabel('Is').selectOption('<=');
+  await form.getByLabel('Value').fill('0.75');
+  await form.getByLabel('Name the programme uses').fill('Ru-saving gate');
+  await form.getByLabel('Due date').fill('2027-02-28');
+  await page.getByRole('button', { name: 'Add target' }).click();
+  const panel = page.locator('section', { has: page.getByRole('heading', { name: 'Ru-saving gate' }) });
+  await panel.getByText(/met by A-007 on 07 Nov 2026/).waitFor(); // demo seed: A-007 is the first at 0.74 €/cm²
+  await panel.locator('.js-plotly-plot').waitFor();
+  await checkPage(page, 'targets page');
+  await page.screenshot({ path: path.join(artifacts, 'targets-page.png'), fullPage: true });
+
+  // The home card says the same.
+  await page.getByRole('link', { name: 'Home', exact: true }).click();
+  const card = page.getByRole('link', { name: /Methanol-tolerant anode/ }).filter({ hasText: 'Reference point' });
+  await card.getByText(/Ru-saving gate/).waitFor();
+  assert.match(await card.innerText(), /Ru-saving gate: ✓?\s*met by A-007 on 07 Nov 2026/);
+  await checkPage(page, 'home with target status');
+  await page.screenshot({ path: path.join(artifacts, 'targets-home.png'), fullPage: true });
+
+  // The waterfall of V at j_ref draws the voltage target's line.
+  await page.getByRole('link', { name: /Methanol-tolerant anode/ }).first().click();
+  await page.getByRole('link', { name: 'Gains', exact: true }).click();
+  const chart = page.getByRole('figure', { name: /Gains waterfall of V at j_ref/ });
+  await chart.locator('.js-plotly-plot').waitFor();
+  await chart.getByText(/target: Methanol-fed voltage \(≥ 600 mV\)/).waitFor();
+  await checkPage(page, 'gains with a target line');
+  await page.screenshot({ path: path.join(artifacts, 'targets-gains.png'), fullPage: true });
+}
