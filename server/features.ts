@@ -14,8 +14,9 @@ import { gainsFeature } from './gains/router';
 import { lineageFeature } from './lineage/router';
 import { reviewFeature } from './review/router';
 import { targetsFeature } from './targets/router';
+import { lotsFeature } from './lots/router';
 
-export const FEATURES: Feature[] = [authFeature, homeFeature, projectsFeature, buildsFeature, curvesFeature, adminFeature, uploadsFeature, doeFeature, gainsFeature, lineageFeature, reviewFeature, targetsFeature];
+export const FEATURES: Feature[] = [authFeature, homeFeature, projectsFeature, buildsFeature, curvesFeature, adminFeature, uploadsFeature, doeFeature, gainsFeature, lineageFeature, reviewFeature, targetsFeature, lotsFeature];
 
 /** Every documented route of every feature. */
 export const ROUTES: RouteDoc[] = FEATURES.flatMap((feature) => feature.routes);

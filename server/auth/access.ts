@@ -3,7 +3,7 @@
 // project, build, curve, file or import profile the path names on the way.
 import { eq, sql } from 'drizzle-orm';
 import type { Db } from '../db';
-import { builds, curves, files, importProfiles, memberships, projects, targets } from '../db/schema';
+import { builds, curves, files, importProfiles, lots, memberships, projects, targets } from '../db/schema';
 import type { AppContext, AuthUser } from '../context';
 import type { ProjectRole } from '../../shared/schemas/project';
 import { mayCreateProject, partnerLabProblem, profileLabProblem, refusalText, roleAllows, type Actor, type ProjectAction } from '../../shared/auth/permissions';
@@ -17,9 +17,10 @@ type CurveRow = typeof curves.$inferSelect;
 type FileRow = typeof files.$inferSelect;
 type ProfileRow = typeof importProfiles.$inferSelect;
 type TargetRow = typeof targets.$inferSelect;
+type LotRow = typeof lots.$inferSelect;
 
 /** What the path's {id} names on a project-scoped route. */
-export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile' | 'target';
+export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile' | 'target' | 'lot';
 
 /**
  * What a route checks before its handler runs:
@@ -52,7 +53,9 @@ export type Guarded<P> = P extends { on: 'project' }
           ? { access: ProjectAccess; profile: ProfileRow }
           : P extends { on: 'target' }
             ? { access: ProjectAccess; target: TargetRow }
-            : unknown;
+            : P extends { on: 'lot' }
+              ? { access: ProjectAccess; lot: LotRow }
+              : unknown;
 
 export function requireUser(user: AuthUser | undefined): AuthUser {
   if (!user) throw unauthorized();
@@ -174,6 +177,11 @@ export function guard(ctx: AppContext, user: AuthUser | undefined, permission: P
       const target = db.select().from(targets).where(eq(targets.id, id)).get();
       if (!target) throw notFound(`Target ${id}`);
       return { access: requireProject(db, who, target.projectId, action, options), target };
+    }
+    case 'lot': {
+      const lot = db.select().from(lots).where(eq(lots.id, id)).get();
+      if (!lot) throw notFound(`Lot ${id}`);
+      return { access: requireProject(db, who, lot.projectId, action, options), lot };
     }
   }
 }

@@ -145,6 +145,23 @@ export const designs = sqliteTable('designs', {
   createdAt: createdAt(),
 }, (t) => [index('designs_project_idx').on(t.projectId)]);
 
+/** A catalyst batch of a project: who made it, how much, when, its metal content. */
+export const lots = sqliteTable('lots', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  /** the lab or supplier that made it */
+  maker: text('maker').notNull().default(''),
+  batchSizeG: real('batch_size_g'),
+  /** synthesis or receipt date, YYYY-MM-DD */
+  madeOn: text('made_on'),
+  metalWtPct: real('metal_wt_pct'),
+  notes: text('notes').notNull().default(''),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+  updatedAt: text('updated_at'),
+}, (t) => [uniqueIndex('lots_project_name').on(t.projectId, t.name)]);
+
 export const builds = sqliteTable('builds', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
@@ -156,6 +173,8 @@ export const builds = sqliteTable('builds', {
   metalLoadingMgCm2: real('metal_loading_mg_cm2'),
   areaCm2: real('area_cm2'),
   catalystLot: text('catalyst_lot'),
+  /** the lot record the build was made from (catalystLot keeps the name as first typed) */
+  lotId: integer('lot_id').references((): AnySQLiteColumn => lots.id, { onDelete: 'set null' }),
   labId: integer('lab_id').references(() => labs.id),
   operatorId: integer('operator_id').references(() => users.id),
   testConditions: text('test_conditions', { mode: 'json' }).$type<TestConditions>().notNull(),
