@@ -53,4 +53,16 @@ export default async function ({ browser, signIn, artifacts }) {
   await chart.getByText(/target: Methanol-fed voltage \(≥ 600 mV\)/).waitFor();
   await checkPage(page, 'gains with a target line');
   await page.screenshot({ path: path.join(artifacts, 'targets-gains.png'), fullPage: true });
+
+  // The cathode project's scale-up lot against its small batch.
+  await page.getByRole('link', { name: /PGM-free cathode/ }).first().click();
+  await page.getByRole('link', { name: 'Catalyst lots', exact: true }).click();
+  await page.getByRole('table', { name: 'Catalyst lots' }).getByRole('link', { name: 'FNC-24-11' }).click();
+  await page.getByRole('heading', { name: 'Lot FNC-24-11' }).waitFor();
+  const comparison = page.getByRole('table', { name: 'Lot comparison' });
+  await comparison.waitFor();
+  assert.match(await comparison.innerText(), /FNC-24-07[\s\S]*FNC-24-11/);
+  await page.getByText(/matched recipe/).first().waitFor();
+  await checkPage(page, 'lot page');
+  await page.screenshot({ path: path.join(artifacts, 'targets-lot.png'), fullPage: true });
 }
