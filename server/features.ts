@@ -14,8 +14,10 @@ import { gainsFeature } from './gains/router';
 import { lineageFeature } from './lineage/router';
 import { reviewFeature } from './review/router';
 import { seriesFeature } from './series/router';
+import { targetsFeature } from './targets/router';
+import { lotsFeature } from './lots/router';
 
-export const FEATURES: Feature[] = [authFeature, homeFeature, projectsFeature, buildsFeature, curvesFeature, adminFeature, uploadsFeature, doeFeature, gainsFeature, lineageFeature, reviewFeature, seriesFeature];
+export const FEATURES: Feature[] = [authFeature, homeFeature, projectsFeature, buildsFeature, curvesFeature, adminFeature, uploadsFeature, doeFeature, gainsFeature, lineageFeature, reviewFeature, seriesFeature, targetsFeature, lotsFeature];
 
 /** Every documented route of every feature. */
 export const ROUTES: RouteDoc[] = FEATURES.flatMap((feature) => feature.routes);

@@ -14,6 +14,8 @@ export type * from './api-types/durability';
 export type * from './api-types/doe';
 export type * from './api-types/lineage';
 export type * from './api-types/review';
+export type * from './schemas/targets';
+export type * from './schemas/lots';
 export type * from './api-types/uploads';
 export type * from './api-types/record';
 export type * from './api-types/review-pack';
@@ -49,6 +51,8 @@ export interface Build {
   metalLoadingMgCm2: number | null;
   areaCm2: number | null;
   catalystLot: string | null;
+  /** the lot record the build was made from, if recorded */
+  lotId?: number | null;
   labId: number | null;
   labName: string | null;
   operatorId: number | null;

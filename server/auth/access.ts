@@ -3,7 +3,7 @@
 // project, build, curve, file or import profile the path names on the way.
 import { eq, sql } from 'drizzle-orm';
 import type { Db } from '../db';
-import { builds, curves, files, importProfiles, memberships, projects } from '../db/schema';
+import { builds, curves, files, importProfiles, lots, memberships, projects, targets } from '../db/schema';
 import type { AppContext, AuthUser } from '../context';
 import type { ProjectRole } from '../../shared/schemas/project';
 import { mayCreateProject, partnerLabProblem, profileLabProblem, refusalText, roleAllows, type Actor, type ProjectAction } from '../../shared/auth/permissions';
@@ -16,9 +16,11 @@ type BuildRow = typeof builds.$inferSelect;
 type CurveRow = typeof curves.$inferSelect;
 type FileRow = typeof files.$inferSelect;
 type ProfileRow = typeof importProfiles.$inferSelect;
+type TargetRow = typeof targets.$inferSelect;
+type LotRow = typeof lots.$inferSelect;
 
 /** What the path's {id} names on a project-scoped route. */
-export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile';
+export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile' | 'target' | 'lot';
 
 /**
  * What a route checks before its handler runs:
@@ -49,7 +51,11 @@ export type Guarded<P> = P extends { on: 'project' }
         ? { access: ProjectAccess; file: FileRow }
         : P extends { on: 'import-profile' }
           ? { access: ProjectAccess; profile: ProfileRow }
-          : unknown;
+          : P extends { on: 'target' }
+            ? { access: ProjectAccess; target: TargetRow }
+            : P extends { on: 'lot' }
+              ? { access: ProjectAccess; lot: LotRow }
+              : unknown;
 
 export function requireUser(user: AuthUser | undefined): AuthUser {
   if (!user) throw unauthorized();
@@ -166,6 +172,16 @@ export function guard(ctx: AppContext, user: AuthUser | undefined, permission: P
       const access = requireProject(db, who, profile.projectId, action, options);
       if (action === 'manageProfiles') requireProfileLab(access, profile.labId);
       return { access, profile };
+    }
+    case 'target': {
+      const target = db.select().from(targets).where(eq(targets.id, id)).get();
+      if (!target) throw notFound(`Target ${id}`);
+      return { access: requireProject(db, who, target.projectId, action, options), target };
+    }
+    case 'lot': {
+      const lot = db.select().from(lots).where(eq(lots.id, id)).get();
+      if (!lot) throw notFound(`Lot ${id}`);
+      return { access: requireProject(db, who, lot.projectId, action, options), lot };
     }
   }
 }

@@ -91,6 +91,7 @@ function toItem(row: ItemRow, metrics?: BuildMetricSummary): BuildListItem {
     metalLoadingMgCm2: b.metalLoadingMgCm2,
     areaCm2: b.areaCm2,
     catalystLot: b.catalystLot,
+    lotId: b.lotId ?? null,
     labId: b.labId,
     labName: row.labName,
     operatorId: b.operatorId,

@@ -113,6 +113,25 @@ export const responseDefs = sqliteTable('responses', {
   createdAt: createdAt(),
 }, (t) => [uniqueIndex('responses_project_key').on(t.projectId, t.key)]);
 
+/** A programme goal on a curve metric or hand-entered response: ≥ or ≤ a value in a unit. */
+export const targets = sqliteTable('targets', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  /** a curve metric key (vAtRef, massActivity …) or a hand-entered response key */
+  metric: text('metric').notNull(),
+  comparator: text('comparator', { enum: ['>=', '<='] }).notNull(),
+  value: real('value').notNull(),
+  unit: text('unit').notNull(),
+  basis: text('basis', { enum: ['catalyst', 'metal'] }),
+  /** the conditions the target is stated at, as the programme writes them */
+  conditions: text('conditions').notNull().default(''),
+  dueDate: text('due_date'),
+  name: text('name').notNull().default(''),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+  updatedAt: text('updated_at'),
+}, (t) => [index('targets_project_idx').on(t.projectId)]);
+
 // A design whose runs were turned into planned builds: what was asked for and what came out,
 // so every build made from it can point back to it.
 export const designs = sqliteTable('designs', {
@@ -128,6 +147,23 @@ export const designs = sqliteTable('designs', {
   createdAt: createdAt(),
 }, (t) => [index('designs_project_idx').on(t.projectId)]);
 
+/** A catalyst batch of a project: who made it, how much, when, its metal content. */
+export const lots = sqliteTable('lots', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  /** the lab or supplier that made it */
+  maker: text('maker').notNull().default(''),
+  batchSizeG: real('batch_size_g'),
+  /** synthesis or receipt date, YYYY-MM-DD */
+  madeOn: text('made_on'),
+  metalWtPct: real('metal_wt_pct'),
+  notes: text('notes').notNull().default(''),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+  updatedAt: text('updated_at'),
+}, (t) => [uniqueIndex('lots_project_name').on(t.projectId, t.name)]);
+
 export const builds = sqliteTable('builds', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
@@ -139,6 +175,8 @@ export const builds = sqliteTable('builds', {
   metalLoadingMgCm2: real('metal_loading_mg_cm2'),
   areaCm2: real('area_cm2'),
   catalystLot: text('catalyst_lot'),
+  /** the lot record the build was made from (catalystLot keeps the name as first typed) */
+  lotId: integer('lot_id').references((): AnySQLiteColumn => lots.id, { onDelete: 'set null' }),
   labId: integer('lab_id').references(() => labs.id),
   operatorId: integer('operator_id').references(() => users.id),
   testConditions: text('test_conditions', { mode: 'json' }).$type<TestConditions>().notNull(),

@@ -5,6 +5,7 @@ import type { AppContext, AuthUser } from '../context';
 import { builds, curves, files, projects, users } from '../db/schema';
 import { listProjects } from '../projects/service';
 import { awaitingReview, needsWork } from '../review/service';
+import { targetsForHome } from '../targets/service';
 
 type BestBuild = { buildId: number; code: string; vAtRef: number; changeNote: string | null };
 
@@ -41,7 +42,7 @@ export function homePage(ctx: AppContext, user: AuthUser) {
         .all()
     : [];
   return {
-    projects: myProjects.map((p) => ({ ...p, best: bestBuild(ctx, p.id) })),
+    projects: myProjects.map((p) => ({ ...p, best: bestBuild(ctx, p.id), targets: targetsForHome(ctx, user, p.id, p.myRole ?? 'viewer') })),
     recentUploads,
     awaitingReview: awaitingReview(ctx, user),
     needsWork: needsWork(ctx, user, ids),

@@ -106,6 +106,14 @@ function waterfall(doc: PDFKit.PDFDocument, pack: ReviewPack) {
   doc.moveDown(0.3).font('Helvetica-Bold').fontSize(9).fillColor(INK).text(`Total from ${gains.baseline.code}: ${signed(total.gain * m.scale, m.digits)} ${m.displayUnit}${total.low != null && total.high != null ? ` (95 % interval ${signed(total.low * m.scale, m.digits)} to ${signed(total.high * m.scale, m.digits)})` : ''}`);
 }
 
+/** A target's status in words: met by which build and when, or the best so far and the gap. */
+export function targetStatusText(t: ReviewPack['targets'][number]): string {
+  const digits = (value: number) => String(Number(value.toPrecision(4)));
+  if (t.status.state === 'met' && t.status.metBy) return `met by ${t.status.metBy.code} on ${t.status.metBy.date}`;
+  if (t.status.state === 'not-yet' && t.status.best) return `not yet - best ${digits(t.status.best.value)} ${t.unit} (${t.status.best.code}), gap ${digits(Math.abs(t.status.gap ?? 0))} ${t.unit}`;
+  return 'no comparable build yet';
+}
+
 /** Writes the pack to a PDF and returns its bytes. */
 export function reviewPackPdf(pack: ReviewPack): Promise<Buffer> {
   // compress: false keeps the text readable in the file itself (tests and search tools find it)
@@ -123,6 +131,10 @@ export function reviewPackPdf(pack: ReviewPack): Promise<Buffer> {
   doc.font('Helvetica-Bold').fontSize(18).fillColor(INK).text(pack.project.name, { width });
   if (pack.project.description) doc.font('Helvetica').fontSize(10).fillColor('#333').text(pack.project.description, { width });
   doc.moveDown(0.3).font('Helvetica').fontSize(9).fillColor(MUTED).text(`${period} · reference point j_ref = ${pack.project.refCurrentDensity} A/cm², V_ref = ${pack.project.refVoltage} V · made ${pack.generatedAt.slice(0, 10)}`, { width });
+
+  heading(doc, 'Targets');
+  if (pack.targets.length === 0) doc.font('Helvetica').fontSize(10).fillColor('#333').text('No targets are set for this project.', { width });
+  else table(doc, ['Target', 'Goal', 'Status', 'Due'], pack.targets.map((t) => [t.name || t.metricLabel, `${t.metricLabel} ${t.comparator === '>=' ? 'at least' : 'at most'} ${t.value} ${t.unit}${t.basis ? ` (per g ${t.basis})` : ''}${t.conditions ? `, ${t.conditions}` : ''}`, targetStatusText(t), t.dueDate ?? '-']), [110, 170, 170, width - 450]);
 
   heading(doc, `Waterfall of ${CURVE_METRICS[pack.response.key as CurveMetricKey].label}`);
   if (pack.gains && pack.gains.steps.length >= 2) waterfall(doc, pack);

@@ -8,6 +8,7 @@ import { projects, reviews, users } from '../db/schema';
 import { listBuilds } from '../builds/service';
 import { gainsFor } from '../gains/service';
 import { durabilityComparison } from '../curves/durability';
+import { listTargets } from '../targets/service';
 import { AppError } from '../lib/errors';
 import { CURVE_METRICS } from '../../shared/curves/metric-catalogue';
 import type { Build, ReviewPack } from '../../shared/api-types';
@@ -81,6 +82,7 @@ export function reviewPack(ctx: AppContext, access: ProjectAccess, query: Review
     period: { from: query.from ?? null, to: query.to ?? null },
     generatedAt: now.toISOString(),
     response: { key: responseKey, label: entry.label, unit: entry.unit, goal: entry.goal },
+    targets: listTargets(ctx, access),
     gains,
     gainsNote,
     topBuilds,

@@ -69,6 +69,10 @@ export interface DemoProject {
   responses: { key: string; label: string; unit: string; goal: 'maximize' | 'minimize' | 'target' }[];
   members: Record<string, 'pi' | 'researcher' | 'partner' | 'viewer'>;
   builds: DemoBuild[];
+  /** catalyst lots (a small batch and its scale-up); builds name theirs in `lot` */
+  lots: { name: string; maker: string; batchSizeG: number; madeOn: string; metalWtPct: number; notes: string }[];
+  /** the programme's targets (one met by the demo builds, one not yet) */
+  targets: { metric: string; comparator: '>=' | '<='; value: number; unit: string; basis?: 'catalyst' | 'metal'; conditions: string; dueDate: string; name: string }[];
 }
 
 const cathodeConditions: TestConditions = { temperatureC: 180, anodeGas: 'H2', cathodeGas: 'air', backPressureKPa: 0, anodeStoich: 1.5, cathodeStoich: 2.0 };
@@ -172,6 +176,14 @@ export const PROJECTS: DemoProject[] = [
     responses: [{ key: 'thicknessUm', label: 'Electrode thickness', unit: 'µm', goal: 'target' }],
     members: { pi: 'pi', researcher: 'researcher', partner: 'partner', viewer: 'viewer', partner2: 'partner' },
     builds: cathodeBuilds(),
+    lots: [
+      { name: 'FNC-24-07', maker: 'own synthesis bench', batchSizeG: 5, madeOn: '2026-07-28', metalWtPct: 2.0, notes: 'small batch: pyrolysed in the tube furnace, acid-washed once' },
+      { name: 'FNC-24-11', maker: 'own scale-up reactor', batchSizeG: 60, madeOn: '2026-09-22', metalWtPct: 1.8, notes: 'scale-up of FNC-24-07 in the rotary kiln, same precursor ratio' },
+    ],
+    targets: [
+      { metric: 'degradationRate', comparator: '<=', value: 8, unit: 'µV/h', conditions: '0.2 A/cm², 180 °C, H2/air, ambient pressure', dueDate: '2026-12-15', name: 'Durability gate' },
+      { metric: 'vAtRef', comparator: '>=', value: 650, unit: 'mV', conditions: '0.2 A/cm², 180 °C, H2/air, iR-free', dueDate: '2027-03-31', name: 'Stack-ready voltage' },
+    ],
   },
   {
     name: 'Methanol-tolerant anode at 200–240 °C',
@@ -187,5 +199,13 @@ export const PROJECTS: DemoProject[] = [
     responses: [{ key: 'costPerCm2', label: 'Noble-metal cost', unit: '€/cm²', goal: 'minimize' }],
     members: { pi: 'pi', researcher: 'researcher', viewer: 'viewer', partner2: 'partner' },
     builds: anodeBuilds(),
+    lots: [
+      { name: 'PRA-26-02', maker: 'Quillstone Catalyst Works (supplier)', batchSizeG: 10, madeOn: '2026-09-15', metalWtPct: 40, notes: 'PtRu/C, received with certificate of analysis' },
+      { name: 'PRA-26-05', maker: 'Quillstone Catalyst Works (supplier)', batchSizeG: 100, madeOn: '2026-11-10', metalWtPct: 39.5, notes: 'scale-up batch of the same grade; no builds yet' },
+    ],
+    targets: [
+      { metric: 'costPerCm2', comparator: '<=', value: 0.8, unit: '€/cm²', conditions: 'the programme’s reference metal prices', dueDate: '2026-12-31', name: 'Cost ceiling' },
+      { metric: 'vAtRef', comparator: '>=', value: 750, unit: 'mV', conditions: '0.2 A/cm², 220 °C, methanol/water vapour vs air, iR-free', dueDate: '2027-06-30', name: 'Methanol-fed voltage' },
+    ],
   },
 ];

@@ -1,7 +1,7 @@
 // Seeds the invented demo lab into an empty database (idempotent: does nothing when people exist).
 import { sql } from 'drizzle-orm';
 import type { AppContext } from '../context';
-import { builds, factors, labs, memberships, projects, responseDefs, users } from '../db/schema';
+import { builds, factors, labs, lots, memberships, projects, responseDefs, targets, users } from '../db/schema';
 import { hashPassword } from '../auth/passwords';
 import { DEMO_PASSWORD, LABS, PEOPLE, PROJECTS } from './demo-data';
 import { addDemoCurves } from './demo-curves';
@@ -33,6 +33,9 @@ export async function seedDemo(ctx: AppContext): Promise<void> {
         tx.insert(factors).values({ projectId: project.id, key: f.key, label: f.label, unit: f.unit, kind: f.kind, low: f.low ?? null, high: f.high ?? null, levels: f.levels ?? null, position }).run(),
       );
       for (const r of demo.responses) tx.insert(responseDefs).values({ projectId: project.id, ...r }).run();
+      for (const t of demo.targets) tx.insert(targets).values({ projectId: project.id, ...t, basis: t.basis ?? null, createdBy: userIds.get('pi')! }).run();
+      const lotIds = new Map<string, number>();
+      for (const lot of demo.lots) lotIds.set(lot.name, tx.insert(lots).values({ projectId: project.id, ...lot, createdBy: userIds.get('pi')! }).returning().get().id);
       const codeToId = new Map<string, number>();
       for (const b of demo.builds) {
         const row = tx
@@ -48,6 +51,7 @@ export async function seedDemo(ctx: AppContext): Promise<void> {
             metalLoadingMgCm2: b.metalLoadingMgCm2 ?? null,
             areaCm2: b.areaCm2,
             catalystLot: b.lot,
+            lotId: lotIds.get(b.lot) ?? null,
             labId: labIds.get(b.lab)!,
             operatorId: userIds.get(b.operator)!,
             testConditions: b.conditions,

@@ -1,5 +1,6 @@
 // The review pack: what a PI hands out before a programme review, as one answer.
 import type { GainsData } from './lineage';
+import type { TargetView } from '../schemas/targets';
 
 export interface ReviewPackBuild {
   buildId: number;
@@ -37,6 +38,8 @@ export interface ReviewPack {
   generatedAt: string;
   /** the response the pack ranks builds by and draws the waterfall of */
   response: { key: string; label: string; unit: string; goal: string };
+  /** the programme's targets with their status (met by which build, or best so far and the gap) */
+  targets: TargetView[];
   gains: GainsData | null;
   /** why there is no waterfall, when there is none */
   gainsNote: string | null;

@@ -33,6 +33,10 @@ export const PROJECT_ACTIONS = {
   fit: { roles: ['pi', 'researcher'], says: 'fit surfaces' },
   plan: { roles: ['pi', 'researcher'], says: 'plan designs' },
   review: { roles: ['pi'], says: 'give review verdicts' },
+  /** set, change or remove the programme's targets */
+  editTargets: { roles: ['pi'], says: 'set targets' },
+  /** record catalyst lots and change their records (researchers receive and make batches) */
+  editLots: { roles: ['pi', 'researcher'], says: 'record catalyst lots' },
   comment: { roles: ['pi', 'researcher', 'partner'], says: 'comment' },
   /** save or remove import profiles, for one's own lab (see `profileLabProblem`) */
   manageProfiles: { roles: ['pi', 'researcher', 'partner'], says: 'manage import profiles' },

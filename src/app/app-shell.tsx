@@ -70,6 +70,8 @@ export function AppShell() {
                 <div className="mb-1 mt-0.5 flex flex-col gap-0.5">
                   {canWrite(p.myRole) && <RailLink to={`/projects/${p.id}/upload`} indent>Upload</RailLink>}
                   <RailLink to={`/projects/${p.id}/compare`} indent>Compare curves</RailLink>
+                  <RailLink to={`/projects/${p.id}/targets`} indent>Targets</RailLink>
+                  <RailLink to={`/projects/${p.id}/lots`} indent>Catalyst lots</RailLink>
                   <RailLink to={`/projects/${p.id}/lineage`} indent>Lineage</RailLink>
                   <RailLink to={`/projects/${p.id}/gains`} indent>Gains</RailLink>
                   <RailLink to={`/projects/${p.id}/durability`} indent>Durability</RailLink>

@@ -2,6 +2,7 @@
 // the durability summary and the builds waiting for a verdict, within an optional date range.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createHarness, demoIds, type Harness } from './harness';
+import { pdfText } from '../browser/pdf-text.mjs';
 
 let h: Harness;
 let ids: ReturnType<typeof demoIds>;
@@ -10,17 +11,6 @@ beforeAll(async () => {
   ids = demoIds(h.ctx);
 });
 afterAll(() => h.close());
-
-/** The text a pdfkit page draws (uncompressed streams; Helvetica strings are written as hex). */
-export function pdfText(pdf: Buffer): string {
-  const source = pdf.toString('latin1');
-  const parts: string[] = [];
-  for (const match of source.matchAll(/\[((?:<[0-9a-f]+>\s*-?[\d.]*\s*)+)\]\s*TJ/gi)) {
-    const text = [...match[1]!.matchAll(/<([0-9a-f]+)>/gi)].map((m) => Buffer.from(m[1]!, 'hex').toString('latin1')).join('');
-    parts.push(text);
-  }
-  return parts.join('\n');
-}
 
 describe('review pack', () => {
   it('answers the waterfall of the best path, the top builds by V at j_ref and the waiting builds', async () => {
@@ -60,6 +50,8 @@ describe('review pack', () => {
     expect(text).toContain(pack.project.name);
     expect(text).toContain('Waterfall of V at j_ref');
     expect(text).toContain('Top builds');
+    expect(text).toContain('Targets');
+    for (const target of pack.targets) expect(text).toContain(target.name || target.metricLabel);
     for (const step of pack.gains.steps) expect(text).toContain(step.code);
   });
 });

@@ -54,6 +54,7 @@ async function makeCurve(h: Harness, content = CSV) {
 }
 
 const C = () => ids.project('C');
+const lotId = (h: Harness, name: string) => (h.ctx.db.$client.prepare('select id from lots where name = ?').get(name) as { id: number }).id;
 /** a complete polarization profile (current and voltage) */
 const PROFILE = { voltage: { header: 'U (V)', unit: 'V' }, current: { header: 'j (A/cm2)', unit: 'A/cm2' } };
 
@@ -97,6 +98,21 @@ export const MATRIX: MatrixRow[] = [
   } },
   { method: 'get', path: '/api/projects/{id}/responses', send: (_h, c) => c.get(`/api/projects/${C()}/responses`) },
   { method: 'post', path: '/api/projects/{id}/responses', send: (_h, c) => c.post(`/api/projects/${C()}/responses`, { key: unique('cost'), label: 'Cost', unit: '€', goal: 'minimize' }) },
+  { method: 'get', path: '/api/projects/{id}/targets', send: (_h, c) => c.get(`/api/projects/${C()}/targets`) },
+  { method: 'post', path: '/api/projects/{id}/targets', send: (_h, c) => c.post(`/api/projects/${C()}/targets`, { metric: 'vAtRef', comparator: '>=', value: 0.7, unit: 'V', name: unique('Gate ') }) },
+  { method: 'patch', path: '/api/targets/{id}', send: async (h, c) => {
+    const t = await h.as.admin.post(`/api/projects/${C()}/targets`, { metric: 'hfr', comparator: '<=', value: 120, unit: 'mΩ·cm²' });
+    return c.patch(`/api/targets/${t.body.target.id}`, { value: 110 });
+  } },
+  { method: 'delete', path: '/api/targets/{id}', send: async (h, c) => {
+    const t = await h.as.admin.post(`/api/projects/${C()}/targets`, { metric: 'hfr', comparator: '<=', value: 0.12, unit: 'Ω·cm²' });
+    return c.delete(`/api/targets/${t.body.target.id}`);
+  } },
+  { method: 'get', path: '/api/projects/{id}/lots', send: (_h, c) => c.get(`/api/projects/${C()}/lots`) },
+  { method: 'post', path: '/api/projects/{id}/lots', send: (_h, c) => c.post(`/api/projects/${C()}/lots`, { name: unique('FNC-M'), metalWtPct: 2 }) },
+  { method: 'get', path: '/api/lots/{id}', send: (h, c) => c.get(`/api/lots/${lotId(h, 'FNC-24-07')}`) },
+  { method: 'patch', path: '/api/lots/{id}', send: (h, c) => c.patch(`/api/lots/${lotId(h, 'FNC-24-07')}`, { notes: unique('note ') }) },
+  { method: 'get', path: '/api/lots/{id}/comparison', send: (h, c) => c.get(`/api/lots/${lotId(h, 'FNC-24-11')}/comparison?against=${lotId(h, 'FNC-24-07')}`) },
   { method: 'get', path: '/api/projects/{id}/members', send: (_h, c) => c.get(`/api/projects/${C()}/members`) },
   { method: 'put', path: '/api/projects/{id}/members', send: (_h, c) => c.put(`/api/projects/${C()}/members`, { userId: ids.user('r.castellane@ridgeway.example'), role: 'partner' }) },
   { method: 'delete', path: '/api/projects/{id}/members/{userId}', send: async (h, c) => {

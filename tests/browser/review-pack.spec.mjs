@@ -5,14 +5,7 @@ import assert from 'node:assert/strict';
 import fs from 'node:fs';
 import path from 'node:path';
 import { checkPage } from './lib.mjs';
-
-/** Text drawn by pdfkit (uncompressed streams; Helvetica strings written as hex). */
-function pdfText(bytes) {
-  const source = bytes.toString('latin1');
-  return [...source.matchAll(/\[((?:<[0-9a-f]+>\s*-?[\d.]*\s*)+)\]\s*TJ/gi)]
-    .map((m) => [...m[1].matchAll(/<([0-9a-f]+)>/gi)].map((h) => Buffer.from(h[1], 'hex').toString('latin1')).join(''))
-    .join('\n');
-}
+import { pdfText } from './pdf-text.mjs';
 
 export default async function ({ browser, signIn, artifacts }) {
   const page = await browser.newPage();
@@ -45,6 +38,8 @@ export default async function ({ browser, signIn, artifacts }) {
   await download.saveAs(file);
   const text = pdfText(fs.readFileSync(file));
   assert.match(text, /Waterfall of V at j_ref/);
+  assert.match(text, /Targets/);
+  assert.match(text, /Stack-ready voltage/); // a demo target of the cathode project
   assert.match(text, /Top builds/);
   assert.match(text, /C-001/);
   assert.match(text, /PGM-free cathode for 180 .C stacks/);

@@ -7,6 +7,8 @@ import { useBuilds } from '@/features/builds/api/builds';
 import { useGains } from '@/features/gains/api/get-gains';
 import { useLineage } from '@/features/lineage/api/get-lineage';
 import { WaterfallChart } from '@/features/gains/components/waterfall-chart';
+import { useTargets } from '@/features/targets/api/targets';
+import { targetLinesFor } from '@/features/targets/components/target-lines';
 import { GainsTable } from '@/features/gains/components/gains-table';
 import { ChainEditor } from '@/features/gains/components/chain-editor';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
@@ -35,6 +37,7 @@ export default function GainsPage() {
   const chainParam = params.get('builds');
   const chain = chainParam ? chainParam.split(',').map(Number).filter((n) => Number.isInteger(n) && n > 0) : null;
   const project = useProject(projectId);
+  const targets = useTargets(projectId);
   const builds = useBuilds(projectId);
   const lineage = useLineage(projectId, response);
   const gains = useGains(projectId, response, chain);
@@ -77,7 +80,7 @@ export default function GainsPage() {
           ) : data.steps.length < 2 ? (
             <EmptyState title="Only the baseline so far">Add a build to the chain (on the right) to see a step.</EmptyState>
           ) : (
-            <WaterfallChart data={data} subtitle={conditionsText(response, project.data.settings, data.steps.map((s) => byId.get(s.buildId)).filter((b): b is Build => Boolean(b)))} fileName={fileName} />
+            <WaterfallChart data={data} subtitle={conditionsText(response, project.data.settings, data.steps.map((s) => byId.get(s.buildId)).filter((b): b is Build => Boolean(b)))} fileName={fileName} targets={targetLinesFor(targets.data, data.response.key, data.unit)} />
           )}
         </Panel>
         <div className="space-y-4">

@@ -1,5 +1,6 @@
 // Home: my projects with their best build, uploads waiting for review, recent uploads.
 import { Link } from 'react-router-dom';
+import { TargetList } from '@/features/targets/components/target-status';
 import { useHome } from '@/features/projects/api/projects';
 import { useMe } from '@/features/auth/api/get-me';
 import { ReviewQueue } from '@/features/review/components/review-queue';
@@ -61,6 +62,11 @@ export default function Home() {
                 <dd className="num text-ink-900">{p.best ? <>{formatMetric('vAtRef', p.best.vAtRef)} <span className="text-ink-500">({p.best.code})</span></> : '—'}</dd>
               </div>
             </dl>
+            {p.targets && p.targets.length > 0 && (
+              <div className="mt-3 border-t border-line pt-2">
+                <TargetList targets={p.targets} compact />
+              </div>
+            )}
           </Link>
         ))}
       </div>

@@ -7,6 +7,9 @@ import { BuildsTable } from '@/features/builds/components/builds-table';
 import { PageHeader, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Button, LinkButton } from '@/components/ui/button';
 import { canWrite } from '@/features/projects/components/permissions';
+import { useTargets } from '@/features/targets/api/targets';
+import { TargetList } from '@/features/targets/components/target-status';
+import { Link } from 'react-router-dom';
 
 export default function ProjectBuilds() {
   const projectId = Number(useParams().projectId);
@@ -14,6 +17,7 @@ export default function ProjectBuilds() {
   const builds = useBuilds(projectId);
   const factors = useFactors(projectId);
   const responses = useResponses(projectId);
+  const targets = useTargets(projectId);
   const navigate = useNavigate();
   const [selected, setSelected] = useState<Set<number>>(new Set());
   if (project.isLoading || builds.isLoading || factors.isLoading || responses.isLoading) return <Loading />;
@@ -38,6 +42,15 @@ export default function ProjectBuilds() {
           </>
         }
       />
+      {targets.data && targets.data.length > 0 && (
+        <section aria-label="Targets" className="mb-4 rounded-lg border border-line bg-panel px-4 py-3">
+          <div className="mb-1.5 flex items-baseline justify-between gap-3">
+            <h2 className="text-sm font-semibold text-ink-950">Targets</h2>
+            <Link className="text-xs text-copper-700 hover:underline" to={`/projects/${projectId}/targets`}>Progress charts</Link>
+          </div>
+          <TargetList targets={targets.data} />
+        </section>
+      )}
       {builds.data!.length === 0 ? (
         <EmptyState title="No builds yet" action={canWrite(role) ? <LinkButton variant="primary" to={`/projects/${projectId}/builds/new`}>Record the first build</LinkButton> : undefined}>
           Record an electrode build with its recipe, then upload its polarization curve to see metrics.

@@ -6,6 +6,8 @@ import type { ReactNode } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { useReviewPack, reviewPackPdfUrl } from '@/features/review/api/review-pack';
 import { WaterfallChart } from '@/features/gains/components/waterfall-chart';
+import { TargetList } from '@/features/targets/components/target-status';
+import { targetLinesFor } from '@/features/targets/components/target-lines';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Button } from '@/components/ui/button';
 import { Field, Input } from '@/components/ui/field';
@@ -23,13 +25,23 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
+function TargetsSection({ pack }: { pack: ReviewPack }) {
+  return (
+    <Section title="Targets">
+      {pack.targets.length === 0
+        ? <EmptyState title="No targets yet">A PI sets the programme’s targets on the project’s Targets page.</EmptyState>
+        : <TargetList targets={pack.targets} />}
+    </Section>
+  );
+}
+
 function WaterfallSection({ pack }: { pack: ReviewPack }) {
   const subtitle = `at j_ref = ${formatNumber(pack.project.refCurrentDensity, 2)} A/cm² · lineage’s best path · 95 % intervals`;
   return (
     <Section title={`Waterfall of ${pack.response.label}`}>
       {pack.gains && pack.gains.steps.length >= 2
         // at most the printable width of an A4 page, so the chart prints as it shows
-        ? <div className="max-w-[680px]"><WaterfallChart data={pack.gains} subtitle={subtitle} fileName={`review-pack-waterfall-${pack.project.codePrefix}`} /></div>
+        ? <div className="max-w-[680px]"><WaterfallChart data={pack.gains} subtitle={subtitle} fileName={`review-pack-waterfall-${pack.project.codePrefix}`} targets={targetLinesFor(pack.targets, pack.gains.response.key, pack.gains.unit)} /></div>
         : <EmptyState title="No waterfall yet">{pack.gainsNote ?? 'Upload polarization curves to the builds of a lineage to see its gains.'}</EmptyState>}
     </Section>
   );
@@ -107,7 +119,7 @@ function WaitingSection({ pack }: { pack: ReviewPack }) {
 }
 
 /** The pack's sections, in the order they print. */
-const SECTIONS: ((props: { pack: ReviewPack }) => ReactNode)[] = [WaterfallSection, TopBuildsSection, DurabilitySection, WaitingSection];
+const SECTIONS: ((props: { pack: ReviewPack }) => ReactNode)[] = [TargetsSection, WaterfallSection, TopBuildsSection, DurabilitySection, WaitingSection];
 
 export default function ReviewPackPage() {
   const projectId = Number(useParams().projectId);

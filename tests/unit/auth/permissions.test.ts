@@ -16,6 +16,8 @@ const EXPECTED = {
   fit: ['admin', 'pi', 'researcher'],
   plan: ['admin', 'pi', 'researcher'],
   review: ['admin', 'pi'],
+  editTargets: ['admin', 'pi'],
+  editLots: ['admin', 'pi', 'researcher'],
   comment: ['admin', 'pi', 'researcher', 'partner'],
   manageProfiles: ['admin', 'pi', 'researcher', 'partner'],
   manageAnyLabProfile: ['admin', 'pi'],

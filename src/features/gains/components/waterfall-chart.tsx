@@ -24,7 +24,13 @@ const wrap = (text: string, width = 22): string => {
   return lines.slice(0, 3).join('<br>') + (lines.length > 3 ? '…' : '');
 };
 
-export function WaterfallChart({ data, subtitle, fileName }: { data: GainsData; subtitle: string; fileName: string }) {
+/** A target drawn as a dashed line: its label and value in the response's own unit (data.unit). */
+/** the target line's colour (Okabe–Ito vermillion) */
+const TARGET_LINE = '#D55E00';
+
+export interface WaterfallTarget { label: string; value: number }
+
+export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { data: GainsData; subtitle: string; fileName: string; targets?: WaterfallTarget[] }) {
   const ref = useRef<HTMLElement>(null);
   const d = displayOf(data.response);
   const s = d.scale;
@@ -50,6 +56,10 @@ export function WaterfallChart({ data, subtitle, fileName }: { data: GainsData; 
     low = Math.min(low, before + st.low * s);
     high = Math.max(high, before + st.high * s);
   });
+  for (const t of targets) {
+    low = Math.min(low, t.value * s);
+    high = Math.max(high, t.value * s);
+  }
   const pad = Math.max(span, high - low) * 0.18;
   const range = [low - pad, high + pad];
 
@@ -121,7 +131,8 @@ export function WaterfallChart({ data, subtitle, fileName }: { data: GainsData; 
             barmode: 'overlay',
             xaxis: { tickmode: 'array', tickvals: x, ticktext: tick, tickfont: { family: PLOT_FONT, size: 11 }, showgrid: false },
             yaxis: { title: { text: `${d.label} (${d.unit})` }, range, zeroline: false },
-            shapes: connectors,
+            shapes: [...connectors, ...targets.map((t) => ({ type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: t.value * s, y1: t.value * s, line: { color: TARGET_LINE, width: 1.5, dash: 'dash' } }))],
+            annotations: targets.map((t) => ({ xref: 'paper', yref: 'y', x: 0, y: t.value * s, xanchor: 'left', yanchor: 'bottom', text: `target: ${t.label}`, showarrow: false, font: { size: 11, color: TARGET_LINE } })),
             height: 470,
           } as never}
           style={{ height: 470 }}

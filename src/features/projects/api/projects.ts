@@ -1,7 +1,7 @@
 // Projects: list, home summary, one project, create and update (one query key per resource).
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import type { Project, FactorDef, ResponseDef } from '@shared/api-types';
+import type { Project, FactorDef, ResponseDef, TargetView } from '@shared/api-types';
 import type { ProjectCreate, FactorCreate, NotifyBody, ResponseCreate } from '@shared/schemas/project';
 import type { InviteCreate } from '@shared/schemas/auth';
 
@@ -9,7 +9,7 @@ export const projectsQueryOptions = () => queryOptions({ queryKey: ['projects'],
 export const useProjects = () => useQuery(projectsQueryOptions());
 
 export interface HomeData {
-  projects: (Project & { best: { buildId: number; code: string; vAtRef: number; changeNote: string | null } | null })[];
+  projects: (Project & { best: { buildId: number; code: string; vAtRef: number; changeNote: string | null } | null; targets?: TargetView[] })[];
   recentUploads: { fileId: number; name: string; uploadedAt: string; projectId: number; buildId: number | null; buildCode: string | null; uploadedBy: string | null }[];
   awaitingReview?: { buildId: number; code: string; projectId: number; projectName: string; changeNote: string | null; status: string; testedOn: string | null; waitingDays: number | null; vAtRef: number | null; parentCode: string | null; changeFromParent: number | null }[];
   needsWork?: { buildId: number; code: string; projectId: number; projectName: string; comment: string | null }[];

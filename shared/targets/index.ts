@@ -1,0 +1,2 @@
+export * from './status';
+export * from './target-units';

@@ -1,0 +1,1 @@
+export function pdfText(bytes: Uint8Array): string;
