@@ -27,6 +27,8 @@ export interface DemoFactor {
   low?: number;
   high?: number;
   levels?: string[];
+  /** a test condition (cell temperature, pressure …) rather than part of the electrode */
+  testVariable?: boolean;
 }
 
 export interface DemoBuild {
@@ -171,7 +173,7 @@ export const PROJECTS: DemoProject[] = [
       { key: 'activationTemp', label: 'Activation temperature', unit: '°C', kind: 'continuous', low: 300, high: 380 },
       { key: 'activationTime', label: 'Activation time', unit: 'h', kind: 'continuous', low: 1, high: 4 },
       { key: 'gdl', label: 'GDL', unit: '', kind: 'categorical', levels: ['woven carbon', 'carbon paper'] },
-      { key: 'cellTemp', label: 'Operating temperature', unit: '°C', kind: 'continuous', low: 160, high: 200 },
+      { key: 'cellTemp', label: 'Operating temperature', unit: '°C', kind: 'continuous', low: 160, high: 200, testVariable: true },
     ],
     responses: [{ key: 'thicknessUm', label: 'Electrode thickness', unit: 'µm', goal: 'target' }],
     members: { pi: 'pi', researcher: 'researcher', partner: 'partner', viewer: 'viewer', partner2: 'partner' },
@@ -193,7 +195,7 @@ export const PROJECTS: DemoProject[] = [
     factors: [
       { key: 'ruFraction', label: 'Ru fraction', unit: 'at %', kind: 'continuous', low: 20, high: 60 },
       { key: 'anodeLoading', label: 'Anode loading', unit: 'mg/cm²', kind: 'continuous', low: 0.5, high: 2.0 },
-      { key: 'cellTemp', label: 'Operating temperature', unit: '°C', kind: 'continuous', low: 180, high: 240 },
+      { key: 'cellTemp', label: 'Operating temperature', unit: '°C', kind: 'continuous', low: 180, high: 240, testVariable: true },
       { key: 'support', label: 'Support', unit: '', kind: 'categorical', levels: ['carbon black', 'graphitised carbon'] },
     ],
     responses: [{ key: 'costPerCm2', label: 'Noble-metal cost', unit: '€/cm²', goal: 'minimize' }],

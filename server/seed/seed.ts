@@ -30,7 +30,7 @@ export async function seedDemo(ctx: AppContext): Promise<void> {
       const project = tx.insert(projects).values({ name: demo.name, description: demo.description, codePrefix: demo.codePrefix, settings: demo.settings, createdBy: userIds.get('pi')! }).returning().get();
       for (const [personKey, role] of Object.entries(demo.members)) tx.insert(memberships).values({ projectId: project.id, userId: userIds.get(personKey)!, role }).run();
       demo.factors.forEach((f, position) =>
-        tx.insert(factors).values({ projectId: project.id, key: f.key, label: f.label, unit: f.unit, kind: f.kind, low: f.low ?? null, high: f.high ?? null, levels: f.levels ?? null, position }).run(),
+        tx.insert(factors).values({ projectId: project.id, key: f.key, label: f.label, unit: f.unit, kind: f.kind, low: f.low ?? null, high: f.high ?? null, levels: f.levels ?? null, testVariable: f.testVariable ?? false, position }).run(),
       );
       for (const r of demo.responses) tx.insert(responseDefs).values({ projectId: project.id, ...r }).run();
       for (const t of demo.targets) tx.insert(targets).values({ projectId: project.id, ...t, basis: t.basis ?? null, createdBy: userIds.get('pi')! }).run();

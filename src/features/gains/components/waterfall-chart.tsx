@@ -13,6 +13,9 @@ const UP = OKABE_ITO[2]!;
 const DOWN = OKABE_ITO[3]!;
 const LEVEL = '#2c3c63';
 
+/** Under the build code: what kind of change the step was, when it was not the electrode alone. */
+const CLASS_TICK: Record<string, string> = { 'test-conditions': '<br><i>test conditions</i>', mixed: '<br><i>electrode + test</i>', unchanged: '<br><i>repeat</i>' };
+
 const wrap = (text: string, width = 22): string => {
   const words = text.split(/\s+/);
   const lines: string[] = [];
@@ -38,7 +41,7 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
   const x = [...steps.map((st) => st.code), 'Total'];
   const tick = [
     `${steps[0].code}<br>baseline`,
-    ...steps.slice(1).map((st) => `${st.code}<br>${wrap(st.changeNote ?? st.changeText ?? '')}`),
+    ...steps.slice(1).map((st) => `${st.code}${CLASS_TICK[st.changeClass ?? ''] ?? ''}<br>${wrap(st.changeNote ?? st.changeText ?? '')}`),
     `Total<br>${steps[0].code} → ${steps[steps.length - 1].code}`,
   ];
   const levels: number[] = [];
@@ -60,7 +63,7 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
     low = Math.min(low, t.value * s);
     high = Math.max(high, t.value * s);
   }
-  const pad = Math.max(span, high - low) * 0.18;
+  const pad = Math.max(span, high - low) * 0.22;
   const range = [low - pad, high + pad];
 
   const barText = [
@@ -69,7 +72,8 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
     `${showGain(d, data.total.gain)}<br>${showValue(d, data.total.value)}`,
   ];
   const colours = [LEVEL, ...steps.slice(1).map((st) => ((st.gain ?? 0) >= 0 ? UP : DOWN)), LEVEL];
-  const patterns = ['', ...steps.slice(1).map((st) => ((st.gain ?? 0) >= 0 ? '' : '/')), ''];
+  // hatched: a loss; dotted: a step that changed the test conditions rather than the electrode
+  const patterns = ['', ...steps.slice(1).map((st) => (st.changeClass === 'test-conditions' || st.changeClass === 'mixed' ? '.' : (st.gain ?? 0) >= 0 ? '' : '/')), ''];
   const opacity = [1, ...steps.slice(1).map((st) => (st.withinNoise ? 0.45 : 1)), 1];
   // Level bars rise from below the visible range so the axis can start near the baseline.
   const bottom = range[0] - Math.abs(range[1] - range[0]);
@@ -93,6 +97,13 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
     plus.push((data.total.high - data.total.gain) * s);
     minus.push((data.total.gain - data.total.low) * s);
   }
+  // Each label sits above the higher of its bar's top and its whisker's top, so none covers a whisker.
+  const whiskerTop = new Map(whiskerX.map((code, k) => [code, whiskerY[k]! + plus[k]!]));
+  const labelY = x.map((code, k) => {
+    const barTop = k === 0 ? levels[0]! : k === x.length - 1 ? levels[levels.length - 1]! : Math.max(levels[k - 1]!, levels[k]!);
+    return Math.max(barTop, whiskerTop.get(code) ?? -Infinity);
+  });
+  const labels = x.map((code, k) => ({ xref: 'x', yref: 'y', x: code, y: labelY[k], yanchor: 'bottom', yshift: 3, text: barText[k], showarrow: false, font: { family: PLOT_FONT, size: 11, color: PLOT_COLORS.ink } }));
   const connectors = levels.map((level, k) => ({ type: 'line', xref: 'x', yref: 'y', x0: k + 0.4, x1: k + 0.6, y0: level, y1: level, line: { color: PLOT_COLORS.axis, width: 1, dash: 'dot' } }));
 
   return (
@@ -109,7 +120,7 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
               y,
               base,
               text: barText,
-              textposition: 'outside',
+              textposition: 'none',
               cliponaxis: false,
               marker: { color: colours, opacity, line: { color: colours, width: 1.5 }, pattern: { shape: patterns, fgcolor: '#ffffff', size: 6, solidity: 0.3 } },
               hovertemplate: '%{text}<extra></extra>',
@@ -124,6 +135,7 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
               marker: { size: 1, color: PLOT_COLORS.ink },
               error_y: { type: 'data', symmetric: false, array: plus, arrayminus: minus, color: PLOT_COLORS.ink, thickness: 1.4, width: 6 },
               name: `${Math.round(data.confidence * 100)} % interval`,
+              showlegend: false,
               hoverinfo: 'skip',
             },
           ] as never}
@@ -132,16 +144,24 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
             xaxis: { tickmode: 'array', tickvals: x, ticktext: tick, tickfont: { family: PLOT_FONT, size: 11 }, showgrid: false },
             yaxis: { title: { text: `${d.label} (${d.unit})` }, range, zeroline: false },
             shapes: [...connectors, ...targets.map((t) => ({ type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: t.value * s, y1: t.value * s, line: { color: TARGET_LINE, width: 1.5, dash: 'dash' } }))],
-            annotations: targets.map((t) => ({ xref: 'paper', yref: 'y', x: 0, y: t.value * s, xanchor: 'left', yanchor: 'bottom', text: `target: ${t.label}`, showarrow: false, font: { size: 11, color: TARGET_LINE } })),
+            annotations: [...labels, ...targets.map((t) => ({ xref: 'paper', yref: 'y', x: 0, y: t.value * s, xanchor: 'left', yanchor: 'bottom', text: `target: ${t.label}`, showarrow: false, font: { size: 11, color: TARGET_LINE } }))],
             height: 470,
           } as never}
           style={{ height: 470 }}
         />
       </figure>
+      {data.byClass && (
+        <p className="mt-2 text-sm text-ink-700">
+          Total {showGain(d, data.total.gain)}: electrode changes {showGain(d, data.byClass.recipeOnlyTotal)}
+          {data.byClass.testConditionTotal !== 0 && <>, test-condition changes {showGain(d, data.byClass.testConditionTotal)}</>}
+          {data.byClass.mixedTotal !== 0 && <>, steps that changed both {showGain(d, data.byClass.mixedTotal)}</>}.
+        </p>
+      )}
       <div className="mt-2 flex flex-wrap items-center gap-3 text-xs text-ink-500">
         <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} /></svg> gain (up)</span>
         <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={DOWN} /><path d="M0 12 12 0" stroke="#fff" strokeWidth="2" /></svg> loss (down, hatched)</span>
         <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} opacity="0.45" /></svg> faded = within noise (interval contains zero)</span>
+        <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} /><circle cx="4" cy="4" r="1.4" fill="#fff" /><circle cx="9" cy="9" r="1.4" fill="#fff" /></svg> dotted = the step changed test conditions</span>
         <span>whiskers: {Math.round(data.confidence * 100)} % interval of each step · the axis does not start at zero</span>
         <span className="ml-auto"><PlotActions target={ref} fileName={fileName} csv={() => gainsCsv(data)} label="waterfall" /></span>
       </div>
