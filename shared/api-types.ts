@@ -53,6 +53,8 @@ export interface Build {
   catalystLot: string | null;
   /** the lot record the build was made from, if recorded */
   lotId?: number | null;
+  /** metal content of that lot's catalyst, wt %, when the lot records it */
+  lotMetalWtPct?: number | null;
   labId: number | null;
   labName: string | null;
   operatorId: number | null;

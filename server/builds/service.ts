@@ -5,7 +5,7 @@ import { alias } from 'drizzle-orm/sqlite-core';
 import type { z } from 'zod';
 import type { AppContext } from '../context';
 import type { Db } from '../db';
-import { builds, curves, labs, projects, users } from '../db/schema';
+import { builds, curves, labs, lots, projects, users } from '../db/schema';
 import { dataVersion } from '../db/data-version';
 import { checkFactorValues, type buildCreateSchema, type buildUpdateSchema, type BuildListQuery, type RecordChoice } from '../../shared/schemas/build';
 import type { Build, RecordCurveIds } from '../../shared/api-types';
@@ -74,7 +74,7 @@ function summarizeMetrics(rows: CurveMetricRow[], metricsVersion: number) {
   return byBuild;
 }
 
-type ItemRow = { b: BuildRow; parentCode: string | null; labName: string | null; operatorName: string | null };
+type ItemRow = { b: BuildRow; parentCode: string | null; labName: string | null; operatorName: string | null; lotMetalWtPct?: number | null };
 
 /** The one mapping from the stored build (with its parent code, lab and operator names) to the API's build. */
 function toItem(row: ItemRow, metrics?: BuildMetricSummary): BuildListItem {
@@ -92,6 +92,7 @@ function toItem(row: ItemRow, metrics?: BuildMetricSummary): BuildListItem {
     areaCm2: b.areaCm2,
     catalystLot: b.catalystLot,
     lotId: b.lotId ?? null,
+    lotMetalWtPct: row.lotMetalWtPct ?? null,
     labId: b.labId,
     labName: row.labName,
     operatorId: b.operatorId,
@@ -121,8 +122,8 @@ function toItem(row: ItemRow, metrics?: BuildMetricSummary): BuildListItem {
  * single build share the selected columns, the curve summary and `toItem`.
  */
 function prepareItemQueries(db: Db) {
-  const itemColumns = { b: builds, parentCode: parent.code, labName: labs.name, operatorName: users.name };
-  const items = () => db.select(itemColumns).from(builds).leftJoin(parent, eq(parent.id, builds.parentId)).leftJoin(labs, eq(labs.id, builds.labId)).leftJoin(users, eq(users.id, builds.operatorId));
+  const itemColumns = { b: builds, parentCode: parent.code, labName: labs.name, operatorName: users.name, lotMetalWtPct: lots.metalWtPct };
+  const items = () => db.select(itemColumns).from(builds).leftJoin(parent, eq(parent.id, builds.parentId)).leftJoin(labs, eq(labs.id, builds.labId)).leftJoin(users, eq(users.id, builds.operatorId)).leftJoin(lots, eq(lots.id, builds.lotId));
   const ofPage = and(eq(builds.projectId, sql.placeholder('projectId')), sql`(${sql.placeholder('status')} is null or ${builds.status} = ${sql.placeholder('status')})`);
   const curveColumns = {
     id: curves.id,

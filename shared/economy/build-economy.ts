@@ -9,6 +9,8 @@ export interface BuildEconomyInput {
   loadingMgCm2: number | null;
   /** measured precious-metal loading, mg/cm² */
   metalLoadingMgCm2: number | null;
+  /** metal content of the catalyst lot the build was made from, wt % (used when no loading was measured) */
+  lotMetalWtPct?: number | null;
   /** metric values of the build's polarization curve of record (jAtRef A/cm² at V_ref, peakPower W/cm²) */
   values: Record<string, unknown>;
 }
@@ -21,7 +23,7 @@ export interface BuildEconomySettings {
 export interface BuildEconomy {
   /** mg/cm², or null with `loadingNote` */
   metalLoadingMgCm2: number | null;
-  loadingSource: 'measured' | null;
+  loadingSource: 'measured' | 'lot' | null;
   loadingNote: string | null;
   gPerKw: number | null;
   powerLabel: string | null;
@@ -52,7 +54,12 @@ const num = (value: unknown): number | null => (typeof value === 'number' && Num
  * @example buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: 0.4, values: { peakPower: 0.5 } }, { refVoltage: 0.6, metalPrices: [ptPrice] }).gPerKw // 0.8
  */
 export function buildEconomy(build: BuildEconomyInput, settings: BuildEconomySettings): BuildEconomy {
-  const metal = num(build.metalLoadingMgCm2);
+  const measured = num(build.metalLoadingMgCm2);
+  const catalyst = num(build.loadingMgCm2);
+  const content = num(build.lotMetalWtPct);
+  // a measured loading wins; else catalyst loading × the lot's metal content (mass balance)
+  const fromLot = measured === null && catalyst !== null && content !== null && content > 0 && content <= 100 ? (catalyst * content) / 100 : null;
+  const metal = measured ?? fromLot;
   const prices = settings.metalPrices ?? [];
   const jAtRef = num(build.values.jAtRef);
   const peak = num(build.values.peakPower);
@@ -60,12 +67,12 @@ export function buildEconomy(build: BuildEconomyInput, settings: BuildEconomySet
   const power = atVoltage ?? (peak !== null && peak > 0 ? peak : null);
   const powerLabel = atVoltage !== null ? `at ${settings.refVoltage} V` : power !== null ? 'at peak power (highest measured)' : null;
   const method = {
-    loading: 'the build’s measured precious-metal loading, mg/cm² of active area',
+    loading: measured !== null || fromLot === null ? 'the build’s measured precious-metal loading, mg/cm² of active area' : `catalyst loading ${catalyst} mg/cm² × the lot’s metal content ${content} wt % ÷ 100, mg/cm² of active area`,
     gPerKw: `g of precious metal per kW = metal loading (mg/cm²) ÷ power density (W/cm²), ${atVoltage !== null ? `at V_ref = ${settings.refVoltage} V (P = V·j)` : 'at peak power (highest measured j·V), the curve not reaching V_ref'}`,
     cost: 'cost per kW = g/kW × price per g, with the price’s date and source as the project recorded it (entered by hand, never fetched)',
   };
   const empty: BuildEconomy = {
-    metalLoadingMgCm2: metal, loadingSource: metal !== null ? 'measured' : null, loadingNote: null, gPerKw: null, powerLabel, powerNote: null,
+    metalLoadingMgCm2: metal, loadingSource: measured !== null ? 'measured' : fromLot !== null ? 'lot' : null, loadingNote: null, gPerKw: null, powerLabel, powerNote: null,
     costPerKw: null, costUnit: null, priceDate: null, priceSource: null, costNote: null, method, economy: null,
   };
   if (metal === null) return { ...empty, loadingNote: 'needs the catalyst’s metal content (or a measured metal loading)', powerNote: 'needs the metal loading', costNote: 'needs the metal loading' };

@@ -4,6 +4,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
+import { afterAll, beforeAll } from 'vitest';
 import type { Express } from 'express';
 import { createContext } from '../../server/bootstrap';
 import { createApp } from '../../server/app';
@@ -88,4 +89,18 @@ export function demoIds(ctx: AppContext) {
   const lab = (name: string) => (sqlite.prepare('select id from labs where name like ?').get(`${name}%`) as { id: number }).id;
   const user = (email: string) => (sqlite.prepare('select id from users where email = ?').get(email) as { id: number }).id;
   return { project, build, lab, user };
+}
+
+/**
+ * One seeded harness for a whole test file, opened before its tests and closed after them: read
+ * `t.h` (the harness) and `t.ids` (demo ids) inside the tests.
+ */
+export function demoHarness(options: Parameters<typeof createHarness>[0] = {}) {
+  const t = {} as { h: Harness; ids: ReturnType<typeof demoIds> };
+  beforeAll(async () => {
+    t.h = await createHarness(options);
+    t.ids = demoIds(t.h.ctx);
+  });
+  afterAll(() => t.h.close());
+  return t;
 }

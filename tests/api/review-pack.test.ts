@@ -1,20 +1,14 @@
 // The review pack: one answer for the page and the PDF — the best path's waterfall, the top builds,
 // the durability summary and the builds waiting for a verdict, within an optional date range.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createHarness, demoIds, type Harness } from './harness';
+import { describe, expect, it } from 'vitest';
+import { demoHarness } from './harness';
 import { pdfText } from '../browser/pdf-text.mjs';
 
-let h: Harness;
-let ids: ReturnType<typeof demoIds>;
-beforeAll(async () => {
-  h = await createHarness();
-  ids = demoIds(h.ctx);
-});
-afterAll(() => h.close());
+const t = demoHarness();
 
 describe('review pack', () => {
   it('answers the waterfall of the best path, the top builds by V at j_ref and the waiting builds', async () => {
-    const res = await h.as.viewer.get(`/api/projects/${ids.project('C')}/review-pack`);
+    const res = await t.h.as.viewer.get(`/api/projects/${t.ids.project('C')}/review-pack`);
     expect(res.status).toBe(200);
     const pack = res.body;
     expect(pack.response.key).toBe('vAtRef');
@@ -28,25 +22,25 @@ describe('review pack', () => {
   });
 
   it('keeps to the date range and refuses a range that runs backwards, naming the field', async () => {
-    const none = await h.as.viewer.get(`/api/projects/${ids.project('C')}/review-pack?from=1990-01-01&to=1990-12-31`);
+    const none = await t.h.as.viewer.get(`/api/projects/${t.ids.project('C')}/review-pack?from=1990-01-01&to=1990-12-31`);
     expect(none.status).toBe(200);
     expect(none.body.topBuilds).toEqual([]);
     expect(none.body.period).toEqual({ from: '1990-01-01', to: '1990-12-31' });
-    const bad = await h.as.viewer.get(`/api/projects/${ids.project('C')}/review-pack?from=2026-05-01&to=2026-04-01`);
+    const bad = await t.h.as.viewer.get(`/api/projects/${t.ids.project('C')}/review-pack?from=2026-05-01&to=2026-04-01`);
     expect(bad.status).toBe(400);
     expect(JSON.stringify(bad.body.error)).toContain('to');
-    const notDate = await h.as.viewer.get(`/api/projects/${ids.project('C')}/review-pack?from=May`);
+    const notDate = await t.h.as.viewer.get(`/api/projects/${t.ids.project('C')}/review-pack?from=May`);
     expect(notDate.status).toBe(400);
   });
 
   it('hands out a PDF that holds the project, the waterfall and the top builds as text', async () => {
-    const res = await h.as.pi.get(`/api/projects/${ids.project('C')}/review-pack.pdf`).buffer(true).parse((r, cb) => { const chunks: Buffer[] = []; r.on('data', (c: Buffer) => chunks.push(c)); r.on('end', () => cb(null, Buffer.concat(chunks))); });
+    const res = await t.h.as.pi.get(`/api/projects/${t.ids.project('C')}/review-pack.pdf`).buffer(true).parse((r, cb) => { const chunks: Buffer[] = []; r.on('data', (c: Buffer) => chunks.push(c)); r.on('end', () => cb(null, Buffer.concat(chunks))); });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     const pdf = res.body as Buffer;
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
     const text = pdfText(pdf);
-    const pack = (await h.as.pi.get(`/api/projects/${ids.project('C')}/review-pack`)).body;
+    const pack = (await t.h.as.pi.get(`/api/projects/${t.ids.project('C')}/review-pack`)).body;
     expect(text).toContain(pack.project.name);
     expect(text).toContain('Waterfall of V at j_ref');
     expect(text).toContain('Top builds');

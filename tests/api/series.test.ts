@@ -2,29 +2,22 @@
 // the temperature series returns the activation energy it was made with inside its interval,
 // the pressure series its order, hold and onset metrics are stored with their rules, the
 // spectrum's HFR matches the polarization curve's HFR column, and bad requests are 400s.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createHarness, demoIds, type Harness } from './harness';
+import { describe, expect, it } from 'vitest';
+import { demoHarness } from './harness';
 import { DEMO_ACTIVATION_ENERGY, DEMO_REACTION_ORDER } from '../../server/seed/demo-curves';
 
-let h: Harness;
-let ids: ReturnType<typeof demoIds>;
-
-beforeAll(async () => {
-  h = await createHarness();
-  ids = demoIds(h.ctx);
-});
-afterAll(() => h.close());
+const t = demoHarness();
 
 type Curve = { id: number; kind: string; metrics: Record<string, number | null>; metricNotes: Record<string, string>; method: Record<string, { method: string; inputs: Record<string, unknown> }>; summary: Record<string, unknown> };
-const curvesOf = async (code: string) => (await h.as.viewer.get(`/api/builds/${ids.build(code)}`)).body.curves as Curve[];
+const curvesOf = async (code: string) => (await t.h.as.viewer.get(`/api/builds/${t.ids.build(code)}`)).body.curves as Curve[];
 
 describe('POST /api/projects/:id/series', () => {
   it('picks the temperature series by the recipe diff and returns Eₐ with a 95 % interval holding the invented value', async () => {
-    const res = await h.as.viewer.post(`/api/projects/${ids.project('A')}/series`, { variable: 'temperature' });
+    const res = await t.h.as.viewer.post(`/api/projects/${t.ids.project('A')}/series`, { variable: 'temperature' });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.kind).toBe('arrhenius');
     expect(res.body.unit).toBe('kJ/mol');
-    expect(res.body.points.map((p: { buildId: number }) => p.buildId).sort()).toEqual(['A-010', 'A-011', 'A-012'].map(ids.build).sort());
+    expect(res.body.points.map((p: { buildId: number }) => p.buildId).sort()).toEqual(['A-010', 'A-011', 'A-012'].map(t.ids.build).sort());
     // 55 kJ/mol: the invented activation energy the demo series was generated with
     expect(res.body.low).toBeLessThan(DEMO_ACTIVATION_ENERGY);
     expect(res.body.high).toBeGreaterThan(DEMO_ACTIVATION_ENERGY);
@@ -36,14 +29,14 @@ describe('POST /api/projects/:id/series', () => {
   });
 
   it('returns the reaction order of the pressure series and keeps hand-picked builds with what else differs', async () => {
-    const res = await h.as.researcher.post(`/api/projects/${ids.project('A')}/series`, { variable: 'pressure' });
+    const res = await t.h.as.researcher.post(`/api/projects/${t.ids.project('A')}/series`, { variable: 'pressure' });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.kind).toBe('order');
     expect(res.body.points).toHaveLength(4);
     expect(res.body.low).toBeLessThan(DEMO_REACTION_ORDER); // 0.5: the invented order of the demo series
     expect(res.body.high).toBeGreaterThan(DEMO_REACTION_ORDER);
     expect(res.body.noDependenceWithinNoise).toBe(false);
-    const picked = await h.as.researcher.post(`/api/projects/${ids.project('A')}/series`, { variable: 'temperature', builds: [ids.build('A-010'), ids.build('A-012'), ids.build('A-006')] });
+    const picked = await t.h.as.researcher.post(`/api/projects/${t.ids.project('A')}/series`, { variable: 'temperature', builds: [t.ids.build('A-010'), t.ids.build('A-012'), t.ids.build('A-006')] });
     expect(picked.status).toBe(200);
     expect(picked.body.selection).toBe('as-given');
     // A-006 differs in Ru fraction and support: the others are listed as differing from it, and it never reaches 0.85 V iR-free
@@ -52,10 +45,10 @@ describe('POST /api/projects/:id/series', () => {
   });
 
   it('names a bad field and a build from elsewhere with a 400', async () => {
-    const bad = await h.as.researcher.post(`/api/projects/${ids.project('A')}/series`, { variable: 'humidity' });
+    const bad = await t.h.as.researcher.post(`/api/projects/${t.ids.project('A')}/series`, { variable: 'humidity' });
     expect(bad.status).toBe(400);
     expect(JSON.stringify(bad.body)).toMatch(/variable/);
-    const foreign = await h.as.researcher.post(`/api/projects/${ids.project('A')}/series`, { variable: 'temperature', builds: [ids.build('C-001'), ids.build('A-010')] });
+    const foreign = await t.h.as.researcher.post(`/api/projects/${t.ids.project('A')}/series`, { variable: 'temperature', builds: [t.ids.build('C-001'), t.ids.build('A-010')] });
     expect(foreign.status).toBe(400);
     expect(foreign.body.error.message).toMatch(/builds\.0/);
   });
@@ -87,11 +80,11 @@ describe('demo holds, accelerated test and impedance', () => {
 
   it('takes the onset rule as a curve option and stores it with the method', async () => {
     const ast = (await curvesOf('A-018')).find((c) => c.kind === 'durability')!;
-    const res = await h.as.researcher.patch(`/api/curves/${ast.id}`, { onsetRule: { minRateRatio: 50 } });
+    const res = await t.h.as.researcher.patch(`/api/curves/${ast.id}`, { onsetRule: { minRateRatio: 50 } });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const curve = (res.body.curve ?? res.body) as Curve;
     expect(curve.method.onsetHours.inputs.rule).toMatch(/minRateRatio 50/);
-    const back = await h.as.researcher.patch(`/api/curves/${ast.id}`, { onsetRule: null });
+    const back = await t.h.as.researcher.patch(`/api/curves/${ast.id}`, { onsetRule: null });
     expect(((back.body.curve ?? back.body) as Curve).metrics.onsetHours).not.toBeNull();
   });
 
@@ -110,25 +103,25 @@ describe('demo holds, accelerated test and impedance', () => {
 describe('PUT /api/projects/:id/metal-prices', () => {
   it('stores prices entered by the PI, audited, kept when the reference point is edited', async () => {
     const prices = [{ metal: 'Pt', pricePerGram: 31.2, currency: 'EUR', date: '2026-11-20', source: 'invented quote' }];
-    const res = await h.as.pi.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices });
+    const res = await t.h.as.pi.put(`/api/projects/${t.ids.project('C')}/metal-prices`, { prices });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.metalPrices).toEqual(prices);
-    const audited = h.ctx.db.$client.prepare("select count(*) as n from audit_log where entity = 'metal-prices'").get() as { n: number };
+    const audited = t.h.ctx.db.$client.prepare("select count(*) as n from audit_log where entity = 'metal-prices'").get() as { n: number };
     expect(audited.n).toBe(1);
-    const edit = await h.as.pi.patch(`/api/projects/${ids.project('C')}`, { settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } });
+    const edit = await t.h.as.pi.patch(`/api/projects/${t.ids.project('C')}`, { settings: { refCurrentDensity: 0.2, refVoltage: 0.6, irFree: true, loadingBasis: 'catalyst' } });
     expect(edit.status).toBe(200);
     expect(edit.body.project.settings.metalPrices).toEqual(prices);
   });
 
   it('refuses a researcher, two currencies and a metal priced twice, naming the field', async () => {
     const one = { metal: 'Pt', pricePerGram: 31.2, currency: 'EUR', date: '2026-11-20', source: 'invented quote' };
-    expect((await h.as.researcher.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices: [one] })).status).toBe(403);
-    const twice = await h.as.pi.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices: [one, { ...one }] });
+    expect((await t.h.as.researcher.put(`/api/projects/${t.ids.project('C')}/metal-prices`, { prices: [one] })).status).toBe(403);
+    const twice = await t.h.as.pi.put(`/api/projects/${t.ids.project('C')}/metal-prices`, { prices: [one, { ...one }] });
     expect(twice.status).toBe(400);
     expect(twice.body.error.message).toMatch(/prices\.1\.metal/);
-    const currencies = await h.as.pi.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices: [one, { ...one, metal: 'Ru', currency: 'USD' }] });
+    const currencies = await t.h.as.pi.put(`/api/projects/${t.ids.project('C')}/metal-prices`, { prices: [one, { ...one, metal: 'Ru', currency: 'USD' }] });
     expect(currencies.status).toBe(400);
-    const badDate = await h.as.pi.put(`/api/projects/${ids.project('C')}/metal-prices`, { prices: [{ ...one, date: '20 Nov' }] });
+    const badDate = await t.h.as.pi.put(`/api/projects/${t.ids.project('C')}/metal-prices`, { prices: [{ ...one, date: '20 Nov' }] });
     expect(badDate.status).toBe(400);
     expect(JSON.stringify(badDate.body)).toMatch(/date/);
   });
@@ -136,9 +129,9 @@ describe('PUT /api/projects/:id/metal-prices', () => {
 
 describe('project rules for long logs', () => {
   it('a PI sets the onset and settling rules in the settings; the logs are measured again by them', async () => {
-    const project = (await h.as.pi.get(`/api/projects/${ids.project('A')}`)).body.project ?? (await h.as.pi.get(`/api/projects/${ids.project('A')}`)).body;
+    const project = (await t.h.as.pi.get(`/api/projects/${t.ids.project('A')}`)).body.project ?? (await t.h.as.pi.get(`/api/projects/${t.ids.project('A')}`)).body;
     const settings = { ...project.settings, onsetRule: { minRateRatio: 40 }, holdRule: { settleMinutes: 30 } };
-    const res = await h.as.pi.patch(`/api/projects/${ids.project('A')}`, { settings });
+    const res = await t.h.as.pi.patch(`/api/projects/${t.ids.project('A')}`, { settings });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.project.recomputedCurves).toBeGreaterThan(0);
     const ast = (await curvesOf('A-018')).find((c) => c.kind === 'durability')!;

@@ -33,4 +33,17 @@ describe('buildEconomy', () => {
     expect(twoPrices.costPerKw).toBeNull();
     expect(twoPrices.costNote).toMatch(/per metal/);
   });
+
+  it('takes the metal loading from the catalyst lot when none was measured; a measured one wins', () => {
+    // mass balance (derived by hand): 1.0 mg/cm² of a 40 wt % catalyst holds 0.4 mg/cm² of metal;
+    // P = 0.6 V × 0.5 A/cm² = 0.3 W/cm², so 0.4 ÷ 0.3 = 1.333… g/kW
+    const fromLot = buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: null, lotMetalWtPct: 40, values: { jAtRef: 0.5 } }, { refVoltage: 0.6, metalPrices: [PRICE] });
+    expect(fromLot.metalLoadingMgCm2).toBeCloseTo(0.4, 12);
+    expect(fromLot.loadingSource).toBe('lot');
+    expect(fromLot.gPerKw).toBeCloseTo(4 / 3, 12);
+    expect(fromLot.method.loading).toMatch(/40 wt %/);
+    const measured = buildEconomy({ loadingMgCm2: 1, metalLoadingMgCm2: 0.3, lotMetalWtPct: 40, values: { jAtRef: 0.5 } }, { refVoltage: 0.6, metalPrices: [PRICE] });
+    expect(measured.metalLoadingMgCm2).toBe(0.3);
+    expect(measured.loadingSource).toBe('measured');
+  });
 });
