@@ -14,7 +14,7 @@ interface Figure {
   measured: string;
   baseline: string;
   ratio: number | null;
-  /** what the issue aims for, and whether this run met it */
+  /** the figure's aim, and whether this run met it */
   aim: string;
   met: boolean | null;
   details: Record<string, unknown>;
