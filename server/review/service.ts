@@ -152,7 +152,7 @@ function summarize(entity: string, action: string, after: unknown): string {
  * last-changed first as before, each with how long it has waited (whole days since it was tested),
  * its V at j_ref and the change from its parent's (both of record, V).
  */
-export function awaitingReview(ctx: AppContext, user: AuthUser, limit = 20, now = new Date()) {
+export function awaitingReview(ctx: AppContext, user: AuthUser, limit = 200, now = new Date()) {
   const piProjects = ctx.db.select({ projectId: memberships.projectId }).from(memberships).where(and(eq(memberships.userId, user.id), eq(memberships.role, 'pi'))).all().map((m) => m.projectId);
   if (piProjects.length === 0) return [];
   const rows = ctx.db

@@ -40,12 +40,12 @@ export function ReviewQueue({ items }: { items: QueueItem[] }) {
             <h3 className="mb-1 text-xs font-semibold text-ink-700">{projectName} · {mine.length} {mine.length === 1 ? 'build' : 'builds'}</h3>
             <ul className="divide-y divide-line">
               {mine.map((b) => (
-                <li key={b.buildId} className="grid grid-cols-[5rem_1fr_auto_auto_auto] items-center gap-3 py-1.5 text-sm">
+                <li key={b.buildId} className="grid grid-cols-[4.5rem_minmax(0,1fr)_5.5rem_10.5rem_5rem] items-center gap-3 py-1.5 text-sm">
                   <Link className="font-medium text-copper-700 hover:underline" to={`/projects/${b.projectId}/builds/${b.buildId}`}>{b.code}</Link>
                   <span className="truncate text-ink-500" title={b.changeNote ?? undefined}>{b.changeNote ?? '—'}</span>
-                  <span className="num text-ink-900" title="V at j_ref of the curve of record">{formatMetric('vAtRef', b.vAtRef)}</span>
-                  <span className="num text-xs text-ink-700">{change(b)}</span>
-                  <span className="text-xs text-ink-500">{waited(b.waitingDays)}</span>
+                  <span className="num text-right text-ink-900" title="V at j_ref of the curve of record">{formatMetric('vAtRef', b.vAtRef)}</span>
+                  <span className="num text-right text-xs text-ink-700">{change(b)}</span>
+                  <span className="text-right text-xs text-ink-500">{waited(b.waitingDays)}</span>
                 </li>
               ))}
             </ul>
