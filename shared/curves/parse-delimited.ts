@@ -697,6 +697,10 @@ function decideColumnKinds(rows: readonly string[][], header: readonly string[],
  * columns (ISO 8601, `YYYY-MM-DD HH:MM:SS`) are kept as epoch seconds, `H:MM:SS` columns as
  * seconds, other text columns are ignored and listed. Blank lines, `#` comment lines and a
  * repeated header inside the data are skipped.
+ * Steps, each a named function below: `feed` splits chunks into lines → `acceptLine` buffers the
+ * first lines until `endDetection` (chooseLayout → readHeader → conditions → chooseColumnKinds →
+ * prepareStoredColumns) → `acceptDataLine` reads each row (`acceptPlainRow` for plain numeric rows,
+ * else `readDataRow` + `commitRow`, or `addToTail` for lines after the table) → `assembleTable`.
  * Reference: RFC 4180 (CSV); ISO 8601-1:2019 (date-times).
  * Cost: O(total characters) time; memory 8 bytes per number cell plus 4 per row.
  * @throws CurveFileError with code `empty`, `no-header`, `header-only`, `no-numbers`,
@@ -921,9 +925,11 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     throw problem;
   }
 
-  function endDetection(): void {
-    detecting = false;
-    const nonEmpty = buffered.filter((entry) => !isBlankText(entry.text) && !isCommentLine(entry.text, null));
+  // ---- the end of detection, in its steps: layout → header (and unit row) → conditions above the
+  // header → column kinds from a sample → stored columns → the buffered lines read as data
+
+  /** The delimiter, decimal mark and header (and unit) rows of the buffered lines. */
+  function chooseLayout(nonEmpty: BufferedLine[]) {
     const nonEmptyWithComments = buffered.filter((entry) => !isBlankText(entry.text));
     if (nonEmptyWithComments.length === 0) throw new CurveFileError('empty', 'the file is empty (no text, or only blank lines)');
     const layout = nonEmpty.length === 0 ? null : findLayout(nonEmpty);
@@ -931,6 +937,11 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     delimiter = layout.delimiter;
     decimalComma = layout.decimalComma;
     decimalMarkAmbiguous = layout.decimalMarkAmbiguous;
+    return layout;
+  }
+
+  /** Column names from the header row, with the unit row's units appended in parentheses. */
+  function readHeader(layout: NonNullable<ReturnType<typeof findLayout>>, nonEmpty: BufferedLine[]): void {
     const headerEntry = nonEmpty[layout.headerIndex];
     headerLine = headerEntry.line;
     headerText = headerEntry.text;
@@ -948,20 +959,25 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
         return unit.length > 0 && unit !== '-' ? `${name} (${unit})` : name;
       });
     }
-    const metadata = buffered.filter((entry) => entry.line < headerLine).map((entry) => entry.text);
-    conditions = readConditions(metadata, delimiter === 'whitespace' ? '' : delimiter);
-    const firstDataLine = unitLine ?? headerLine;
+  }
+
+  /** What each column holds, from up to KIND_SAMPLE_ROWS data rows (the sample ends where the table does). */
+  function chooseColumnKinds(nonEmpty: BufferedLine[], firstDataLine: number): void {
     const sample: string[][] = [];
     for (const entry of nonEmpty) {
       if (entry.line <= firstDataLine || isCommentLine(entry.text, delimiter)) continue;
       if (sample.length >= KIND_SAMPLE_ROWS) break;
       const cells = splitLine(entry.text, delimiter);
-      // the sample ends where the table does: summary lines below it say nothing of its columns
+      // summary lines below the table say nothing of its columns
       const first = cells.find((cell) => !isBlankText(cell)) ?? '';
       if (sample.length > 0 && !isDataRow(readRow(cells, decimalComma && delimiter !== ',')) && (isWordCell(first) || isRuleLine(entry.text))) break;
       sample.push(cells);
     }
     kinds = decideColumnKinds(sample, header, decimalComma, delimiter);
+  }
+
+  /** The columns kept as numbers, their buffers, and whether plain rows can take the fast path. */
+  function prepareStoredColumns(): void {
     storedColumns = [];
     storedKinds = [];
     for (let column = 0; column < kinds.length; column++) {
@@ -979,6 +995,18 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     plainMark = decimalComma ? 44 : 46;
     // a decimal comma with comma-separated cells cannot be read without the general rules
     if (plainDelimiter === plainMark) plainDelimiter = -1;
+  }
+
+  function endDetection(): void {
+    detecting = false;
+    const nonEmpty = buffered.filter((entry) => !isBlankText(entry.text) && !isCommentLine(entry.text, null));
+    const layout = chooseLayout(nonEmpty);
+    readHeader(layout, nonEmpty);
+    const metadata = buffered.filter((entry) => entry.line < headerLine).map((entry) => entry.text);
+    conditions = readConditions(metadata, delimiter === 'whitespace' ? '' : delimiter);
+    const firstDataLine = unitLine ?? headerLine;
+    chooseColumnKinds(nonEmpty, firstDataLine);
+    prepareStoredColumns();
     for (const entry of buffered) {
       if (entry.line > firstDataLine) acceptDataLine(entry.text, entry.line);
     }
@@ -1044,6 +1072,47 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     }
   }
 
+  /** The finished table: stored columns in header order, what was left out and why, the lines after the table. */
+  function assembleTable(): ParsedTable {
+    const columns: (Float64Array | null)[] = header.map(() => null);
+    const missingCells: NonNullable<ParsedTable['missingCells']> = header.map(() => null);
+    const groupedCells: number[] = header.map(() => 0);
+    for (let index = 0; index < storedColumns.length; index++) {
+      columns[storedColumns[index]] = growable[index].toArray();
+      missingCells[storedColumns[index]] = missing[index];
+      groupedCells[storedColumns[index]] = grouped[index];
+    }
+    const ignoredColumns: number[] = [];
+    for (let column = 0; column < kinds.length; column++) if (columns[column] === null) ignoredColumns.push(column);
+    const lines = dataLines.toArray();
+    const finalTail = tail as Tail | null;
+    if (finalTail !== null) {
+      afterTable = { firstLine: finalTail.firstLine, lastLine: finalTail.lastLine, lineCount: finalTail.lineCount, samples: finalTail.samples };
+      for (const text of finalTail.texts) afterTableTexts.push(text);
+      mergeConditions(conditions, readConditions(afterTableTexts, delimiter === 'whitespace' ? '' : delimiter));
+    }
+    return {
+      delimiter,
+      decimalComma,
+      headerLine,
+      unitLine,
+      header,
+      conditions,
+      columns,
+      columnKinds: kinds,
+      ignoredColumns,
+      rowCount,
+      firstDataLine: lines[0],
+      dataLines: lines,
+      preview,
+      missingCells,
+      afterTable,
+      skippedLines: skipped.count > 0 ? skipped : null,
+      groupedCells,
+      decimalMarkAmbiguous,
+    };
+  }
+
   function guarded<T>(action: () => T): T {
     if (failure !== null) throw failure;
     if (finished) throw new RangeError('createDelimitedParser: the parser has already finished');
@@ -1071,43 +1140,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
         if (rowCount === 0) {
           throw new CurveFileError('header-only', `line ${headerLine}: a header but no data rows under it`, { line: headerLine });
         }
-        const columns: (Float64Array | null)[] = header.map(() => null);
-        const missingCells: NonNullable<ParsedTable['missingCells']> = header.map(() => null);
-        const groupedCells: number[] = header.map(() => 0);
-        for (let index = 0; index < storedColumns.length; index++) {
-          columns[storedColumns[index]] = growable[index].toArray();
-          missingCells[storedColumns[index]] = missing[index];
-          groupedCells[storedColumns[index]] = grouped[index];
-        }
-        const ignoredColumns: number[] = [];
-        for (let column = 0; column < kinds.length; column++) if (columns[column] === null) ignoredColumns.push(column);
-        const lines = dataLines.toArray();
-        const finalTail = tail as Tail | null;
-        if (finalTail !== null) {
-          afterTable = { firstLine: finalTail.firstLine, lastLine: finalTail.lastLine, lineCount: finalTail.lineCount, samples: finalTail.samples };
-          for (const text of finalTail.texts) afterTableTexts.push(text);
-          mergeConditions(conditions, readConditions(afterTableTexts, delimiter === 'whitespace' ? '' : delimiter));
-        }
-        return {
-          delimiter,
-          decimalComma,
-          headerLine,
-          unitLine,
-          header,
-          conditions,
-          columns,
-          columnKinds: kinds,
-          ignoredColumns,
-          rowCount,
-          firstDataLine: lines[0],
-          dataLines: lines,
-          preview,
-          missingCells,
-          afterTable,
-          skippedLines: skipped.count > 0 ? skipped : null,
-          groupedCells,
-          decimalMarkAmbiguous,
-        };
+        return assembleTable();
       });
     },
   };
