@@ -178,3 +178,19 @@ describe('notices to PIs', () => {
     await h.as.pi.post(`/api/builds/${build}/verdict`, { verdict: 'needs-work', body: 'On second thought: repeat it.' }).expect(201); // a change of mind is not a double click
   });
 });
+
+describe('a partner’s home', () => {
+  it('lists the planned builds of its own lab with what each still needs, and its own uploads with their review status', async () => {
+    const made = await h.as.partner.post(`/api/projects/${ids.project('C')}/builds`, { status: 'planned', factors: {}, changeNote: 'repeat at 200 °C for the round robin' }).expect(201);
+    const home = (await h.as.partner.get('/api/home').expect(200)).body;
+    const waiting = home.waitingForData.find((b: { buildId: number }) => b.buildId === made.body.build.id);
+    expect(waiting).toMatchObject({ code: made.body.build.code, status: 'planned', changeNote: 'repeat at 200 °C for the round robin' });
+    expect(waiting.needs[0]).toBe('a polarization curve');
+    for (const u of home.recentUploads) {
+      expect(u.uploadedBy).toBe('Jun Adebayo-Lind'); // demo data: the partner's own uploads only
+      expect(['planned', 'built', 'tested', 'reviewed', 'discarded']).toContain(u.buildStatus);
+    }
+    // the home lab's people see no such list
+    expect((await h.as.researcher.get('/api/home').expect(200)).body.waitingForData).toEqual([]);
+  });
+});

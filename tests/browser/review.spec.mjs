@@ -58,6 +58,19 @@ export default async function ({ url, browser, signIn }) {
   // A partner uploads a curve to its own lab's build.
   await signIn(page, 'partner');
   await page.getByRole('heading', { name: /Good to see you/ }).waitFor();
+  // A build planned for the partner's lab shows on its home with what it still needs.
+  await page.evaluate(async () => {
+    const me = await (await fetch('/api/auth/me')).json();
+    const projects = (await (await fetch('/api/projects')).json()).projects;
+    const cathode = projects.find((p) => p.name.startsWith('PGM-free cathode'));
+    const res = await fetch(`/api/projects/${cathode.id}/builds`, { method: 'POST', headers: { 'content-type': 'application/json', 'x-csrf-token': me.csrfToken }, body: JSON.stringify({ status: 'planned', factors: {}, changeNote: 'round-robin repeat' }) });
+    if (res.status !== 201) throw new Error(`planning a build failed: ${res.status}`);
+  });
+  await page.reload();
+  const waitingData = page.locator('section', { hasText: 'Builds of your lab waiting for data' });
+  await waitingData.getByText('round-robin repeat').waitFor();
+  await waitingData.getByText(/needs a polarization curve/).waitFor();
+  await checkPage(page, 'partner home with a build waiting for data');
   await page.getByRole('link', { name: /PGM-free cathode for 180 °C stacks/ }).first().click();
   await page.waitForURL(/\/projects\/\d+$/);
   await page.getByRole('table', { name: 'Builds' }).getByRole('link', { name: 'C-015' }).click();

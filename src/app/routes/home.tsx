@@ -5,7 +5,7 @@ import { useHome } from '@/features/projects/api/projects';
 import { useMe } from '@/features/auth/api/get-me';
 import { ReviewQueue } from '@/features/review/components/review-queue';
 import { PageHeader, Panel, EmptyState, Loading, ErrorNote } from '@/components/ui/panel';
-import { formatDateTime, formatMetric, formatNumber } from '@/lib/format';
+import { formatDate, formatDateTime, formatMetric, formatNumber } from '@/lib/format';
 
 /** A short list of builds that wait for someone, linking to each. */
 function BuildList({ title, items }: { title: string; items: { buildId: number; code: string; projectId: number; projectName: string; text: string | null }[] }) {
@@ -36,6 +36,19 @@ export default function Home() {
     <div className="max-w-6xl">
       <PageHeader eyebrow="Home" title={`Good to see you, ${firstName}`} subtitle="Your projects, the best build in each at its reference point, and what is waiting for you." />
       <ReviewQueue items={data.awaitingReview ?? []} />
+      {(data.waitingForData ?? []).length > 0 && (
+        <Panel title={`Builds of your lab waiting for data (${data.waitingForData!.length})`} className="mb-5">
+          <ul className="divide-y divide-line">
+            {data.waitingForData!.map((b) => (
+              <li key={b.buildId} className="grid grid-cols-[4.5rem_minmax(0,1fr)_auto] items-center gap-3 py-1.5 text-sm">
+                <Link className="font-medium text-copper-700 hover:underline" to={`/projects/${b.projectId}/builds/${b.buildId}`}>{b.code}</Link>
+                <span className="truncate text-ink-700">{b.changeNote ?? b.projectName} <span className="text-xs text-ink-500">· {b.status}{b.plannedOn ? ` since ${formatDate(b.plannedOn)}` : ''}</span></span>
+                <span className="text-xs text-ink-700">{b.needs.length ? `needs ${b.needs.join(', ')}` : 'has its data'}</span>
+              </li>
+            ))}
+          </ul>
+        </Panel>
+      )}
       <BuildList title="Needs work (my builds)" items={(data.needsWork ?? []).map((b) => ({ ...b, text: b.comment }))} />
       <div className="grid gap-4 md:grid-cols-2">
         {data.projects.length === 0 && (
@@ -76,13 +89,14 @@ export default function Home() {
         ) : (
           <table className="w-full text-sm">
             <thead className="text-left text-xs text-ink-500">
-              <tr><th className="py-1 font-medium">File</th><th className="font-medium">Build</th><th className="font-medium">By</th><th className="font-medium">When</th></tr>
+              <tr><th className="py-1 font-medium">File</th><th className="font-medium">Build</th><th className="font-medium">Review status</th><th className="font-medium">By</th><th className="font-medium">When</th></tr>
             </thead>
             <tbody className="divide-y divide-line">
               {data.recentUploads.map((u) => (
                 <tr key={u.fileId}>
                   <td className="py-1.5 text-ink-900">{u.name}</td>
                   <td>{u.buildId ? <Link className="text-copper-700 hover:underline" to={`/projects/${u.projectId}/builds/${u.buildId}`}>{u.buildCode}</Link> : '—'}</td>
+                  <td className="text-ink-700">{u.buildStatus ?? '—'}</td>
                   <td className="text-ink-700">{u.uploadedBy}</td>
                   <td className="num text-ink-500">{formatDateTime(u.uploadedAt)}</td>
                 </tr>
