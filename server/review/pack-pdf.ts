@@ -5,6 +5,7 @@
 import PDFDocument from 'pdfkit';
 import { CURVE_METRICS, type CurveMetricKey } from '../../shared/curves/metric-catalogue';
 import type { ReviewPack } from '../../shared/api-types';
+import { roundSignificant } from '../../shared/units/significant';
 
 const INK = '#1f2a44';
 const MUTED = '#5b6478';
@@ -108,7 +109,7 @@ function waterfall(doc: PDFKit.PDFDocument, pack: ReviewPack) {
 
 /** A target's status in words: met by which build and when, or the best so far and the gap. */
 export function targetStatusText(t: ReviewPack['targets'][number]): string {
-  const digits = (value: number) => String(Number(value.toPrecision(4)));
+  const digits = (value: number) => String(roundSignificant(value, 4));
   if (t.status.state === 'met' && t.status.metBy) return `met by ${t.status.metBy.code} on ${t.status.metBy.date}`;
   if (t.status.state === 'not-yet' && t.status.best) return `not yet - best ${digits(t.status.best.value)} ${t.unit} (${t.status.best.code}), gap ${digits(Math.abs(t.status.gap ?? 0))} ${t.unit}`;
   return 'no comparable build yet';

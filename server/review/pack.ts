@@ -1,7 +1,7 @@
 // The review pack of a project: the waterfall of its best path, its best builds with their
 // metrics, the durability summary and the builds still waiting for a verdict, for an optional
 // date range — one answer for the page and the PDF alike.
-import { and, desc, eq, inArray } from 'drizzle-orm';
+import { desc, eq, inArray } from 'drizzle-orm';
 import type { AppContext } from '../context';
 import type { ProjectAccess } from '../auth/access';
 import { projects, reviews, users } from '../db/schema';
@@ -10,12 +10,12 @@ import { gainsFor } from '../gains/service';
 import { durabilityComparison } from '../curves/durability';
 import { listTargets } from '../targets/service';
 import { AppError } from '../lib/errors';
+import { daysWaiting } from './service';
 import { CURVE_METRICS } from '../../shared/curves/metric-catalogue';
 import type { Build, ReviewPack } from '../../shared/api-types';
 import type { ReviewPackQuery } from '../../shared/schemas/review-pack';
 
 const TOP_BUILDS = 5;
-const DAY_MS = 86_400_000;
 
 /** The day a build counts for in a date range: tested, else built, else recorded. */
 function dayOf(build: Build): string {
@@ -59,20 +59,19 @@ export function reviewPack(ctx: AppContext, access: ProjectAccess, query: Review
         .select({ buildId: reviews.buildId, body: reviews.body, at: reviews.createdAt, author: users.name })
         .from(reviews)
         .innerJoin(users, eq(users.id, reviews.userId))
-        .where(and(inArray(reviews.buildId, waiting.map((b) => b.id))))
+        .where(inArray(reviews.buildId, waiting.map((b) => b.id)))
         .orderBy(desc(reviews.id))
         .all()
     : [];
   const lastComment = new Map<number, (typeof comments)[number]>();
   for (const c of comments) if (!lastComment.has(c.buildId)) lastComment.set(c.buildId, c);
   const openThreads = waiting.map((b) => {
-    const since = b.testedOn ? Date.parse(`${b.testedOn}T00:00:00Z`) : NaN;
     const c = lastComment.get(b.id);
     return {
       buildId: b.id,
       code: b.code,
       testedOn: b.testedOn,
-      waitingDays: Number.isFinite(since) ? Math.max(0, Math.floor((now.getTime() - since) / DAY_MS)) : null,
+      waitingDays: daysWaiting(b.testedOn, now),
       lastComment: c ? { author: c.author, body: c.body, at: c.at } : null,
     };
   }).sort((a, b) => (b.waitingDays ?? -1) - (a.waitingDays ?? -1));

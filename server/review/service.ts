@@ -147,6 +147,12 @@ function summarize(entity: string, action: string, after: unknown): string {
   return `${action} ${entity}`;
 }
 
+/** Whole days since a build was tested (YYYY-MM-DD), as of `now`; null without a test date. */
+export function daysWaiting(testedOn: string | null, now: Date): number | null {
+  const since = testedOn ? Date.parse(`${testedOn}T00:00:00Z`) : NaN;
+  return Number.isFinite(since) ? Math.max(0, Math.floor((now.getTime() - since) / 86_400_000)) : null;
+}
+
 /**
  * Home: tested builds waiting for a verdict in the projects where I am PI, the longest-waiting
  * last-changed first as before, each with how long it has waited (whole days since it was tested),
@@ -172,10 +178,9 @@ export function awaitingReview(ctx: AppContext, user: AuthUser, limit = 200, now
   return rows.map(({ parentId, ...row }) => {
     const own = valueOf(row.buildId);
     const parent = valueOf(parentId);
-    const since = row.testedOn ? Date.parse(`${row.testedOn}T00:00:00Z`) : NaN;
     return {
       ...row,
-      waitingDays: Number.isFinite(since) ? Math.max(0, Math.floor((now.getTime() - since) / 86_400_000)) : null,
+      waitingDays: daysWaiting(row.testedOn, now),
       vAtRef: own.value,
       parentCode: parent.code,
       changeFromParent: own.value != null && parent.value != null ? own.value - parent.value : null,
