@@ -16,8 +16,9 @@ import { reviewFeature } from './review/router';
 import { seriesFeature } from './series/router';
 import { targetsFeature } from './targets/router';
 import { lotsFeature } from './lots/router';
+import { benchmarksFeature } from './benchmarks/router';
 
-export const FEATURES: Feature[] = [authFeature, homeFeature, projectsFeature, buildsFeature, curvesFeature, adminFeature, uploadsFeature, doeFeature, gainsFeature, lineageFeature, reviewFeature, seriesFeature, targetsFeature, lotsFeature];
+export const FEATURES: Feature[] = [authFeature, homeFeature, projectsFeature, buildsFeature, curvesFeature, adminFeature, uploadsFeature, doeFeature, gainsFeature, lineageFeature, reviewFeature, seriesFeature, targetsFeature, lotsFeature, benchmarksFeature];
 
 /** Every documented route of every feature. */
 export const ROUTES: RouteDoc[] = FEATURES.flatMap((feature) => feature.routes);

@@ -14,7 +14,7 @@ export { ROUTES, type RouteDoc };
 const errorSchema = z.object({ error: z.object({ code: z.string(), message: z.string(), details: z.unknown() }) });
 const fileField = z.string().describe('the file (CSV, TSV, TXT or XLSX)').openapi({ format: 'binary' });
 
-const SCOPE_WORDS = { project: 'the project', build: 'the build’s project', curve: 'the curve’s project', file: 'the file’s project', 'import-profile': 'the profile’s project', target: 'the target’s project', lot: 'the lot’s project' } as const;
+const SCOPE_WORDS = { project: 'the project', build: 'the build’s project', curve: 'the curve’s project', file: 'the file’s project', 'import-profile': 'the profile’s project', target: 'the target’s project', lot: 'the lot’s project', 'reference-curve': 'the reference curve’s project' } as const;
 
 /** "Who may: pi, researcher in the build’s project (site admins too)." */
 export function describePermission(permission: Permission): string {

@@ -3,7 +3,7 @@
 // project, build, curve, file or import profile the path names on the way.
 import { eq, sql } from 'drizzle-orm';
 import type { Db } from '../db';
-import { builds, curves, files, importProfiles, lots, memberships, projects, targets } from '../db/schema';
+import { builds, curves, files, importProfiles, lots, memberships, projects, referenceCurves, targets } from '../db/schema';
 import type { AppContext, AuthUser } from '../context';
 import type { ProjectRole } from '../../shared/schemas/project';
 import { mayCreateProject, partnerLabProblem, profileLabProblem, refusalText, roleAllows, type Actor, type ProjectAction } from '../../shared/auth/permissions';
@@ -18,9 +18,10 @@ type FileRow = typeof files.$inferSelect;
 type ProfileRow = typeof importProfiles.$inferSelect;
 type TargetRow = typeof targets.$inferSelect;
 type LotRow = typeof lots.$inferSelect;
+type ReferenceCurveRow = typeof referenceCurves.$inferSelect;
 
 /** What the path's {id} names on a project-scoped route. */
-export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile' | 'target' | 'lot';
+export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile' | 'target' | 'lot' | 'reference-curve';
 
 /**
  * What a route checks before its handler runs:
@@ -55,7 +56,9 @@ export type Guarded<P> = P extends { on: 'project' }
             ? { access: ProjectAccess; target: TargetRow }
             : P extends { on: 'lot' }
               ? { access: ProjectAccess; lot: LotRow }
-              : unknown;
+              : P extends { on: 'reference-curve' }
+                ? { access: ProjectAccess; referenceCurve: ReferenceCurveRow }
+                : unknown;
 
 export function requireUser(user: AuthUser | undefined): AuthUser {
   if (!user) throw unauthorized();
@@ -182,6 +185,11 @@ export function guard(ctx: AppContext, user: AuthUser | undefined, permission: P
       const lot = db.select().from(lots).where(eq(lots.id, id)).get();
       if (!lot) throw notFound(`Lot ${id}`);
       return { access: requireProject(db, who, lot.projectId, action, options), lot };
+    }
+    case 'reference-curve': {
+      const referenceCurve = db.select().from(referenceCurves).where(eq(referenceCurves.id, id)).get();
+      if (!referenceCurve) throw notFound(`Reference curve ${id}`);
+      return { access: requireProject(db, who, referenceCurve.projectId, action, options), referenceCurve };
     }
   }
 }

@@ -1,9 +1,6 @@
 // HTTP for curves: multipart upload (streamed to disk by multer) and preview, points, options,
 // conditions, removal, raw bytes, import profiles, and the project's durability comparison.
-import type { Request, Response, NextFunction } from 'express';
-import multer from 'multer';
-import fs from 'node:fs';
-import path from 'node:path';
+import type { Request } from 'express';
 import { pipeline } from 'node:stream/promises';
 import type { AppContext } from '../context';
 import { conditionChoiceSchema, curvePatchSchema, importProfileCreateSchema, pointsQuery, uploadFieldsSchema } from '../../shared/schemas/curves';
@@ -11,46 +8,11 @@ import type { UploadFields } from '../../shared/schemas/curves';
 import type { ProjectAccess } from '../auth/access';
 import { AppError } from '../lib/errors';
 import { defineFeature, route } from '../lib/route';
-import { checkedFileName, multipartProblem } from '../lib/multipart-errors';
+import { checkedFileName } from '../lib/multipart-errors';
+import { receiveFile, removeReceivedFile } from '../lib/receive-file';
 import { silentProgress, trackUpload } from '../uploads/progress';
 import * as curves from './service';
 import { durabilityAnswer } from './durability';
-
-/** 52428800 → "50 MB", 1500 → "1.5 kB": the limit in the words of the message. */
-function formatBytes(bytes: number): string {
-  if (bytes >= 1048576) return `${Number((bytes / 1048576).toFixed(1))} MB`;
-  if (bytes >= 1024) return `${Number((bytes / 1024).toFixed(1))} kB`;
-  return `${bytes} bytes`;
-}
-
-/** Receives the one file of a multipart upload into the uploads' tmp folder, within the size limit. */
-function receiveFile(ctx: AppContext) {
-  const { env } = ctx;
-  const tmpDir = path.join(env.uploadsDir, 'tmp');
-  fs.mkdirSync(tmpDir, { recursive: true });
-  const upload = multer({ dest: tmpDir, limits: { fileSize: env.UPLOAD_MAX_BYTES, files: 1, fields: 20 } });
-  return (req: Request, res: Response, next: NextFunction) => {
-    upload.single('file')(req, res, (error: unknown) => {
-      if (error instanceof multer.MulterError) {
-        if (error.code === 'LIMIT_FILE_SIZE') {
-          return next(new AppError(413, 'too-large', `The file is larger than the upload limit of ${formatBytes(env.UPLOAD_MAX_BYTES)} (UPLOAD_MAX_BYTES = ${env.UPLOAD_MAX_BYTES} bytes); nothing was stored. Split the log or ask an administrator to raise the limit.`, { limit: 'UPLOAD_MAX_BYTES', maxBytes: env.UPLOAD_MAX_BYTES }));
-        }
-        return next(new AppError(400, 'bad-upload', `Upload refused: ${error.message} (field "${error.field ?? 'file'}"). Send one file in the multipart field "file".`));
-      }
-      if (error) {
-        // a refused body leaves no temporary file behind, however far multer got
-        removeReceivedFile(req);
-        return next(multipartProblem(error) ?? error);
-      }
-      next();
-    });
-  };
-}
-
-/** The received file never outlives its request, whatever the answer was. */
-function removeReceivedFile(req: Request) {
-  if (typeof req.file?.path === 'string') fs.rmSync(req.file.path, { force: true });
-}
 
 async function upload(ctx: AppContext, req: Request, access: ProjectAccess, build: Parameters<typeof curves.ingestUpload>[2], fields: UploadFields, previewOnly: boolean) {
   const file = req.file;

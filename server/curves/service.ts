@@ -63,7 +63,7 @@ export interface DurabilityOptions {
 }
 
 /** Error raised when the columns need a person to confirm them: 422 with a preview. */
-function mappingNeeded(table: ParsedTable, detection: ReturnType<typeof detectMapping>, extra: Record<string, unknown>) {
+export function mappingNeeded(table: ParsedTable, detection: ReturnType<typeof detectMapping>, extra: Record<string, unknown>) {
   const fileName = typeof extra.fileName === 'string' ? `${extra.fileName}: ` : '';
   return new AppError(
     422,
@@ -268,7 +268,7 @@ function mappingToProfile(mapping: ColumnMapping, table: ParsedTable) {
   return out;
 }
 
-function checkMappingColumns(mapping: ColumnMapping, table: ParsedTable) {
+export function checkMappingColumns(mapping: ColumnMapping, table: ParsedTable) {
   for (const [quantity, spec] of Object.entries(mapping)) {
     if (!spec) continue;
     if (!Number.isInteger(spec.column) || spec.column < 0 || spec.column >= table.header.length) {
@@ -490,7 +490,7 @@ export async function ingestUpload(
   }
 }
 
-function asUnprocessable(error: unknown, fileName: string): unknown {
+export function asUnprocessable(error: unknown, fileName: string): unknown {
   if (error instanceof CurveFileError) {
     const where = [error.line != null ? `line ${error.line}` : null, error.column != null ? `column ${typeof error.column === 'number' ? error.column + 1 : `"${error.column}"`}` : null].filter(Boolean).join(', ');
     const prefix = where ? `${fileName}, ${where}: ` : `${fileName}: `;
@@ -505,7 +505,7 @@ function asUnprocessable(error: unknown, fileName: string): unknown {
  * A refusal about the whole curve (too few steps, too short a log) names the lines of the data
  * and the column that falls short: the current for a polarization curve, the time for a log.
  */
-function placeWholeFileError(error: unknown, table: ParsedTable, mapping: ColumnMapping): unknown {
+export function placeWholeFileError(error: unknown, table: ParsedTable, mapping: ColumnMapping): unknown {
   if (!(error instanceof CurveFileError) || error.line != null || !['too-few-steps', 'too-few-points', 'too-short'].includes(error.code)) return error;
   const entry = error.code === 'too-few-steps' ? mapping.current : (mapping.time ?? mapping.voltage ?? mapping.voltageIrFree);
   const column = entry === undefined ? undefined : table.header[entry.column];
@@ -519,7 +519,7 @@ function placeWholeFileError(error: unknown, table: ParsedTable, mapping: Column
 const LOADED_METRICS = metricsOfKind('polarization').filter((key) => key !== 'ocv' && key !== 'hfr');
 
 /** A polarization curve from which not one loaded-curve metric can be read is refused, with what the data span. */
-function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: string, table: ParsedTable, mapping: ColumnMapping) {
+export function refuseEmptyMetrics(result: MetricsResult, data: CurveData, fileName: string, table: ParsedTable, mapping: ColumnMapping) {
   if (LOADED_METRICS.some((key) => result.metrics[key] != null && Number.isFinite(result.metrics[key] as number))) return;
   const span = (values: Float64Array | undefined, digits: number) => {
     let low = Infinity;

@@ -210,6 +210,8 @@ export const files = sqliteTable('files', {
   contentType: text('content_type').notNull(),
   projectId: integer('project_id').references(() => projects.id, { onDelete: 'cascade' }),
   buildId: integer('build_id').references(() => builds.id, { onDelete: 'set null' }),
+  /** a lot's certificate or analysis (metal content, particle size…), when the file belongs to a lot */
+  lotId: integer('lot_id').references(() => lots.id, { onDelete: 'set null' }),
   uploadedBy: integer('uploaded_by').references(() => users.id),
   uploadedAt: createdAt(),
 }, (t) => [index('files_sha_idx').on(t.sha256)]);
@@ -240,6 +242,45 @@ export const curves = sqliteTable('curves', {
   // at most one curve of record per build and kind
   uniqueIndex('curves_record_idx').on(t.buildId, t.kind).where(sql`${t.isRecord} = 1`),
 ]);
+
+/**
+ * A published or otherwise outside polarization curve that belongs to no build, with its
+ * provenance: where it comes from, when, and the conditions it was measured at. Its metrics are
+ * read on demand at the project's current reference point.
+ */
+export const referenceCurves = sqliteTable('reference_curves', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  fileId: integer('file_id').references(() => files.id),
+  label: text('label').notNull(),
+  /** where the curve comes from: a paper, a report, a partner's standard MEA */
+  source: text('source').notNull(),
+  /** the date of the source (YYYY-MM-DD) */
+  sourceDate: text('source_date'),
+  conditions: text('conditions', { mode: 'json' }).$type<TestConditions>().notNull(),
+  loadingMgCm2: real('loading_mg_cm2'),
+  metalLoadingMgCm2: real('metal_loading_mg_cm2'),
+  areaCm2: real('area_cm2'),
+  notes: text('notes').notNull().default(''),
+  mapping: text('mapping', { mode: 'json' }).$type<ColumnMapping>(),
+  pointCount: integer('point_count').notNull(),
+  /** packed Float64 columns: see server/curves/points-codec.ts */
+  points: blob('points', { mode: 'buffer' }).notNull(),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: createdAt(),
+}, (t) => [index('reference_curves_project_idx').on(t.projectId)]);
+
+/** The project's benchmark: one of its builds, or one of its reference curves. */
+export const benchmarks = sqliteTable('benchmarks', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  projectId: integer('project_id').notNull().unique().references(() => projects.id, { onDelete: 'cascade' }),
+  buildId: integer('build_id').references(() => builds.id, { onDelete: 'cascade' }),
+  referenceCurveId: integer('reference_curve_id').references(() => referenceCurves.id, { onDelete: 'cascade' }),
+  /** why this is the benchmark ("the group's standard MEA") */
+  note: text('note').notNull().default(''),
+  setBy: integer('set_by').references(() => users.id),
+  setAt: text('set_at').notNull().default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+});
 
 export const importProfiles = sqliteTable('import_profiles', {
   id: integer('id').primaryKey({ autoIncrement: true }),

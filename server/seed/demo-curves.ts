@@ -7,7 +7,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import os from 'node:os';
 import type { AppContext, AuthUser } from '../context';
-import type { DemoBuild } from './demo-data';
+import type { DemoBuild, DemoReference } from './demo-data';
 import type { ProjectSettings } from '../../shared/schemas/project';
 import { generatePolarizationCurve, mulberry32, tafelSlopeTheory, writeCurveCsv, type SemiEmpiricalParams, type CurveCsvShape } from '../../shared/curves';
 import { generateSyntheticLog, writeDurabilityCsv } from '../../shared/durability';
@@ -15,6 +15,7 @@ import { demoAcceleratedTest, demoImpedanceSpectrum, demoOcvHold, demoPressureSe
 import { builds, users } from '../db/schema';
 import { eq } from 'drizzle-orm';
 import { ingestUpload, type UploadOptions } from '../curves/service';
+import { importReferenceCurve } from '../benchmarks/service';
 import { AppError } from '../lib/errors';
 
 export interface DemoCurveJob {
@@ -163,4 +164,27 @@ function seriesMember(series: { kind: 'temperature' | 'pressure'; index: number 
   }
   pressureSeries ??= demoPressureSeries({ order: DEMO_REACTION_ORDER, pressuresKPa: [0, 50, 100, 150].map((gauge) => gauge + 101.325), temperatureC: 200, seed: 43 });
   return pressureSeries[series.index]!;
+}
+
+/** The project's invented reference curve, imported through the reference-curve route's own path. */
+export async function addDemoReference(ctx: AppContext, projectId: number, userId: number, ref: DemoReference): Promise<void> {
+  const row = ctx.db.select().from(users).where(eq(users.id, userId)).get()!;
+  const user: AuthUser = { id: row.id, email: row.email, name: row.name, isAdmin: row.isAdmin, labId: row.labId, labKind: null };
+  const cellTemp = ref.conditions.temperatureC ?? 160;
+  const params: SemiEmpiricalParams = { e0: 1.0 - 0.0003 * (cellTemp - 160), tafelSlope: tafelSlopeTheory(cellTemp + 273.15, 0.9), exchangeCurrentDensity: ref.exchangeCurrentDensity, resistance: ref.resistance, massTransportCoefficient: 0.045, limitingCurrentDensity: 1.2 };
+  // a digitised published curve: one reading per step, no sweeps back
+  const curve = generatePolarizationCurve(params, { jPoints: J_STEPS.filter((j) => j < 1.1), readingsPerStep: 1, noiseV: 0.001, seed: hashSeed(ref.label), sweeps: 'up' });
+  const text = writeCurveCsv(curve, 'comma-plain', { areaCm2: ref.areaCm2, title: ref.label });
+  const fileName = 'round-robin-rr7-fig4.csv';
+  const tmp = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'cw-seed-')), fileName);
+  fs.writeFileSync(tmp, text);
+  try {
+    await importReferenceCurve(ctx, { projectId, role: 'admin', user }, { tmpPath: tmp, originalName: fileName, size: Buffer.byteLength(text) }, {
+      label: ref.label, source: ref.source, sourceDate: ref.sourceDate, loadingMgCm2: ref.loadingMgCm2, metalLoadingMgCm2: ref.metalLoadingMgCm2, areaCm2: ref.areaCm2,
+      temperatureC: ref.conditions.temperatureC ?? undefined, backPressureKPa: ref.conditions.backPressureKPa ?? undefined, anodeGas: ref.conditions.anodeGas ?? undefined, cathodeGas: ref.conditions.cathodeGas ?? undefined,
+      notes: 'Invented for the demo: a curve as a partner consortium might publish it.',
+    });
+  } finally {
+    fs.rmSync(path.dirname(tmp), { recursive: true, force: true });
+  }
 }

@@ -75,6 +75,23 @@ export interface DemoProject {
   lots: { name: string; maker: string; batchSizeG: number; madeOn: string; metalWtPct: number; notes: string }[];
   /** the programme's targets (one met by the demo builds, one not yet) */
   targets: { metric: string; comparator: '>=' | '<='; value: number; unit: string; basis?: 'catalyst' | 'metal'; conditions: string; dueDate: string; name: string }[];
+  /** the build every polarization plot of the project shows as its benchmark */
+  benchmark: { build: string; note: string };
+  /** an invented outside curve the project keeps for comparison (no build), with its provenance */
+  reference?: DemoReference;
+}
+
+export interface DemoReference {
+  label: string;
+  source: string;
+  sourceDate: string;
+  conditions: TestConditions;
+  loadingMgCm2: number;
+  metalLoadingMgCm2: number;
+  areaCm2: number;
+  /** the invented model behind the curve: exchange current density (A/cm²) and resistance (Ω·cm²) */
+  exchangeCurrentDensity: number;
+  resistance: number;
 }
 
 const cathodeConditions: TestConditions = { temperatureC: 180, anodeGas: 'H2', cathodeGas: 'air', backPressureKPa: 0, anodeStoich: 1.5, cathodeStoich: 2.0 };
@@ -186,6 +203,18 @@ export const PROJECTS: DemoProject[] = [
       { metric: 'degradationRate', comparator: '<=', value: 8, unit: 'µV/h', conditions: '0.2 A/cm², 180 °C, H2/air, ambient pressure', dueDate: '2026-12-15', name: 'Durability gate' },
       { metric: 'vAtRef', comparator: '>=', value: 650, unit: 'mV', conditions: '0.2 A/cm², 180 °C, H2/air, iR-free', dueDate: '2027-03-31', name: 'Stack-ready voltage' },
     ],
+    benchmark: { build: 'C-001', note: 'the group’s standard cathode MEA (baseline recipe, lot FNC-24-07)' },
+    reference: {
+      label: 'Round-robin cathode MEA (invented)',
+      source: 'Invented inter-lab round-robin report RR-7, figure 4 (digitised)',
+      sourceDate: '2025-06-30',
+      conditions: { temperatureC: 160, anodeGas: 'H2', cathodeGas: 'air', backPressureKPa: 0 },
+      loadingMgCm2: 3.0,
+      metalLoadingMgCm2: 0.06,
+      areaCm2: 25,
+      exchangeCurrentDensity: 2.4e-5,
+      resistance: 0.13,
+    },
   },
   {
     name: 'Methanol-tolerant anode at 200–240 °C',
@@ -209,5 +238,6 @@ export const PROJECTS: DemoProject[] = [
       { metric: 'costPerCm2', comparator: '<=', value: 0.8, unit: '€/cm²', conditions: 'the programme’s reference metal prices', dueDate: '2026-12-31', name: 'Cost ceiling' },
       { metric: 'vAtRef', comparator: '>=', value: 750, unit: 'mV', conditions: '0.2 A/cm², 220 °C, methanol/water vapour vs air, iR-free', dueDate: '2027-06-30', name: 'Methanol-fed voltage' },
     ],
+    benchmark: { build: 'A-001', note: 'the baseline PtRu/C anode every change is judged against' },
   },
 ];

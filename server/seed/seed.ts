@@ -1,10 +1,10 @@
 // Seeds the invented demo lab into an empty database (idempotent: does nothing when people exist).
 import { sql } from 'drizzle-orm';
 import type { AppContext } from '../context';
-import { builds, factors, labs, lots, memberships, projects, responseDefs, targets, users } from '../db/schema';
+import { benchmarks, builds, factors, labs, lots, memberships, projects, responseDefs, targets, users } from '../db/schema';
 import { hashPassword } from '../auth/passwords';
 import { DEMO_PASSWORD, LABS, PEOPLE, PROJECTS } from './demo-data';
-import { addDemoCurves } from './demo-curves';
+import { addDemoCurves, addDemoReference } from './demo-curves';
 
 export async function seedIfEmpty(ctx: AppContext): Promise<boolean> {
   if (ctx.env.SEED_DEMO === 'never') return false;
@@ -20,6 +20,7 @@ export async function seedDemo(ctx: AppContext): Promise<void> {
   const labIds = new Map<string, number>();
   const userIds = new Map<string, number>();
   const jobs: Parameters<typeof addDemoCurves>[1][] = [];
+  const references: { projectId: number; reference: NonNullable<(typeof PROJECTS)[number]['reference']> }[] = [];
   db.transaction((tx) => {
     for (const lab of LABS) labIds.set(lab.key, tx.insert(labs).values({ name: lab.name, kind: lab.kind, city: lab.city }).returning().get().id);
     for (const person of PEOPLE) {
@@ -68,8 +69,11 @@ export async function seedDemo(ctx: AppContext): Promise<void> {
         codeToId.set(b.code, row.id);
         if (b.status !== 'planned') jobs.push({ projectId: project.id, buildId: row.id, build: b, settings: demo.settings, uploadedBy: userIds.get(b.operator)! });
       }
+      tx.insert(benchmarks).values({ projectId: project.id, buildId: codeToId.get(demo.benchmark.build)!, note: demo.benchmark.note, setBy: userIds.get('pi')! }).run();
+      if (demo.reference) references.push({ projectId: project.id, reference: demo.reference });
     }
   });
   for (const job of jobs) await addDemoCurves(ctx, job);
+  for (const r of references) await addDemoReference(ctx, r.projectId, userIds.get('pi')!, r.reference);
   ctx.logger.info(`Seeded the demo lab: ${PEOPLE.length} people, ${PROJECTS.length} projects, ${PROJECTS.reduce((n, p) => n + p.builds.length, 0)} builds`);
 }

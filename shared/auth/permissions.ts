@@ -35,6 +35,8 @@ export const PROJECT_ACTIONS = {
   review: { roles: ['pi'], says: 'give review verdicts' },
   /** set, change or remove the programme's targets */
   editTargets: { roles: ['pi'], says: 'set targets' },
+  /** choose the project's benchmark and import or remove its reference curves */
+  setBenchmark: { roles: ['pi'], says: 'set the benchmark' },
   /** record catalyst lots and change their records (researchers receive and make batches) */
   editLots: { roles: ['pi', 'researcher'], says: 'record catalyst lots' },
   comment: { roles: ['pi', 'researcher', 'partner'], says: 'comment' },

@@ -54,6 +54,12 @@ async function makeCurve(h: Harness, content = CSV) {
 }
 
 const C = () => ids.project('C');
+
+async function makeReference(h: Harness) {
+  const res = await h.as.admin.upload(`/api/projects/${C()}/reference-curves`, { name: 'reference.csv', content: CSV }, { label: unique('Reference '), source: 'Invented reference report, table 2' });
+  if (res.status !== 201) throw new Error(`reference upload failed: ${JSON.stringify(res.body)}`);
+  return res.body.referenceCurve.id as number;
+}
 const lotId = (h: Harness, name: string) => (h.ctx.db.$client.prepare('select id from lots where name = ?').get(name) as { id: number }).id;
 /** a complete polarization profile (current and voltage) */
 const PROFILE = { voltage: { header: 'U (V)', unit: 'V' }, current: { header: 'j (A/cm2)', unit: 'A/cm2' } };
@@ -108,6 +114,13 @@ export const MATRIX: MatrixRow[] = [
     const t = await h.as.admin.post(`/api/projects/${C()}/targets`, { metric: 'hfr', comparator: '<=', value: 0.12, unit: 'Ω·cm²' });
     return c.delete(`/api/targets/${t.body.target.id}`);
   } },
+  { method: 'get', path: '/api/projects/{id}/benchmark', send: (_h, c) => c.get(`/api/projects/${C()}/benchmark`) },
+  { method: 'put', path: '/api/projects/{id}/benchmark', send: (_h, c) => c.put(`/api/projects/${C()}/benchmark`, { buildId: ids.build('C-001'), note: 'matrix' }) },
+  { method: 'delete', path: '/api/projects/{id}/benchmark', send: (_h, c) => c.delete(`/api/projects/${C()}/benchmark`) },
+  { method: 'get', path: '/api/projects/{id}/reference-curves', send: (_h, c) => c.get(`/api/projects/${C()}/reference-curves`) },
+  { method: 'post', path: '/api/projects/{id}/reference-curves', send: (_h, c) => c.upload(`/api/projects/${C()}/reference-curves`, { name: 'reference.csv', content: CSV }, { label: unique('Reference '), source: 'Invented reference report, table 2' }) },
+  { method: 'get', path: '/api/reference-curves/{id}', send: async (h, c) => c.get(`/api/reference-curves/${await makeReference(h)}`) },
+  { method: 'delete', path: '/api/reference-curves/{id}', send: async (h, c) => c.delete(`/api/reference-curves/${await makeReference(h)}`) },
   { method: 'get', path: '/api/projects/{id}/lots', send: (_h, c) => c.get(`/api/projects/${C()}/lots`) },
   { method: 'post', path: '/api/projects/{id}/lots', send: (_h, c) => c.post(`/api/projects/${C()}/lots`, { name: unique('FNC-M'), metalWtPct: 2 }) },
   { method: 'get', path: '/api/lots/{id}', send: (h, c) => c.get(`/api/lots/${lotId(h, 'FNC-24-07')}`) },

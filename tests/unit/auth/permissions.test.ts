@@ -17,6 +17,7 @@ const EXPECTED = {
   plan: ['admin', 'pi', 'researcher'],
   review: ['admin', 'pi'],
   editTargets: ['admin', 'pi'],
+  setBenchmark: ['admin', 'pi'],
   editLots: ['admin', 'pi', 'researcher'],
   comment: ['admin', 'pi', 'researcher', 'partner'],
   manageProfiles: ['admin', 'pi', 'researcher', 'partner'],
