@@ -22,6 +22,7 @@ try {
     ['upload', '/projects/1/upload'],
     ['settings', '/projects/1/settings'],
     ['gains', '/projects/1/gains'],
+    ['benchmark', '/projects/1/benchmark'],
     ['lineage', '/projects/1/lineage'],
     ['durability', '/projects/1/durability'],
     ['series', '/projects/2/series'],

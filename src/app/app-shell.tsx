@@ -71,6 +71,7 @@ export function AppShell() {
                   {canWrite(p.myRole) && <RailLink to={`/projects/${p.id}/upload`} indent>Upload</RailLink>}
                   <RailLink to={`/projects/${p.id}/compare`} indent>Compare curves</RailLink>
                   <RailLink to={`/projects/${p.id}/targets`} indent>Targets</RailLink>
+                  <RailLink to={`/projects/${p.id}/benchmark`} indent>Benchmark</RailLink>
                   <RailLink to={`/projects/${p.id}/lots`} indent>Catalyst lots</RailLink>
                   <RailLink to={`/projects/${p.id}/lineage`} indent>Lineage</RailLink>
                   <RailLink to={`/projects/${p.id}/gains`} indent>Gains</RailLink>

@@ -33,6 +33,7 @@ export const router = createBrowserRouter([
           { path: '/projects/:projectId/surface', lazy: lazy(() => import('./routes/surface')) },
           { path: '/projects/:projectId/plan', lazy: lazy(() => import('./routes/plan')) },
           { path: '/projects/:projectId/targets', lazy: lazy(() => import('./routes/targets')) },
+          { path: '/projects/:projectId/benchmark', lazy: lazy(() => import('./routes/benchmark')) },
           { path: '/projects/:projectId/lots', lazy: lazy(() => import('./routes/project-lots')) },
           { path: '/lots/:lotId', lazy: lazy(() => import('./routes/lot')) },
           { path: '/projects/:projectId/settings', lazy: lazy(() => import('./routes/settings')) },

@@ -65,6 +65,7 @@ export default async function ({ url, browser, signIn }) {
     ['gains', `${p}/gains`, async () => { await page.locator('.js-plotly-plot').first().waitFor(); }],
     ['compare', `${p}/compare`, async () => { await page.locator('.js-plotly-plot').first().waitFor(); }],
     ['lineage', `${p}/lineage`],
+    ['benchmark', `${p}/benchmark`, async () => { await page.locator('.js-plotly-plot').first().waitFor(); }],
     ['durability', `${p}/durability`, async () => { await page.locator('.js-plotly-plot').first().waitFor(); }],
     ['series', `${p}/series`, async () => { await page.getByRole('heading', { name: 'Series', exact: true }).waitFor(); await page.waitForLoadState('networkidle'); }],
     ['surface', `${p}/surface`],

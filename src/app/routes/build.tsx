@@ -22,6 +22,11 @@ import { useConfirm } from '@/components/ui/confirm-dialog';
 import { formatDate, formatNumber, withUnit } from '@/lib/format';
 import { ReviewThread } from '@/features/review/components/review-thread';
 import { MetalEconomyFigures } from '@/features/builds/components/metal-economy';
+import { useBenchmark, useClearBenchmark, useSetBenchmark, type BenchmarkView } from '@/features/benchmarks/api/benchmarks';
+import { benchmarkForPlot, BenchmarkBadge } from '@/features/benchmarks/components/benchmark-parts';
+import { can } from '@/features/projects/components/permissions';
+import { useTargets } from '@/features/targets/api/targets';
+import { targetLinesFor } from '@/features/targets/components/target-lines';
 
 function Recipe({ detail, factors }: { detail: BuildDetail; factors: FactorDef[] }) {
   const b = detail.build;
@@ -116,8 +121,9 @@ function seriesName(c: CurveSummary) {
   return `${curveTitle(c)}${c.isRecord ? ' (record)' : ''} · ${formatDateTime(c.createdAt)}`;
 }
 
-function CurveView({ curve, overlays, project, detail }: { curve: CurveSummary; overlays: CurveSummary[]; project: Project; detail: BuildDetail }) {
+function CurveView({ curve, overlays, project, detail, benchmark }: { curve: CurveSummary; overlays: CurveSummary[]; project: Project; detail: BuildDetail; benchmark: BenchmarkView | null }) {
   const { data, isLoading, error } = useCurve(curve.id);
+  const targets = useTargets(project.id);
   const others = useQueries({ queries: (curve.kind === 'polarization' ? overlays : []).map((o) => curveQueryOptions(o.id)) });
   if (curve.kind === 'impedance') return <ImpedanceView curve={curve} detail={detail} />;
   if (curve.kind !== 'polarization') return <DurabilityView curve={curve} overlays={overlays} />;
@@ -137,6 +143,9 @@ function CurveView({ curve, overlays, project, detail }: { curve: CurveSummary; 
           conditions={detail.build.testConditions}
           title={`${detail.build.code} · ${curveTitle(curve)}`}
           fileName={`${detail.build.code}-polarization`}
+          // the benchmark build's own record curve is not drawn twice
+          benchmark={benchmarkForPlot(benchmark, { buildIds: [detail.build.id], curveIds: [curve.id, ...overlays.map((o) => o.id)] })}
+          targets={targetLinesFor(targets.data, 'vAtRef', 'V')}
         />
       </div>
       <div className="min-w-0 space-y-3">
@@ -208,6 +217,9 @@ export default function BuildPage() {
   const responses = useResponses(projectId);
   const update = useUpdateBuild(buildId, projectId);
   const batch = useUploadBatch(projectId);
+  const benchmark = useBenchmark(projectId);
+  const setBenchmark = useSetBenchmark(projectId);
+  const clearBenchmark = useClearBenchmark(projectId);
   const [confirm, confirmDialog] = useConfirm();
   // a build opened under another project's address moves to its own project's address
   if (detail.data && detail.data.build.projectId !== projectId) return <Navigate to={`/projects/${detail.data.build.projectId}/builds/${buildId}`} replace />;
@@ -218,6 +230,9 @@ export default function BuildPage() {
   const d = detail.data;
   const b = d.build;
   const curves = d.curves;
+  const bench = benchmark.data ?? null;
+  const isBenchmark = bench?.kind === 'build' && bench.buildId === b.id;
+  const maySetBenchmark = can(project.data.myRole, 'setBenchmark');
 
   const addFiles = (files: File[]) => {
     const rows = files.map((file, i) => ({ key: `${Date.now()}-${i}-${file.name}`, file, buildId, state: 'waiting' as const, progress: 0 }));
@@ -229,7 +244,7 @@ export default function BuildPage() {
     <div className="max-w-7xl">
       <PageHeader
         eyebrow={<Link to={`/projects/${projectId}`} className="hover:underline">{project.data.name}</Link>}
-        title={<span className="flex items-center gap-3">{b.code} <StatusBadge status={b.status} /></span>}
+        title={<span className="flex items-center gap-3">{b.code} <StatusBadge status={b.status} />{isBenchmark && <BenchmarkBadge note={bench!.note} />}</span>}
         subtitle={b.changeNote ?? undefined}
         actions={
           <>
@@ -237,13 +252,25 @@ export default function BuildPage() {
               <Button variant="danger" onClick={async () => { if (await confirm({ title: `Discard ${b.code}?`, message: 'It leaves the gains, fits and proposals but stays in the records, and can be restored from this page.', confirmLabel: `Discard ${b.code}` })) update.mutate({ status: 'discarded' }); }}>Discard</Button>
             )}
             {d.permissions.edit && b.status === 'discarded' && <Button onClick={() => update.mutate({ status: 'tested' })}>Restore</Button>}
+            {maySetBenchmark && b.status !== 'discarded' && !isBenchmark && (
+              <Button
+                disabled={setBenchmark.isPending}
+                onClick={async () => {
+                  const now = bench ? `It replaces the current benchmark, ${bench.label}.` : 'The project has no benchmark yet.';
+                  if (await confirm({ title: `Make ${b.code} the project’s benchmark?`, message: `Every polarization plot of the project will show its curve, and values can be shown as a difference from it. ${now}`, confirmLabel: `Make ${b.code} the benchmark` })) setBenchmark.mutate({ buildId: b.id, note: '' });
+                }}
+              >
+                Mark as benchmark
+              </Button>
+            )}
+            {maySetBenchmark && isBenchmark && <Button disabled={clearBenchmark.isPending} onClick={() => clearBenchmark.mutate()}>Stop using as benchmark</Button>}
             {d.permissions.edit && <LinkButton to={`/projects/${projectId}/builds/new?parent=${b.id}`}>New child build</LinkButton>}
             {d.permissions.edit && <LinkButton variant="primary" to={`/projects/${projectId}/builds/${b.id}/edit`}>Edit</LinkButton>}
           </>
         }
       />
       {confirmDialog}
-      <ErrorNote error={update.error} />
+      <ErrorNote error={update.error ?? setBenchmark.error ?? clearBenchmark.error} />
       <div className="grid gap-4 lg:grid-cols-3">
         <Panel title="Recipe"><Recipe detail={d} factors={factors.data!} /></Panel>
         <Panel title="Test conditions"><Conditions detail={d} /></Panel>
@@ -266,7 +293,7 @@ export default function BuildPage() {
           build={{ id: b.id, code: b.code, status: b.status }}
           projectId={projectId}
           canChoose={d.permissions.upload}
-          renderCurve={(shown, overlays) => <CurveView key={shown.id} curve={shown} overlays={overlays} project={project.data} detail={d} />}
+          renderCurve={(shown, overlays) => <CurveView key={shown.id} curve={shown} overlays={overlays} project={project.data} detail={d} benchmark={bench} />}
           empty={<EmptyState title="No curves yet">{d.permissions.upload ? 'Upload a polarization curve to see metrics.' : 'When the build’s curves are uploaded, its polarization plot and metrics show here.'}</EmptyState>}
         />
         {d.permissions.upload && (

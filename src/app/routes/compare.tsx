@@ -2,7 +2,7 @@
 // note; export the plot (PNG/SVG) and exactly the points shown (CSV). It opens on the lineage's
 // best path (baseline → best build) until the user picks builds of their own.
 import type { TestConditions } from '@shared/api-types';
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import { useParams, useSearchParams } from 'react-router-dom';
 import { useQueries } from '@tanstack/react-query';
 import { useProject } from '@/features/projects/api/projects';
@@ -15,6 +15,10 @@ import { Button } from '@/components/ui/button';
 import { METRICS, formatMetric, formatNumber } from '@/lib/format';
 import { comparedCurvesCsv } from '@/features/curves/components/compare-csv';
 import type { CurveMetricKey } from '@shared/curves/metric-catalogue';
+import { useBenchmark } from '@/features/benchmarks/api/benchmarks';
+import { useTargets } from '@/features/targets/api/targets';
+import { targetLinesFor } from '@/features/targets/components/target-lines';
+import { benchmarkForPlot, DifferenceToggle, differenceFromBenchmark, formatMetricDifference } from '@/features/benchmarks/components/benchmark-parts';
 
 /** The metrics side by side in the comparison table (catalogue keys, catalogue order). */
 const COMPARED_METRICS: CurveMetricKey[] = ['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope'];
@@ -37,6 +41,9 @@ export default function ComparePage() {
   const project = useProject(projectId);
   const builds = useBuilds(projectId);
   const lineage = useLineage(projectId, 'vAtRef');
+  const benchmark = useBenchmark(projectId);
+  const targets = useTargets(projectId);
+  const [asDifference, setAsDifference] = useState(false);
   const chosen = params.get('builds');
   const withCurveIds = new Set((builds.data ?? []).filter((b) => b.curveCount > 0).map((b) => b.id));
   const bestPath = (lineage.data?.bestPath?.buildIds ?? []).filter((id) => withCurveIds.has(id));
@@ -98,15 +105,18 @@ export default function ComparePage() {
           <Panel>
             {ids.length === 0 ? <EmptyState title="Choose builds to overlay">{withCurves.length ? 'Tick two or more builds with polarization curves.' : 'No build has a polarization curve yet: upload one from a build page or the Upload page.'}</EmptyState>
               : curves.some((c) => c.isLoading) || details.some((d) => d.isLoading) ? <Loading label="Loading curves…" />
-              : <PolarizationPlot series={series} settings={project.data!.settings} subtitle={sharedConditions(details.map((d) => d.data?.build.testConditions), project.data!.settings)} title="Polarization curves" fileName="cellwright-compare" />}
+              : <PolarizationPlot series={series} settings={project.data!.settings} subtitle={sharedConditions(details.map((d) => d.data?.build.testConditions), project.data!.settings)} title="Polarization curves" fileName="cellwright-compare" benchmark={benchmarkForPlot(benchmark.data, { curveIds })} targets={targetLinesFor(targets.data, 'vAtRef', 'V')} />}
           </Panel>
           {ids.length > 0 && (
-            <Panel title="Metrics at the project reference point">
+            <Panel title={asDifference && benchmark.data ? `Metrics at the project reference point, as difference from the benchmark (${benchmark.data.label})` : 'Metrics at the project reference point'} actions={<DifferenceToggle benchmark={benchmark.data} checked={asDifference} onChange={setAsDifference} />}>
               <table className="w-full text-sm">
-                <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Build</th>{COMPARED_METRICS.map((k) => <th key={k}>{METRICS[k]!.label}</th>)}</tr></thead>
+                <thead className="text-left text-xs text-ink-500"><tr><th className="py-1">Build</th>{COMPARED_METRICS.map((k) => <th key={k}>{asDifference && benchmark.data ? `Δ ${METRICS[k]!.label}` : METRICS[k]!.label}</th>)}</tr></thead>
                 <tbody className="divide-y divide-line">
+                  {benchmark.data && (
+                    <tr className="text-ink-500"><td className="py-1">Benchmark: {benchmark.data.label}</td>{COMPARED_METRICS.map((k) => <td key={k} className="num">{formatMetric(k, benchmark.data!.values[k])}</td>)}</tr>
+                  )}
                   {details.map((d) => d.data && (
-                    <tr key={d.data.build.id}><td className="py-1 font-medium">{d.data.build.code}</td>{COMPARED_METRICS.map((k) => <td key={k} className="num">{formatMetric(k, d.data!.build.values[k])}</td>)}</tr>
+                    <tr key={d.data.build.id}><td className="py-1 font-medium">{d.data.build.code}</td>{COMPARED_METRICS.map((k) => <td key={k} className="num">{asDifference && benchmark.data ? formatMetricDifference(k, differenceFromBenchmark(benchmark.data, k, d.data!.build.values[k])) : formatMetric(k, d.data!.build.values[k])}</td>)}</tr>
                   ))}
                 </tbody>
               </table>

@@ -12,10 +12,14 @@ import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/
 import { formatNumber } from '@/lib/format';
 import { RecordMark } from '@/features/curves/components/record-parts';
 import { HoldComparison, SurvivalPanel } from '@/features/durability/components/hold-survival';
+import { useTargets } from '@/features/targets/api/targets';
+import { targetLinesFor } from '@/features/targets/components/target-lines';
+import { PLOT_COLORS } from '@/components/plot/theme';
 
 const fmt = (value: number | null, digits: number, unit: string) => (value == null ? '—' : `${formatNumber(value, digits)} ${unit}`);
 
-function WhiskerChart({ rows, band, title }: { rows: DurabilityRow[]; band: { standard: readonly [number, number]; improved: number }; title: string }) {
+/** `targets`: the project's targets on the degradation rate (label, value in µV/h), drawn as dashed lines. */
+function WhiskerChart({ rows, band, title, targets = [] }: { rows: DurabilityRow[]; band: { standard: readonly [number, number]; improved: number }; title: string; targets?: { label: string; value: number }[] }) {
   const box = useRef<HTMLDivElement>(null);
   const shown = rows.filter((r) => r.degradationRate != null && r.kind === 'durability');
   const labels = shown.map((r) => `${r.code} · ${r.label.length > 22 ? `${r.label.slice(0, 21)}…` : r.label}`);
@@ -44,10 +48,12 @@ function WhiskerChart({ rows, band, title }: { rows: DurabilityRow[]; band: { st
           shapes: [
             { type: 'rect', xref: 'x', yref: 'paper', x0: band.standard[0], x1: band.standard[1], y0: 0, y1: 1, fillcolor: 'rgba(213,94,0,0.10)', line: { width: 0 } },
             { type: 'line', xref: 'x', yref: 'paper', x0: band.improved, x1: band.improved, y0: 0, y1: 1, line: { color: '#009E73', width: 1.5, dash: 'dash' } },
+            ...targets.map((t) => ({ type: 'line' as const, xref: 'x' as const, yref: 'paper' as const, x0: t.value, x1: t.value, y0: 0, y1: 1, line: { color: PLOT_COLORS.target, width: 2, dash: 'dash' as const } })),
           ],
           annotations: [
             { x: (band.standard[0] + band.standard[1]) / 2, y: 0, xref: 'x', yref: 'paper', yanchor: 'bottom', showarrow: false, text: `standard ${band.standard[0]}–${band.standard[1]} µV/h`, font: { size: 10, color: '#8a3b00' } },
             { x: band.improved, y: 0, xref: 'x', yref: 'paper', yanchor: 'bottom', xanchor: 'left', showarrow: false, text: `improved ≈${band.improved}`, font: { size: 10, color: '#006b4f' } },
+            ...targets.map((t) => ({ x: t.value, y: 1, xref: 'x' as const, yref: 'paper' as const, yanchor: 'bottom' as const, xanchor: 'left' as const, showarrow: false, text: `target: ${t.label}`, bgcolor: 'rgba(255,255,255,0.85)', font: { size: 11, color: PLOT_COLORS.target } })),
           ],
         }}
       />
@@ -59,6 +65,7 @@ export default function DurabilityPage() {
   const projectId = Number(useParams().projectId);
   const project = useProject(projectId);
   const durability = useDurability(projectId);
+  const targets = useTargets(projectId);
   const [everyLog, setEveryLog] = useState(false);
   if (project.isLoading || durability.isLoading) return <Loading />;
   const error = project.error ?? durability.error;
@@ -85,7 +92,7 @@ export default function DurabilityPage() {
             </label>
           )}
           <Panel title="Rate against the typical band">
-            <WhiskerChart rows={curves} band={typicalBand} title={`${project.data.name} · durability`} />
+            <WhiskerChart rows={curves} band={typicalBand} title={`${project.data.name} · durability`} targets={targetLinesFor(targets.data, 'degradationRate', 'µV/h')} />
           </Panel>
           <Panel title="Builds with durability logs" className="mt-4" bodyClassName="overflow-x-auto">
             <table className="w-full text-sm">

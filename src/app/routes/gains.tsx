@@ -1,6 +1,7 @@
 // Gains: the step-by-step waterfall of a response along a chain of builds (by default the
 // lineage's best path), with 95 % intervals and "within noise" flags; chart and table export.
 // The URL keeps the response and the chain (?response=vAtRef&builds=1,4,6) so it can be shared.
+import { useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { useProject } from '@/features/projects/api/projects';
 import { useBuilds } from '@/features/builds/api/builds';
@@ -16,6 +17,8 @@ import { Field, Select } from '@/components/ui/field';
 import { formatNumber, responseDisplay } from '@/lib/format';
 import type { Build, ProjectSettings } from '@shared/api-types';
 import { referenceConditions } from '@shared/curves/metric-catalogue';
+import { useBenchmark } from '@/features/benchmarks/api/benchmarks';
+import { DifferenceToggle } from '@/features/benchmarks/components/benchmark-parts';
 
 function conditionsText(responseKey: string, settings: ProjectSettings, chainBuilds: Build[]): string {
   const parts = referenceConditions(responseKey, settings, formatNumber);
@@ -41,6 +44,8 @@ export default function GainsPage() {
   const builds = useBuilds(projectId);
   const lineage = useLineage(projectId, response);
   const gains = useGains(projectId, response, chain);
+  const benchmark = useBenchmark(projectId);
+  const [asDifference, setAsDifference] = useState(false);
 
   const setQuery = (next: { response?: string; builds?: number[] | null }) => {
     const p = new URLSearchParams(params);
@@ -58,6 +63,8 @@ export default function GainsPage() {
   const data = gains.data;
   const shownChain = data ? data.steps.map((s) => s.buildId) : chain ?? [];
   const byId = new Map((builds.data ?? []).map((b) => [b.id, b]));
+  const benchmarkValue = benchmark.data?.values[response];
+  const benchmarkLine = benchmark.data && benchmarkValue != null && Number.isFinite(benchmarkValue) ? { label: benchmark.data.label, value: benchmarkValue } : null;
   const fileName = `gains-${project.data.codePrefix}-${response}-${shownChain.map((id) => byId.get(id)?.code ?? id).join('_')}`.slice(0, 120);
 
   return (
@@ -80,7 +87,7 @@ export default function GainsPage() {
           ) : data.steps.length < 2 ? (
             <EmptyState title="Only the baseline so far">Add a build to the chain (on the right) to see a step.</EmptyState>
           ) : (
-            <WaterfallChart data={data} subtitle={conditionsText(response, project.data.settings, data.steps.map((s) => byId.get(s.buildId)).filter((b): b is Build => Boolean(b)))} fileName={fileName} targets={targetLinesFor(targets.data, data.response.key, data.unit)} />
+            <WaterfallChart data={data} subtitle={conditionsText(response, project.data.settings, data.steps.map((s) => byId.get(s.buildId)).filter((b): b is Build => Boolean(b)))} fileName={fileName} targets={targetLinesFor(targets.data, data.response.key, data.unit)} project={project.data.name} benchmark={benchmarkLine} />
           )}
         </Panel>
         <div className="space-y-4">
@@ -105,8 +112,8 @@ export default function GainsPage() {
         </div>
       </div>
       {data && data.steps.length >= 1 && (
-        <Panel title="Steps" className="mt-4">
-          <GainsTable data={data} projectId={projectId} fileName={fileName} />
+        <Panel title="Steps" className="mt-4" actions={benchmarkLine ? <DifferenceToggle benchmark={benchmark.data} checked={asDifference} onChange={setAsDifference} /> : undefined}>
+          <GainsTable data={data} projectId={projectId} fileName={fileName} benchmark={asDifference ? benchmarkLine : null} />
         </Panel>
       )}
     </div>

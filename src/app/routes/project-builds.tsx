@@ -10,6 +10,7 @@ import { canWrite } from '@/features/projects/components/permissions';
 import { useTargets } from '@/features/targets/api/targets';
 import { TargetList } from '@/features/targets/components/target-status';
 import { Link } from 'react-router-dom';
+import { useBenchmark } from '@/features/benchmarks/api/benchmarks';
 
 export default function ProjectBuilds() {
   const projectId = Number(useParams().projectId);
@@ -18,6 +19,7 @@ export default function ProjectBuilds() {
   const factors = useFactors(projectId);
   const responses = useResponses(projectId);
   const targets = useTargets(projectId);
+  const benchmark = useBenchmark(projectId);
   const navigate = useNavigate();
   const [selected, setSelected] = useState<Set<number>>(new Set());
   if (project.isLoading || builds.isLoading || factors.isLoading || responses.isLoading) return <Loading />;
@@ -62,6 +64,7 @@ export default function ProjectBuilds() {
           factors={factors.data!}
           responses={responses.data!}
           selected={selected}
+          benchmark={benchmark.data ?? null}
           onSelect={(id, on) => setSelected((s) => { const n = new Set(s); if (on) n.add(id); else n.delete(id); return n; })}
         />
       )}

@@ -41,7 +41,7 @@ function WaterfallSection({ pack }: { pack: ReviewPack }) {
     <Section title={`Waterfall of ${pack.response.label}`}>
       {pack.gains && pack.gains.steps.length >= 2
         // at most the printable width of an A4 page, so the chart prints as it shows
-        ? <div className="max-w-[680px]"><WaterfallChart data={pack.gains} subtitle={subtitle} fileName={`review-pack-waterfall-${pack.project.codePrefix}`} targets={targetLinesFor(pack.targets, pack.gains.response.key, pack.gains.unit)} /></div>
+        ? <div className="max-w-[680px]"><WaterfallChart data={pack.gains} subtitle={subtitle} fileName={`review-pack-waterfall-${pack.project.codePrefix}`} targets={targetLinesFor(pack.targets, pack.gains.response.key, pack.gains.unit)} project={pack.project.name} /></div>
         : <EmptyState title="No waterfall yet">{pack.gainsNote ?? 'Upload polarization curves to the builds of a lineage to see its gains.'}</EmptyState>}
     </Section>
   );

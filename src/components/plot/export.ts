@@ -24,14 +24,50 @@ async function plotlyFor(graph: HTMLElement) {
   return bundle === '3d' ? (await import('./plotly-3d')).Plotly : (await import('./plotly')).Plotly;
 }
 
-/** Saves the first chart inside `container` as a PNG (2× pixels) or an SVG. */
-export async function exportPlot(container: HTMLElement | null, format: 'png' | 'svg', fileName: string) {
+/**
+ * What an exported image carries beyond the chart on screen: a layout drawn over the chart's own
+ * (a title block, a legend written out, a footer) and the extra height it needs.
+ */
+export interface ExportLayout {
+  layout: Record<string, unknown>;
+  extraHeight?: number;
+}
+
+/**
+ * Saves the first chart inside `container` as a PNG (2× pixels) or an SVG. With `extra`, the
+ * image is drawn from the chart's data with the extra layout over its own (the page is untouched).
+ */
+export async function exportPlot(container: HTMLElement | null, format: 'png' | 'svg', fileName: string, extra?: ExportLayout) {
   const graph = graphIn(container);
   if (!graph) return;
   const Plotly = await plotlyFor(graph);
   const width = Math.max(900, Math.round(graph.getBoundingClientRect().width));
-  const height = Math.max(520, Math.round(graph.getBoundingClientRect().height));
-  await Plotly.downloadImage(graph, { format, filename: fileName, width, height, scale: format === 'png' ? 2 : 1 });
+  const height = Math.max(520, Math.round(graph.getBoundingClientRect().height)) + (extra?.extraHeight ?? 0);
+  if (!extra) {
+    await Plotly.downloadImage(graph, { format, filename: fileName, width, height, scale: format === 'png' ? 2 : 1 });
+    return;
+  }
+  const own = (graph.layout ?? {}) as Record<string, unknown>;
+  const layout = mergeLayout(own, extra.layout);
+  const url = await Plotly.toImage({ data: graph.data as never, layout: { ...layout, width, height } as never }, { format, width, height, scale: format === 'png' ? 2 : 1 });
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = `${fileName}.${format}`;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+}
+
+/** The chart's layout with `over` drawn over it: shapes and annotations added, objects merged one level deep. */
+export function mergeLayout(own: Record<string, unknown>, over: Record<string, unknown>): Record<string, unknown> {
+  const out: Record<string, unknown> = { ...own };
+  for (const [key, value] of Object.entries(over)) {
+    const mine = own[key];
+    if ((key === 'annotations' || key === 'shapes') && Array.isArray(value)) out[key] = [...(Array.isArray(mine) ? mine : []), ...value];
+    else if (value && typeof value === 'object' && !Array.isArray(value) && mine && typeof mine === 'object' && !Array.isArray(mine)) out[key] = { ...(mine as object), ...(value as object) };
+    else out[key] = value;
+  }
+  return out;
 }
 
 const plain = (text: unknown) => String(text ?? '').replace(/<br\s*\/?>/gi, ' ').replace(/<[^>]+>/g, '').replace(/\s+/g, ' ').trim();

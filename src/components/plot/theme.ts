@@ -14,6 +14,10 @@ export const PLOT_COLORS = {
   zero: '#c9c2b4',
   paper: '#ffffff',
   reference: '#a9592a',
+  /** the project's benchmark curve: a neutral grey, apart from every build colour */
+  benchmark: '#6f6a62',
+  /** a programme target's line or mark on every chart (Okabe–Ito vermillion) */
+  target: '#D55E00',
 } as const;
 
 export const PLOT_FONT = "'IBM Plex Sans Variable', 'IBM Plex Sans', ui-sans-serif, sans-serif";

@@ -12,24 +12,35 @@ import { Input, Select } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { METRICS, formatNumber, formatSignificant, massActivityLabel } from '@/lib/format';
 import { buildEconomy } from '@shared/economy';
+import type { BenchmarkView } from '@/features/benchmarks/api/benchmarks';
+import { BenchmarkBadge, DifferenceToggle, differenceFromBenchmark, formatDifference } from '@/features/benchmarks/components/benchmark-parts';
 
 const column = createColumnHelper<Build>();
 const METRIC_COLUMNS = ['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope', 'degradationRate'];
 
-function metricCell(key: string, value: number | null | undefined) {
+/** A metric in its display unit, or (with a benchmark) its signed difference from the benchmark's. */
+function metricCell(key: string, value: number | null | undefined, benchmark: BenchmarkView | null) {
   const info = METRICS[key]!;
   if (value == null) return <span className="text-ink-500">—</span>;
+  if (benchmark) {
+    const diff = differenceFromBenchmark(benchmark, key, value);
+    return <span className="num block text-right" title={`${formatNumber(value * info.scale, info.digits)} ${info.unit}`}>{formatDifference({ unit: '', scale: info.scale, digits: info.digits }, diff)}</span>;
+  }
   return <span className="num block text-right">{formatNumber(value * info.scale, info.digits)}</span>;
 }
 
-export function BuildsTable({ project, builds, factors, responses, selected, onSelect }: {
+export function BuildsTable({ project, builds, factors, responses, selected, onSelect, benchmark }: {
   project: Project;
   builds: Build[];
   factors: FactorDef[];
   responses: ResponseDef[];
   selected?: Set<number>;
   onSelect?: (id: number, on: boolean) => void;
+  /** the project's benchmark: its build is marked, and values can be shown as differences from it */
+  benchmark?: BenchmarkView | null;
 }) {
+  const [asDifference, setAsDifference] = useState(false);
+  const diffFrom = asDifference && benchmark ? benchmark : null;
   const [sorting, setSorting] = useState<SortingState>([{ id: 'code', desc: false }]);
   const [globalFilter, setGlobalFilter] = useState('');
   const [columnFilters, setColumnFilters] = useState<ColumnFiltersState>([]);
@@ -47,7 +58,12 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
         : []),
       column.accessor('code', {
         header: 'Build',
-        cell: (c) => <Link to={`/projects/${project.id}/builds/${c.row.original.id}`} className="font-medium text-copper-700 hover:underline">{c.getValue()}</Link>,
+        cell: (c) => (
+          <span className="inline-flex items-center gap-2">
+            <Link to={`/projects/${project.id}/builds/${c.row.original.id}`} className="font-medium text-copper-700 hover:underline">{c.getValue()}</Link>
+            {benchmark?.kind === 'build' && benchmark.buildId === c.row.original.id && <BenchmarkBadge note={benchmark.note} />}
+          </span>
+        ),
       }),
       column.accessor('parentCode', { header: 'Parent', cell: (c) => c.getValue() ?? <span className="text-ink-500">—</span> }),
       column.accessor('changeNote', { header: 'Change', cell: (c) => <span className="block max-w-[16rem] truncate" title={c.getValue() ?? ''}>{c.getValue() ?? ''}</span> }),
@@ -57,10 +73,10 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
           id: `m_${key}`,
           header: () => (
             <span title={`${METRICS[key]!.description}${key === 'vAtRef' ? ` at ${project.settings.refCurrentDensity} A/cm²` : ''}`}>
-              {key === 'massActivity' ? massActivityLabel(project.settings) : METRICS[key]!.label} <span className="font-normal text-ink-500">({METRICS[key]!.unit})</span>
+              {diffFrom ? 'Δ ' : ''}{key === 'massActivity' ? massActivityLabel(project.settings) : METRICS[key]!.label} <span className="font-normal text-ink-500">({METRICS[key]!.unit})</span>
             </span>
           ),
-          cell: (c) => metricCell(key, c.getValue()),
+          cell: (c) => metricCell(key, c.getValue(), diffFrom),
           sortUndefined: 'last',
         }),
       ),
@@ -100,14 +116,19 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
       ...responses.map((r) =>
         column.accessor((b) => b.values[r.key] ?? null, {
           id: `r_${r.key}`,
-          header: () => <span>{r.label}{r.unit ? <span className="font-normal text-ink-500"> ({r.unit})</span> : null}</span>,
-          cell: (c) => (c.getValue() == null ? <span className="text-ink-500">—</span> : <span className="num">{formatNumber(c.getValue(), 2)}</span>),
+          header: () => <span>{diffFrom ? 'Δ ' : ''}{r.label}{r.unit ? <span className="font-normal text-ink-500"> ({r.unit})</span> : null}</span>,
+          cell: (c) => {
+            const v = c.getValue();
+            if (v == null) return <span className="text-ink-500">—</span>;
+            if (diffFrom) return <span className="num" title={formatNumber(v, 2)}>{formatDifference({ unit: '', scale: 1, digits: 2 }, differenceFromBenchmark(diffFrom, r.key, v))}</span>;
+            return <span className="num">{formatNumber(v, 2)}</span>;
+          },
           sortUndefined: 'last',
         }),
       ),
     ];
     return cols;
-  }, [factors, responses, project, selected, onSelect]);
+  }, [factors, responses, project, selected, onSelect, benchmark, diffFrom]);
 
   const table = useReactTable({
     data: builds,
@@ -153,6 +174,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
             {labs.map((l) => <option key={l} value={l}>{l}</option>)}
           </Select>
         </div>
+        <DifferenceToggle benchmark={benchmark} checked={asDifference} onChange={setAsDifference} />
         <span className="ml-auto text-xs text-ink-500">
           {filtered} of {builds.length} builds · metrics at j_ref = {project.settings.refCurrentDensity} A/cm², V_ref = {project.settings.refVoltage} V{project.settings.irFree ? ' (iR-free)' : ''}
         </span>

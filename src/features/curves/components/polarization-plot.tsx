@@ -24,8 +24,17 @@ export function conditionsLine(c: TestConditions | null | undefined, settings: P
   return parts.join(' · ');
 }
 
-export function PolarizationPlot({ series, settings, conditions, title, fileName, subtitle }: { series: PlotSeries[]; settings: ProjectSettings; conditions?: TestConditions | null; title: string; fileName: string; subtitle?: string }) {
+/** The project's benchmark as a plot draws it: a grey dashed curve the reader can hide. */
+export interface PlotBenchmark {
+  /** e.g. "Benchmark: C-001" or "Benchmark: Round-robin cathode MEA (invented)" */
+  name: string;
+  points: CurvePoints;
+}
+
+/** `targets`: the project's targets on V at j_ref (label, value in V), marked at j_ref. */
+export function PolarizationPlot({ series, settings, conditions, title, fileName, subtitle, benchmark, targets = [] }: { series: PlotSeries[]; settings: ProjectSettings; conditions?: TestConditions | null; title: string; fileName: string; subtitle?: string; benchmark?: PlotBenchmark | null; targets?: { label: string; value: number }[] }) {
   const [irFree, setIrFree] = useState(false);
+  const [showBenchmark, setShowBenchmark] = useState(true);
   const [showPower, setShowPower] = useState(series.length <= 2);
   const box = useRef<HTMLDivElement>(null);
   const hasHfr = series.some((s) => s.points.hfr && s.points.hfr.length);
@@ -56,7 +65,27 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
       traces.push({ x: j, y: p, type: 'scatter', mode: 'lines', yaxis: 'y2', name: name('power density'), legendgroup: single ? undefined : s.name, line: { color: look.p, width: QUANTITY_STYLE.power.width, dash: QUANTITY_STYLE.power.dash }, hovertemplate: 'j %{x:.1f} mA/cm²<br>P %{y:.0f} mW/cm²<extra>%{fullData.name}</extra>' });
     }
   });
+  if (benchmark && showBenchmark && benchmark.points.j?.length) {
+    // the benchmark: grey and dashed, voltage only (and its iR-free voltage when shown), never a colour of the builds
+    const bj = benchmark.points.j.map((x) => x * 1000);
+    const bv = benchmark.points.v;
+    for (const x of bv) if (x > maxV) maxV = x;
+    traces.push({ x: bj, y: bv, type: 'scatter', mode: 'lines', name: benchmark.name, line: { color: PLOT_COLORS.benchmark, width: 2, dash: 'dash' }, hovertemplate: 'j %{x:.1f} mA/cm²<br>V %{y:.3f} V<extra>%{fullData.name}</extra>' });
+    const hfr = benchmark.points.hfr;
+    if (irFree && hfr?.length) {
+      const bIr = bv.map((vv, k) => vv + benchmark.points.j![k]! * hfr[k]!);
+      for (const x of bIr) if (x > maxV) maxV = x;
+      traces.push({ x: bj, y: bIr, type: 'scatter', mode: 'lines', name: `${benchmark.name}: iR-free V`, line: { color: PLOT_COLORS.benchmark, width: 1.5, dash: 'dot' }, hovertemplate: 'j %{x:.1f} mA/cm²<br>iR-free V %{y:.3f} V<extra>%{fullData.name}</extra>' });
+    }
+  }
   const jRef = settings.refCurrentDensity * 1000;
+  for (const t of targets) if (t.value > maxV) maxV = t.value;
+  let maxJ = jRef;
+  for (const s of series) for (const x of s.points.j ?? []) if (x * 1000 > maxJ) maxJ = x * 1000;
+  // a target on V at j_ref: a short dashed bar across j_ref, in the target colour, with its words
+  const half = maxJ * 0.06;
+  const targetShapes = targets.map((t) => ({ type: 'line' as const, xref: 'x' as const, yref: 'y' as const, x0: jRef - half, x1: jRef + half, y0: t.value, y1: t.value, line: { color: PLOT_COLORS.target, width: 2, dash: 'dash' as const } }));
+  const targetNotes = targets.map((t) => ({ x: jRef + half, y: t.value, xref: 'x' as const, yref: 'y' as const, text: `target: ${t.label}`, showarrow: false, xanchor: 'left' as const, yanchor: 'middle' as const, bgcolor: 'rgba(255,255,255,0.85)', font: { color: PLOT_COLORS.target, size: 11 } }));
   const vAxis = roundAxis(Math.max(maxV, settings.refVoltage), 6);
   const pAxis = roundAxis(maxP, 5);
   return (
@@ -68,6 +97,11 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
         <label className="inline-flex items-center gap-1.5">
           <input type="checkbox" checked={showPower} onChange={(e) => setShowPower(e.target.checked)} /> Power density
         </label>
+        {benchmark && (
+          <label className="inline-flex items-center gap-1.5" title={benchmark.name}>
+            <input type="checkbox" checked={showBenchmark} onChange={(e) => setShowBenchmark(e.target.checked)} /> Show benchmark
+          </label>
+        )}
         <span className="ml-auto"><PlotActions target={box} fileName={fileName} label="polarization plot" /></span>
       </div>
       <LazyPlot
@@ -83,10 +117,12 @@ export function PolarizationPlot({ series, settings, conditions, title, fileName
           shapes: [
             { type: 'line', xref: 'x', yref: 'paper', x0: jRef, x1: jRef, y0: 0, y1: 1, line: { color: PLOT_COLORS.reference, width: 1, dash: 'dashdot' } },
             { type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: settings.refVoltage, y1: settings.refVoltage, line: { color: PLOT_COLORS.muted, width: 1, dash: 'dashdot' } },
+            ...targetShapes,
           ],
           annotations: [
             { x: jRef, y: 0, xref: 'x', yref: 'paper', text: ' j_ref', showarrow: false, xanchor: 'left', yanchor: 'bottom', font: { color: PLOT_COLORS.reference, size: 11 } },
             { x: 1, y: settings.refVoltage, xref: 'paper', yref: 'y', text: 'V_ref', showarrow: false, xanchor: 'right', yanchor: 'bottom', font: { color: PLOT_COLORS.muted, size: 11 } },
+            ...targetNotes,
           ],
         }}
       />

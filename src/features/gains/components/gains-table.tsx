@@ -38,7 +38,8 @@ function methodText(data: GainsData, method: string, note: string | null): strin
   return note ?? '';
 }
 
-export function GainsTable({ data, projectId, fileName }: { data: GainsData; projectId: number; fileName: string }) {
+/** `benchmark`: show each step's value as its difference from the benchmark's value too. */
+export function GainsTable({ data, projectId, fileName, benchmark }: { data: GainsData; projectId: number; fileName: string; benchmark?: { label: string; value: number } | null }) {
   const d = displayOf(data.response);
   return (
     <div>
@@ -49,6 +50,7 @@ export function GainsTable({ data, projectId, fileName }: { data: GainsData; pro
               <th className="py-1 pr-3 font-medium">Step</th>
               <th className="pr-3 font-medium">Change</th>
               <th className="pr-3 text-right font-medium">Value ({d.unit})</th>
+              {benchmark && <th className="pr-3 text-right font-medium">vs benchmark {benchmark.label}</th>}
               <th className="pr-3 text-right font-medium">Gain</th>
               <th className="pr-3 text-right font-medium">95 % interval</th>
               <th className="pr-3 font-medium">Noise</th>
@@ -74,6 +76,7 @@ export function GainsTable({ data, projectId, fileName }: { data: GainsData; pro
                   {showValue(d, st.value)}
                   <div className="whitespace-nowrap text-[11px] text-ink-500">{st.sd != null ? `SD ${formatNumber(st.sd * d.scale, d.gainDigits)}, ` : ''}n = {st.n}</div>
                 </td>
+                {benchmark && <td className="num whitespace-nowrap pr-3 text-right">{showGain(d, st.value - benchmark.value)}</td>}
                 <td className={`num whitespace-nowrap pr-3 text-right font-medium ${st.gain == null ? '' : st.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{k === 0 ? '—' : showGain(d, st.gain)}</td>
                 <td className="num whitespace-nowrap pr-3 text-right text-ink-700">{st.low == null || st.high == null ? '—' : `${showGain(d, st.low)} … ${showGain(d, st.high)}`}</td>
                 <td className="pr-3">{k === 0 ? '' : <NoiseMark withinNoise={st.withinNoise} />}</td>
@@ -84,6 +87,7 @@ export function GainsTable({ data, projectId, fileName }: { data: GainsData; pro
               <td className="py-1.5 pr-3">Total</td>
               <td className="pr-3 text-ink-700">{data.steps[0].code} → {data.steps[data.steps.length - 1].code}</td>
               <td className="num pr-3 text-right">{showValue(d, data.total.value)}</td>
+              {benchmark && <td className="num whitespace-nowrap pr-3 text-right">{showGain(d, data.total.value - benchmark.value)}</td>}
               <td className={`num whitespace-nowrap pr-3 text-right ${data.total.gain >= 0 ? 'text-moss-700' : 'text-rust-700'}`}>{showGain(d, data.total.gain)}</td>
               <td className="num whitespace-nowrap pr-3 text-right text-ink-700">{data.total.low == null || data.total.high == null ? '—' : `${showGain(d, data.total.low)} … ${showGain(d, data.total.high)}`}</td>
               <td className="pr-3">{data.steps.length > 1 && <NoiseMark withinNoise={data.total.withinNoise} />}</td>

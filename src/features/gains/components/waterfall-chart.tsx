@@ -8,6 +8,7 @@ import { OKABE_ITO, PLOT_COLORS, PLOT_FONT } from '@/components/plot/theme';
 import type { GainsData } from '../api/get-gains';
 import { displayOf, showGain, showValue } from './display';
 import { gainsCsv } from './gains-table';
+import { waterfallExportLayout } from './waterfall-export';
 
 const UP = OKABE_ITO[2]!;
 const DOWN = OKABE_ITO[3]!;
@@ -27,13 +28,17 @@ const wrap = (text: string, width = 22): string => {
   return lines.slice(0, 3).join('<br>') + (lines.length > 3 ? '…' : '');
 };
 
-/** A target drawn as a dashed line: its label and value in the response's own unit (data.unit). */
-/** the target line's colour (Okabe–Ito vermillion) */
-const TARGET_LINE = '#D55E00';
+/** the target line's colour */
+const TARGET_LINE = PLOT_COLORS.target;
 
+/** A target drawn as a dashed line: its label and value in the response's own unit (data.unit). */
 export interface WaterfallTarget { label: string; value: number }
 
-export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { data: GainsData; subtitle: string; fileName: string; targets?: WaterfallTarget[] }) {
+/**
+ * `project`: the project's name, for the title block of an exported image; `benchmark`: the
+ * benchmark's value of the response (in its own unit), drawn as a grey dashed line.
+ */
+export function WaterfallChart({ data, subtitle, fileName, targets = [], project, benchmark }: { data: GainsData; subtitle: string; fileName: string; targets?: WaterfallTarget[]; project?: string; benchmark?: WaterfallTarget | null }) {
   const ref = useRef<HTMLElement>(null);
   const d = displayOf(data.response);
   const s = d.scale;
@@ -59,7 +64,7 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
     low = Math.min(low, before + st.low * s);
     high = Math.max(high, before + st.high * s);
   });
-  for (const t of targets) {
+  for (const t of [...targets, ...(benchmark ? [benchmark] : [])]) {
     low = Math.min(low, t.value * s);
     high = Math.max(high, t.value * s);
   }
@@ -143,8 +148,16 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
             barmode: 'overlay',
             xaxis: { tickmode: 'array', tickvals: x, ticktext: tick, tickfont: { family: PLOT_FONT, size: 11 }, showgrid: false },
             yaxis: { title: { text: `${d.label} (${d.unit})` }, range, zeroline: false },
-            shapes: [...connectors, ...targets.map((t) => ({ type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: t.value * s, y1: t.value * s, line: { color: TARGET_LINE, width: 1.5, dash: 'dash' } }))],
-            annotations: [...labels, ...targets.map((t) => ({ xref: 'paper', yref: 'y', x: 0, y: t.value * s, xanchor: 'left', yanchor: 'bottom', text: `target: ${t.label}`, showarrow: false, font: { size: 11, color: TARGET_LINE } }))],
+            shapes: [
+              ...connectors,
+              ...targets.map((t) => ({ type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: t.value * s, y1: t.value * s, line: { color: TARGET_LINE, width: 1.5, dash: 'dash' } })),
+              ...(benchmark ? [{ type: 'line', xref: 'paper', yref: 'y', x0: 0, x1: 1, y0: benchmark.value * s, y1: benchmark.value * s, line: { color: PLOT_COLORS.benchmark, width: 1.5, dash: 'dash' } }] : []),
+            ],
+            annotations: [
+              ...labels,
+              ...targets.map((t) => ({ xref: 'paper', yref: 'y', x: 0, y: t.value * s, xanchor: 'left', yanchor: 'bottom', text: `target: ${t.label}`, showarrow: false, font: { size: 11, color: TARGET_LINE } })),
+              ...(benchmark ? [{ xref: 'paper', yref: 'y', x: 1, y: benchmark.value * s, xanchor: 'right', yanchor: 'top', text: `benchmark ${benchmark.label}: ${showValue(d, benchmark.value)}`, showarrow: false, bgcolor: 'rgba(255,255,255,0.85)', borderpad: 2, font: { size: 11, color: PLOT_COLORS.benchmark } }] : []),
+            ],
             height: 470,
           } as never}
           style={{ height: 470 }}
@@ -163,7 +176,16 @@ export function WaterfallChart({ data, subtitle, fileName, targets = [] }: { dat
         <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} opacity="0.45" /></svg> faded = within noise (interval contains zero)</span>
         <span className="flex items-center gap-1"><svg aria-hidden width="12" height="12"><rect width="12" height="12" fill={UP} /><circle cx="4" cy="4" r="1.4" fill="#fff" /><circle cx="9" cy="9" r="1.4" fill="#fff" /></svg> dotted = the step changed test conditions</span>
         <span>whiskers: {Math.round(data.confidence * 100)} % interval of each step · the axis does not start at zero</span>
-        <span className="ml-auto"><PlotActions target={ref} fileName={fileName} csv={() => gainsCsv(data)} label="waterfall" /></span>
+        {benchmark && <span className="flex items-center gap-1"><svg aria-hidden width="16" height="12"><path d="M0 6h16" stroke={PLOT_COLORS.benchmark} strokeWidth="1.5" strokeDasharray="4 2" /></svg> benchmark {benchmark.label}</span>}
+        <span className="ml-auto">
+          <PlotActions
+            target={ref}
+            fileName={fileName}
+            csv={() => gainsCsv(data)}
+            label="waterfall"
+            exportLayout={() => waterfallExportLayout({ project: project ?? '', label: d.label, unit: d.unit, from: steps[0].code, to: steps[steps.length - 1].code, conditions: subtitle, date: new Date().toISOString().slice(0, 10), confidencePercent: Math.round(data.confidence * 100), targets, benchmark: benchmark?.label ?? null, width: ref.current?.getBoundingClientRect().width })}
+          />
+        </span>
       </div>
     </div>
   );

@@ -9,7 +9,18 @@ import type { LineageData, LineageNodeView } from '../api/get-lineage';
 
 const display = (response: LineageData['response']) => responseDisplay(response);
 
-function Row({ node, data, projectId, lone = false }: { node: LineageNodeView; data: LineageData; projectId: number; lone?: boolean }) {
+/** A target on the tree's response: ≥ or ≤ a value in the response's own unit. */
+export interface LineageTarget { label: string; value: number; comparator: '>=' | '<=' }
+
+/** Where a node stands against a target: met, or the gap still to close in the display unit. */
+function TargetMark({ target, mean, d }: { target: LineageTarget; mean: number; d: ReturnType<typeof display> }) {
+  const met = target.comparator === '>=' ? mean >= target.value : mean <= target.value;
+  if (met) return <span className="whitespace-nowrap rounded-full border border-[#D55E00]/40 px-1.5 text-[11px] text-[#a34700]" title={`meets ${target.label}`}>meets target</span>;
+  const gap = Math.abs(target.value - mean) * d.scale;
+  return <span className="whitespace-nowrap text-[11px] text-ink-500" title={`short of ${target.label}`}>{formatNumber(gap, Math.max(1, d.digits))} {d.unit} to target</span>;
+}
+
+function Row({ node, data, projectId, lone = false, target }: { node: LineageNodeView; data: LineageData; projectId: number; lone?: boolean; target?: LineageTarget | null }) {
   const d = display(data.response);
   const v = node.value;
   return (
@@ -31,7 +42,8 @@ function Row({ node, data, projectId, lone = false }: { node: LineageNodeView; d
         <StatusBadge status={(node.planned ? 'planned' : node.status) as BuildStatus} />
         {node.best && <span className="inline-flex items-center gap-1 rounded-full bg-copper-600 px-2 py-0.5 text-xs font-medium text-white"><svg aria-hidden width="10" height="10" viewBox="0 0 10 10"><path d="M5 .8 6.3 3.6 9.3 3.9 7 5.9 7.7 8.9 5 7.3 2.3 8.9 3 5.9.7 3.9 3.7 3.6z" fill="currentColor" /></svg>best</span>}
         {node.onBestPath && !node.best && <span className="text-xs font-medium text-copper-700">best path</span>}
-        <span className="num ml-auto text-sm text-ink-950">
+        {target && v && <span className="ml-auto"><TargetMark target={target} mean={v.mean} d={d} /></span>}
+        <span className={`num text-sm text-ink-950 ${target && v ? '' : 'ml-auto'}`}>
           {v ? <>{formatNumber(v.mean * d.scale, d.digits)}{v.sd != null && <> ± {formatNumber(v.sd * d.scale, Math.max(1, d.digits))}</>} {d.unit} <span className="text-xs text-ink-500">n = {v.n}</span></> : <span className="text-xs text-ink-500">{node.planned ? 'not made yet' : node.status === 'discarded' ? 'discarded: not counted' : 'not measured'}</span>}
         </span>
       </div>
@@ -48,7 +60,8 @@ function Row({ node, data, projectId, lone = false }: { node: LineageNodeView; d
   );
 }
 
-export function LineageTree({ data, projectId }: { data: LineageData; projectId: number }) {
+/** `target`: the first target on the tree's response; each measured node says whether it meets it. */
+export function LineageTree({ data, projectId, target }: { data: LineageData; projectId: number; target?: LineageTarget | null }) {
   const trees: LineageNodeView[][] = [];
   for (const node of data.nodes) {
     if (node.depth === 0) trees.push([]);
@@ -62,13 +75,13 @@ export function LineageTree({ data, projectId }: { data: LineageData; projectId:
       {campaigns.map((tree) => (
         <section key={tree[0].groupId} aria-label={`Lineage from ${tree[0].code}`}>
           <h3 className="mb-1.5 text-xs font-semibold uppercase tracking-wide text-ink-500">From baseline {tree[0].code}</h3>
-          <ul className="space-y-1.5">{tree.map((n) => <Row key={n.groupId} node={n} data={data} projectId={projectId} />)}</ul>
+          <ul className="space-y-1.5">{tree.map((n) => <Row key={n.groupId} node={n} data={data} projectId={projectId} target={target} />)}</ul>
         </section>
       ))}
       {lone.length > 0 && (
         <section aria-label="Builds without a parent or children">
           <h3 className="mb-1.5 text-xs font-semibold uppercase tracking-wide text-ink-500">Builds without a parent or children</h3>
-          <ul className="space-y-1.5">{lone.map((t) => <Row key={t[0].groupId} node={t[0]} data={data} projectId={projectId} lone />)}</ul>
+          <ul className="space-y-1.5">{lone.map((t) => <Row key={t[0].groupId} node={t[0]} data={data} projectId={projectId} lone target={target} />)}</ul>
         </section>
       )}
     </div>
