@@ -7,7 +7,7 @@ import { LineageTree } from '@/features/lineage/components/lineage-tree';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Field, Select } from '@/components/ui/field';
 import { LinkButton } from '@/components/ui/button';
-import { formatNumber, responseDisplay } from '@/lib/format';
+import { responseDisplay } from '@/lib/format';
 import { useTargets } from '@/features/targets/api/targets';
 import { conversionFactor } from '@shared/targets/target-units';
 import { targetStatement } from '@/features/targets/components/target-status';
@@ -27,7 +27,6 @@ export default function LineagePage() {
   // the first target on this response, in the response's own unit
   const onResponse = (targets.data ?? []).map((t) => ({ t, factor: t.metric === data.response.key ? conversionFactor(t.unit, data.response.unit) : null })).find((x) => x.factor != null);
   const target = onResponse ? { label: onResponse.t.name ? `${onResponse.t.name} (${targetStatement(onResponse.t)})` : targetStatement(onResponse.t), value: onResponse.t.value * onResponse.factor!, comparator: onResponse.t.comparator } : null;
-  const shown = responseDisplay(data.response);
   const goal = data.response.goal === 'minimize' ? 'lowest' : data.response.goal === 'target' ? 'closest to target' : 'highest';
   return (
     <div className="max-w-6xl">
@@ -58,7 +57,7 @@ export default function LineagePage() {
         {target && (
           <p className="mb-3 flex items-center gap-2 text-sm text-[#a34700]" role="note">
             <svg aria-hidden width="22" height="8"><path d="M0 4h22" stroke="#D55E00" strokeWidth="2" strokeDasharray="5 3" /></svg>
-            Target: {target.label} — {formatNumber(target.value * shown.scale, shown.digits)} {shown.unit}; each measured row says whether it meets it or how far it has to go.
+            Target: {target.label}. Each measured row says whether it meets it or how far it has to go.
           </p>
         )}
         {data.nodes.length === 0 ? <EmptyState title="No builds yet">Create a baseline build, then derive builds from it.</EmptyState> : <LineageTree data={data} projectId={projectId} target={target} />}

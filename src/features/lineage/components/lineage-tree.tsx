@@ -17,7 +17,7 @@ function TargetMark({ target, mean, d }: { target: LineageTarget; mean: number; 
   const met = target.comparator === '>=' ? mean >= target.value : mean <= target.value;
   if (met) return <span className="whitespace-nowrap rounded-full border border-[#D55E00]/40 px-1.5 text-[11px] text-[#a34700]" title={`meets ${target.label}`}>meets target</span>;
   const gap = Math.abs(target.value - mean) * d.scale;
-  return <span className="whitespace-nowrap text-[11px] text-ink-500" title={`short of ${target.label}`}>{formatNumber(gap, Math.max(1, d.digits))} {d.unit} to target</span>;
+  return <span className="whitespace-nowrap text-[11px] text-ink-500" title={`short of ${target.label}`}>{formatNumber(gap, d.digits)} {d.unit} to target</span>;
 }
 
 function Row({ node, data, projectId, lone = false, target }: { node: LineageNodeView; data: LineageData; projectId: number; lone?: boolean; target?: LineageTarget | null }) {
