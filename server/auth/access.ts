@@ -31,9 +31,10 @@ export type Scope = 'project' | 'build' | 'curve' | 'file' | 'import-profile' | 
  * - 'create-project': signed in and not a partner-lab member
  * - { action, on }: an action of the role table on the project the path's {id} leads to
  *   (a project, or the project of a build, curve, file or import profile); `members` also
- *   refuses site admins who are not members of that project
+ *   refuses site admins who are not members of that project; `idFrom: 'body'` takes the
+ *   project's id from the body's `projectId` instead (routes without one in the path)
  */
-export type Permission = 'public' | 'signed-in' | 'site-admin' | 'create-project' | { action: ProjectAction; on: Scope; members?: true };
+export type Permission = 'public' | 'signed-in' | 'site-admin' | 'create-project' | { action: ProjectAction; on: Scope; members?: true; idFrom?: 'body' };
 
 export interface ProjectAccess {
   projectId: number;

@@ -104,6 +104,8 @@ export function defineFeature(name: string, specs: RouteSpec[]): Feature {
               if (TEXT_PARAMS.has(param)) texts[param] = String(req.params[param]);
               else ids[param] = idParam(req.params[param], param);
             }
+            // a route without the project in its path names it in the body
+            if (typeof spec.permission === 'object' && spec.permission.idFrom === 'body') ids.id = idParam((req.body as { projectId?: unknown } | undefined)?.projectId, 'projectId');
             const guarded = guard(ctx, req.user, spec.permission, ids);
             const body = spec.body ? parseInput(spec.body, req.body) : undefined;
             const query = spec.query ? parseInput(spec.query, req.query, 'query') : undefined;

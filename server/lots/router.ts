@@ -1,7 +1,12 @@
 // HTTP for catalyst lots: list and record them per project, read one with its builds, change it,
-// and compare a response between two lots at matched recipes (PIs and researchers record lots).
-import { lotComparisonQuerySchema, lotCreateSchema, lotUpdateSchema } from '../../shared/schemas/lots';
+// keep certificates with it, and compare a response between two lots at matched recipes (PIs and
+// researchers record lots); GET/POST /api/lots span the projects one may read.
+import { lotComparisonQuerySchema, lotCreateInProjectSchema, lotCreateSchema, lotsQuerySchema, lotUpdateSchema } from '../../shared/schemas/lots';
 import { defineFeature, route } from '../lib/route';
+import { AppError } from '../lib/errors';
+import { checkedFileName } from '../lib/multipart-errors';
+import { receiveFile, removeReceivedFile } from '../lib/receive-file';
+import { z } from 'zod';
 import * as lots from './service';
 
 export const lotsFeature = defineFeature('lots', [
@@ -14,6 +19,32 @@ export const lotsFeature = defineFeature('lots', [
     method: 'post', path: '/api/projects/{id}/lots', tag: 'lots', permission: { action: 'editLots', on: 'project' }, body: lotCreateSchema, status: 201,
     summary: 'Record a catalyst lot (name, maker, batch size in g, synthesis or receipt date, metal content in wt %, notes)',
     handle: ({ ctx, access, body }) => ({ lot: lots.createLot(ctx, access, body) }),
+  }),
+  route({
+    method: 'get', path: '/api/lots', tag: 'lots', permission: 'signed-in', query: lotsQuerySchema,
+    summary: 'Every catalyst lot of the projects one may read (projectId to keep one project, q to search name or maker), each with its project, build count and files',
+    handle: ({ ctx, user, query }) => ({ lots: lots.listAllLots(ctx, user!, query) }),
+  }),
+  route({
+    method: 'post', path: '/api/lots', tag: 'lots', permission: { action: 'editLots', on: 'project', idFrom: 'body' }, body: lotCreateInProjectSchema, status: 201,
+    summary: 'Record a catalyst lot in the project the body names (projectId, name, maker, batch size in g, date, metal content in wt %, notes)',
+    handle: ({ ctx, access, body }) => ({ lot: lots.createLot(ctx, access, body) }),
+  }),
+  route({
+    method: 'post', path: '/api/lots/{id}/files', tag: 'lots', permission: { action: 'editLots', on: 'lot' }, multipart: z.object({}), status: 201,
+    summary: 'Keep a file with the lot (multipart field "file": a certificate of analysis, an ICP report, a data sheet; PDF, image or table). Raw bytes at /api/files/{id}/raw',
+    before: (ctx) => [receiveFile(ctx)],
+    cleanup: removeReceivedFile,
+    handle: ({ ctx, req, access, lot }) => {
+      const file = req.file;
+      if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
+      return lots.addLotFile(ctx, access, lot, { tmpPath: file.path, originalName: checkedFileName(file.originalname), size: file.size, contentType: file.mimetype }).then((view) => ({ lot: view }));
+    },
+  }),
+  route({
+    method: 'delete', path: '/api/lots/{id}/files/{fileId}', tag: 'lots', permission: { action: 'editLots', on: 'lot' },
+    summary: 'Take a file off the lot’s list (the stored bytes stay, as every raw file does). Audited',
+    handle: ({ ctx, access, lot, ids }) => ({ lot: lots.removeLotFile(ctx, access, lot, ids.fileId!) }),
   }),
   route({
     method: 'get', path: '/api/lots/{id}', tag: 'lots', permission: { action: 'read', on: 'lot' },

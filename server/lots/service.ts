@@ -1,16 +1,20 @@
 // Catalyst lots of a project: records (maker, batch size, date, metal content), the builds made
 // from each, and the lot-to-lot comparison of a response at matched recipes.
-import { and, asc, eq, sql } from 'drizzle-orm';
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { pipeline } from 'node:stream/promises';
+import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import type { z } from 'zod';
-import type { AppContext } from '../context';
+import type { AppContext, AuthUser } from '../context';
 import type { ProjectAccess } from '../auth/access';
-import { builds, lots } from '../db/schema';
+import { builds, files, lots, memberships, projects, users } from '../db/schema';
 import { audit } from '../lib/audit';
 import { conflict, AppError } from '../lib/errors';
 import { listBuilds } from '../builds/service';
 import { resolveResponse } from '../lineage/service';
 import { compareLots } from '../../shared/lots';
-import type { lotCreateSchema, lotUpdateSchema, LotView } from '../../shared/schemas/lots';
+import type { lotCreateSchema, lotUpdateSchema, LotFileView, LotView } from '../../shared/schemas/lots';
 
 type LotRow = typeof lots.$inferSelect;
 
@@ -21,13 +25,98 @@ function buildCounts(ctx: AppContext, projectId: number): Map<number, number> {
   );
 }
 
-function toView(row: LotRow, count: number): LotView {
-  return { id: row.id, projectId: row.projectId, name: row.name, maker: row.maker, batchSizeG: row.batchSizeG ?? null, madeOn: row.madeOn ?? null, metalWtPct: row.metalWtPct ?? null, notes: row.notes, buildCount: count };
+/** The files kept with each of these lots, newest first. */
+function lotFiles(ctx: AppContext, lotIds: number[]): Map<number, LotFileView[]> {
+  const byLot = new Map<number, LotFileView[]>();
+  if (!lotIds.length) return byLot;
+  const rows = ctx.db
+    .select({ id: files.id, lotId: files.lotId, name: files.originalName, sizeBytes: files.sizeBytes, contentType: files.contentType, uploadedAt: files.uploadedAt, uploadedBy: users.name })
+    .from(files)
+    .leftJoin(users, eq(users.id, files.uploadedBy))
+    .where(and(isNotNull(files.lotId), inArray(files.lotId, lotIds)))
+    .orderBy(desc(files.id))
+    .all();
+  for (const r of rows) {
+    const list = byLot.get(r.lotId!) ?? [];
+    list.push({ id: r.id, name: r.name, sizeBytes: r.sizeBytes, contentType: r.contentType, uploadedAt: r.uploadedAt, uploadedBy: r.uploadedBy ?? null });
+    byLot.set(r.lotId!, list);
+  }
+  return byLot;
+}
+
+function toView(row: LotRow, count: number, kept: LotFileView[] = []): LotView {
+  return { id: row.id, projectId: row.projectId, name: row.name, maker: row.maker, batchSizeG: row.batchSizeG ?? null, madeOn: row.madeOn ?? null, metalWtPct: row.metalWtPct ?? null, notes: row.notes, buildCount: count, files: kept };
 }
 
 export function listLots(ctx: AppContext, access: ProjectAccess): LotView[] {
   const counts = buildCounts(ctx, access.projectId);
-  return ctx.db.select().from(lots).where(eq(lots.projectId, access.projectId)).orderBy(asc(lots.id)).all().map((r) => toView(r, counts.get(r.id) ?? 0));
+  const rows = ctx.db.select().from(lots).where(eq(lots.projectId, access.projectId)).orderBy(asc(lots.id)).all();
+  const kept = lotFiles(ctx, rows.map((r) => r.id));
+  return rows.map((r) => toView(r, counts.get(r.id) ?? 0, kept.get(r.id)));
+}
+
+/** Every lot of every project the person may read (site admins: all), by project then name. */
+export function listAllLots(ctx: AppContext, user: AuthUser, query: { projectId?: number; q?: string }): LotView[] {
+  const readable = user.isAdmin
+    ? ctx.db.select({ id: projects.id, name: projects.name }).from(projects).all()
+    : ctx.db.select({ id: projects.id, name: projects.name }).from(memberships).innerJoin(projects, eq(projects.id, memberships.projectId)).where(eq(memberships.userId, user.id)).all();
+  const names = new Map(readable.map((p) => [p.id, p.name]));
+  const ids = [...names.keys()].filter((id) => query.projectId === undefined || id === query.projectId);
+  if (!ids.length) return [];
+  const needle = query.q?.toLowerCase();
+  const rows = ctx.db.select().from(lots).where(inArray(lots.projectId, ids)).orderBy(asc(lots.projectId), asc(lots.name)).all()
+    .filter((r) => !needle || r.name.toLowerCase().includes(needle) || r.maker.toLowerCase().includes(needle));
+  const counts = new Map<number, number>(
+    ctx.db.select({ lotId: builds.lotId, n: sql<number>`count(*)` }).from(builds).where(and(isNotNull(builds.lotId), inArray(builds.projectId, ids))).groupBy(builds.lotId).all().map((r) => [r.lotId!, r.n]),
+  );
+  const kept = lotFiles(ctx, rows.map((r) => r.id));
+  return rows.map((r) => ({ ...toView(r, counts.get(r.id) ?? 0, kept.get(r.id)), projectName: names.get(r.projectId)! }));
+}
+
+/** What a certificate may be: documents, images and tables, not programs. */
+const KEPT_EXTENSIONS = new Set(['.pdf', '.png', '.jpg', '.jpeg', '.tif', '.tiff', '.csv', '.txt', '.tsv', '.xlsx', '.xls', '.docx', '.odt', '.ods']);
+
+/** Keep a file (a certificate of analysis, a supplier data sheet) with the lot: stored by its hash, audited. */
+export async function addLotFile(ctx: AppContext, access: ProjectAccess, lot: LotRow, upload: { tmpPath: string; originalName: string; size: number; contentType: string }): Promise<LotView> {
+  try {
+    const ext = path.extname(upload.originalName).toLowerCase();
+    if (!KEPT_EXTENSIONS.has(ext)) {
+      throw new AppError(415, 'unsupported-type', `${upload.originalName}: a lot keeps documents, images and tables (${[...KEPT_EXTENSIONS].join(', ')}), not "${ext || 'no extension'}" files. Nothing was stored.`, { fields: [{ path: 'file', message: 'unsupported file type' }] });
+    }
+    if (upload.size === 0) throw new AppError(422, 'empty-file', `${upload.originalName}: the file is empty. Nothing was stored.`, { fields: [{ path: 'file', message: 'empty' }] });
+    const hash = crypto.createHash('sha256');
+    await pipeline(fs.createReadStream(upload.tmpPath), hash);
+    const sha256 = hash.digest('hex');
+    const { existed } = await ctx.storage.put(sha256, upload.tmpPath);
+    try {
+      ctx.db.transaction((tx) => {
+        const file = tx.insert(files).values({ sha256, sizeBytes: upload.size, originalName: upload.originalName.slice(0, 255), contentType: upload.contentType.slice(0, 100) || 'application/octet-stream', projectId: lot.projectId, lotId: lot.id, uploadedBy: access.user.id }).returning().get();
+        audit(tx as never, { userId: access.user.id, action: 'attach', entity: 'lot', entityId: lot.id, projectId: lot.projectId, after: { fileId: file.id, file: file.originalName, sha256, sizeBytes: upload.size } });
+      });
+    } catch (error) {
+      if (!existed && !ctx.db.select({ id: files.id }).from(files).where(eq(files.sha256, sha256)).get()) await ctx.storage.remove(sha256);
+      throw error;
+    }
+  } finally {
+    fs.rmSync(upload.tmpPath, { force: true });
+  }
+  return lotView(ctx, lot);
+}
+
+/** The file leaves the lot's list (its bytes stay stored, as every raw file does). */
+export function removeLotFile(ctx: AppContext, access: ProjectAccess, lot: LotRow, fileId: number): LotView {
+  const file = ctx.db.select().from(files).where(eq(files.id, fileId)).get();
+  if (!file || file.lotId !== lot.id) throw new AppError(404, 'not-found', `File ${fileId} is not kept with lot ${lot.name}.`);
+  ctx.db.transaction((tx) => {
+    tx.update(files).set({ lotId: null }).where(eq(files.id, fileId)).run();
+    audit(tx as never, { userId: access.user.id, action: 'detach', entity: 'lot', entityId: lot.id, projectId: lot.projectId, before: { fileId, file: file.originalName } });
+  });
+  return lotView(ctx, lot);
+}
+
+function lotView(ctx: AppContext, lot: LotRow): LotView {
+  const fresh = ctx.db.select().from(lots).where(eq(lots.id, lot.id)).get()!;
+  return toView(fresh, buildCounts(ctx, lot.projectId).get(lot.id) ?? 0, lotFiles(ctx, [lot.id]).get(lot.id));
 }
 
 function nameTaken(ctx: AppContext, projectId: number, name: string, exceptId?: number) {
@@ -60,7 +149,7 @@ export function updateLot(ctx: AppContext, access: ProjectAccess, before: LotRow
     audit(tx as never, { userId: access.user.id, action: 'update', entity: 'lot', entityId: before.id, projectId: access.projectId, before, after });
     return after;
   });
-  return toView(row, buildCounts(ctx, access.projectId).get(row.id) ?? 0);
+  return toView(row, buildCounts(ctx, access.projectId).get(row.id) ?? 0, lotFiles(ctx, [row.id]).get(row.id));
 }
 
 /** A build's recipe without its lot: factor values and catalyst loading (what "matched" means). */
@@ -73,7 +162,7 @@ function recipeKey(b: { factors: Record<string, number | string>; loadingMgCm2: 
 export function lotDetail(ctx: AppContext, access: ProjectAccess, lot: LotRow) {
   const made = listBuilds(ctx, access).filter((b) => b.lotId === lot.id);
   return {
-    lot: toView(lot, made.length),
+    lot: toView(lot, made.length, lotFiles(ctx, [lot.id]).get(lot.id)),
     builds: made.map((b) => {
       const derived = b.loadingMgCm2 != null && lot.metalWtPct != null ? (b.loadingMgCm2 * lot.metalWtPct) / 100 : null;
       return {

@@ -15,6 +15,27 @@ export type LotCreate = z.input<typeof lotCreateSchema>;
 
 export const lotUpdateSchema = lotCreateSchema.partial();
 
+/** POST /api/lots: a lot recorded in the project the body names. */
+export const lotCreateInProjectSchema = lotCreateSchema.extend({ projectId: z.number().int().positive() });
+export type LotCreateInProject = z.input<typeof lotCreateInProjectSchema>;
+
+/** GET /api/lots: every lot of the projects one can read, optionally of one project or by name. */
+export const lotsQuerySchema = z.object({
+  projectId: z.coerce.number().int().positive().optional(),
+  /** part of the lot's name or maker, any case */
+  q: z.string().trim().max(60).optional(),
+});
+
+/** A file kept with a lot: a certificate of analysis, an ICP report, a supplier's data sheet. */
+export interface LotFileView {
+  id: number;
+  name: string;
+  sizeBytes: number;
+  contentType: string;
+  uploadedAt: string;
+  uploadedBy: string | null;
+}
+
 export const lotComparisonQuerySchema = z.object({
   /** the lot to judge this one against */
   against: z.coerce.number().int().positive(),
@@ -32,4 +53,8 @@ export interface LotView {
   metalWtPct: number | null;
   notes: string;
   buildCount: number;
+  /** certificates and other files kept with the lot (newest first) */
+  files: LotFileView[];
+  /** the project's name (GET /api/lots, which spans projects) */
+  projectName?: string;
 }

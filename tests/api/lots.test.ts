@@ -66,3 +66,66 @@ describe('lots', () => {
     expect(edited.body.lot.notes).toBe('acid-washed twice');
   });
 });
+
+describe('lots across projects (GET/POST /api/lots)', () => {
+  it('lists the lots of every project one may read, with the project named, filtered by project or name', async () => {
+    const all = await h.as.viewer.get('/api/lots');
+    expect(all.status).toBe(200);
+    const names = all.body.lots.map((l: { name: string }) => l.name);
+    // demo seed: the viewer reads both demo projects, two lots each
+    expect(names).toEqual(expect.arrayContaining(['FNC-24-07', 'FNC-24-11', 'PRA-26-02', 'PRA-26-05']));
+    expect(all.body.lots.find((l: { name: string }) => l.name === 'FNC-24-07').projectName).toMatch(/PGM-free cathode/);
+    const one = await h.as.viewer.get(`/api/lots?projectId=${ids.project('A')}`);
+    expect(one.body.lots.map((l: { name: string }) => l.name).sort()).toEqual(['PRA-26-02', 'PRA-26-05']);
+    const search = await h.as.viewer.get('/api/lots?q=scale-up');
+    expect(search.body.lots.map((l: { name: string }) => l.name)).toEqual(['FNC-24-11']); // maker "own scale-up reactor"
+    // the partner is a member of the cathode project only (demo seed: partner2 of both)
+    const partner = await h.as.partner.get('/api/lots');
+    expect(partner.body.lots.every((l: { projectId: number }) => l.projectId === ids.project('C'))).toBe(true);
+  });
+
+  it('records a lot in the project the body names; a viewer and an unknown project are refused', async () => {
+    const made = await h.as.researcher.post('/api/lots', { projectId: ids.project('C'), name: 'FNC-27-01', maker: 'own synthesis bench', batchSizeG: 4, metalWtPct: 2.1, madeOn: '2026-11-30' });
+    expect(made.status).toBe(201);
+    expect(made.body.lot).toMatchObject({ projectId: ids.project('C'), name: 'FNC-27-01', batchSizeG: 4, metalWtPct: 2.1, buildCount: 0, files: [] });
+    expect((await h.as.viewer.post('/api/lots', { projectId: ids.project('C'), name: 'FNC-27-02' })).status).toBe(403);
+    const missing = await h.as.pi.post('/api/lots', { name: 'FNC-27-03' });
+    expect(missing.status).toBe(400);
+    expect(missing.body.error.message).toMatch(/projectId/);
+    expect((await h.as.pi.post('/api/lots', { projectId: 999999, name: 'FNC-27-04' })).status).toBe(404);
+  });
+});
+
+describe('certificates kept with a lot', () => {
+  it('keeps a certificate with the lot, downloadable unchanged, listed with the lot; audited', async () => {
+    const text = 'Certificate of analysis (invented)\nFe content by ICP-OES: 1.8 wt %\n';
+    const res = await h.as.researcher.upload(`/api/lots/${lotId('FNC-24-11')}/files`, { name: 'FNC-24-11-certificate.txt', content: text });
+    expect(res.status).toBe(201);
+    const kept = res.body.lot.files.find((f: { name: string }) => f.name === 'FNC-24-11-certificate.txt');
+    expect(kept).toMatchObject({ sizeBytes: Buffer.byteLength(text), uploadedBy: expect.any(String) });
+    const raw = await h.as.viewer.get(`/api/files/${kept.id}/raw`).buffer(true);
+    expect(raw.status).toBe(200);
+    expect(String(raw.body)).toBe(text);
+    const read = await h.as.viewer.get(`/api/lots/${lotId('FNC-24-11')}`);
+    expect(read.body.lot.files.map((f: { id: number }) => f.id)).toContain(kept.id);
+    const audits = h.ctx.db.$client.prepare("select action from audit_log where entity = 'lot' and entity_id = ? and action = 'attach'").all(lotId('FNC-24-11'));
+    expect(audits.length).toBeGreaterThan(0);
+    // taken off the list, the bytes stay
+    const off = await h.as.pi.delete(`/api/lots/${lotId('FNC-24-11')}/files/${kept.id}`);
+    expect(off.status).toBe(200);
+    expect(off.body.lot.files.map((f: { id: number }) => f.id)).not.toContain(kept.id);
+    expect((await h.as.viewer.get(`/api/files/${kept.id}/raw`)).status).toBe(200);
+  });
+
+  it('refuses a program, an empty file and a viewer, storing nothing', async () => {
+    const before = (h.ctx.db.$client.prepare('select count(*) as n from files').get() as { n: number }).n;
+    const exe = await h.as.pi.upload(`/api/lots/${lotId('FNC-24-07')}/files`, { name: 'setup.exe', content: 'MZ' });
+    expect(exe.status).toBe(415);
+    expect(exe.body.error.message).toMatch(/^setup\.exe: a lot keeps documents, images and tables/);
+    const empty = await h.as.pi.upload(`/api/lots/${lotId('FNC-24-07')}/files`, { name: 'empty.pdf', content: '' });
+    expect(empty.status).toBe(422);
+    const viewer = await h.as.viewer.upload(`/api/lots/${lotId('FNC-24-07')}/files`, { name: 'c.pdf', content: '%PDF-1.4' });
+    expect(viewer.status).toBe(403);
+    expect((h.ctx.db.$client.prepare('select count(*) as n from files').get() as { n: number }).n).toBe(before);
+  });
+});

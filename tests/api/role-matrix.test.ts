@@ -123,6 +123,13 @@ export const MATRIX: MatrixRow[] = [
   { method: 'delete', path: '/api/reference-curves/{id}', send: async (h, c) => c.delete(`/api/reference-curves/${await makeReference(h)}`) },
   { method: 'get', path: '/api/projects/{id}/lots', send: (_h, c) => c.get(`/api/projects/${C()}/lots`) },
   { method: 'post', path: '/api/projects/{id}/lots', send: (_h, c) => c.post(`/api/projects/${C()}/lots`, { name: unique('FNC-M'), metalWtPct: 2 }) },
+  { method: 'get', path: '/api/lots', send: (_h, c) => c.get('/api/lots') },
+  { method: 'post', path: '/api/lots', send: (_h, c) => c.post('/api/lots', { projectId: C(), name: unique('FNC-G'), metalWtPct: 1.9 }) },
+  { method: 'post', path: '/api/lots/{id}/files', send: (h, c) => c.upload(`/api/lots/${lotId(h, 'FNC-24-07')}/files`, { name: 'certificate.txt', content: 'Fe 2.0 wt % (invented certificate)\n' }) },
+  { method: 'delete', path: '/api/lots/{id}/files/{fileId}', send: async (h, c) => {
+    const kept = await h.as.admin.upload(`/api/lots/${lotId(h, 'FNC-24-07')}/files`, { name: 'to-remove.txt', content: `${unique('note ')}\n` });
+    return c.delete(`/api/lots/${lotId(h, 'FNC-24-07')}/files/${kept.body.lot.files[0].id}`);
+  } },
   { method: 'get', path: '/api/lots/{id}', send: (h, c) => c.get(`/api/lots/${lotId(h, 'FNC-24-07')}`) },
   { method: 'patch', path: '/api/lots/{id}', send: (h, c) => c.patch(`/api/lots/${lotId(h, 'FNC-24-07')}`, { notes: unique('note ') }) },
   { method: 'get', path: '/api/lots/{id}/comparison', send: (h, c) => c.get(`/api/lots/${lotId(h, 'FNC-24-11')}/comparison?against=${lotId(h, 'FNC-24-07')}`) },
