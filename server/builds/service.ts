@@ -255,8 +255,27 @@ function nextCode(ctx: AppContext, projectId: number): string {
   return `${prefix}${String(max + 1).padStart(3, '0')}`;
 }
 
-function validateRelations(ctx: AppContext, projectId: number, body: { parentId?: number | null; replicateOf?: number | null; labId?: number | null; responses?: Record<string, number> }, selfId?: number) {
+/**
+ * The lot a build points at: the record named by lotId (its name fills the free-text lot unless
+ * one is given), else the project's lot whose name the free text matches, else none.
+ */
+function resolveLot(ctx: AppContext, projectId: number, body: { lotId?: number | null; catalystLot?: string | null }): { lotId: number | null; catalystLot: string | null } | null {
+  if (body.lotId != null) {
+    const lot = ctx.db.select({ id: lots.id, name: lots.name, projectId: lots.projectId }).from(lots).where(eq(lots.id, body.lotId)).get()!;
+    return { lotId: lot.id, catalystLot: body.catalystLot ?? lot.name };
+  }
+  if (body.lotId === null) return { lotId: null, catalystLot: body.catalystLot ?? null };
+  if (body.catalystLot === undefined) return null;
+  const named = body.catalystLot ? ctx.db.select({ id: lots.id }).from(lots).where(and(eq(lots.projectId, projectId), eq(lots.name, body.catalystLot))).get() : undefined;
+  return { lotId: named?.id ?? null, catalystLot: body.catalystLot ?? null };
+}
+
+function validateRelations(ctx: AppContext, projectId: number, body: { parentId?: number | null; replicateOf?: number | null; labId?: number | null; lotId?: number | null; responses?: Record<string, number> }, selfId?: number) {
   const fields: { path: string; message: string }[] = [];
+  if (body.lotId != null) {
+    const lot = ctx.db.select({ projectId: lots.projectId }).from(lots).where(eq(lots.id, body.lotId)).get();
+    if (!lot || lot.projectId !== projectId) fields.push({ path: 'lotId', message: `lot ${body.lotId} is not a lot of this project` });
+  }
   for (const key of ['parentId', 'replicateOf'] as const) {
     const id = body[key];
     if (id == null) continue;
@@ -302,6 +321,7 @@ export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.outp
   checkFactors(ctx, access.projectId, body.factors, status);
   validateRelations(ctx, access.projectId, body);
   const code = body.code ?? nextCode(ctx, access.projectId);
+  const lot = resolveLot(ctx, access.projectId, body);
   if (db.select({ id: builds.id }).from(builds).where(and(eq(builds.projectId, access.projectId), eq(builds.code, code))).get()) {
     throw conflict(`Build code ${code} is already used in this project.`, { fields: [{ path: 'code', message: 'already used' }] });
   }
@@ -316,7 +336,8 @@ export function createBuild(ctx: AppContext, access: ProjectAccess, body: z.outp
       loadingMgCm2: body.loadingMgCm2 ?? null,
       metalLoadingMgCm2: body.metalLoadingMgCm2 ?? null,
       areaCm2: body.areaCm2 ?? null,
-      catalystLot: body.catalystLot ?? null,
+      catalystLot: lot?.catalystLot ?? null,
+      lotId: lot?.lotId ?? null,
       labId,
       operatorId: access.user.id,
       testConditions: body.testConditions ?? {},
@@ -360,7 +381,11 @@ export function updateBuild(ctx: AppContext, access: ProjectAccess, before: Buil
   if (body.loadingMgCm2 !== undefined) set.loadingMgCm2 = body.loadingMgCm2;
   if (body.metalLoadingMgCm2 !== undefined) set.metalLoadingMgCm2 = body.metalLoadingMgCm2;
   if (body.areaCm2 !== undefined) set.areaCm2 = body.areaCm2;
-  if (body.catalystLot !== undefined) set.catalystLot = body.catalystLot;
+  const lot = resolveLot(ctx, before.projectId, body);
+  if (lot) {
+    set.catalystLot = lot.catalystLot;
+    set.lotId = lot.lotId;
+  }
   if (body.labId !== undefined) set.labId = body.labId;
   if (step) set.status = step.status;
   if (body.builtOn !== undefined) set.builtOn = body.builtOn;

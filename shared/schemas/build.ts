@@ -17,6 +17,8 @@ export const buildCreateSchema = z.object({
   metalLoadingMgCm2: z.number().positive('must be above 0 mg/cm²').max(50).nullish(),
   areaCm2: z.number().positive('must be above 0 cm²').max(1000, 'must be at most 1000 cm²').nullish(),
   catalystLot: z.string().trim().max(60).nullish(),
+  /** the lot record the build was made from (GET /api/projects/:id/lots); its name fills catalystLot */
+  lotId: z.number().int().positive().nullish(),
   labId: z.number().int().positive().nullish(),
   status: z.enum(BUILD_STATUSES).optional(),
   builtOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'a date like 2026-11-30').nullish(),

@@ -129,3 +129,25 @@ describe('certificates kept with a lot', () => {
     expect((h.ctx.db.$client.prepare('select count(*) as n from files').get() as { n: number }).n).toBe(before);
   });
 });
+
+describe('a build picks its lot', () => {
+  it('points at the lot record, takes its name, and carries its metal content for the derived metal loading', async () => {
+    const made = await h.as.researcher.post(`/api/projects/${ids.project('C')}/builds`, { code: 'C-LOT1', factors: {}, status: 'planned', loadingMgCm2: 3, lotId: lotId('FNC-24-11') });
+    expect(made.status).toBe(201);
+    // demo seed: FNC-24-11 is 1.8 wt % metal
+    expect(made.body.build).toMatchObject({ lotId: lotId('FNC-24-11'), catalystLot: 'FNC-24-11', lotMetalWtPct: 1.8 });
+    const moved = await h.as.researcher.patch(`/api/builds/${made.body.build.id}`, { lotId: lotId('FNC-24-07') });
+    expect(moved.body.build).toMatchObject({ lotId: lotId('FNC-24-07'), catalystLot: 'FNC-24-07', lotMetalWtPct: 2 });
+    // free text naming a recorded lot links to it; other text leaves the build without a record
+    const named = await h.as.researcher.patch(`/api/builds/${made.body.build.id}`, { catalystLot: 'FNC-24-11' });
+    expect(named.body.build.lotId).toBe(lotId('FNC-24-11'));
+    const other = await h.as.researcher.patch(`/api/builds/${made.body.build.id}`, { catalystLot: 'bought in, no record' });
+    expect(other.body.build).toMatchObject({ lotId: null, catalystLot: 'bought in, no record' });
+  });
+
+  it('refuses a lot of another project, naming the field', async () => {
+    const res = await h.as.researcher.post(`/api/projects/${ids.project('C')}/builds`, { code: 'C-LOT2', factors: {}, status: 'planned', lotId: lotId('PRA-26-02') });
+    expect(res.status).toBe(400);
+    expect(res.body.error.details.fields).toEqual([{ path: 'lotId', message: `lot ${lotId('PRA-26-02')} is not a lot of this project` }]);
+  });
+});

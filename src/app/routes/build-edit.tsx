@@ -2,6 +2,7 @@
 import { Navigate, useNavigate, useParams } from 'react-router-dom';
 import { useFactors, useProject, useResponses } from '@/features/projects/api/projects';
 import { useBuild, useBuilds, useLabs, useUpdateBuild } from '@/features/builds/api/builds';
+import { useLots } from '@/features/lots/api/lots';
 import { BuildForm, buildToForm, cleanBuildInput } from '@/features/builds/components/build-form';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
 import { useMe } from '@/features/auth/api/get-me';
@@ -17,11 +18,12 @@ export default function BuildEdit() {
   const builds = useBuilds(projectId);
   const build = useBuild(buildId);
   const labs = useLabs();
+  const lots = useLots(projectId);
   const { data: me } = useMe();
   const update = useUpdateBuild(buildId, projectId);
   // edit a build under its own project's address, with that project's factors
   if (build.data && build.data.build.projectId !== projectId) return <Navigate to={`/projects/${build.data.build.projectId}/builds/${buildId}/edit`} replace />;
-  if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading || build.isLoading) return <Loading />;
+  if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading || build.isLoading || lots.isLoading) return <Loading />;
   const error = project.error ?? factors.error ?? responses.error ?? builds.error ?? labs.error ?? build.error;
   if (error) return <ErrorNote error={error} />;
   const partnerLab = lockedLab(project.data?.myRole ?? null, me?.user.labId);
@@ -34,6 +36,7 @@ export default function BuildEdit() {
         factors={factors.data!}
         responses={responses.data!}
         labs={labs.data!}
+        lots={lots.data ?? []}
         builds={builds.data!.filter((x) => x.id !== b.id)}
         lockLabId={partnerLab}
         initial={buildToForm(b)}

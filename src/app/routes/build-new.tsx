@@ -2,6 +2,7 @@
 import { useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { useFactors, useProject, useResponses } from '@/features/projects/api/projects';
 import { useBuilds, useCreateBuild, useLabs } from '@/features/builds/api/builds';
+import { useLots } from '@/features/lots/api/lots';
 import { BuildForm, cleanBuildInput } from '@/features/builds/components/build-form';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
 import { useMe } from '@/features/auth/api/get-me';
@@ -16,9 +17,10 @@ export default function BuildNew() {
   const responses = useResponses(projectId);
   const builds = useBuilds(projectId);
   const labs = useLabs();
+  const lots = useLots(projectId);
   const { data: me } = useMe();
   const create = useCreateBuild(projectId);
-  if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading) return <Loading />;
+  if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading || lots.isLoading) return <Loading />;
   const error = project.error ?? factors.error ?? responses.error ?? builds.error ?? labs.error;
   if (error) return <ErrorNote error={error} />;
   const partnerLab = lockedLab(project.data?.myRole ?? null, me?.user.labId);
@@ -32,9 +34,10 @@ export default function BuildNew() {
         factors={factors.data!}
         responses={responses.data!}
         labs={labs.data!}
+        lots={lots.data ?? []}
         builds={builds.data!}
         lockLabId={partnerLab}
-        initial={parent ? { parentId: parent.id, factors: { ...parent.factors }, loadingMgCm2: parent.loadingMgCm2, metalLoadingMgCm2: parent.metalLoadingMgCm2, areaCm2: parent.areaCm2, catalystLot: parent.catalystLot, testConditions: { ...parent.testConditions }, status: 'built', labId: partnerLab ?? parent.labId } : partnerLab ? { factors: {}, testConditions: { temperatureC: 180, anodeGas: 'H2', cathodeGas: 'air' }, status: 'built', areaCm2: 25, labId: partnerLab } : undefined}
+        initial={parent ? { parentId: parent.id, factors: { ...parent.factors }, loadingMgCm2: parent.loadingMgCm2, metalLoadingMgCm2: parent.metalLoadingMgCm2, areaCm2: parent.areaCm2, catalystLot: parent.catalystLot, lotId: parent.lotId ?? null, testConditions: { ...parent.testConditions }, status: 'built', labId: partnerLab ?? parent.labId } : partnerLab ? { factors: {}, testConditions: { temperatureC: 180, anodeGas: 'H2', cathodeGas: 'air' }, status: 'built', areaCm2: 25, labId: partnerLab } : undefined}
         submitLabel="Create build"
         pending={create.isPending}
         serverError={create.error}

@@ -3,7 +3,8 @@
 // the safety caution, and hand-entered responses. Each reads the form through its context.
 import { isFlammableFuel } from '@shared/builds/flammable-fuel';
 import { useFormContext, type FieldErrors } from 'react-hook-form';
-import type { Build, FactorDef, ResponseDef, Lab } from '@shared/api-types';
+import type { Build, FactorDef, ResponseDef, Lab, LotView } from '@shared/api-types';
+import { formatNumber } from '@/lib/format';
 import { BUILD_STATUSES } from '@shared/schemas/build';
 import { Field, Input, Select, Textarea } from '@/components/ui/field';
 import { Panel, SafetyNote } from '@/components/ui/panel';
@@ -94,23 +95,48 @@ export function RecipeSection({ factors }: { factors: FactorDef[] }) {
 }
 
 /** Loading, area, lot, lab (fixed for a partner), status and dates. */
-export function ElectrodeSection({ labs, lockLabId, wasReviewed }: { labs: Lab[]; lockLabId?: number | null; wasReviewed: boolean }) {
-  const { register, error } = useBuildForm();
+/** Metal loading as it follows from the lot: catalyst loading × the lot's metal content, or why not. */
+export function derivedMetalLoading(loadingMgCm2: unknown, lot: Pick<LotView, 'name' | 'metalWtPct'> | undefined): string | null {
+  if (!lot) return null;
+  if (lot.metalWtPct == null) return `Lot ${lot.name} records no metal content: enter the measured metal loading.`;
+  const loading = typeof loadingMgCm2 === 'number' ? loadingMgCm2 : Number(loadingMgCm2);
+  if (!(loading > 0)) return `Lot ${lot.name}: ${formatNumber(lot.metalWtPct, 1)} wt % metal; enter the catalyst loading to derive the metal loading.`;
+  return `From lot ${lot.name}: ${formatNumber(loading, 2)} mg/cm² × ${formatNumber(lot.metalWtPct, 1)} wt % = ${formatNumber((loading * lot.metalWtPct) / 100, 3)} mg/cm², used unless you enter a measured value.`;
+}
+
+export function ElectrodeSection({ labs, lots = [], lockLabId, wasReviewed }: { labs: Lab[]; lots?: LotView[]; lockLabId?: number | null; wasReviewed: boolean }) {
+  const { register, error, watch } = useBuildForm();
+  const lotId = watch('lotId');
+  const lot = lotId != null ? lots.find((l) => l.id === Number(lotId)) : undefined;
+  const metalGiven = watch('metalLoadingMgCm2');
+  const derived = metalGiven == null || Number.isNaN(metalGiven as number) ? derivedMetalLoading(watch('loadingMgCm2'), lot) : null;
   return (
     <Panel title="Electrode and MEA">
       <div className="grid gap-4 md:grid-cols-4">
         <Field label="Catalyst loading (mg/cm²)" error={error('loadingMgCm2')}>
           {(p) => <Input {...p} type="number" step="any" {...register('loadingMgCm2', { setValueAs: asNumber })} />}
         </Field>
-        <Field label="Metal loading (mg/cm²)" hint="Needed for a metal loading basis" error={error('metalLoadingMgCm2')}>
+        <Field label="Metal loading (mg/cm²)" hint={derived ?? 'Measured; needed for a metal loading basis'} error={error('metalLoadingMgCm2')}>
           {(p) => <Input {...p} type="number" step="any" {...register('metalLoadingMgCm2', { setValueAs: asNumber })} />}
         </Field>
         <Field label="Active area (cm²)" error={error('areaCm2')}>
           {(p) => <Input {...p} type="number" step="any" {...register('areaCm2', { setValueAs: asNumber })} />}
         </Field>
-        <Field label="Catalyst lot" error={error('catalystLot')}>
-          {(p) => <Input {...p} {...register('catalystLot')} />}
-        </Field>
+        {lots.length > 0 && (
+          <Field label="Catalyst lot" hint="The project’s recorded lots (Catalyst lots page)" error={error('lotId')}>
+            {(p) => (
+              <Select {...p} {...register('lotId', { setValueAs: asId })}>
+                <option value="">— not a recorded lot —</option>
+                {lots.map((l) => <option key={l.id} value={l.id}>{l.name}{l.metalWtPct != null ? ` · ${formatNumber(l.metalWtPct, 1)} wt % metal` : ''}{l.maker ? ` · ${l.maker}` : ''}</option>)}
+              </Select>
+            )}
+          </Field>
+        )}
+        {!lot && (
+          <Field label={lots.length ? 'Lot name (not recorded)' : 'Catalyst lot'} error={error('catalystLot')}>
+            {(p) => <Input {...p} {...register('catalystLot')} />}
+          </Field>
+        )}
         <Field label="Lab" hint={lockLabId ? 'Partners record builds for their own lab' : undefined} error={error('labId')}>
           {(p) => (
             <Select {...p} disabled={Boolean(lockLabId)} {...register('labId', { setValueAs: asId })}>

@@ -62,6 +62,7 @@ export function buildToForm(b: Build): BuildFormValues {
     metalLoadingMgCm2: b.metalLoadingMgCm2,
     areaCm2: b.areaCm2,
     catalystLot: b.catalystLot,
+    lotId: b.lotId ?? null,
     labId: b.labId,
     status: b.status,
     builtOn: b.builtOn,

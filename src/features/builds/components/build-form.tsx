@@ -4,7 +4,7 @@
 // matching inputs.
 import { useEffect } from 'react';
 import { FormProvider, useForm, type UseFormReturn } from 'react-hook-form';
-import type { Build, FactorDef, ResponseDef, Lab } from '@shared/api-types';
+import type { Build, FactorDef, ResponseDef, Lab, LotView } from '@shared/api-types';
 import type { BuildCreate } from '@shared/schemas/build';
 import { Button } from '@/components/ui/button';
 import { ErrorNote } from '@/components/ui/panel';
@@ -36,14 +36,17 @@ function useStartFromParent(form: UseFormReturn<BuildFormValues>, builds: Build[
     if (parent.loadingMgCm2 != null) setValue('loadingMgCm2', parent.loadingMgCm2);
     if (parent.areaCm2 != null) setValue('areaCm2', parent.areaCm2);
     if (parent.catalystLot) setValue('catalystLot', parent.catalystLot);
+    if (parent.lotId != null) setValue('lotId', parent.lotId);
     setValue('testConditions', { ...parent.testConditions });
   }, [parentId, builds, editing, setValue]);
 }
 
-export function BuildForm({ factors, responses, labs, builds, initial, lockLabId, submitLabel, onSubmit, pending, serverError }: {
+export function BuildForm({ factors, responses, labs, lots = [], builds, initial, lockLabId, submitLabel, onSubmit, pending, serverError }: {
   factors: FactorDef[];
   responses: ResponseDef[];
   labs: Lab[];
+  /** the project's catalyst lots: the build picks its lot from these */
+  lots?: LotView[];
   builds: Build[];
   /** the build being edited; a new build opens with the usual test point */
   initial?: BuildFormValues;
@@ -60,10 +63,14 @@ export function BuildForm({ factors, responses, labs, builds, initial, lockLabId
 
   return (
     <FormProvider {...form}>
-      <form noValidate className="space-y-5" onSubmit={form.handleSubmit((values) => onSubmit(values as BuildCreate))} aria-label="Build form">
+      <form noValidate className="space-y-5" onSubmit={form.handleSubmit((values) => {
+        // a build made from a recorded lot carries that lot's name
+        const lot = values.lotId != null ? lots.find((l) => l.id === Number(values.lotId)) : undefined;
+        onSubmit({ ...(values as BuildCreate), ...(lot && { catalystLot: lot.name }) });
+      })} aria-label="Build form">
         <LineageSection builds={builds} />
         <RecipeSection factors={factors} />
-        <ElectrodeSection labs={labs} lockLabId={lockLabId} wasReviewed={initial?.status === 'reviewed'} />
+        <ElectrodeSection labs={labs} lots={lots} lockLabId={lockLabId} wasReviewed={initial?.status === 'reviewed'} />
         <TestConditionsSection />
         <ResponsesSection responses={responses} />
         <NotesSection />
