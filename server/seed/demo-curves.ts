@@ -12,10 +12,12 @@ import type { ProjectSettings } from '../../shared/schemas/project';
 import { generatePolarizationCurve, mulberry32, tafelSlopeTheory, writeCurveCsv, type SemiEmpiricalParams, type CurveCsvShape } from '../../shared/curves';
 import { generateSyntheticLog, writeDurabilityCsv } from '../../shared/durability';
 import { demoAcceleratedTest, demoImpedanceSpectrum, demoOcvHold, demoPressureSeries, demoTemperatureSeries } from '../../shared/demo';
-import { builds, users } from '../db/schema';
+import { builds, lots, users } from '../db/schema';
 import { eq } from 'drizzle-orm';
 import { ingestUpload, type UploadOptions } from '../curves/service';
 import { importReferenceCurve } from '../benchmarks/service';
+import { addLotFile } from '../lots/service';
+import PDFDocument from 'pdfkit';
 import { AppError } from '../lib/errors';
 
 export interface DemoCurveJob {
@@ -186,5 +188,40 @@ export async function addDemoReference(ctx: AppContext, projectId: number, userI
     });
   } finally {
     fs.rmSync(path.dirname(tmp), { recursive: true, force: true });
+  }
+}
+
+/** An invented certificate of analysis for a demo lot, as a one-page PDF. */
+function certificatePdf(lot: { name: string; maker: string; batchSizeG: number | null; madeOn: string | null; metalWtPct: number | null }): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    const doc = new PDFDocument({ size: 'A4', margin: 56, info: { Title: `Certificate of analysis ${lot.name} (invented)` } });
+    const chunks: Buffer[] = [];
+    doc.on('data', (c: Buffer) => chunks.push(c));
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+    doc.font('Helvetica-Bold').fontSize(16).text('Certificate of analysis');
+    doc.font('Helvetica').fontSize(10).fillColor('#555').text('Invented for the Cellwright demo: no real maker, batch or measurement.');
+    doc.moveDown().fillColor('#000').fontSize(11);
+    for (const [k, v] of [['Lot', lot.name], ['Maker', lot.maker], ['Batch size', lot.batchSizeG != null ? `${lot.batchSizeG} g` : 'not stated'], ['Made or received', lot.madeOn ?? 'not stated'], ['Metal content (ICP-OES)', lot.metalWtPct != null ? `${lot.metalWtPct} wt %` : 'not measured'], ['Moisture', '< 1 wt %']] as const) {
+      doc.font('Helvetica-Bold').text(`${k}: `, { continued: true }).font('Helvetica').text(String(v));
+    }
+    doc.end();
+  });
+}
+
+/** Each demo lot keeps its invented certificate, through the lot-file route's own path. */
+export async function addDemoCertificates(ctx: AppContext, projectId: number, userId: number): Promise<void> {
+  const row = ctx.db.select().from(users).where(eq(users.id, userId)).get()!;
+  const user: AuthUser = { id: row.id, email: row.email, name: row.name, isAdmin: row.isAdmin, labId: row.labId, labKind: null };
+  for (const lot of ctx.db.select().from(lots).where(eq(lots.projectId, projectId)).all()) {
+    const bytes = await certificatePdf(lot);
+    const fileName = `${lot.name}-certificate-of-analysis.pdf`;
+    const tmp = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'cw-seed-')), fileName);
+    fs.writeFileSync(tmp, bytes);
+    try {
+      await addLotFile(ctx, { projectId, role: 'admin', user }, lot, { tmpPath: tmp, originalName: fileName, size: bytes.length, contentType: 'application/pdf' });
+    } finally {
+      fs.rmSync(path.dirname(tmp), { recursive: true, force: true });
+    }
   }
 }

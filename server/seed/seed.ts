@@ -4,7 +4,7 @@ import type { AppContext } from '../context';
 import { benchmarks, builds, factors, labs, lots, memberships, projects, responseDefs, targets, users } from '../db/schema';
 import { hashPassword } from '../auth/passwords';
 import { DEMO_PASSWORD, LABS, PEOPLE, PROJECTS } from './demo-data';
-import { addDemoCurves, addDemoReference } from './demo-curves';
+import { addDemoCertificates, addDemoCurves, addDemoReference } from './demo-curves';
 
 export async function seedIfEmpty(ctx: AppContext): Promise<boolean> {
   if (ctx.env.SEED_DEMO === 'never') return false;
@@ -75,5 +75,6 @@ export async function seedDemo(ctx: AppContext): Promise<void> {
   });
   for (const job of jobs) await addDemoCurves(ctx, job);
   for (const r of references) await addDemoReference(ctx, r.projectId, userIds.get('pi')!, r.reference);
+  for (const projectId of new Set(jobs.map((j) => j.projectId))) await addDemoCertificates(ctx, projectId, userIds.get('researcher')!);
   ctx.logger.info(`Seeded the demo lab: ${PEOPLE.length} people, ${PROJECTS.length} projects, ${PROJECTS.reduce((n, p) => n + p.builds.length, 0)} builds`);
 }

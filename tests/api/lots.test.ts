@@ -75,6 +75,8 @@ describe('lots across projects (GET/POST /api/lots)', () => {
     // demo seed: the viewer reads both demo projects, two lots each
     expect(names).toEqual(expect.arrayContaining(['FNC-24-07', 'FNC-24-11', 'PRA-26-02', 'PRA-26-05']));
     expect(all.body.lots.find((l: { name: string }) => l.name === 'FNC-24-07').projectName).toMatch(/PGM-free cathode/);
+    // demo seed: every lot keeps its invented certificate of analysis (a PDF)
+    for (const lot of all.body.lots.filter((l: { name: string }) => ['FNC-24-07', 'FNC-24-11', 'PRA-26-02', 'PRA-26-05'].includes(l.name))) expect(lot.files.map((f: { name: string; contentType: string }) => [f.name, f.contentType])).toContainEqual([`${lot.name}-certificate-of-analysis.pdf`, 'application/pdf']);
     const one = await h.as.viewer.get(`/api/lots?projectId=${ids.project('A')}`);
     expect(one.body.lots.map((l: { name: string }) => l.name).sort()).toEqual(['PRA-26-02', 'PRA-26-05']);
     const search = await h.as.viewer.get('/api/lots?q=scale-up');

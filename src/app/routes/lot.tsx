@@ -2,7 +2,12 @@
 // metal content), and a comparison of a chosen response with another lot at matched recipes.
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
-import { useLot, useLots, useLotComparison } from '@/features/lots/api/lots';
+import { useAddLotFile, useLot, useLots, useLotComparison, useRemoveLotFile, useUpdateLot } from '@/features/lots/api/lots';
+import { LotForm } from '@/features/lots/components/lot-form';
+import { useProject } from '@/features/projects/api/projects';
+import { can } from '@/features/projects/components/permissions';
+import { Button } from '@/components/ui/button';
+import { useConfirm } from '@/components/ui/confirm-dialog';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Field, Select } from '@/components/ui/field';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -23,15 +28,22 @@ export default function LotPage() {
   const others = (lots.data ?? []).filter((l) => l.id !== lotId);
   const chosen = against ?? others[0]?.id ?? null;
   const comparison = useLotComparison(lotId, chosen, response);
+  const project = useProject(projectId);
+  const update = useUpdateLot(lotId);
+  const addFile = useAddLotFile(lotId);
+  const removeFile = useRemoveLotFile(lotId);
+  const [editing, setEditing] = useState(false);
+  const [confirm, dialog] = useConfirm();
   if (lot.isLoading) return <Loading />;
   if (lot.error || !lot.data) return <ErrorNote error={lot.error} />;
   const l = lot.data.lot;
+  const mayEdit = can(project.data?.myRole ?? null, 'editLots');
   const unit = comparison.data?.unit ?? CURVE_METRIC_INFO[response]?.unit ?? '';
   const show = (v: number | null | undefined) => (v == null ? '—' : `${formatSignificant(v, 4)} ${unit}`);
   return (
     <div>
       <PageHeader eyebrow={<Link className="hover:underline" to={`/projects/${projectId}/lots`}>Catalyst lots</Link>} title={`Lot ${l.name}`} subtitle={[l.maker, l.madeOn ? `made or received ${formatDate(l.madeOn)}` : null].filter(Boolean).join(' · ')} />
-      <Panel title="Record">
+      <Panel title="Record" actions={mayEdit && !editing ? <Button onClick={() => setEditing(true)}>Edit record</Button> : undefined}>
         <dl className="grid grid-cols-2 gap-3 text-sm md:grid-cols-4">
           <div><dt className="text-xs text-ink-500">Maker</dt><dd>{l.maker || '—'}</dd></div>
           <div><dt className="text-xs text-ink-500">Batch size</dt><dd className="num">{l.batchSizeG == null ? '—' : `${formatSignificant(l.batchSizeG, 3)} g`}</dd></div>
@@ -39,6 +51,31 @@ export default function LotPage() {
           <div><dt className="text-xs text-ink-500">Builds made from it</dt><dd className="num">{l.buildCount}</dd></div>
         </dl>
         {l.notes && <p className="mt-3 text-sm text-ink-700">{l.notes}</p>}
+        {editing && (
+          <div className="mt-4 border-t border-line pt-4">
+            <LotForm initial={l} submitLabel="Save record" onSubmit={(v) => update.mutate(v, { onSuccess: () => setEditing(false) })} pending={update.isPending} error={update.error} />
+          </div>
+        )}
+      </Panel>
+      <Panel title="Certificates and files" className="mt-4">
+        {l.files.length === 0 ? <p className="text-sm text-ink-500">No files kept with this lot yet{mayEdit ? ': add its certificate of analysis, ICP report or the supplier’s data sheet.' : '.'}</p> : (
+          <ul className="divide-y divide-line text-sm" aria-label="Files of this lot">
+            {l.files.map((f) => (
+              <li key={f.id} className="flex items-center justify-between gap-3 py-1.5">
+                <span><a className="text-copper-700 underline" href={`/api/files/${f.id}/raw`}>{f.name}</a> <span className="text-xs text-ink-500">{formatSignificant(f.sizeBytes / 1024, 3)} kB · {f.uploadedBy ?? 'someone'} · {formatDate(f.uploadedAt)}</span></span>
+                {mayEdit && <Button variant="danger" onClick={async () => { if (await confirm({ title: `Take ${f.name} off the lot?`, message: 'It leaves this list; its stored bytes stay, as every raw file does.', confirmLabel: 'Take it off' })) removeFile.mutate(f.id); }}>Remove</Button>}
+              </li>
+            ))}
+          </ul>
+        )}
+        {mayEdit && (
+          <label className="mt-3 inline-flex cursor-pointer items-center gap-2 text-sm text-copper-700">
+            <input type="file" className="sr-only" aria-label="Add a file to this lot" accept=".pdf,.png,.jpg,.jpeg,.tif,.tiff,.csv,.txt,.tsv,.xlsx,.xls,.docx,.odt,.ods" onChange={(e) => { const f = e.target.files?.[0]; if (f) addFile.mutate(f); e.target.value = ''; }} />
+            <span className="underline">{addFile.isPending ? 'Adding…' : 'Add a certificate or file'}</span>
+            <span className="text-xs text-ink-500">PDF, image or table</span>
+          </label>
+        )}
+        <div className="mt-2"><ErrorNote error={addFile.error ?? removeFile.error} /></div>
       </Panel>
       <Panel title="Builds from this lot" className="mt-4">
         {lot.data.builds.length === 0 ? <EmptyState title="No builds from this lot yet">Pick this lot on a build to see it here and compare lots.</EmptyState> : (
@@ -89,6 +126,7 @@ export default function LotPage() {
           </>
         )}
       </Panel>
+      {dialog}
     </div>
   );
 }
