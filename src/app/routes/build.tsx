@@ -27,6 +27,9 @@ import { benchmarkForPlot, BenchmarkBadge } from '@/features/benchmarks/componen
 import { can } from '@/features/projects/components/permissions';
 import { useTargets } from '@/features/targets/api/targets';
 import { targetLinesFor } from '@/features/targets/components/target-lines';
+import { curveMetricsCsv, curvePointsCsv } from '@/features/curves/components/curve-csv';
+import { downloadText } from '@/components/plot/export';
+import type { CurvePoints } from '@shared/api-types';
 
 function Recipe({ detail, factors }: { detail: BuildDetail; factors: FactorDef[] }) {
   const b = detail.build;
@@ -121,12 +124,23 @@ function seriesName(c: CurveSummary) {
   return `${curveTitle(c)}${c.isRecord ? ' (record)' : ''} · ${formatDateTime(c.createdAt)}`;
 }
 
+/** CSV of the curve's points as stored and of its metrics with method and inputs. */
+function CurveDownloads({ curve, points, code, settings }: { curve: CurveSummary; points?: CurvePoints; code: string; settings: Project['settings'] }) {
+  const base = `${code}-${curve.kind}-${curve.id}`;
+  return (
+    <span className="print-hidden inline-flex flex-wrap items-center gap-1.5" role="group" aria-label="Download the curve as CSV">
+      {points && !points.downsampled && <Button onClick={() => downloadText(curvePointsCsv(points), `${base}-points.csv`)}>Points CSV</Button>}
+      <Button onClick={() => downloadText(curveMetricsCsv(curve, { code }, settings), `${base}-metrics.csv`)}>Metrics CSV</Button>
+    </span>
+  );
+}
+
 function CurveView({ curve, overlays, project, detail, benchmark }: { curve: CurveSummary; overlays: CurveSummary[]; project: Project; detail: BuildDetail; benchmark: BenchmarkView | null }) {
   const { data, isLoading, error } = useCurve(curve.id);
   const targets = useTargets(project.id);
   const others = useQueries({ queries: (curve.kind === 'polarization' ? overlays : []).map((o) => curveQueryOptions(o.id)) });
-  if (curve.kind === 'impedance') return <ImpedanceView curve={curve} detail={detail} />;
-  if (curve.kind !== 'polarization') return <DurabilityView curve={curve} overlays={overlays} />;
+  if (curve.kind === 'impedance') return <ImpedanceView curve={curve} detail={detail} settings={project.settings} />;
+  if (curve.kind !== 'polarization') return <DurabilityView curve={curve} overlays={overlays} code={detail.build.code} settings={project.settings} />;
   if (isLoading) return <Loading label="Loading points…" />;
   if (error || !data) return <ErrorNote error={error} />;
   const stale = curve.metricsVersion !== project.metricsVersion;
@@ -157,6 +171,7 @@ function CurveView({ curve, overlays, project, detail, benchmark }: { curve: Cur
           {curve.summary.profileNote ? <span className="block text-amber-700">{String(curve.summary.profileNote)}</span> : null}
           {curve.fileId && <> · <a className="text-copper-700 underline" href={`/api/files/${curve.fileId}/raw`}>raw file</a></>}
         </p>
+        <CurveDownloads curve={curve} points={data.points} code={detail.build.code} settings={project.settings} />
         <ImportNotes curve={curve} canChoose={detail.permissions.upload} />
         <WhatIfReference curve={curve} points={data.points} settings={project.settings} loading={{ loadingMgCm2: detail.build.loadingMgCm2, metalLoadingMgCm2: detail.build.metalLoadingMgCm2 }} />
       </div>
@@ -164,7 +179,7 @@ function CurveView({ curve, overlays, project, detail, benchmark }: { curve: Cur
   );
 }
 
-function ImpedanceView({ curve, detail }: { curve: CurveSummary; detail: BuildDetail }) {
+function ImpedanceView({ curve, detail, settings }: { curve: CurveSummary; detail: BuildDetail; settings: Project['settings'] }) {
   const { data, isLoading, error } = useCurve(curve.id);
   if (isLoading) return <Loading label="Loading the spectrum…" />;
   if (error || !data) return <ErrorNote error={error} />;
@@ -175,6 +190,7 @@ function ImpedanceView({ curve, detail }: { curve: CurveSummary; detail: BuildDe
         <ImpedanceMetrics curve={curve} />
         <HfrComparison curve={curve} polarizationHfr={detail.build.values.hfr} />
         <FitTable summary={curve.summary as Record<string, unknown>} />
+        <CurveDownloads curve={curve} points={data.points} code={detail.build.code} settings={settings} />
         <ImportNotes curve={curve} canChoose={detail.permissions.upload} />
         {curve.fileId && <p className="text-[11px] text-ink-500"><a className="text-copper-700 underline" href={`/api/files/${curve.fileId}/raw`}>raw file</a></p>}
       </div>
@@ -182,7 +198,7 @@ function ImpedanceView({ curve, detail }: { curve: CurveSummary; detail: BuildDe
   );
 }
 
-function DurabilityView({ curve, overlays }: { curve: CurveSummary; overlays: CurveSummary[] }) {
+function DurabilityView({ curve, overlays, code, settings }: { curve: CurveSummary; overlays: CurveSummary[]; code: string; settings: Project['settings'] }) {
   // the build is already in the query cache; its permissions say whether the options can be edited
   const build = useBuild(curve.buildId);
   const update = useUpdateCurve(curve.buildId);
@@ -190,6 +206,8 @@ function DurabilityView({ curve, overlays }: { curve: CurveSummary; overlays: Cu
     <div className="grid gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <div className="min-w-0"><DurabilityPlot curve={curve} title={curveTitle(curve)} overlays={overlays} /></div>
       <div className="min-w-0 space-y-3">
+        {/* a log's every point is in its raw file; its metrics here */}
+        <CurveDownloads curve={curve} code={code} settings={settings} />
         <ImportNotes curve={curve} canChoose={Boolean(build.data?.permissions.upload)} />
         <DurabilityControls curve={curve} update={update} canEdit={Boolean(build.data?.permissions.upload)} />
       </div>
