@@ -185,7 +185,10 @@ export function buildListJson(ctx: AppContext, access: ProjectAccess, query: Bui
   const key = `${access.projectId}|${dataVersion(ctx.db)}|${query.status ?? ''}|${query.limit ?? ''}|${query.offset ?? ''}`;
   let body = cache.get(key);
   if (!body) {
-    body = JSON.stringify({ builds: listBuilds(ctx, access, query) });
+    const list = listBuilds(ctx, access, query);
+    // how many builds the whole list holds, so a client reading one page knows how many pages there are
+    const total = query.limit === undefined && !query.offset ? list.length : ctx.db.select({ n: sql<number>`count(*)` }).from(builds).where(and(eq(builds.projectId, access.projectId), query.status ? eq(builds.status, query.status) : undefined)).get()!.n;
+    body = JSON.stringify({ builds: list, total });
     cache.set(key, body);
   }
   return body;

@@ -78,3 +78,16 @@ describe('compressed answers', () => {
     expect(res.headers['content-encoding']).toBeUndefined();
   });
 });
+
+describe('the list a page at a time', () => {
+  it('answers one page with how many builds the whole list holds', async () => {
+    const whole = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`);
+    const n = whole.body.builds.length;
+    expect(whole.body.total).toBe(n);
+    const page = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds?limit=5&offset=5`);
+    expect(page.body.builds.map((b: { id: number }) => b.id)).toEqual(whole.body.builds.slice(5, 10).map((b: { id: number }) => b.id));
+    expect(page.body.total).toBe(n);
+    const planned = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds?status=planned&limit=1`);
+    expect(planned.body.total).toBe(whole.body.builds.filter((b: { status: string }) => b.status === 'planned').length);
+  });
+});

@@ -2,7 +2,7 @@
 import { useNavigate, useParams } from 'react-router-dom';
 import { useState } from 'react';
 import { useProject, useFactors, useResponses } from '@/features/projects/api/projects';
-import { useBuilds } from '@/features/builds/api/builds';
+import { BUILDS_PAGE_SIZE, useBuildsPage } from '@/features/builds/api/builds';
 import { BuildsTable } from '@/features/builds/components/builds-table';
 import { PageHeader, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Button, LinkButton } from '@/components/ui/button';
@@ -15,7 +15,9 @@ import { useBenchmark } from '@/features/benchmarks/api/benchmarks';
 export default function ProjectBuilds() {
   const projectId = Number(useParams().projectId);
   const project = useProject(projectId);
-  const builds = useBuilds(projectId);
+  // the list is read a page at a time; a project that fits on one page is sorted and filtered whole
+  const [page, setPage] = useState(0);
+  const builds = useBuildsPage(projectId, page);
   const factors = useFactors(projectId);
   const responses = useResponses(projectId);
   const targets = useTargets(projectId);
@@ -23,6 +25,8 @@ export default function ProjectBuilds() {
   const navigate = useNavigate();
   const [selected, setSelected] = useState<Set<number>>(new Set());
   if (project.isLoading || builds.isLoading || factors.isLoading || responses.isLoading) return <Loading />;
+  const total = builds.data?.total ?? 0;
+  const paged = total > BUILDS_PAGE_SIZE;
   const error = project.error ?? builds.error ?? factors.error ?? responses.error;
   if (error || !project.data) return <ErrorNote error={error} />;
   const p = project.data;
@@ -53,14 +57,15 @@ export default function ProjectBuilds() {
           <TargetList targets={targets.data} />
         </section>
       )}
-      {builds.data!.length === 0 ? (
+      {builds.data!.builds.length === 0 ? (
         <EmptyState title="No builds yet" action={canWrite(role) ? <LinkButton variant="primary" to={`/projects/${projectId}/builds/new`}>Record the first build</LinkButton> : undefined}>
           Record an electrode build with its recipe, then upload its polarization curve to see metrics.
         </EmptyState>
       ) : (
         <BuildsTable
           project={p}
-          builds={builds.data!}
+          builds={builds.data!.builds}
+          serverPages={paged ? { page, pageCount: Math.ceil(total / BUILDS_PAGE_SIZE), total, pageSize: BUILDS_PAGE_SIZE, onPage: setPage, loading: builds.isFetching } : undefined}
           factors={factors.data!}
           responses={responses.data!}
           selected={selected}

@@ -8,7 +8,7 @@ const parse = (text: string) => Papa.parse<string[]>(text.trim(), { header: fals
 
 describe('points CSV', () => {
   it('writes every stored point unrounded, with the columns the curve has and units in the header', () => {
-    const rows = parse(curvePointsCsv({ j: [0, 0.1, 0.2], v: [0.98, 0.6874512345678901, 0.62], hfr: [0.12, 0.121, null], vIrFree: null, tHours: null, temperatureC: null, downsampled: false, total: 3 }));
+    const rows = parse(curvePointsCsv({ j: [0, 0.1, 0.2], v: [0.98, 0.6874512345678901, 0.62], hfr: [0.12, 0.121, NaN], vIrFree: null, tHours: null, temperatureC: null, downsampled: false, total: 3 }));
     expect(rows[0]).toEqual(['current density (A/cm²)', 'cell voltage (V)', 'HFR (Ω·cm²)']);
     // the value exactly as a Float64 prints: no rounding on the way out
     expect(rows[2]).toEqual(['0.1', '0.6874512345678901', '0.121']);

@@ -7,6 +7,18 @@ import type { BuildCreate } from '@shared/schemas/build';
 export const buildsQueryOptions = (projectId: number) => queryOptions({ queryKey: ['builds', projectId], queryFn: () => api<{ builds: Build[] }>(`/projects/${projectId}/builds`).then((r) => r.builds) });
 export const useBuilds = (projectId: number) => useQuery(buildsQueryOptions(projectId));
 
+/** Rows the builds table asks for at a time: a project of many builds is read one page at a time. */
+export const BUILDS_PAGE_SIZE = 100;
+
+/** One page of the project's builds, in id order, with how many the whole list holds. */
+export const buildsPageQueryOptions = (projectId: number, page: number, size = BUILDS_PAGE_SIZE) =>
+  queryOptions({
+    queryKey: ['builds', projectId, 'page', page, size],
+    queryFn: () => api<{ builds: Build[]; total: number }>(`/projects/${projectId}/builds?limit=${size}&offset=${page * size}`),
+    placeholderData: (previous) => previous,
+  });
+export const useBuildsPage = (projectId: number, page: number, size = BUILDS_PAGE_SIZE) => useQuery(buildsPageQueryOptions(projectId, page, size));
+
 export const buildQueryOptions = (buildId: number) => queryOptions({ queryKey: ['build', buildId], queryFn: () => api<BuildDetail>(`/builds/${buildId}`) });
 export const useBuild = (buildId: number) => useQuery(buildQueryOptions(buildId));
 

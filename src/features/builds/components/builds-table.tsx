@@ -29,7 +29,17 @@ function metricCell(key: string, value: number | null | undefined, benchmark: Be
   return <span className="num block text-right">{formatNumber(value * info.scale, info.digits)}</span>;
 }
 
-export function BuildsTable({ project, builds, factors, responses, selected, onSelect, benchmark }: {
+/** A list too long for one answer: the table shows one page the server sent and asks for others. */
+export interface ServerPages {
+  page: number;
+  pageCount: number;
+  total: number;
+  pageSize: number;
+  onPage: (page: number) => void;
+  loading: boolean;
+}
+
+export function BuildsTable({ project, builds, factors, responses, selected, onSelect, benchmark, serverPages }: {
   project: Project;
   builds: Build[];
   factors: FactorDef[];
@@ -38,6 +48,8 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
   onSelect?: (id: number, on: boolean) => void;
   /** the project's benchmark: its build is marked, and values can be shown as differences from it */
   benchmark?: BenchmarkView | null;
+  /** set when the project's builds come a page at a time: sort and search act on the page shown */
+  serverPages?: ServerPages;
 }) {
   const [asDifference, setAsDifference] = useState(false);
   const diffFrom = asDifference && benchmark ? benchmark : null;
@@ -146,7 +158,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
       const hay = `${b.code} ${b.parentCode ?? ''} ${b.changeNote ?? ''} ${b.labName ?? ''} ${b.catalystLot ?? ''} ${Object.values(b.factors).join(' ')}`.toLowerCase();
       return hay.includes(value.toLowerCase());
     },
-    initialState: { pagination: { pageSize: 25 } },
+    initialState: { pagination: { pageSize: serverPages ? serverPages.pageSize : 25 } },
   });
 
   const labs = [...new Set(builds.map((b) => b.labName).filter(Boolean))] as string[];
@@ -176,7 +188,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
         </div>
         <DifferenceToggle benchmark={benchmark} checked={asDifference} onChange={setAsDifference} />
         <span className="ml-auto text-xs text-ink-500">
-          {filtered} of {builds.length} builds · metrics at j_ref = {project.settings.refCurrentDensity} A/cm², V_ref = {project.settings.refVoltage} V{project.settings.irFree ? ' (iR-free)' : ''}
+          {serverPages ? `${serverPages.page * serverPages.pageSize + 1}–${serverPages.page * serverPages.pageSize + builds.length} of ${serverPages.total.toLocaleString('en-GB')} builds (search and sort act on this page)` : `${filtered} of ${builds.length} builds`} · metrics at j_ref = {project.settings.refCurrentDensity} A/cm², V_ref = {project.settings.refVoltage} V{project.settings.irFree ? ' (iR-free)' : ''}
         </span>
       </div>
       <div className="overflow-x-auto rounded-lg border border-line bg-panel">
@@ -216,6 +228,13 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
           </tbody>
         </table>
       </div>
+      {serverPages ? (
+        <div className="mt-2 flex items-center justify-end gap-2 text-sm text-ink-700">
+          <span aria-live="polite">Page {serverPages.page + 1} of {serverPages.pageCount}{serverPages.loading ? ' · loading…' : ''}</span>
+          <Button onClick={() => serverPages.onPage(serverPages.page - 1)} disabled={serverPages.page === 0 || serverPages.loading}>Previous</Button>
+          <Button onClick={() => serverPages.onPage(serverPages.page + 1)} disabled={serverPages.page + 1 >= serverPages.pageCount || serverPages.loading}>Next</Button>
+        </div>
+      ) : (
       <div className="mt-2 flex items-center justify-end gap-2 text-sm text-ink-700">
         <span>Page {table.getState().pagination.pageIndex + 1} of {Math.max(1, table.getPageCount())}</span>
         <Button onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>Previous</Button>
@@ -225,6 +244,7 @@ export function BuildsTable({ project, builds, factors, responses, selected, onS
           {[10, 25, 50, 100].map((n) => <option key={n} value={n}>{n} rows</option>)}
         </Select>
       </div>
+      )}
     </div>
   );
 }
