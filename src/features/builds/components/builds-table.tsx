@@ -12,8 +12,9 @@ import { Input, Select } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { METRICS, formatNumber, formatSignificant, massActivityLabel } from '@/lib/format';
 import { buildEconomy } from '@shared/economy';
-import type { BenchmarkView } from '@/features/benchmarks/api/benchmarks';
-import { BenchmarkBadge, DifferenceToggle, differenceFromBenchmark, formatDifference } from '@/features/benchmarks/components/benchmark-parts';
+import type { BenchmarkView } from '@shared/schemas/benchmarks';
+import { BenchmarkBadge, DifferenceToggle } from '@/components/ui/benchmark-badge';
+import { differenceFromBenchmark, formatDifference } from '@/lib/benchmark-difference';
 
 const column = createColumnHelper<Build>();
 const METRIC_COLUMNS = ['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope', 'degradationRate'];
