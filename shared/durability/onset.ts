@@ -2,6 +2,7 @@
 // rises well above the stable rate, found by a two-piece (hinged) straight-line fit under a stated,
 // editable rule; `null` when the log shows no such change.
 import { tQuantile, tTwoSidedP } from '../stats/distributions';
+import { quickselect } from 'simple-statistics';
 
 /** The stated, editable rule. Rates are loss rates in µV/h (positive = voltage falling). */
 export interface OnsetRule {
@@ -156,8 +157,14 @@ export function detectFailureOnset(curve: { tHours: ArrayLike<number>; v: ArrayL
   const keep = new Uint8Array(n).fill(1);
   let rowsLeftOut = 0;
   if (curve.j !== undefined && n > 0) {
-    const sorted = Array.from(curve.j).filter(Number.isFinite).sort((a, b) => a - b);
-    const median = sorted[sorted.length >> 1];
+    // the held current: the middle reading (the upper one of an even count), found by selection on a
+    // typed copy rather than a sort of a million boxed numbers
+    const finite = new Float64Array(n);
+    let m = 0;
+    for (let i = 0; i < n; i++) if (Number.isFinite(curve.j[i])) finite[m++] = curve.j[i];
+    const scratch = finite.subarray(0, m);
+    if (m > 0) quickselect(scratch as unknown as number[], m >> 1);
+    const median = scratch[m >> 1];
     for (let i = 0; i < n; i++) {
       const value = curve.j[i];
       if (!Number.isFinite(value) || Math.abs(value - median) > applied.currentTolerance * Math.abs(median)) {

@@ -81,6 +81,15 @@ describe('detectFailureOnset rule and input', () => {
     expect(result.notes[0]).toContain('60 rows at another current');
   });
 
+  it('takes the held current as the middle reading, blanks and other currents left out', () => {
+    // derived by hand: finite j sorted = [0.2, 0.2, 0.6, 0.6, 0.6, 0.6, 0.6]; the middle (index 3) is 0.6 A/cm²,
+    // so the two 0.2 readings and the blank one are left out
+    const j = [0.6, 0.2, NaN, 0.6, 0.6, 0.2, 0.6, 0.6];
+    const result = detectFailureOnset({ tHours: j.map((_, i) => i), v: j.map(() => 0.55), j }, { startHours: 0 });
+    expect(result.rowsLeftOut).toBe(3);
+    expect(result.notes[0]).toBe('3 rows at another current than the held 0.6 A/cm² left out');
+  });
+
   it('says a log is too short to judge', () => {
     const result = detectFailureOnset({ tHours: [0, 1, 2], v: [0.5, 0.5, 0.5] });
     expect(result.onsetHours).toBeNull();
