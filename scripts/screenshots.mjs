@@ -23,6 +23,8 @@ try {
     ['settings', '/projects/1/settings'],
     ['gains', '/projects/1/gains'],
     ['benchmark', '/projects/1/benchmark'],
+    ['lots', '/projects/1/lots'],
+    ['lot', '/lots/2'],
     ['lineage', '/projects/1/lineage'],
     ['durability', '/projects/1/durability'],
     ['series', '/projects/2/series'],

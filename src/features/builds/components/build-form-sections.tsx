@@ -127,7 +127,7 @@ export function ElectrodeSection({ labs, lots = [], lockLabId, wasReviewed }: { 
             {(p) => (
               <Select {...p} {...register('lotId', { setValueAs: asId })}>
                 <option value="">— not a recorded lot —</option>
-                {lots.map((l) => <option key={l.id} value={l.id}>{l.name}{l.metalWtPct != null ? ` · ${formatNumber(l.metalWtPct, 1)} wt % metal` : ''}{l.maker ? ` · ${l.maker}` : ''}</option>)}
+                {lots.map((l) => <option key={l.id} value={l.id}>{l.name}{l.metalWtPct != null ? ` · ${formatNumber(l.metalWtPct, 1)} wt % metal` : ''}</option>)}
               </Select>
             )}
           </Field>

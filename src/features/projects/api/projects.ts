@@ -19,7 +19,7 @@ export const homeQueryOptions = () => queryOptions({ queryKey: ['home'], queryFn
 export const useHome = () => useQuery(homeQueryOptions());
 
 export const projectQueryOptions = (id: number) => queryOptions({ queryKey: ['projects', id], queryFn: () => api<{ project: Project }>(`/projects/${id}`).then((r) => r.project) });
-export const useProject = (id: number) => useQuery(projectQueryOptions(id));
+export const useProject = (id: number) => useQuery({ ...projectQueryOptions(id), enabled: id > 0 });
 
 export function useCreateProject() {
   const client = useQueryClient();
