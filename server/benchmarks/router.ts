@@ -1,9 +1,7 @@
 // HTTP for a project's benchmark (a build or a reference curve) and its reference curves: everyone
 // reads, PIs choose the benchmark and import or remove reference curves.
 import { benchmarkSetSchema, referenceCurveFieldsSchema } from '../../shared/schemas/benchmarks';
-import { AppError } from '../lib/errors';
-import { checkedFileName } from '../lib/multipart-errors';
-import { receiveFile, removeReceivedFile } from '../lib/receive-file';
+import { receiveFile, receivedFile, removeReceivedFile } from '../lib/receive-file';
 import { defineFeature, route } from '../lib/route';
 import * as bench from './service';
 
@@ -36,11 +34,7 @@ export const benchmarksFeature = defineFeature('benchmarks', [
     summary: 'Import a polarization curve that belongs to no build (multipart: file, label, source, sourceDate, loadings, conditions, makeBenchmark): 201 {referenceCurve} or 422 naming file, line and column with nothing stored',
     before: (ctx) => [receiveFile(ctx)],
     cleanup: removeReceivedFile,
-    handle: ({ ctx, req, access, fields }) => {
-      const file = req.file;
-      if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
-      return bench.importReferenceCurve(ctx, access, { tmpPath: file.path, originalName: checkedFileName(file.originalname), size: file.size }, fields);
-    },
+    handle: ({ ctx, req, access, fields }) => bench.importReferenceCurve(ctx, access, receivedFile(req), fields),
   }),
   route({
     method: 'get', path: '/api/reference-curves/{id}', tag: 'benchmarks', permission: { action: 'read', on: 'reference-curve' },

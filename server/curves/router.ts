@@ -6,22 +6,18 @@ import type { AppContext } from '../context';
 import { conditionChoiceSchema, curvePatchSchema, importProfileCreateSchema, pointsQuery, uploadFieldsSchema } from '../../shared/schemas/curves';
 import type { UploadFields } from '../../shared/schemas/curves';
 import type { ProjectAccess } from '../auth/access';
-import { AppError } from '../lib/errors';
 import { defineFeature, route } from '../lib/route';
-import { checkedFileName } from '../lib/multipart-errors';
-import { receiveFile, removeReceivedFile } from '../lib/receive-file';
+import { receiveFile, receivedFile, removeReceivedFile } from '../lib/receive-file';
 import { silentProgress, trackUpload } from '../uploads/progress';
 import * as curves from './service';
 import { durabilityAnswer } from './durability';
 
 async function upload(ctx: AppContext, req: Request, access: ProjectAccess, build: Parameters<typeof curves.ingestUpload>[2], fields: UploadFields, previewOnly: boolean) {
-  const file = req.file;
-  if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
-  const originalName = checkedFileName(file.originalname);
+  const file = receivedFile(req);
   const { uploadId, ...options } = fields;
   const progress = uploadId && !previewOnly ? trackUpload(access.user.id, uploadId, file.size) : silentProgress;
   try {
-    const result = await curves.ingestUpload(ctx, access, build, { tmpPath: file.path, originalName, size: file.size }, { ...options, previewOnly, progress });
+    const result = await curves.ingestUpload(ctx, access, build, { tmpPath: file.tmpPath, originalName: file.originalName, size: file.size }, { ...options, previewOnly, progress });
     progress.done('curve' in result && result.curve ? result.curve.id : null);
     return result;
   } catch (error) {

@@ -6,7 +6,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { AppContext } from '../context';
 import { AppError } from './errors';
-import { multipartProblem } from './multipart-errors';
+import { checkedFileName, multipartProblem } from './multipart-errors';
 
 /** 52428800 → "50 MB", 1500 → "1.5 kB": the limit in the words of the message. */
 function formatBytes(bytes: number): string {
@@ -44,3 +44,10 @@ export function removeReceivedFile(req: Request) {
   if (typeof req.file?.path === 'string') fs.rmSync(req.file.path, { force: true });
 }
 
+
+/** The file multer received, with its checked name; 400 when the request sent none. */
+export function receivedFile(req: Request): { tmpPath: string; originalName: string; size: number; contentType: string } {
+  const file = req.file;
+  if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
+  return { tmpPath: file.path, originalName: checkedFileName(file.originalname), size: file.size, contentType: file.mimetype };
+}

@@ -3,9 +3,7 @@
 // researchers record lots); GET/POST /api/lots span the projects one may read.
 import { lotComparisonQuerySchema, lotCreateInProjectSchema, lotCreateSchema, lotsQuerySchema, lotUpdateSchema } from '../../shared/schemas/lots';
 import { defineFeature, route } from '../lib/route';
-import { AppError } from '../lib/errors';
-import { checkedFileName } from '../lib/multipart-errors';
-import { receiveFile, removeReceivedFile } from '../lib/receive-file';
+import { receiveFile, receivedFile, removeReceivedFile } from '../lib/receive-file';
 import { z } from 'zod';
 import * as lots from './service';
 
@@ -35,11 +33,7 @@ export const lotsFeature = defineFeature('lots', [
     summary: 'Keep a file with the lot (multipart field "file": a certificate of analysis, an ICP report, a data sheet; PDF, image or table). Raw bytes at /api/files/{id}/raw',
     before: (ctx) => [receiveFile(ctx)],
     cleanup: removeReceivedFile,
-    handle: ({ ctx, req, access, lot }) => {
-      const file = req.file;
-      if (!file) throw new AppError(400, 'validation', 'Send the file in the multipart field "file".', { fields: [{ path: 'file', message: 'required' }] });
-      return lots.addLotFile(ctx, access, lot, { tmpPath: file.path, originalName: checkedFileName(file.originalname), size: file.size, contentType: file.mimetype }).then((view) => ({ lot: view }));
-    },
+    handle: async ({ ctx, req, access, lot }) => ({ lot: await lots.addLotFile(ctx, access, lot, receivedFile(req)) }),
   }),
   route({
     method: 'delete', path: '/api/lots/{id}/files/{fileId}', tag: 'lots', permission: { action: 'editLots', on: 'lot' },
