@@ -31,7 +31,10 @@ function ruleText(rule: Record<string, number>): string {
 }
 
 /** onsetHours of a durability log, with the rule stored beside it. */
-export function onsetMetric(curve: CurveData, rule: OnsetRule): { value: number | null; note?: string; method: MetricMethod; summary: Summary } {
+/** The onset metric of a log: its value, why it is missing, its method and what the summary keeps. */
+export type OnsetOutcome = { value: number | null; note?: string; method: MetricMethod; summary: Summary };
+
+export function onsetMetric(curve: CurveData, rule: OnsetRule): OnsetOutcome {
   if (!curve.tHours || curve.tHours.length < 3) {
     return { value: null, note: 'no time column: the onset of rapid failure needs a log against time', method: { method: 'two-piece line fit of voltage against time', inputs: { rule: ruleText(rule as never) } }, summary: {} };
   }

@@ -27,7 +27,7 @@ import type { UploadFields } from '../../shared/api-types';
 import { notifyAfterUpload } from '../review/notify';
 import { nextStatus } from '../../shared/builds/status';
 import { deleteCurveKeepingRecord, recordOf } from './record';
-import { holdMetricValues, holdRuleOf, impedanceResult, onsetMetric, onsetRuleOf } from './kind-metrics';
+import { holdMetricValues, holdRuleOf, impedanceResult, onsetMetric, onsetRuleOf, type OnsetOutcome } from './kind-metrics';
 import type { OnsetRule } from '../../shared/durability';
 import type { HoldRule } from '../../shared/hold';
 import type { CircuitKind } from '../../shared/impedance';
@@ -100,13 +100,16 @@ export const METRICS_ALGORITHM = 3;
  * `fitted`: the log's durability fit when it was already made (an upload's runs in the worker pool,
  * so a million-row log does not hold the event loop); otherwise it is made here.
  */
-export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null, fitted?: ReturnType<typeof durabilityMetrics>): MetricsResult {
+/** A log's fit made in the worker pool, with its onset search when it was made there too. */
+type Fitted = ReturnType<typeof durabilityMetrics> & { onset?: OnsetOutcome };
+
+export function computeMetrics(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null, fitted?: Fitted): MetricsResult {
   const result = measure(curve, ref, build, options, fitted);
   result.summary.metricsAlgorithm = METRICS_ALGORITHM;
   return result;
 }
 
-function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null, fitted?: ReturnType<typeof durabilityMetrics>): MetricsResult {
+function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options?: DurabilityOptions | null, fitted?: Fitted): MetricsResult {
   if (curve.kind === 'polarization') {
     return polarizationMetrics(curve, ref, { loadingMgCm2: build.loadingMgCm2, metalLoadingMgCm2: build.metalLoadingMgCm2 }, { h2CrossoverAcm2: (build.testConditions?.h2CrossoverMAcm2 ?? 0) / 1000 });
   }
@@ -119,7 +122,7 @@ function measure(curve: CurveData, ref: ReferencePoint, build: BuildRow, options
     const startGiven = settings.onsetRule?.startHours !== undefined || options?.onsetRule?.startHours !== undefined;
     const rule = onsetRuleOf(settings.onsetRule, options?.onsetRule);
     if (!startGiven && d.breakInHours != null) rule.startHours = d.breakInHours;
-    const onset = onsetMetric(curve, rule);
+    const onset = fitted?.onset ?? onsetMetric(curve, rule);
     extra.metrics.onsetHours = onset.value;
     if (onset.note) extra.notes.onsetHours = onset.note;
     extra.method.onsetHours = onset.method;
@@ -408,12 +411,14 @@ export async function ingestUpload(
       table.columns.fill(null);
       try {
         // a log's durability fit runs in the worker pool (its columns are moved there and back)
-        let fitted: ReturnType<typeof durabilityMetrics> | undefined;
+        let fitted: Fitted | undefined;
         if (kind === 'durability' || kind === 'hold') {
           await yieldToEventLoop();
-          const moved = await durabilityInPool(env, data, {});
+          // a log's onset search runs there too, with the project's rule (an upload has no curve options yet)
+          const onset = kind === 'durability' ? { rule: onsetRuleOf(project.settings.onsetRule, undefined), startGiven: project.settings.onsetRule?.startHours !== undefined } : undefined;
+          const moved = await durabilityInPool(env, data, {}, onset);
           data = moved.curve as typeof data;
-          fitted = moved.metrics;
+          fitted = { ...moved.metrics, ...(moved.onset && { onset: moved.onset }) };
         }
         result = computeMetrics(data, referencePoint(project), build, null, fitted);
         if (kind === 'durability') checkHoursAfterBreakIn(data, result.metrics.breakInHours ?? null);

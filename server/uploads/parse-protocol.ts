@@ -2,7 +2,8 @@
 import type { ReadResult } from '../curves/read-upload';
 import type { WorkbookLimits } from './workbook-guard';
 import type { CurveData } from '../../shared/curves/types';
-import type { DurabilityMetrics, DurabilityOptions } from '../../shared/durability';
+import type { DurabilityMetrics, DurabilityOptions, OnsetRule } from '../../shared/durability';
+import type { OnsetOutcome } from '../curves/kind-metrics';
 
 export interface ParseRequest {
   type?: 'parse';
@@ -19,6 +20,8 @@ export interface DurabilityRequest {
   id: number;
   curve: CurveData;
   options: DurabilityOptions;
+  /** also search the log for the onset of rapid failure with this rule (its start is the fit's break-in unless `startGiven`) */
+  onset?: { rule: OnsetRule; startGiven: boolean };
 }
 
 export type WorkerRequest = ParseRequest | DurabilityRequest;
@@ -33,7 +36,7 @@ export type ParseReply =
   | { id: 0; type: 'ready' }
   | { id: number; type: 'bytes'; bytes: number }
   | { id: number; type: 'done'; result: ReadResult }
-  | { id: number; type: 'durability'; curve: CurveData; metrics: DurabilityMetrics }
+  | { id: number; type: 'durability'; curve: CurveData; metrics: DurabilityMetrics; onset?: OnsetOutcome }
   | { id: number; type: 'error'; error: SerializedError };
 
 /** The distinct buffers under a curve's columns, to move them between threads instead of copying. */

@@ -13,7 +13,8 @@ import type { ReadOptions, ReadResult } from '../curves/read-upload';
 import type { WorkbookLimits } from './workbook-guard';
 import { guardedCopyPath } from './guarded-read';
 import type { CurveData } from '../../shared/curves/types';
-import type { DurabilityMetrics, DurabilityOptions } from '../../shared/durability';
+import type { DurabilityMetrics, DurabilityOptions, OnsetRule } from '../../shared/durability';
+import type { OnsetOutcome } from '../curves/kind-metrics';
 import { curveBuffers, type ParseReply, type SerializedError, type WorkerRequest } from './parse-protocol';
 
 export interface ParsePoolOptions {
@@ -65,9 +66,9 @@ export class ParsePool {
    * thread and back (not copied): use the returned curve, the one given is emptied meanwhile.
    * @throws RangeError as durabilityMetrics does
    */
-  durability(curve: CurveData, options: DurabilityOptions): Promise<{ curve: CurveData; metrics: DurabilityMetrics }> {
+  durability(curve: CurveData, options: DurabilityOptions, onset?: { rule: OnsetRule; startGiven: boolean }): Promise<{ curve: CurveData; metrics: DurabilityMetrics; onset?: OnsetOutcome }> {
     return new Promise((resolve, reject) => {
-      this.queue.push({ request: { type: 'durability', id: this.nextId++, curve, options }, fileName: 'the curve', resolve, reject });
+      this.queue.push({ request: { type: 'durability', id: this.nextId++, curve, options, onset }, fileName: 'the curve', resolve, reject });
       this.dispatch();
     });
   }
@@ -166,7 +167,7 @@ export class ParsePool {
       if (reply.type === 'ready' || reply.id !== job.request.id) return;
       if (reply.type === 'bytes') job.onBytes?.(reply.bytes);
       else if (reply.type === 'done') finish({ result: reply.result }, true);
-      else if (reply.type === 'durability') finish({ result: { curve: reply.curve, metrics: reply.metrics } }, true);
+      else if (reply.type === 'durability') finish({ result: { curve: reply.curve, metrics: reply.metrics, onset: reply.onset } }, true);
       else finish({ error: rebuild(reply.error, job.fileName) }, true);
     };
     const onError = (error: Error & { code?: string }) => {
@@ -224,9 +225,9 @@ export function workbookLimits(env: Env): WorkbookLimits {
 }
 
 /** readUpload's work, in the pool: same options, same result, or the same errors. */
-/** durabilityMetrics in the pool (see ParsePool.durability). */
-export function durabilityInPool(env: Env, curve: CurveData, options: DurabilityOptions) {
-  return parsePool(env).durability(curve, options);
+/** durabilityMetrics (and, given a rule, the onset search) in the pool (see ParsePool.durability). */
+export function durabilityInPool(env: Env, curve: CurveData, options: DurabilityOptions, onset?: { rule: OnsetRule; startGiven: boolean }) {
+  return parsePool(env).durability(curve, options, onset);
 }
 
 export function parseUpload(env: Env, path: string, options: ReadOptions, fileName?: string): Promise<ReadResult> {

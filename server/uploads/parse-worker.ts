@@ -6,6 +6,7 @@ import { CurveFileError } from '../../shared/curves/types';
 import { AppError } from '../lib/errors';
 import { readUploadGuarded } from './guarded-read';
 import { durabilityMetrics } from '../../shared/durability';
+import { onsetMetric } from '../curves/kind-metrics';
 import { curveBuffers, type WorkerRequest, type ParseReply, type SerializedError } from './parse-protocol';
 
 function serialize(error: unknown): SerializedError {
@@ -22,8 +23,15 @@ port.on('message', async (request: WorkerRequest) => {
   if (request.type === 'durability') {
     try {
       const metrics = durabilityMetrics(request.curve, request.options);
+      // the onset search after the fit, here too: it starts at the fit's break-in unless the rule says where
+      let onset;
+      if (request.onset) {
+        const rule = { ...request.onset.rule };
+        if (!request.onset.startGiven && metrics.breakInHours != null) rule.startHours = metrics.breakInHours;
+        onset = onsetMetric(request.curve, rule);
+      }
       // the columns go back as they came, moved rather than copied
-      port.postMessage({ id: request.id, type: 'durability', curve: request.curve, metrics } satisfies ParseReply, curveBuffers(request.curve));
+      port.postMessage({ id: request.id, type: 'durability', curve: request.curve, metrics, onset } satisfies ParseReply, curveBuffers(request.curve));
     } catch (error) {
       port.postMessage({ id: request.id, type: 'error', error: serialize(error) } satisfies ParseReply);
     }
