@@ -264,7 +264,7 @@ function nextCode(ctx: AppContext, projectId: number): string {
  */
 function resolveLot(ctx: AppContext, projectId: number, body: { lotId?: number | null; catalystLot?: string | null }): { lotId: number | null; catalystLot: string | null } | null {
   if (body.lotId != null) {
-    const lot = ctx.db.select({ id: lots.id, name: lots.name, projectId: lots.projectId }).from(lots).where(eq(lots.id, body.lotId)).get()!;
+    const lot = ctx.db.select({ id: lots.id, name: lots.name }).from(lots).where(eq(lots.id, body.lotId)).get()!;
     return { lotId: lot.id, catalystLot: body.catalystLot ?? lot.name };
   }
   if (body.lotId === null) return { lotId: null, catalystLot: body.catalystLot ?? null };

@@ -8,7 +8,8 @@ import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { AppContext, AuthUser } from '../context';
 import type { ProjectAccess } from '../auth/access';
-import { builds, files, lots, memberships, projects, users } from '../db/schema';
+import { builds, files, lots, users } from '../db/schema';
+import { readableProjects } from '../projects/service';
 import { audit } from '../lib/audit';
 import { conflict, AppError } from '../lib/errors';
 import { listBuilds } from '../builds/service';
@@ -57,10 +58,7 @@ export function listLots(ctx: AppContext, access: ProjectAccess): LotView[] {
 
 /** Every lot of every project the person may read (site admins: all), by project then name. */
 export function listAllLots(ctx: AppContext, user: AuthUser, query: { projectId?: number; q?: string }): LotView[] {
-  const readable = user.isAdmin
-    ? ctx.db.select({ id: projects.id, name: projects.name }).from(projects).all()
-    : ctx.db.select({ id: projects.id, name: projects.name }).from(memberships).innerJoin(projects, eq(projects.id, memberships.projectId)).where(eq(memberships.userId, user.id)).all();
-  const names = new Map(readable.map((p) => [p.id, p.name]));
+  const names = new Map(readableProjects(ctx, user).map(({ p }) => [p.id, p.name]));
   const ids = [...names.keys()].filter((id) => query.projectId === undefined || id === query.projectId);
   if (!ids.length) return [];
   const needle = query.q?.toLowerCase();

@@ -31,9 +31,10 @@ export function projectView(row: ProjectRow, role: ProjectRole | 'admin' | null)
   };
 }
 
-export function listProjects(ctx: AppContext, user: AuthUser) {
+/** The projects a person may read, with their standing in each: site admins all, others their memberships. */
+export function readableProjects(ctx: AppContext, user: AuthUser) {
   const { db } = ctx;
-  const rows = user.isAdmin
+  return user.isAdmin
     ? db.select().from(projects).orderBy(asc(projects.id)).all().map((p) => ({ p, role: 'admin' as const }))
     : db
         .select({ p: projects, role: memberships.role })
@@ -42,6 +43,11 @@ export function listProjects(ctx: AppContext, user: AuthUser) {
         .where(eq(memberships.userId, user.id))
         .orderBy(asc(projects.id))
         .all();
+}
+
+export function listProjects(ctx: AppContext, user: AuthUser) {
+  const { db } = ctx;
+  const rows = readableProjects(ctx, user);
   const counts = new Map(
     db
       .select({ projectId: builds.projectId, n: sql<number>`count(*)` })

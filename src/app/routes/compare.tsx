@@ -18,7 +18,9 @@ import type { CurveMetricKey } from '@shared/curves/metric-catalogue';
 import { useBenchmark } from '@/features/benchmarks/api/benchmarks';
 import { useTargets } from '@/features/targets/api/targets';
 import { targetLinesFor } from '@/features/targets/components/target-lines';
-import { benchmarkForPlot, DifferenceToggle, differenceFromBenchmark, formatMetricDifference } from '@/features/benchmarks/components/benchmark-parts';
+import { benchmarkForPlot } from '@/features/benchmarks/components/benchmark-parts';
+import { DifferenceToggle } from '@/components/ui/benchmark-badge';
+import { differenceFromBenchmark, formatMetricDifference } from '@/lib/benchmark-difference';
 
 /** The metrics side by side in the comparison table (catalogue keys, catalogue order). */
 const COMPARED_METRICS: CurveMetricKey[] = ['vAtRef', 'vAtRefIrFree', 'massActivity', 'peakPower', 'hfr', 'tafelSlope'];

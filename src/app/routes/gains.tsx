@@ -18,7 +18,7 @@ import { formatNumber, responseDisplay } from '@/lib/format';
 import type { Build, ProjectSettings } from '@shared/api-types';
 import { referenceConditions } from '@shared/curves/metric-catalogue';
 import { useBenchmark } from '@/features/benchmarks/api/benchmarks';
-import { DifferenceToggle } from '@/features/benchmarks/components/benchmark-parts';
+import { DifferenceToggle } from '@/components/ui/benchmark-badge';
 
 function conditionsText(responseKey: string, settings: ProjectSettings, chainBuilds: Build[]): string {
   const parts = referenceConditions(responseKey, settings, formatNumber);

@@ -1,6 +1,8 @@
 // Our own export of a drawn chart: PNG or SVG through the plotting library's image export (the
 // bundle that drew it), and CSV of exactly the points drawn, one self-describing row per point.
 
+import { merge } from './theme';
+
 type Graph = HTMLElement & { data?: Trace[]; layout?: Record<string, unknown> };
 interface Trace {
   name?: string;
@@ -58,14 +60,12 @@ export async function exportPlot(container: HTMLElement | null, format: 'png' | 
   a.remove();
 }
 
-/** The chart's layout with `over` drawn over it: shapes and annotations added, objects merged one level deep. */
+/** The chart's layout with `over` drawn over it: objects merged as the theme merges them, shapes and annotations added. */
 export function mergeLayout(own: Record<string, unknown>, over: Record<string, unknown>): Record<string, unknown> {
-  const out: Record<string, unknown> = { ...own };
-  for (const [key, value] of Object.entries(over)) {
-    const mine = own[key];
-    if ((key === 'annotations' || key === 'shapes') && Array.isArray(value)) out[key] = [...(Array.isArray(mine) ? mine : []), ...value];
-    else if (value && typeof value === 'object' && !Array.isArray(value) && mine && typeof mine === 'object' && !Array.isArray(mine)) out[key] = { ...(mine as object), ...(value as object) };
-    else out[key] = value;
+  const { annotations, shapes, ...rest } = over;
+  const out = merge(own, rest);
+  for (const [key, extra] of [['annotations', annotations], ['shapes', shapes]] as const) {
+    if (Array.isArray(extra)) out[key] = [...(Array.isArray(own[key]) ? (own[key] as unknown[]) : []), ...extra];
   }
   return out;
 }

@@ -1,7 +1,8 @@
 // Values as differences from the benchmark, the benchmark's trace on a plot, and the title block
 // an exported waterfall carries: worked by hand from the inputs written here.
 import { describe, expect, it } from 'vitest';
-import { benchmarkForPlot, differenceFromBenchmark, formatDifference, formatMetricDifference } from '@/features/benchmarks/components/benchmark-parts';
+import { benchmarkForPlot } from '@/features/benchmarks/components/benchmark-parts';
+import { differenceFromBenchmark, formatDifference, formatMetricDifference } from '@/lib/benchmark-difference';
 import { waterfallExportLayout, waterfallLegendText } from '@/features/gains/components/waterfall-export';
 import { mergeLayout } from '@/components/plot/export';
 import type { BenchmarkView } from '@/features/benchmarks/api/benchmarks';

@@ -4,9 +4,6 @@
 import type { CurvePoints } from '@shared/api-types';
 import type { BenchmarkView } from '../api/benchmarks';
 
-export { BenchmarkBadge, DifferenceToggle } from '@/components/ui/benchmark-badge';
-export { differenceFromBenchmark, formatDifference, formatMetricDifference } from '@/lib/benchmark-difference';
-
 /** The benchmark's curve for a plot, unless the plot already draws it (its build or its curve). */
 export function benchmarkForPlot(benchmark: BenchmarkView | null | undefined, drawn: { buildIds?: number[]; curveIds?: number[] } = {}): { name: string; points: CurvePoints } | null {
   if (!benchmark?.points) return null;
