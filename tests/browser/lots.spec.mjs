@@ -38,7 +38,8 @@ export default async function ({ url, browser, signIn }) {
   await build.getByLabel('Status').selectOption('planned');
   await page.getByRole('button', { name: 'Create build' }).click();
   await page.waitForURL(/\/builds\/\d+$/);
-  await page.getByRole('heading', { name: 'Recipe' }).waitFor();
+  // the form also has a "Recipe" heading, so wait for the build page's own text, not a heading
+  await page.waitForFunction(() => /Catalyst lot\s+FNC-26-09/.test(document.querySelector('main')?.innerText ?? ''));
   assert.match(await page.locator('main').innerText(), /Catalyst lot\s+FNC-26-09/);
   await page.close();
 }
