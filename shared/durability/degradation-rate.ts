@@ -4,7 +4,7 @@
 import type { CurveData } from '../curves/types';
 import { detectBreakIn, type BreakInOptions } from './detect-break-in';
 import { detectInterruptions, type Interruption, type InterruptionOptions } from './detect-interruptions';
-import { fitTrend, type TrendFit } from './trend-fit';
+import { fitTrend, prepareTrendSeries, type TrendFit, type TrendSeries } from './trend-fit';
 import { checkBreakInTransient, type TransientCheck } from './break-in-transient';
 import { lowerBound, upperBound } from './sorted-search';
 
@@ -250,6 +250,8 @@ interface FitRows {
   vFit: Float64Array;
   segmentStarts: number[];
   segmentKind: Map<number, 'restart' | 'current-change'>;
+  /** tFit and vFit checked once, with running sums, shared by every fit below */
+  series: TrendSeries;
 }
 
 /**
@@ -304,14 +306,14 @@ function rowsToFit(t: Float64Array, v: Float64Array, interruptions: Interruption
     }
     segmentStarts.sort((a, b) => a - b);
   }
-  return { tFit, vFit, segmentStarts, segmentKind };
+  return { tFit, vFit, segmentStarts, segmentKind, series: prepareTrendSeries(tFit, vFit) };
 }
 
 const BREAK_IN_RULE_USER = 'set by the user';
 
 /** Step 5: break-in: the user's value wins; otherwise the moving-window rule; otherwise a stated fallback. */
 function chooseBreakIn(rows: FitRows, options: DurabilityOptions, blockHours: number, notes: string[]) {
-  const { tFit, vFit, segmentStarts } = rows;
+  const { tFit, vFit, segmentStarts, series } = rows;
   let breakInHours: number;
   let breakInRule: string;
   let breakInSource: DurabilityMetrics['breakInSource'];
@@ -320,7 +322,7 @@ function chooseBreakIn(rows: FitRows, options: DurabilityOptions, blockHours: nu
     breakInRule = BREAK_IN_RULE_USER;
     breakInSource = 'user';
   } else {
-    const detected = detectBreakIn(tFit, vFit, { ...options.breakIn, segmentStarts, blockHours });
+    const detected = detectBreakIn(tFit, vFit, { ...options.breakIn, segmentStarts, blockHours, series });
     breakInRule = detected.rule;
     if (detected.breakInHours !== null) {
       breakInHours = detected.breakInHours;
@@ -370,10 +372,10 @@ function settleBreakIn(rows: FitRows, chosen: ReturnType<typeof chooseBreakIn>, 
 
 /** Step 8: each segment's own rate and its ends on the common-slope line. */
 function segmentsOf(trend: TrendFit, rows: FitRows, from: number, blockHours: number, confidence: number): DurabilitySegment[] {
-  const { tFit, vFit, segmentKind } = rows;
+  const { tFit, vFit, segmentKind, series } = rows;
   const slope = trend.slope;
   return trend.segments.map((segment) => {
-    const alone = segment.points >= 3 ? fitTrend(tFit, vFit, { from: segment.fromIndex, to: segment.toIndex, blockHours, confidence }) : null;
+    const alone = segment.points >= 3 ? fitTrend(tFit, vFit, { from: segment.fromIndex, to: segment.toIndex, blockHours, confidence, series }) : null;
     return {
       fromHours: segment.fromHours,
       toHours: segment.toHours,
@@ -388,13 +390,13 @@ function segmentsOf(trend: TrendFit, rows: FitRows, from: number, blockHours: nu
 
 /** Step 9: the straight line checked against its halves: a break-in still under way bends it. */
 function checkHalves(rows: FitRows, from: number, blockHours: number, confidence: number) {
-  const { tFit, vFit, segmentStarts } = rows;
+  const { tFit, vFit, segmentStarts, series } = rows;
   let linearity: DurabilityMetrics['linearity'] = null;
   const fitFromHours = tFit[from];
   const fitToHours = tFit[tFit.length - 1];
   const middle = lowerBound(tFit, fitFromHours + (fitToHours - fitFromHours) / 2);
-  const firstHalf = fitTrend(tFit, vFit, { from, to: middle, segmentStarts, blockHours, confidence });
-  const secondHalf = fitTrend(tFit, vFit, { from: middle, to: tFit.length, segmentStarts, blockHours, confidence });
+  const firstHalf = fitTrend(tFit, vFit, { from, to: middle, segmentStarts, blockHours, confidence, series });
+  const secondHalf = fitTrend(tFit, vFit, { from: middle, to: tFit.length, segmentStarts, blockHours, confidence, series });
   if (firstHalf && secondHalf) {
     const difference = firstHalf.slope - secondHalf.slope;
     const standardError = Math.sqrt(firstHalf.slopeSE ** 2 + secondHalf.slopeSE ** 2);
@@ -473,7 +475,7 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
   const t = continueClock(rowsIn.t, interruptions, notes);
   const hoursRun = t[n - 1] - t[0];
   const rows = rowsToFit(t, v, interruptions, notes);
-  const { tFit, vFit, segmentStarts } = rows;
+  const { tFit, vFit, segmentStarts, series } = rows;
   for (const event of interruptions) notes.push(`${event.kind} at ${fmt(event.startHours, 1)} h: ${event.detail}`);
   if (tFit.length < 3) return { ...empty('degradation rate not computed: fewer than 3 rows at the held current', ''), interruptions, hoursRun };
 
@@ -496,11 +498,11 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
   }
 
   const from = lowerBound(tFit, breakInHours);
-  const trend = fitTrend(tFit, vFit, { from, to: tFit.length, segmentStarts, blockHours, confidence });
+  const trend = fitTrend(tFit, vFit, { from, to: tFit.length, segmentStarts, blockHours, confidence, series });
   const windows: DurabilityWindow[] = (options.windows ?? []).map((window) => {
     const windowFrom = lowerBound(tFit, window.fromHours);
     const windowTo = upperBound(tFit, window.toHours);
-    const windowFit = fitTrend(tFit, vFit, { from: windowFrom, to: windowTo, segmentStarts, blockHours, confidence });
+    const windowFit = fitTrend(tFit, vFit, { from: windowFrom, to: windowTo, segmentStarts, blockHours, confidence, series });
     return { fromHours: window.fromHours, toHours: window.toHours, ...rateOf(windowFit), n: windowTo - windowFrom };
   });
   if (!trend) {

@@ -1,6 +1,6 @@
 // Finds the end of the break-in (conditioning) period of a durability log: the early hours in which
 // the voltage moves much faster than its long-run trend and must be left out of the degradation fit.
-import { fitTrend } from './trend-fit';
+import { fitTrend, type TrendSeries } from './trend-fit';
 import { lowerBound } from './sorted-search';
 import { robustSd } from '../stats/robust-sd';
 
@@ -19,6 +19,8 @@ export interface BreakInOptions {
   blockHours?: number;
   /** row indices where a new segment starts (restart, current change): separate intercepts there */
   segmentStarts?: readonly number[];
+  /** the same t and v, checked, with running sums (prepareTrendSeries): every window fit reads them */
+  series?: TrendSeries;
 }
 
 export interface BreakInResult {
@@ -75,7 +77,9 @@ export function detectBreakIn(t: ArrayLike<number>, v: ArrayLike<number>, option
   for (const [name, value, ok] of checks) {
     if (!Number.isFinite(value) || !ok) throw new RangeError(`detectBreakIn: ${name} is out of range, got ${value}`);
   }
-  for (let i = 0; i < t.length; i++) {
+  const series = options.series?.t === t && options.series.v === v ? options.series : undefined;
+  // a prepared series was checked when it was made
+  for (let i = series ? t.length : 0; i < t.length; i++) {
     if (!Number.isFinite(t[i]) || !Number.isFinite(v[i])) {
       throw new RangeError(`detectBreakIn: values must be finite numbers, got t[${i}] = ${t[i]}, v[${i}] = ${v[i]}`);
     }
@@ -104,7 +108,7 @@ export function detectBreakIn(t: ArrayLike<number>, v: ArrayLike<number>, option
   }
   const segmentStarts = options.segmentStarts ?? [];
   const midHours = t0 + span / 2;
-  const longRun = fitTrend(t, v, { from: lowerBound(t, midHours), to: n, segmentStarts, blockHours });
+  const longRun = fitTrend(t, v, { from: lowerBound(t, midHours), to: n, segmentStarts, blockHours, series });
   if (!longRun) {
     return { breakInHours: null, rule, longRunRateUvPerH: null, status: 'not-applicable', note: 'too few points in the second half to fit the long-run slope' };
   }
@@ -121,7 +125,7 @@ export function detectBreakIn(t: ArrayLike<number>, v: ArrayLike<number>, option
     const from = lowerBound(t, start);
     const to = lowerBound(t, start + windowHours);
     if (to - from < 3) continue;
-    const windowFit = fitTrend(t, v, { from, to, segmentStarts, blockHours });
+    const windowFit = fitTrend(t, v, { from, to, segmentStarts, blockHours, series });
     // A window must cover most of its width to count; a gap would otherwise leave a short, noisy fit.
     if (!windowFit || t[to - 1] - t[from] < windowHours / 2) continue;
     starts.push(start);
