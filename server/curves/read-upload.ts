@@ -52,11 +52,16 @@ export async function readUpload(path: string, options: ReadOptions): Promise<Re
 
   const hash = createHash('sha256');
   const decoder = createChunkDecoder(head);
-  const parser = createDelimitedParser({ maxRows: options.maxRows });
+  // the file's size lets the parser size its columns once
+  const parser = createDelimitedParser({ maxRows: options.maxRows, sizeHintBytes: (await fs.promises.stat(path)).size });
   let bytesParsed = 0;
+  // in an ASCII-compatible text the table's plain lines are read from the bytes, without decoding
+  const fromBytes = decoder.encoding === 'utf-8' || decoder.encoding === 'windows-1252';
+  const decode = (bytes: Uint8Array) => decoder.decode(bytes, { stream: true });
   for await (const chunk of fs.createReadStream(path, { highWaterMark: 1 << 20 })) {
     hash.update(chunk as Buffer);
-    parser.push(decoder.decode(chunk as Buffer, { stream: true }));
+    if (fromBytes) parser.pushBytes(chunk as Buffer, decode);
+    else parser.push(decode(chunk as Buffer));
     bytesParsed += (chunk as Buffer).length;
     options.onBytes?.(bytesParsed);
     await yieldToEventLoop();

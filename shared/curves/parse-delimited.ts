@@ -10,6 +10,8 @@ import { lookUpUnit, recogniseHeaderUnit } from '../units/recognise-header-unit'
 export interface DelimitedParserOptions {
   /** refuse files with more data rows than this (CurveFileError `too-many-rows`); default 5,000,000 */
   maxRows?: number;
+  /** size of the whole input in bytes (a file's size), when known: the columns are sized once for the rows it holds */
+  sizeHintBytes?: number;
   /** how many data rows to keep as text in `preview`; default 10 */
   previewRows?: number;
 }
@@ -17,6 +19,13 @@ export interface DelimitedParserOptions {
 export interface DelimitedParser {
   /** feed the next piece of text; may throw CurveFileError as soon as a bad row is seen */
   push(chunk: string): void;
+  /**
+   * feed the next bytes of a text in an ASCII-compatible encoding (UTF-8, Windows-1252): whole
+   * lines of plain numbers in the table are read straight from the bytes; everything else goes
+   * through `decode` (a streaming decoder of the same text) and push — the table is the same as
+   * push(decode(bytes)) would give
+   */
+  pushBytes(bytes: Uint8Array, decode: (bytes: Uint8Array) => string): void;
   /** end of input: returns the table or throws CurveFileError */
   finish(): ParsedTable;
 }
@@ -59,6 +68,8 @@ function checkLineBounds(text: string, line: number): void {
 const DETECTION_MAX_LINES = 256;
 const DETECTION_MAX_CHARS = 1 << 20;
 const DETECTION_DATA_ROWS = 64;
+/** bytes fed at a time while the layout is still being found (pushBytes) */
+const DETECTION_PIECE_BYTES = 32_768;
 // ---- The numeric fast path: a station log's data line of plain numbers ("12.5,0.2,0.6512") read
 // straight from its character codes, without splitting it into cell strings. Any line it does not
 // recognise at once (quotes, spaces, units, grouping marks, empty cells, a different cell count)
@@ -67,86 +78,142 @@ const DETECTION_DATA_ROWS = 64;
 const POWERS_OF_TEN = Array.from({ length: 23 }, (_, exponent) => Number(`1e${exponent}`));
 
 /**
- * Reads one line of `cells` plain numbers separated by `delimiterCode` into `out`.
- * Definition: each cell is [+-]digits[mark digits][(e|E)[+-]digits] with `markCode` the decimal mark;
- * the value is exactly `Number()` of the cell (Clinger's fast path — an integer mantissa below 2^53
- * scaled by an exact power of ten 10^0…10^22 rounds correctly in one operation; other cells are
- * handed to Number()).
- * Reference: W. D. Clinger, "How to read floating point numbers accurately", PLDI 1990.
- * Cost: O(line length), no allocation for cells of at most 15 significant digits.
+ * Reads one line of `cells` plain numbers separated by `delimiterCode` into `out`: the line's
+ * character codes are copied to bytes (a code above 127 cannot be in such a row) and read by
+ * readPlainBytes.
  * @returns false (and `out` partly written) when the line is not such a row.
  * @example readPlainNumbers('1.5,-2e3', 44, 46, 2, out) // true; out = [1.5, -2000]
  */
 export function readPlainNumbers(text: string, delimiterCode: number, markCode: number, cells: number, out: Float64Array): boolean {
   const length = text.length;
-  let index = 0;
-  for (let cell = 0; cell < cells; cell++) {
-    const start = index;
-    let negative = false;
-    let code = index < length ? text.charCodeAt(index) : -1;
-    if (code === 45 || code === 43) {
-      negative = code === 45;
-      index++;
-      code = index < length ? text.charCodeAt(index) : -1;
-    }
-    let mantissa = 0;
-    let digits = 0;
-    let significant = 0;
-    let scale = 0;
+  if (lineBytes.length <= length) lineBytes = new Uint8Array(Math.max(length + 1, lineBytes.length * 2));
+  for (let index = 0; index < length; index++) {
+    const code = text.charCodeAt(index);
+    if (code > 127) return false;
+    lineBytes[index] = code;
+  }
+  lineBytes[length] = 10;
+  return readPlainBytes(lineBytes, 0, length, delimiterCode, markCode, cells, out);
+}
+let lineBytes = new Uint8Array(256);
+
+/** The text of bytes[from, to) of ASCII: only for a rare long cell. */
+function asciiText(bytes: Uint8Array, from: number, to: number): string {
+  let text = '';
+  for (let index = from; index < to; index++) text += String.fromCharCode(bytes[index]);
+  return text;
+}
+
+/** Digits of the mantissa that starts at `index`, leading zeros (and the decimal mark) left out. */
+function significantDigits(bytes: Uint8Array, index: number, markCode: number): number {
+  let significant = 0;
+  for (let code = bytes[index]; (code >= 48 && code <= 57) || code === markCode; code = bytes[++index]) {
+    if (code !== markCode && (significant > 0 || code !== 48)) significant++;
+  }
+  return significant;
+}
+
+/** Where the last readPlainCell stopped: the index of the byte after the cell (kept here, not in an object per cell). */
+let cellEnd = 0;
+
+/**
+ * One plain number cell from bytes[index..end): [+-]digits[mark digits][(e|E)[+-]digits] with
+ * `markCode` the decimal mark, read straight from the bytes; its value is exactly `Number()` of the
+ * cell (Clinger's fast path — an integer mantissa below 2^53 scaled by an exact power of ten
+ * 10^0…10^22 rounds correctly in one operation; other cells are handed to Number()). Sets cellEnd.
+ * Precondition: a byte that cannot be part of a number (a line feed) follows somewhere after
+ * `index` inside `bytes`, so the reading stops there without a bounds check on every byte.
+ * Reference: W. D. Clinger, "How to read floating point numbers accurately", PLDI 1990.
+ * @returns NaN when no such number starts at `index` (or it is not finite)
+ */
+function readPlainCell(bytes: Uint8Array, index: number, markCode: number): number {
+  const cellStart = index;
+  let negative = false;
+  let code = bytes[index];
+  if (code === 45 || code === 43) {
+    negative = code === 45;
+    index++;
+    code = bytes[index];
+  }
+  const digitsStart = index;
+  let mantissa = 0;
+  let digits = 0;
+  let scale = 0;
+  while (code >= 48 && code <= 57) {
+    mantissa = mantissa * 10 + (code - 48);
+    digits++;
+    index++;
+    code = bytes[index];
+  }
+  if (code === markCode) {
+    index++;
+    code = bytes[index];
     while (code >= 48 && code <= 57) {
-      if (significant > 0 || code !== 48) significant++;
       mantissa = mantissa * 10 + (code - 48);
       digits++;
+      scale--;
       index++;
-      code = index < length ? text.charCodeAt(index) : -1;
+      code = bytes[index];
     }
-    if (code === markCode) {
-      index++;
-      code = index < length ? text.charCodeAt(index) : -1;
-      while (code >= 48 && code <= 57) {
-        if (significant > 0 || code !== 48) significant++;
-        mantissa = mantissa * 10 + (code - 48);
-        digits++;
-        scale--;
-        index++;
-        code = index < length ? text.charCodeAt(index) : -1;
-      }
-    }
-    if (digits === 0) return false;
-    let exponent = 0;
-    if (code === 101 || code === 69) {
-      index++;
-      code = index < length ? text.charCodeAt(index) : -1;
-      let exponentNegative = false;
-      if (code === 45 || code === 43) {
-        exponentNegative = code === 45;
-        index++;
-        code = index < length ? text.charCodeAt(index) : -1;
-      }
-      let exponentDigits = 0;
-      while (code >= 48 && code <= 57) {
-        exponent = exponent * 10 + (code - 48);
-        exponentDigits++;
-        index++;
-        code = index < length ? text.charCodeAt(index) : -1;
-      }
-      if (exponentDigits === 0 || exponentDigits > 4) return false;
-      if (exponentNegative) exponent = -exponent;
-    }
-    const atEnd = cell === cells - 1;
-    if (atEnd ? index !== length : code !== delimiterCode) return false;
-    const power = scale + exponent;
-    let value: number;
-    if (significant <= 15 && power >= -22 && power <= 22) {
-      value = power < 0 ? mantissa / POWERS_OF_TEN[-power] : mantissa * POWERS_OF_TEN[power];
-    } else {
-      let cellText = text.slice(negative || text.charCodeAt(start) === 43 ? start + 1 : start, index);
-      if (markCode !== 46) cellText = cellText.replace(String.fromCharCode(markCode), '.');
-      value = Number(cellText);
-      if (value - value !== 0) return false;
-    }
-    out[cell] = negative ? -value : value;
+  }
+  if (digits === 0) return NaN;
+  let exponent = 0;
+  if (code === 101 || code === 69) {
     index++;
+    code = bytes[index];
+    let exponentNegative = false;
+    if (code === 45 || code === 43) {
+      exponentNegative = code === 45;
+      index++;
+      code = bytes[index];
+    }
+    let exponentDigits = 0;
+    while (code >= 48 && code <= 57) {
+      exponent = exponent * 10 + (code - 48);
+      exponentDigits++;
+      index++;
+      code = bytes[index];
+    }
+    if (exponentDigits === 0 || exponentDigits > 4) return NaN;
+    if (exponentNegative) exponent = -exponent;
+  }
+  cellEnd = index;
+  const power = scale + exponent;
+  let value: number;
+  // significant digits (leading zeros left out) matter only for a long mantissa
+  if ((digits <= 15 || significantDigits(bytes, digitsStart, markCode) <= 15) && power >= -22 && power <= 22) {
+    value = power < 0 ? mantissa / POWERS_OF_TEN[-power] : mantissa * POWERS_OF_TEN[power];
+  } else {
+    let cellText = asciiText(bytes, negative || bytes[cellStart] === 43 ? cellStart + 1 : cellStart, index);
+    if (markCode !== 46) cellText = cellText.replace(String.fromCharCode(markCode), '.');
+    value = Number(cellText);
+    if (value - value !== 0) return NaN;
+  }
+  return negative ? -value : value;
+}
+
+/**
+ * Reads bytes[start, end) — one line, without its line break — as `cells` plain numbers (see
+ * readPlainCell) separated by `delimiterCode` into `out`, straight from the bytes.
+ * Cost: O(line length), no allocation for cells of at most 15 significant digits.
+ * @returns false (and `out` partly written) when the line is not such a row.
+ * @example readPlainBytes(new TextEncoder().encode('1.5,-2e3'), 0, 8, 44, 46, 2, out) // true; out = [1.5, -2000]
+ */
+export function readPlainBytes(bytes: Uint8Array, start: number, end: number, delimiterCode: number, markCode: number, cells: number, out: Float64Array): boolean {
+  // the reading of a cell stops at a line feed: make sure one follows the line
+  if (end >= bytes.length || bytes[end] !== 10) {
+    const copy = new Uint8Array(end - start + 1);
+    copy.set(bytes.subarray(start, end));
+    copy[end - start] = 10;
+    return readPlainBytes(copy, 0, end - start, delimiterCode, markCode, cells, out);
+  }
+  let index = start;
+  for (let cell = 0; cell < cells; cell++) {
+    const value = readPlainCell(bytes, index, markCode);
+    if (value !== value) return false;
+    if (cell === cells - 1 ? cellEnd !== end : cellEnd >= end || bytes[cellEnd] !== delimiterCode) return false;
+    out[cell] = value;
+    index = cellEnd + 1;
   }
   return true;
 }
@@ -368,6 +435,13 @@ function shortCell(cell: string): string {
 class GrowableFloat64 {
   data = new Float64Array(1024);
   length = 0;
+  /** room for `count` values in all, without growing on each push */
+  reserve(count: number): void {
+    if (count <= this.data.length) return;
+    const bigger = new Float64Array(Math.max(count, this.data.length * 2));
+    bigger.set(this.data.subarray(0, this.length));
+    this.data = bigger;
+  }
   push(value: number): void {
     if (this.length === this.data.length) {
       const bigger = new Float64Array(this.data.length * 2);
@@ -387,6 +461,13 @@ class GrowableFloat64 {
 class GrowableInt32 {
   data = new Int32Array(1024);
   length = 0;
+  /** room for `count` values in all */
+  reserve(count: number): void {
+    if (count <= this.data.length) return;
+    const bigger = new Int32Array(Math.max(count, this.data.length * 2));
+    bigger.set(this.data.subarray(0, this.length));
+    this.data = bigger;
+  }
   push(value: number): void {
     if (this.length === this.data.length) {
       const bigger = new Int32Array(this.data.length * 2);
@@ -1007,6 +1088,13 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     const firstDataLine = unitLine ?? headerLine;
     chooseColumnKinds(nonEmpty, firstDataLine);
     prepareStoredColumns();
+    if (options.sizeHintBytes !== undefined && buffered.length > 0) {
+      // the rows the input holds at the lines' mean length so far, and a little more
+      const meanLine = (bufferedChars + buffered.length) / buffered.length;
+      const rows = Math.min(maxRows, Math.ceil((options.sizeHintBytes / meanLine) * 1.02) + 16);
+      for (const column of growable) column.reserve(rows);
+      dataLines.reserve(rows);
+    }
     for (const entry of buffered) {
       if (entry.line > firstDataLine) acceptDataLine(entry.text, entry.line);
     }
@@ -1072,6 +1160,83 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     }
   }
 
+  // ---- bytes: once the table's columns are known, its plain lines are read from the bytes; a line
+  // left open by the text way is finished the text way first, and the first line that is not plain
+  // (or the last, incomplete one) goes back to the text way, so every rule and message stays its own.
+  function feedBytes(bytes: Uint8Array, decode: (bytes: Uint8Array) => string): void {
+    let offset = 0;
+    // while the layout is being found, feed the text in pieces of whole lines, so that the bytes
+    // after it are read the fast way as soon as it is known
+    while (detecting && offset < bytes.length) {
+      const lineFeed = bytes.indexOf(10, Math.min(bytes.length, offset + DETECTION_PIECE_BYTES));
+      const end = lineFeed < 0 ? bytes.length : lineFeed + 1;
+      feed(decode(bytes.subarray(offset, end)));
+      offset = end;
+    }
+    if (offset >= bytes.length) return;
+    if (plainDelimiter >= 0 && (carry.length > 0 || pendingCarriageReturn)) {
+      const lineFeed = bytes.indexOf(10, offset);
+      if (lineFeed < 0) {
+        feed(decode(bytes.subarray(offset)));
+        return;
+      }
+      feed(decode(bytes.subarray(offset, lineFeed + 1)));
+      offset = lineFeed + 1;
+    }
+    if (plainDelimiter >= 0 && tail === null && rowCount >= previewRows && carry.length === 0 && !pendingCarriageReturn) {
+      offset = plainLines(bytes, offset);
+    }
+    if (offset < bytes.length) feed(decode(bytes.subarray(offset)));
+  }
+
+  /**
+   * Reads the whole plain lines of bytes from `from` straight into the columns (a line ends at LF or
+   * CR LF); returns where the first line it did not take starts: one that is not plain, is too long,
+   * or has no line feed yet.
+   */
+  function plainLines(bytes: Uint8Array, from: number): number {
+    const cells = storedColumns.length;
+    // room for every line the bytes can hold (a plain row has at least two bytes per cell)
+    const room = Math.min(maxRows, rowCount + Math.ceil((bytes.length - from) / (2 * cells)) + 1);
+    for (const column of growable) column.reserve(room);
+    dataLines.reserve(room);
+    const columns = growable.map((column) => column.data);
+    const lines = dataLines.data;
+    // whole lines only: the last line feed ends the reading of every cell before it
+    const lastLineFeed = bytes.lastIndexOf(10);
+    const delimiterCode = plainDelimiter;
+    const markCode = plainMark;
+    const rowLimit = maxRows;
+    let row = rowCount;
+    let line = lineNumber;
+    let start = from;
+    rows: while (row < rowLimit && start <= lastLineFeed) {
+      let index = start;
+      for (let cell = 0; cell < cells; cell++) {
+        const value = readPlainCell(bytes, index, markCode);
+        if (value !== value) break rows;
+        const next = bytes[cellEnd];
+        if (cell < cells - 1) {
+          if (next !== delimiterCode) break rows;
+        } else if (next !== 10 && !(next === 13 && bytes[cellEnd + 1] === 10)) {
+          break rows;
+        }
+        columns[cell][row] = value;
+        index = cellEnd + 1;
+      }
+      if (index - start > MAX_LINE_CHARS) break;
+      if (bytes[index - 1] === 13) index++;
+      lines[row] = ++line;
+      row++;
+      start = index;
+    }
+    lineNumber = line;
+    for (const column of growable) column.length = row;
+    dataLines.length = row;
+    rowCount = row;
+    return start;
+  }
+
   /** The finished table: stored columns in header order, what was left out and why, the lines after the table. */
   function assembleTable(): ParsedTable {
     const columns: (Float64Array | null)[] = header.map(() => null);
@@ -1127,6 +1292,9 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
   return {
     push(chunk: string): void {
       guarded(() => feed(String(chunk)));
+    },
+    pushBytes(bytes: Uint8Array, decode: (bytes: Uint8Array) => string): void {
+      guarded(() => feedBytes(bytes, decode));
     },
     finish(): ParsedTable {
       return guarded(() => {

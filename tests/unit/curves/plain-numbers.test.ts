@@ -2,7 +2,7 @@
 // (hand back to the general rules) every line it does not recognise.
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { readPlainNumbers } from '../../../shared/curves/parse-delimited';
+import { createDelimitedParser, readPlainNumbers } from '../../../shared/curves/parse-delimited';
 
 const read = (text: string, cells: number, delimiter = ',', mark = '.') => {
   const out = new Float64Array(cells);
@@ -44,5 +44,60 @@ describe('readPlainNumbers', () => {
       if (!Number.isFinite(expected)) return got === null;
       return got !== null && Object.is(got[0], expected);
     }), { numRuns: 5000 });
+  });
+});
+
+describe('pushBytes: the table read from bytes is the table read from text', () => {
+  const tableOf = (text: string, pieces: number[], viaBytes: boolean) => {
+    const parser = createDelimitedParser({ maxRows: 100_000, previewRows: 3, sizeHintBytes: viaBytes ? text.length : undefined });
+    const bytes = new TextEncoder().encode(text);
+    const decoder = new TextDecoder('utf-8');
+    const decode = (part: Uint8Array) => decoder.decode(part, { stream: true });
+    try {
+      let at = 0;
+      for (const size of [...pieces, bytes.length]) {
+        const next = Math.min(bytes.length, at + size);
+        if (viaBytes) parser.pushBytes(bytes.subarray(at, next), decode);
+        else parser.push(decode(bytes.subarray(at, next)));
+        at = next;
+        if (at >= bytes.length) break;
+      }
+      parser.push(decoder.decode());
+      const table = parser.finish();
+      return { ...table, columns: table.columns.map((column) => (column ? Array.from(column) : null)), dataLines: Array.from(table.dataLines) };
+    } catch (error) {
+      return { error: String(error), line: (error as { line?: number }).line };
+    }
+  };
+
+  // station-log lines: plain numbers, with now and then a line the general rules must read
+  // (spaces, an empty or missing cell, a comment, a repeated header, a quoted cell, a unit), CR LF or LF
+  const value = fc.double({ noNaN: true, noDefaultInfinity: true, min: -1e6, max: 1e6 }).map((x) => x.toFixed(4));
+  const odd = fc.constantFrom(' 1.5, 2, 3', '1.5,,3', '# pause', 't (h),j (A/cm2),V (V)', '"1.5",2,3', '', 'n/a,1,2', '1e3,2.5E-2,-0', '0.12345678901234567,1,2');
+  const line = fc.oneof({ weight: 40, arbitrary: fc.tuple(value, value, value).map((cells) => cells.join(',')) }, { weight: 1, arbitrary: odd });
+  it('for random logs cut into random pieces (property; checked against push of the decoded text)', () => {
+    fc.assert(
+      fc.property(fc.array(line, { minLength: 200, maxLength: 1000 }), fc.boolean(), fc.array(fc.integer({ min: 1, max: 9000 }), { maxLength: 40 }), (lines, crlf, pieces) => {
+        const text = `t (h),j (A/cm2),V (V)\n${lines.join(crlf ? '\r\n' : '\n')}${crlf ? '\r\n' : '\n'}`;
+        expect(tableOf(text, pieces, true)).toEqual(tableOf(text, pieces, false));
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it('a ragged row deep in the log is refused at the same line either way', () => {
+    const rows = Array.from({ length: 600 }, (_, i) => `${i},0.2,0.6`);
+    rows[450] = '1.5,2,3,4';
+    const text = `t (h),j (A/cm2),V (V)\n${rows.join('\n')}\n`;
+    const viaBytes = tableOf(text, [70_000], true);
+    expect(viaBytes).toEqual(tableOf(text, [70_000], false));
+    expect(viaBytes).toMatchObject({ line: 452 });
+  });
+
+  it('a file that ends without a line break, and one with a decimal comma, read the same', () => {
+    const rows = Array.from({ length: 500 }, (_, i) => `${(i * 0.01).toFixed(2)};0,2;0,6${i % 10}`);
+    for (const text of [`a;b;c\n${rows.join('\n')}`, `a,b,c\n${rows.map((r) => r.replace(/,/g, '.').replace(/;/g, ',')).join('\n')}`]) {
+      expect(tableOf(text, [100, 5000, 7], true)).toEqual(tableOf(text, [100, 5000, 7], false));
+    }
   });
 });
