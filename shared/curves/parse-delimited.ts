@@ -1091,7 +1091,10 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     if (options.sizeHintBytes !== undefined && buffered.length > 0) {
       // the rows the input holds at the lines' mean length so far, and a little more
       const meanLine = (bufferedChars + buffered.length) / buffered.length;
-      const rows = Math.min(maxRows, Math.ceil((options.sizeHintBytes / meanLine) * 1.02) + 16);
+      // never more rows than the bytes can hold as rows (two bytes a cell at least): at most 4 bytes
+      // of columns per byte of file, whatever short lines came first
+      const most = Math.ceil(options.sizeHintBytes / (2 * Math.max(1, storedColumns.length)));
+      const rows = Math.min(maxRows, most, Math.ceil((options.sizeHintBytes / meanLine) * 1.02) + 16);
       for (const column of growable) column.reserve(rows);
       dataLines.reserve(rows);
     }
