@@ -194,19 +194,12 @@ function readPlainCell(bytes: Uint8Array, index: number, markCode: number): numb
 
 /**
  * Reads bytes[start, end) — one line, without its line break — as `cells` plain numbers (see
- * readPlainCell) separated by `delimiterCode` into `out`, straight from the bytes.
+ * readPlainCell) separated by `delimiterCode` into `out`, straight from the bytes. bytes[end] must be
+ * a line feed (readPlainCell's precondition).
  * Cost: O(line length), no allocation for cells of at most 15 significant digits.
  * @returns false (and `out` partly written) when the line is not such a row.
- * @example readPlainBytes(new TextEncoder().encode('1.5,-2e3'), 0, 8, 44, 46, 2, out) // true; out = [1.5, -2000]
  */
-export function readPlainBytes(bytes: Uint8Array, start: number, end: number, delimiterCode: number, markCode: number, cells: number, out: Float64Array): boolean {
-  // the reading of a cell stops at a line feed: make sure one follows the line
-  if (end >= bytes.length || bytes[end] !== 10) {
-    const copy = new Uint8Array(end - start + 1);
-    copy.set(bytes.subarray(start, end));
-    copy[end - start] = 10;
-    return readPlainBytes(copy, 0, end - start, delimiterCode, markCode, cells, out);
-  }
+function readPlainBytes(bytes: Uint8Array, start: number, end: number, delimiterCode: number, markCode: number, cells: number, out: Float64Array): boolean {
   let index = start;
   for (let cell = 0; cell < cells; cell++) {
     const value = readPlainCell(bytes, index, markCode);

@@ -91,6 +91,7 @@ describe('pushBytes: the table read from bytes is the table read from text', () 
     const text = `t (h),j (A/cm2),V (V)\n${rows.join('\n')}\n`;
     const viaBytes = tableOf(text, [70_000], true);
     expect(viaBytes).toEqual(tableOf(text, [70_000], false));
+    // derived by hand: the header is line 1, so rows[450] is line 452
     expect(viaBytes).toMatchObject({ line: 452 });
   });
 
