@@ -135,6 +135,9 @@ function cathodeBuilds(): DemoBuild[] {
     b('C-019', { binder: 25, activationTemp: 335, activationTime: 2, gdl: 'woven carbon', cellTemp: 175 }, { changeNote: 'design centre point', builtOn: '2026-10-27', testedOn: '2026-10-29' }),
     b('C-020', { binder: 25, activationTemp: 335, activationTime: 2, gdl: 'woven carbon', cellTemp: 175 }, { replicateOf: 'C-019', changeNote: 'design centre point (replicate)', builtOn: '2026-10-27', testedOn: '2026-10-29' }),
     b('C-021', { binder: 32, activationTemp: 355, activationTime: 3, gdl: 'woven carbon', cellTemp: 185 }, { parent: 'C-010', changeNote: 'next recipe from the surface', status: 'planned', builtOn: '2026-11-24', plannedOn: '2026-11-17' }),
+    // the lot question: the C-010 recipe once more on each lot, so the lot page has two builds a lot to judge the scale-up by
+    b('C-022', { ...base, activationTime: 3, activationTemp: 350, binder: 30, cellTemp: 180 }, { parent: 'C-010', replicateOf: 'C-011', lot: 'FNC-24-11', changeNote: 'replicate: scale-up lot FNC-24-11', builtOn: '2026-10-07', testedOn: '2026-10-09', status: 'reviewed' }),
+    b('C-023', { ...base, activationTime: 3, activationTemp: 350, binder: 30, cellTemp: 180 }, { parent: 'C-007', replicateOf: 'C-010', changeNote: 'replicate: cell at 180 °C on the small lot', builtOn: '2026-10-07', testedOn: '2026-10-09', status: 'reviewed' }),
   ];
 }
 

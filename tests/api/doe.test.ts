@@ -141,14 +141,14 @@ describe('POST /api/projects/:id/surface', () => {
     const res = await h.as.researcher.post(`/api/projects/${C}/surface`, { response: 'vAtRef', model: 'linear' });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const { fit, runs } = res.body;
-    // demo seed: C-001…C-012 and C-014…C-020 are tested/reviewed (C-013 discarded, C-021 planned) → 19
-    expect(fit.n).toBe(19);
-    expect(runs).toHaveLength(19);
-    expect(fit.distinctRuns).toBeLessThan(19); // replicate pairs share settings (demo seed)
-    // 1 + 4 continuous + 1 GDL dummy = 6 columns; model df 5, residual df 13 (derived by hand)
+    // demo seed: C-001…C-012, C-014…C-020, C-022 and C-023 are tested/reviewed (C-013 discarded, C-021 planned) → 21
+    expect(fit.n).toBe(21);
+    expect(runs).toHaveLength(21);
+    expect(fit.distinctRuns).toBeLessThan(21); // replicate pairs share settings (demo seed)
+    // 1 + 4 continuous + 1 GDL dummy = 6 columns; model df 5, residual df 15 (derived by hand)
     expect(fit.coefficients).toHaveLength(6);
     expect(fit.anova.model.df).toBe(5);
-    expect(fit.anova.residual.df).toBe(13);
+    expect(fit.anova.residual.df).toBe(15);
     expect(fit.anova.pureError.df).toBeGreaterThan(0);
     expect(fit.r2).toBeGreaterThan(0);
     expect(fit.r2).toBeLessThanOrEqual(1);

@@ -18,14 +18,14 @@ describe('lots', () => {
     const res = await h.as.viewer.get(`/api/projects/${ids.project('C')}/lots`);
     expect(res.status).toBe(200);
     const byName = Object.fromEntries(res.body.lots.map((l: { name: string }) => [l.name, l]));
-    expect(byName['FNC-24-07']).toMatchObject({ batchSizeG: 5, metalWtPct: 2, buildCount: 20 }); // demo seed: every cathode build but C-011
-    expect(byName['FNC-24-11']).toMatchObject({ batchSizeG: 60, buildCount: 1 }); // demo seed: C-011
+    expect(byName['FNC-24-07']).toMatchObject({ batchSizeG: 5, metalWtPct: 2, buildCount: 21 }); // demo seed: every cathode build but C-011 and C-022
+    expect(byName['FNC-24-11']).toMatchObject({ batchSizeG: 60, buildCount: 2 }); // demo seed: C-011 and its replicate C-022
   });
 
   it('reads a lot with its builds: measured metal loading where recorded', async () => {
     const res = await h.as.partner.get(`/api/lots/${lotId('FNC-24-11')}`);
     expect(res.status).toBe(200);
-    expect(res.body.builds.map((b: { code: string }) => b.code)).toEqual(['C-011']);
+    expect(res.body.builds.map((b: { code: string }) => b.code)).toEqual(['C-011', 'C-022']);
     expect(res.body.builds[0]).toMatchObject({ metalLoadingMgCm2: 0.06, metalLoadingSource: 'measured' }); // demo seed
   });
 
@@ -43,11 +43,20 @@ describe('lots', () => {
     expect(res.status).toBe(200);
     expect(res.body.lot.name).toBe('FNC-24-11');
     expect(res.body.against.name).toBe('FNC-24-07');
-    // demo seed: C-011 (scale-up) has the recipe of C-010 (small batch), one build each
+    // demo seed: C-011 and C-022 (scale-up) have the recipe of C-010 and C-023 (small batch), two builds each
     expect(res.body.matchedRecipes).toHaveLength(1);
-    expect(res.body.a.n).toBe(1);
-    expect(res.body.b.n).toBe(1);
-    expect(res.body.welch).toBeNull(); // fewer than 2 builds a side: no interval
+    expect(res.body.a.n).toBe(2);
+    expect(res.body.b.n).toBe(2);
+    const v = async (code: string) => (await h.as.viewer.get(`/api/builds/${ids.build(code)}`)).body.build.values.vAtRef as number;
+    const [a1, a2, b1, b2] = [await v('C-010'), await v('C-023'), await v('C-011'), await v('C-022')];
+    // Welch–Satterthwaite worked by hand for two values a side: s²/n = (x₁ − x₂)²/4, ν = se⁴ / Σ (s²/n)² (n − 1 = 1)
+    const qa = (a1 - a2) ** 2 / 4;
+    const qb = (b1 - b2) ** 2 / 4;
+    expect(res.body.welch.diff).toBeCloseTo((b1 + b2) / 2 - (a1 + a2) / 2, 12);
+    expect(res.body.welch.se).toBeCloseTo(Math.sqrt(qa + qb), 12);
+    expect(res.body.welch.df).toBeCloseTo((qa + qb) ** 2 / (qa ** 2 + qb ** 2), 9);
+    expect(res.body.welch.low).toBeLessThan(res.body.welch.diff);
+    expect(res.body.welch.high).toBeGreaterThan(res.body.welch.diff);
     expect(res.body.unmatched).toBeGreaterThan(0);
   });
 

@@ -29,14 +29,14 @@ export default async function ({ url, browser, signIn }) {
   await page.getByLabel('Change note').fill('binder 30 → 35 wt %');
   await page.getByRole('button', { name: 'Create build' }).click();
   await page.waitForURL(/builds\/\d+$/);
-  await page.getByRole('heading', { name: /C-022/ }).waitFor();
+  await page.getByRole('heading', { name: /C-024/ }).waitFor();
   await page.getByText('binder 30 → 35 wt %').first().waitFor();
-  await checkPage(page, 'build C-022');
+  await checkPage(page, 'build C-024');
 
   await page.getByRole('link', { name: 'PGM-free cathode for 180 °C stacks' }).first().click();
   await page.waitForURL(/\/projects\/\d+$/);
-  await page.getByLabel('Search builds').fill('C-022');
-  const row = page.getByRole('row').filter({ hasText: 'C-022' });
+  await page.getByLabel('Search builds').fill('C-024');
+  const row = page.getByRole('row').filter({ hasText: 'C-024' });
   await row.waitFor();
   assert.match(await row.innerText(), /35/);
   assert.match(await row.innerText(), /C-010/);

@@ -65,6 +65,9 @@ export default async function ({ browser, signIn, artifacts }) {
   await comparison.waitFor();
   assert.match(await comparison.innerText(), /FNC-24-07[\s\S]*FNC-24-11/);
   await page.getByText(/matched recipe/).first().waitFor();
+  // two builds a lot at the C-010 recipe (demo seed): means in mV and a signed Welch interval
+  assert.match(await comparison.innerText(), /FNC-24-07\s+2\s+\d{3}\.\d mV/);
+  await page.getByText(/95 % Welch interval [−+]\d+\.\d mV to [−+]\d+\.\d mV/).waitFor();
   await checkPage(page, 'lot page');
   await page.screenshot({ path: path.join(artifacts, 'targets-lot.png'), fullPage: true });
 

@@ -4,19 +4,16 @@ import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useAddLotFile, useLot, useLots, useLotComparison, useRemoveLotFile, useUpdateLot } from '@/features/lots/api/lots';
 import { LotForm } from '@/features/lots/components/lot-form';
-import { useProject } from '@/features/projects/api/projects';
+import { useProject, useResponses } from '@/features/projects/api/projects';
 import { can } from '@/features/projects/components/permissions';
 import { Button } from '@/components/ui/button';
 import { useConfirm } from '@/components/ui/confirm-dialog';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Field, Select } from '@/components/ui/field';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { CURVE_METRICS, type CurveMetricEntry } from '@shared/curves/metric-catalogue';
-import { formatDate, formatNumber, formatSignificant } from '@/lib/format';
+import { formatDate, formatNumber, formatSignificant, METRICS, responseDisplay } from '@/lib/format';
+import { formatDifference } from '@/lib/benchmark-difference';
 import type { BuildStatus } from '@shared/api-types';
-
-/** The catalogue's metrics, looked up by key. */
-const CURVE_METRIC_INFO: Record<string, CurveMetricEntry> = CURVE_METRICS;
 
 export default function LotPage() {
   const lotId = Number(useParams().lotId);
@@ -29,6 +26,7 @@ export default function LotPage() {
   const chosen = against ?? others[0]?.id ?? null;
   const comparison = useLotComparison(lotId, chosen, response);
   const project = useProject(projectId);
+  const responses = useResponses(projectId);
   const update = useUpdateLot(lotId);
   const addFile = useAddLotFile(lotId);
   const removeFile = useRemoveLotFile(lotId);
@@ -38,8 +36,11 @@ export default function LotPage() {
   if (lot.error || !lot.data) return <ErrorNote error={lot.error} />;
   const l = lot.data.lot;
   const mayEdit = can(project.data?.myRole ?? null, 'editLots');
-  const unit = comparison.data?.unit ?? CURVE_METRIC_INFO[response]?.unit ?? '';
-  const show = (v: number | null | undefined) => (v == null ? '—' : `${formatSignificant(v, 4)} ${unit}`);
+  // in the response's display unit, one digit beyond its usual one: means, SDs and intervals of a few builds
+  const shown = responseDisplay(comparison.data?.response ?? { key: response, label: '', unit: '' });
+  const display = { ...shown, digits: shown.digits + 1 };
+  const show = (v: number | null | undefined) => (v == null || !Number.isFinite(v) ? '—' : `${formatNumber(v * display.scale, display.digits)}${display.unit ? ` ${display.unit}` : ''}`);
+  const showSigned = (v: number | null | undefined) => formatDifference(display, v ?? null);
   return (
     <div>
       <PageHeader eyebrow={<Link className="hover:underline" to={`/projects/${projectId}/lots`}>Catalyst lots</Link>} title={`Lot ${l.name}`} subtitle={[l.maker, l.madeOn ? `made or received ${formatDate(l.madeOn)}` : null].filter(Boolean).join(' · ')} />
@@ -100,7 +101,12 @@ export default function LotPage() {
           <>
             <div className="grid gap-3 md:grid-cols-3">
               <Field label="Against lot">{(p) => <Select {...p} value={chosen ?? ''} onChange={(e) => setAgainst(Number(e.target.value))}>{others.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}</Select>}</Field>
-              <Field label="Response">{(p) => <Select {...p} value={response} onChange={(e) => setResponse(e.target.value)}>{Object.entries(CURVE_METRIC_INFO).map(([key, info]) => <option key={key} value={key}>{info.label} ({info.unit})</option>)}</Select>}</Field>
+              <Field label="Response">{(p) => (
+                <Select {...p} value={response} onChange={(e) => setResponse(e.target.value)}>
+                  <optgroup label="From curves">{Object.values(METRICS).map((m) => <option key={m.key} value={m.key}>{m.label}{m.unit ? ` (${m.unit})` : ''}</option>)}</optgroup>
+                  {(responses.data ?? []).length > 0 && <optgroup label="Entered by hand">{responses.data!.map((r) => <option key={r.key} value={r.key}>{r.label}{r.unit ? ` (${r.unit})` : ''}</option>)}</optgroup>}
+                </Select>
+              )}</Field>
             </div>
             {comparison.isLoading && <Loading />}
             {comparison.error && <ErrorNote error={comparison.error} />}
@@ -115,7 +121,7 @@ export default function LotPage() {
                 </table>
                 <p className="mt-2 text-sm text-ink-900">
                   {comparison.data.welch
-                    ? <>Difference {comparison.data.lot.name} − {comparison.data.against.name}: <span className="num">{show(comparison.data.welch.diff)}</span>, 95 % Welch interval <span className="num">{show(comparison.data.welch.low)} to {show(comparison.data.welch.high)}</span>{comparison.data.welch.low > 0 || comparison.data.welch.high < 0 ? ' — beyond build-to-build noise.' : ' — within build-to-build noise.'}</>
+                    ? <>Difference {comparison.data.lot.name} − {comparison.data.against.name}: <span className="num">{showSigned(comparison.data.welch.diff)}</span>, 95 % Welch interval <span className="num">{showSigned(comparison.data.welch.low)} to {showSigned(comparison.data.welch.high)}</span> (ν = {formatNumber(comparison.data.welch.df, 1)}){comparison.data.welch.low > 0 || comparison.data.welch.high < 0 ? ' — beyond build-to-build noise.' : ' — within build-to-build noise.'}</>
                     : comparison.data.matchedRecipes.length === 0
                       ? 'No recipe was made from both lots yet: build the same recipe from each lot to compare them.'
                       : 'An interval needs at least two builds of the matched recipes from each lot: add a replicate.'}
