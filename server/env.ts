@@ -33,6 +33,8 @@ const envSchema = z.object({
   UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(2_000_000),
   /** worker threads that parse uploads (default: one per spare core, 1–4) */
   UPLOAD_PARSE_WORKERS: z.coerce.number().int().min(1).max(16).optional(),
+  /** read a text upload in a worker while it is received (default on; `false` reads it from disk once received) */
+  UPLOAD_PARSE_WHILE_RECEIVING: z.preprocess((v) => (v === '' || v === undefined ? undefined : !(v === 'false' || v === '0')), z.boolean().default(true)),
   /** longest time one file may take to parse, ms */
   UPLOAD_PARSE_TIMEOUT_MS: z.coerce.number().int().positive().default(60_000),
   /** heap limit of a parse worker, MB */

@@ -45,29 +45,62 @@ const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resol
 export async function readUpload(path: string, options: ReadOptions): Promise<ReadResult> {
   const head = await readHead(path, 65536);
   const kind = sniffBytes(head);
-  if (kind === 'empty') throw new CurveFileError('empty', 'The file is empty.');
-  if (kind === 'binary') throw new CurveFileError('binary', 'The file is binary, not a text table or an .xlsx workbook; export the data as CSV, TSV, TXT or XLSX.');
-  if (kind === 'xls') throw new CurveFileError('old-excel', 'This is an old .xls workbook; save it as .xlsx or CSV and upload again.');
   if (kind === 'xlsx') return readWorkbook(path, options);
-
-  const hash = createHash('sha256');
-  const decoder = createChunkDecoder(head);
-  // the file's size lets the parser size its columns once
-  const parser = createDelimitedParser({ maxRows: options.maxRows, sizeHintBytes: (await fs.promises.stat(path)).size });
+  const reader = createTextReader(head, { maxRows: options.maxRows, sizeHintBytes: (await fs.promises.stat(path)).size });
   let bytesParsed = 0;
-  // in an ASCII-compatible text the table's plain lines are read from the bytes, without decoding
-  const fromBytes = decoder.encoding === 'utf-8' || decoder.encoding === 'windows-1252';
-  const decode = (bytes: Uint8Array) => decoder.decode(bytes, { stream: true });
   for await (const chunk of fs.createReadStream(path, { highWaterMark: 1 << 20 })) {
-    hash.update(chunk as Buffer);
-    if (fromBytes) parser.pushBytes(chunk as Buffer, decode);
-    else parser.push(decode(chunk as Buffer));
+    reader.push(chunk as Buffer);
     bytesParsed += (chunk as Buffer).length;
     options.onBytes?.(bytesParsed);
     await yieldToEventLoop();
   }
-  parser.push(decoder.decode());
-  return { table: parser.finish(), sha256: hash.digest('hex'), contentType: 'text/plain' };
+  return reader.finish();
+}
+
+/** The head of a file (its first 64 kB or all of it) that is no text table: why, or null for text. */
+export function refuseHead(head: Uint8Array): CurveFileError | null {
+  const kind = sniffBytes(head);
+  if (kind === 'empty') return new CurveFileError('empty', 'The file is empty.');
+  if (kind === 'binary') return new CurveFileError('binary', 'The file is binary, not a text table or an .xlsx workbook; export the data as CSV, TSV, TXT or XLSX.');
+  if (kind === 'xls') return new CurveFileError('old-excel', 'This is an old .xls workbook; save it as .xlsx or CSV and upload again.');
+  return null;
+}
+
+/** Reads a text table from its bytes in order, hashing them on the same pass (see readUpload). */
+export interface TextReader {
+  /** the next bytes of the file, from its first byte on */
+  push(chunk: Uint8Array): void;
+  /** the table, its SHA-256 and content type, once every byte was pushed */
+  finish(): ReadResult;
+}
+
+/**
+ * A text table read from its bytes as they come (from disk, or from the network while the upload
+ * is received): `head` is the file's first 64 kB (or all of it) for the encoding; the same bytes
+ * are pushed again from the first.
+ * @throws CurveFileError for a head that is no text table, and as the delimited parser does
+ */
+export function createTextReader(head: Uint8Array, options: { maxRows: number; sizeHintBytes?: number }): TextReader {
+  const refused = refuseHead(head);
+  if (refused) throw refused;
+  const hash = createHash('sha256');
+  const decoder = createChunkDecoder(head);
+  // the file's size lets the parser size its columns once
+  const parser = createDelimitedParser({ maxRows: options.maxRows, sizeHintBytes: options.sizeHintBytes });
+  // in an ASCII-compatible text the table's plain lines are read from the bytes, without decoding
+  const fromBytes = decoder.encoding === 'utf-8' || decoder.encoding === 'windows-1252';
+  const decode = (bytes: Uint8Array) => decoder.decode(bytes, { stream: true });
+  return {
+    push(chunk) {
+      hash.update(chunk);
+      if (fromBytes) parser.pushBytes(chunk, decode);
+      else parser.push(decode(chunk));
+    },
+    finish() {
+      parser.push(decoder.decode());
+      return { table: parser.finish(), sha256: hash.digest('hex'), contentType: 'text/plain' };
+    },
+  };
 }
 
 function cellText(value: ExcelJS.CellValue): string {

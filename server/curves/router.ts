@@ -7,7 +7,7 @@ import { conditionChoiceSchema, curvePatchSchema, importProfileCreateSchema, poi
 import type { UploadFields } from '../../shared/schemas/curves';
 import type { ProjectAccess } from '../auth/access';
 import { defineFeature, route } from '../lib/route';
-import { receiveFile, receivedFile, removeReceivedFile } from '../lib/receive-file';
+import { receiveFile, receivedFile, removeReceivedFile, tableReadWhileReceived } from '../lib/receive-file';
 import { silentProgress, trackUpload } from '../uploads/progress';
 import * as curves from './service';
 import { durabilityAnswer } from './durability';
@@ -17,7 +17,7 @@ async function upload(ctx: AppContext, req: Request, access: ProjectAccess, buil
   const { uploadId, ...options } = fields;
   const progress = uploadId && !previewOnly ? trackUpload(access.user.id, uploadId, file.size) : silentProgress;
   try {
-    const result = await curves.ingestUpload(ctx, access, build, { tmpPath: file.tmpPath, originalName: file.originalName, size: file.size }, { ...options, previewOnly, progress });
+    const result = await curves.ingestUpload(ctx, access, build, { tmpPath: file.tmpPath, originalName: file.originalName, size: file.size, tableRead: tableReadWhileReceived(req) }, { ...options, previewOnly, progress });
     progress.done('curve' in result && result.curve ? result.curve.id : null);
     return result;
   } catch (error) {
@@ -30,14 +30,14 @@ export const curvesFeature = defineFeature('curves', [
   route({
     method: 'post', path: '/api/builds/{id}/curves', tag: 'curves', permission: { action: 'uploadCurves', on: 'build' }, multipart: uploadFieldsSchema, status: 201,
     summary: 'Upload a curve file: 201 {curve, recordCurve} or 422 naming file, line and column, with nothing stored. The first curve of a kind becomes the build’s curve of record (curve.isRecord); a later one is stored beside it and changes no value until chosen (PUT /api/builds/{id}/record); recordCurve is the record of that kind. curve.summary.importNotes says what was done on the way in; curve.summary.conditionMismatches lists file vs build conditions',
-    before: (ctx) => [receiveFile(ctx)],
+    before: (ctx) => [receiveFile(ctx, { parseText: true })],
     cleanup: removeReceivedFile,
     handle: ({ ctx, req, access, build, fields }) => upload(ctx, req, access, build, fields, false),
   }),
   route({
     method: 'post', path: '/api/builds/{id}/curves/preview', tag: 'curves', permission: { action: 'uploadCurves', on: 'build' }, multipart: uploadFieldsSchema,
     summary: 'Detect columns and units of a file without storing it',
-    before: (ctx) => [receiveFile(ctx)],
+    before: (ctx) => [receiveFile(ctx, { parseText: true })],
     cleanup: removeReceivedFile,
     handle: ({ ctx, req, access, build, fields }) => upload(ctx, req, access, build, fields, true),
   }),

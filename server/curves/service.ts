@@ -17,6 +17,7 @@ import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, CurveMetrics, Hf
 import { encodePoints, decodePoints } from './points-codec';
 import { metricEntry, metricsOfKind, nullMetrics } from '../../shared/curves/metric-catalogue';
 import { durabilityInPool, parseUpload } from '../uploads/parse-runner';
+import type { ReadResult } from './read-upload';
 import { audit } from '../lib/audit';
 import { AppError, forbidden, notFound } from '../lib/errors';
 import { actorOf, requireProfileLab, type ProjectAccess } from '../auth/access';
@@ -291,14 +292,18 @@ export async function ingestUpload(
   ctx: AppContext,
   access: ProjectAccess,
   build: BuildRow,
-  upload: { tmpPath: string; originalName: string; size: number },
+  upload: { tmpPath: string; originalName: string; size: number; tableRead?: Promise<ReadResult | null> | null },
   options: UploadOptions,
 ) {
   const { db, env } = ctx;
   try {
     let read;
     try {
-      read = await parseUpload(env, upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS, onBytes: options.progress && ((bytes) => options.progress!.parsed(bytes)) }, upload.originalName);
+      // a text table was read while it arrived; a workbook (or a file no worker was free for) is read from disk
+      const received = await upload.tableRead;
+      // read while it arrived: every byte is parsed by now
+      if (received) options.progress?.parsed(upload.size);
+      read = received ?? await parseUpload(env, upload.tmpPath, { sheet: options.sheet, maxRows: env.UPLOAD_MAX_ROWS, onBytes: options.progress && ((bytes) => options.progress!.parsed(bytes)) }, upload.originalName);
     } catch (error) {
       if (error instanceof CurveFileError && error.code === 'too-many-rows') {
         throw new AppError(422, 'too-many-rows', `${upload.originalName}: more than ${env.UPLOAD_MAX_ROWS.toLocaleString('en-US')} data rows, the row limit per file (UPLOAD_MAX_ROWS); nothing was stored. Split the log or ask an administrator to raise the limit.`, { file: upload.originalName, limit: 'UPLOAD_MAX_ROWS', maxRows: env.UPLOAD_MAX_ROWS, line: error.line ?? null });

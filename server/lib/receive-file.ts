@@ -4,7 +4,10 @@ import type { Request, Response, NextFunction } from 'express';
 import multer from 'multer';
 import fs from 'node:fs';
 import path from 'node:path';
+import { Transform, pipeline } from 'node:stream';
 import type { AppContext } from '../context';
+import type { ReadResult } from '../curves/read-upload';
+import { parsePool, type ParseStream } from '../uploads/parse-runner';
 import { AppError } from './errors';
 import { checkedFileName, multipartProblem } from './multipart-errors';
 
@@ -15,12 +18,75 @@ function formatBytes(bytes: number): string {
   return `${bytes} bytes`;
 }
 
-/** Receives the one file of a multipart upload into the uploads' tmp folder, within the size limit. */
-export function receiveFile(ctx: AppContext) {
+/** The table read while the file was received (receiveFile with `parseText`), by request. */
+const parsedWhileReceived = new WeakMap<Request, Promise<ReadResult | null>>();
+const streamsOf = new WeakMap<Request, ParseStream>();
+
+/**
+ * The table a worker read from the file's bytes as they arrived: null when the route does not
+ * read while receiving, every worker was busy, or the file is a workbook (read it from disk).
+ */
+export function tableReadWhileReceived(req: Request): Promise<ReadResult | null> | null {
+  return parsedWhileReceived.get(req) ?? null;
+}
+
+/**
+ * Multer's disk storage with a tap: the bytes written to the tmp file also go, as they come, to a
+ * parse worker (one pass over the network's bytes instead of a second one over the disk's).
+ */
+function readingDiskStorage(tmpDir: string, start: (req: Request, fileName: string) => ParseStream | null): multer.StorageEngine {
+  const disk = multer.diskStorage({ destination: tmpDir });
+  return {
+    _handleFile(req, file, callback) {
+      const stream = start(req, file.originalname);
+      if (!stream) return disk._handleFile(req, file, callback);
+      streamsOf.set(req, stream);
+      const tap = new Transform({
+        transform(chunk: Buffer, _encoding, done) {
+          stream.push(chunk);
+          done(null, chunk);
+        },
+      });
+      // a body cut off (client gone, limit) ends the tap with an error too, so the disk storage
+      // removes its partial file and the worker drops its stream
+      pipeline(file.stream, tap, () => {});
+      // the same file object multer tracks (the disk storage writes its path there), reading the tap
+      Object.defineProperty(file, 'stream', { value: tap, configurable: true, enumerable: false });
+      disk._handleFile(req, file, (error, info) => {
+        if (error) {
+          stream.abort();
+          return callback(error);
+        }
+        parsedWhileReceived.set(req, stream.end());
+        callback(null, info);
+      });
+    },
+    _removeFile(req, file, callback) {
+      streamsOf.get(req)?.abort();
+      disk._removeFile(req, file, callback);
+    },
+  };
+}
+
+/**
+ * Receives the one file of a multipart upload into the uploads' tmp folder, within the size limit.
+ * `parseText`: a worker reads a text table from the bytes while they arrive (curve uploads).
+ */
+export function receiveFile(ctx: AppContext, options: { parseText?: boolean } = {}) {
   const { env } = ctx;
   const tmpDir = path.join(env.uploadsDir, 'tmp');
   fs.mkdirSync(tmpDir, { recursive: true });
-  const upload = multer({ dest: tmpDir, limits: { fileSize: env.UPLOAD_MAX_BYTES, files: 1, fields: 20 } });
+  const limits = { fileSize: env.UPLOAD_MAX_BYTES, files: 1, fields: 20 };
+  const upload = options.parseText && env.UPLOAD_PARSE_WHILE_RECEIVING
+    ? multer({
+      limits,
+      storage: readingDiskStorage(tmpDir, (req, fileName) => {
+        // the request's length bounds the file's size: the columns are sized once from it
+        const length = Number(req.headers['content-length']);
+        return parsePool(env).parseStream({ maxRows: env.UPLOAD_MAX_ROWS, sizeHintBytes: Number.isFinite(length) && length > 0 ? length : undefined, fileName });
+      }),
+    })
+    : multer({ dest: tmpDir, limits });
   return (req: Request, res: Response, next: NextFunction) => {
     upload.single('file')(req, res, (error: unknown) => {
       if (error instanceof multer.MulterError) {
@@ -41,6 +107,7 @@ export function receiveFile(ctx: AppContext) {
 
 /** The received file never outlives its request, whatever the answer was. */
 export function removeReceivedFile(req: Request) {
+  streamsOf.get(req)?.abort();
   if (typeof req.file?.path === 'string') fs.rmSync(req.file.path, { force: true });
 }
 

@@ -24,7 +24,21 @@ export interface DurabilityRequest {
   onset?: { rule: OnsetRule; startGiven: boolean };
 }
 
-export type WorkerRequest = ParseRequest | DurabilityRequest;
+/**
+ * A text file read while it is received: `stream-start`, then its bytes in order (`stream-chunk`,
+ * moved not copied), then `stream-end`; `stream-abort` drops it. The worker answers `done`, `error`,
+ * or `not-text` when the file's head is a workbook (read from disk once received instead).
+ */
+export interface StreamStart {
+  type: 'stream-start';
+  id: number;
+  maxRows: number;
+  /** an upper bound of the file's size (the request's length), to size the columns once */
+  sizeHintBytes?: number;
+}
+export type StreamMessage = StreamStart | { type: 'stream-chunk'; id: number; bytes: Uint8Array } | { type: 'stream-end'; id: number } | { type: 'stream-abort'; id: number };
+
+export type WorkerRequest = ParseRequest | DurabilityRequest | StreamMessage;
 
 export type SerializedError =
   | { kind: 'curve'; code: string; message: string; line: number | null; column: number | string | null }
@@ -36,8 +50,19 @@ export type ParseReply =
   | { id: 0; type: 'ready' }
   | { id: number; type: 'bytes'; bytes: number }
   | { id: number; type: 'done'; result: ReadResult }
+  | { id: number; type: 'not-text' }
+  /** a received piece read and done with, moved back to be filled again (a stream's memory stays a few pieces) */
+  | { id: number; type: 'stream-piece'; bytes: Uint8Array }
   | { id: number; type: 'durability'; curve: CurveData; metrics: DurabilityMetrics; onset?: OnsetOutcome }
   | { id: number; type: 'error'; error: SerializedError };
+
+/** The buffers of a parsed table's columns and line numbers, to move the table between threads. */
+export function tableBuffers(result: ReadResult): ArrayBuffer[] {
+  const buffers = new Set<ArrayBuffer>();
+  for (const column of result.table.columns) if (column) buffers.add(column.buffer as ArrayBuffer);
+  buffers.add(result.table.dataLines.buffer as ArrayBuffer);
+  return [...buffers];
+}
 
 /** The distinct buffers under a curve's columns, to move them between threads instead of copying. */
 export function curveBuffers(curve: CurveData): ArrayBuffer[] {

@@ -15,7 +15,7 @@ import { guardedCopyPath } from './guarded-read';
 import type { CurveData } from '../../shared/curves/types';
 import type { DurabilityMetrics, DurabilityOptions, OnsetRule } from '../../shared/durability';
 import type { OnsetOutcome } from '../curves/kind-metrics';
-import { curveBuffers, type ParseReply, type SerializedError, type WorkerRequest } from './parse-protocol';
+import { curveBuffers, type ParseReply, type SerializedError, type StreamMessage, type WorkerRequest } from './parse-protocol';
 
 export interface ParsePoolOptions {
   workers: number;
@@ -29,7 +29,22 @@ interface Job {
   onBytes?: (bytes: number) => void;
   resolve: (result: never) => void;
   reject: (error: unknown) => void;
+  /** a file read while it is received: its messages wait here until the worker has the job */
+  stream?: { waiting: { message: StreamMessage; transfer: ArrayBuffer[] }[]; send: ((message: StreamMessage, transfer: ArrayBuffer[]) => void) | null; ended: boolean; onEnd: (() => void) | null; settled: boolean; abort: (() => void) | null; recycle: ((bytes: Uint8Array) => void) | null };
 }
+
+/** A text file read by a worker while the upload is received (ParsePool.parseStream). */
+export interface ParseStream {
+  /** the next bytes received (copied: the caller may reuse its buffer) */
+  push(bytes: Uint8Array): void;
+  /** every byte was pushed: the table, or null when the file is a workbook (read it from disk once received) */
+  end(): Promise<ReadResult | null>;
+  /** the upload was refused or broke off: the worker drops what it read */
+  abort(): void;
+}
+
+/** Received bytes go to the worker in pieces of this size (fewer messages, each moved not copied). */
+const STREAM_PIECE_BYTES = 1 << 20;
 
 const WORKER_ENTRY = new URL('./parse-worker-boot.mjs', import.meta.url);
 
@@ -59,6 +74,80 @@ export class ParsePool {
       this.queue.push({ request: { id: this.nextId++, path, sheet: options.sheet, maxRows: options.maxRows, limits }, fileName, onBytes: options.onBytes, resolve, reject });
       this.dispatch();
     });
+  }
+
+  /**
+   * A text file parsed while it is received, on a worker that is free now; null when every worker
+   * is busy (the caller then reads the file from disk once received, queued as usual). The clock
+   * of the time limit runs from `end()`; the result is readUpload's for the same bytes.
+   */
+  parseStream(options: { maxRows: number; sizeHintBytes?: number; fileName?: string }): ParseStream | null {
+    if (this.queue.length > 0 || (this.idle.length === 0 && this.all.size >= this.options.workers)) return null;
+    const id = this.nextId++;
+    const stream: NonNullable<Job['stream']> = { waiting: [], send: null, ended: false, onEnd: null, settled: false, abort: null, recycle: null };
+    const send = (message: StreamMessage, transfer: ArrayBuffer[] = []) => {
+      if (stream.settled) return;
+      if (stream.send) stream.send(message, transfer);
+      else stream.waiting.push({ message, transfer });
+    };
+    const result = new Promise<ReadResult | null>((resolve, reject) => {
+      const job: Job = { request: { type: 'stream-start', id, maxRows: options.maxRows, sizeHintBytes: options.sizeHintBytes }, fileName: options.fileName ?? 'the file', resolve, reject, stream };
+      // dropped before a worker took it: out of the queue (run() replaces this once it runs)
+      stream.abort = () => {
+        const at = this.queue.indexOf(job);
+        if (at >= 0) this.queue.splice(at, 1);
+        stream.settled = true;
+        reject(new Error('the upload was dropped'));
+      };
+      this.queue.push(job);
+      this.dispatch();
+    });
+    // an aborted stream's refusal is nobody's business
+    result.catch(() => {});
+    // pieces the worker has read come back to be filled again
+    const spare: Uint8Array[] = [];
+    stream.recycle = (bytes) => {
+      if (bytes.length === STREAM_PIECE_BYTES) spare.push(bytes);
+    };
+    let piece: Uint8Array = new Uint8Array(STREAM_PIECE_BYTES);
+    let filled = 0;
+    const flush = () => {
+      if (filled === 0) return;
+      // a whole piece is moved (a fresh or given-back one takes its place); a last, partial one is copied
+      const whole = filled === piece.length;
+      const bytes = whole ? piece : piece.slice(0, filled);
+      send({ type: 'stream-chunk', id, bytes }, [bytes.buffer as ArrayBuffer]);
+      if (whole) piece = spare.pop() ?? new Uint8Array(STREAM_PIECE_BYTES);
+      filled = 0;
+    };
+    return {
+      push(bytes) {
+        if (stream.settled || stream.ended) return;
+        let at = 0;
+        while (at < bytes.length) {
+          const take = Math.min(bytes.length - at, piece.length - filled);
+          piece.set(bytes.subarray(at, at + take), filled);
+          filled += take;
+          at += take;
+          if (filled === piece.length) flush();
+        }
+      },
+      end() {
+        if (!stream.ended) {
+          flush();
+          stream.ended = true;
+          send({ type: 'stream-end', id });
+          stream.onEnd?.();
+        }
+        return result;
+      },
+      abort: () => {
+        if (stream.settled) return;
+        send({ type: 'stream-abort', id });
+        stream.ended = true;
+        stream.abort?.();
+      },
+    };
   }
 
   /**
@@ -146,6 +235,7 @@ export class ParsePool {
     const finish = (outcome: { result?: unknown; error?: unknown }, keepWorker: boolean) => {
       if (settled) return;
       settled = true;
+      if (job.stream) job.stream.settled = true;
       this.running--;
       clearTimeout(timer);
       worker.off('message', onMessage);
@@ -157,7 +247,7 @@ export class ParsePool {
       } else {
         this.retire(worker);
         // an ended worker could not remove its guarded copy of a workbook
-        if (job.request.type !== 'durability') fs.rmSync(guardedCopyPath(job.request.path), { force: true });
+        if (job.request.type === undefined || job.request.type === 'parse') fs.rmSync(guardedCopyPath(job.request.path), { force: true });
       }
       if (outcome.error !== undefined) job.reject(outcome.error);
       else job.resolve(outcome.result as never);
@@ -166,7 +256,9 @@ export class ParsePool {
     const onMessage = (reply: ParseReply) => {
       if (reply.type === 'ready' || reply.id !== job.request.id) return;
       if (reply.type === 'bytes') job.onBytes?.(reply.bytes);
+      else if (reply.type === 'stream-piece') job.stream?.recycle?.(reply.bytes);
       else if (reply.type === 'done') finish({ result: reply.result }, true);
+      else if (reply.type === 'not-text') finish({ result: null }, true);
       else if (reply.type === 'durability') finish({ result: { curve: reply.curve, metrics: reply.metrics, onset: reply.onset } }, true);
       else finish({ error: rebuild(reply.error, job.fileName) }, true);
     };
@@ -182,14 +274,29 @@ export class ParsePool {
     worker.on('error', onError);
     worker.on('exit', onExit);
     let timer: ReturnType<typeof setTimeout> | undefined;
+    const startClock = () => {
+      timer = setTimeout(() => {
+        finish({ error: new CurveFileError('parse-timeout', `reading the file took longer than ${Number((this.options.timeoutMs / 1000).toFixed(2))} s, the limit per upload (UPLOAD_PARSE_TIMEOUT_MS); nothing was stored. Split the file or save it as CSV.`) }, false);
+      }, this.options.timeoutMs);
+    };
+    const stream = job.stream;
+    if (stream) stream.abort = () => finish({ error: new Error('the upload was dropped') }, true);
     this.ready.get(worker)!.then(
       () => {
         if (settled) return;
-        // the clock runs from when the loaded worker gets the file
-        timer = setTimeout(() => {
-          finish({ error: new CurveFileError('parse-timeout', `reading the file took longer than ${Number((this.options.timeoutMs / 1000).toFixed(2))} s, the limit per upload (UPLOAD_PARSE_TIMEOUT_MS); nothing was stored. Split the file or save it as CSV.`) }, false);
-        }, this.options.timeoutMs);
         const request = job.request;
+        if (stream) {
+          // a file read while it is received: the bytes so far, then each as it comes; the clock
+          // runs from its last byte (receiving is the network's time, not the reader's)
+          worker.postMessage(request);
+          stream.send = (message, transfer) => worker.postMessage(message, transfer);
+          for (const { message, transfer } of stream.waiting.splice(0)) worker.postMessage(message, transfer);
+          if (stream.ended) startClock();
+          else stream.onEnd = startClock;
+          return;
+        }
+        // the clock runs from when the loaded worker gets the file
+        startClock();
         if (request.type === 'durability') worker.postMessage(request, curveBuffers(request.curve));
         else worker.postMessage(request);
       },

@@ -7,7 +7,9 @@ import { AppError } from '../lib/errors';
 import { readUploadGuarded } from './guarded-read';
 import { durabilityMetrics } from '../../shared/durability';
 import { onsetMetric } from '../curves/kind-metrics';
-import { curveBuffers, type WorkerRequest, type ParseReply, type SerializedError } from './parse-protocol';
+import { createTextReader, type TextReader } from '../curves/read-upload';
+import { sniffBytes } from '../../shared/curves';
+import { curveBuffers, tableBuffers, type StreamMessage, type WorkerRequest, type ParseReply, type SerializedError } from './parse-protocol';
 
 function serialize(error: unknown): SerializedError {
   if (error instanceof CurveFileError) return { kind: 'curve', code: error.code, message: error.message, line: error.line ?? null, column: error.column ?? null };
@@ -17,9 +19,102 @@ function serialize(error: unknown): SerializedError {
 }
 
 const port = parentPort!;
+
+/** The head sniffed for the kind and encoding: the first 64 kB, as a file read from disk gives. */
+const HEAD_BYTES = 65536;
+
+interface Streamed {
+  maxRows: number;
+  sizeHintBytes?: number;
+  /** bytes before the head is complete */
+  pending: Uint8Array[];
+  pendingBytes: number;
+  reader: TextReader | null;
+}
+const streams = new Map<number, Streamed>();
+
+/** A piece read and done with goes back to the sender, to be filled again. */
+function giveBack(id: number, bytes: Uint8Array) {
+  port.postMessage({ id, type: 'stream-piece', bytes } satisfies ParseReply, [bytes.buffer as ArrayBuffer]);
+}
+
+function fail(id: number, error: unknown) {
+  streams.delete(id);
+  port.postMessage({ id, type: 'error', error: serialize(error) } satisfies ParseReply);
+}
+
+/** With the head complete (or the whole file shorter): a text reader, or `not-text` for a workbook. */
+function startReading(id: number, state: Streamed): boolean {
+  const all = new Uint8Array(state.pendingBytes);
+  let at = 0;
+  for (const piece of state.pending) {
+    all.set(piece, at);
+    at += piece.length;
+    giveBack(id, piece);
+  }
+  state.pending = [];
+  const head = all.subarray(0, HEAD_BYTES);
+  if (sniffBytes(head) === 'xlsx') {
+    streams.delete(id);
+    port.postMessage({ id, type: 'not-text' } satisfies ParseReply);
+    return false;
+  }
+  try {
+    state.reader = createTextReader(head, { maxRows: state.maxRows, sizeHintBytes: state.sizeHintBytes });
+    state.reader.push(all);
+    return true;
+  } catch (error) {
+    fail(id, error);
+    return false;
+  }
+}
+
+function onStream(message: StreamMessage) {
+  if (message.type === 'stream-start') {
+    streams.set(message.id, { maxRows: message.maxRows, sizeHintBytes: message.sizeHintBytes, pending: [], pendingBytes: 0, reader: null });
+    return;
+  }
+  const state = streams.get(message.id);
+  // a stream that failed or was dropped: its remaining messages are for nothing
+  if (!state) return;
+  if (message.type === 'stream-abort') {
+    streams.delete(message.id);
+    return;
+  }
+  if (message.type === 'stream-chunk') {
+    if (state.reader) {
+      try {
+        state.reader.push(message.bytes);
+      } catch (error) {
+        fail(message.id, error);
+        return;
+      }
+      // the reader keeps no view of the bytes (a line left open is kept as text)
+      giveBack(message.id, message.bytes);
+      return;
+    }
+    state.pending.push(message.bytes);
+    state.pendingBytes += message.bytes.length;
+    if (state.pendingBytes >= HEAD_BYTES) startReading(message.id, state);
+    return;
+  }
+  // stream-end
+  if (!state.reader && !startReading(message.id, state)) return;
+  streams.delete(message.id);
+  try {
+    const result = state.reader!.finish();
+    port.postMessage({ id: message.id, type: 'done', result } satisfies ParseReply, tableBuffers(result));
+  } catch (error) {
+    fail(message.id, error);
+  }
+}
 // the imports above are loaded: the pool starts a job's clock only from here
 port.postMessage({ id: 0, type: 'ready' } satisfies ParseReply);
 port.on('message', async (request: WorkerRequest) => {
+  if (request.type === 'stream-start' || request.type === 'stream-chunk' || request.type === 'stream-end' || request.type === 'stream-abort') {
+    onStream(request);
+    return;
+  }
   if (request.type === 'durability') {
     try {
       const metrics = durabilityMetrics(request.curve, request.options);
@@ -50,10 +145,7 @@ port.on('message', async (request: WorkerRequest) => {
         port.postMessage({ id: request.id, type: 'bytes', bytes } satisfies ParseReply);
       },
     }, request.limits);
-    const buffers = new Set<ArrayBuffer>();
-    for (const column of result.table.columns) if (column) buffers.add(column.buffer as ArrayBuffer);
-    buffers.add(result.table.dataLines.buffer as ArrayBuffer);
-    port.postMessage({ id: request.id, type: 'done', result } satisfies ParseReply, [...buffers]);
+    port.postMessage({ id: request.id, type: 'done', result } satisfies ParseReply, tableBuffers(result));
   } catch (error) {
     port.postMessage({ id: request.id, type: 'error', error: serialize(error) } satisfies ParseReply);
   }
