@@ -2,7 +2,7 @@
 // rises well above the stable rate, found by a two-piece (hinged) straight-line fit under a stated,
 // editable rule; `null` when the log shows no such change.
 import { tQuantile, tTwoSidedP } from '../stats/distributions';
-import { quickselect } from 'simple-statistics';
+import { kthSmallest } from '../stats/median';
 
 /** The stated, editable rule. Rates are loss rates in µV/h (positive = voltage falling). */
 export interface OnsetRule {
@@ -159,12 +159,15 @@ export function detectFailureOnset(curve: { tHours: ArrayLike<number>; v: ArrayL
   if (curve.j !== undefined && n > 0) {
     // the held current: the middle reading (the upper one of an even count), found by selection on a
     // typed copy rather than a sort of a million boxed numbers
-    const finite = new Float64Array(n);
     let m = 0;
-    for (let i = 0; i < n; i++) if (Number.isFinite(curve.j[i])) finite[m++] = curve.j[i];
-    const scratch = finite.subarray(0, m);
-    if (m > 0) quickselect(scratch as unknown as number[], m >> 1);
-    const median = scratch[m >> 1];
+    for (let i = 0; i < n; i++) if (Number.isFinite(curve.j[i])) m++;
+    let median: number;
+    if (m === n) median = kthSmallest(curve.j, n >> 1);
+    else {
+      const finite = new Float64Array(m);
+      for (let i = 0, k = 0; i < n; i++) if (Number.isFinite(curve.j[i])) finite[k++] = curve.j[i];
+      median = m > 0 ? kthSmallest(finite, m >> 1) : NaN;
+    }
     for (let i = 0; i < n; i++) {
       const value = curve.j[i];
       if (!Number.isFinite(value) || Math.abs(value - median) > applied.currentTolerance * Math.abs(median)) {
