@@ -99,6 +99,43 @@ function blockMeans(t: ArrayLike<number>, v: ArrayLike<number>, keep: Uint8Array
   return { t: bt, v: bv };
 }
 
+// The passes over every reading are small functions of their own: each is compiled on its own
+// (a log's one long call otherwise waits on the compiler inside one large function).
+
+/** Finite time and voltage, time never going back. */
+function checkReadings(t: ArrayLike<number>, v: ArrayLike<number>): void {
+  for (let i = 0; i < t.length; i++) {
+    if (!Number.isFinite(t[i]) || !Number.isFinite(v[i])) throw new RangeError(`detectFailureOnset: reading ${i}: time and voltage must be finite, got ${t[i]} h and ${v[i]} V`);
+    if (i > 0 && t[i] < t[i - 1]) throw new RangeError(`detectFailureOnset: time goes backwards at reading ${i} (${t[i]} h after ${t[i - 1]} h)`);
+  }
+}
+
+/** The held current: the middle of the finite readings (the upper one of an even count), by selection. */
+function heldCurrent(j: ArrayLike<number>): number {
+  const n = j.length;
+  let m = 0;
+  for (let i = 0; i < n; i++) if (Number.isFinite(j[i])) m++;
+  if (m === n) return kthSmallest(j, n >> 1);
+  if (m === 0) return NaN;
+  const finite = new Float64Array(m);
+  for (let i = 0, k = 0; i < n; i++) if (Number.isFinite(j[i])) finite[k++] = j[i];
+  return kthSmallest(finite, m >> 1);
+}
+
+/** Marks (keep = 0) the readings off the held current by more than `tolerance` of it; returns how many. */
+function leaveOutOtherCurrents(j: ArrayLike<number>, held: number, tolerance: number, keep: Uint8Array): number {
+  const limit = tolerance * Math.abs(held);
+  let out = 0;
+  for (let i = 0; i < j.length; i++) {
+    const value = j[i];
+    if (!Number.isFinite(value) || Math.abs(value - held) > limit) {
+      keep[i] = 0;
+      out++;
+    }
+  }
+  return out;
+}
+
 /** Solves the 3 × 3 normal equations a·β = b; returns β and a⁻¹, or null when a is singular. */
 function solveThree(a: number[][], b: readonly number[]): { beta: [number, number, number]; inverse: number[][] } | null {
   const det =
@@ -148,33 +185,14 @@ export function detectFailureOnset(curve: { tHours: ArrayLike<number>; v: ArrayL
   const nonNegativeKeys: (keyof OnsetRule)[] = ['startHours', 'minRateIncreaseUvPerH', 'minStableHours', 'minTailHours', 'currentTolerance'];
   for (const key of nonNegativeKeys) if (!(Number.isFinite(applied[key]) && applied[key] >= 0)) throw new RangeError(`detectFailureOnset: rule.${key} must be ≥ 0, got ${applied[key]}`);
   if (!(applied.alpha > 0 && applied.alpha < 1)) throw new RangeError(`detectFailureOnset: rule.alpha must be in (0, 1), got ${applied.alpha}`);
-  for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(t[i]) || !Number.isFinite(v[i])) throw new RangeError(`detectFailureOnset: reading ${i}: time and voltage must be finite, got ${t[i]} h and ${v[i]} V`);
-    if (i > 0 && t[i] < t[i - 1]) throw new RangeError(`detectFailureOnset: time goes backwards at reading ${i} (${t[i]} h after ${t[i - 1]} h)`);
-  }
+  checkReadings(t, v);
   const hoursRun = n > 0 ? t[n - 1] : 0;
   const notes: string[] = [];
   const keep = new Uint8Array(n).fill(1);
   let rowsLeftOut = 0;
   if (curve.j !== undefined && n > 0) {
-    // the held current: the middle reading (the upper one of an even count), found by selection on a
-    // typed copy rather than a sort of a million boxed numbers
-    let m = 0;
-    for (let i = 0; i < n; i++) if (Number.isFinite(curve.j[i])) m++;
-    let median: number;
-    if (m === n) median = kthSmallest(curve.j, n >> 1);
-    else {
-      const finite = new Float64Array(m);
-      for (let i = 0, k = 0; i < n; i++) if (Number.isFinite(curve.j[i])) finite[k++] = curve.j[i];
-      median = m > 0 ? kthSmallest(finite, m >> 1) : NaN;
-    }
-    for (let i = 0; i < n; i++) {
-      const value = curve.j[i];
-      if (!Number.isFinite(value) || Math.abs(value - median) > applied.currentTolerance * Math.abs(median)) {
-        keep[i] = 0;
-        rowsLeftOut++;
-      }
-    }
+    const median = heldCurrent(curve.j);
+    rowsLeftOut = leaveOutOtherCurrents(curve.j, median, applied.currentTolerance, keep);
     if (rowsLeftOut > 0) notes.push(`${rowsLeftOut} row${rowsLeftOut === 1 ? '' : 's'} at another current than the held ${Number(median.toPrecision(3))} A/cm² left out`);
   }
   const method =
