@@ -1,5 +1,5 @@
-// Ingest figure: a generated 1,000,000-row log uploaded through the real API (multipart → disk →
-// streamed parse → metrics → stored blob), timed to the 201; peak RSS over the process's idle level;
+// Ingest figure: a generated 1,000,000-row log uploaded through the real API (multipart → disk, read
+// by a worker while received → metrics → stored blob), timed to the 201; peak RSS over the process's idle level;
 // progress polled meanwhile (its worst latency shows whether the event loop stayed free).
 // Then the read-back figure: the stored curve fetched downsampled for a plot.
 import fs from 'node:fs';
@@ -17,7 +17,7 @@ const file = process.argv[2]!;
 const bytes = fs.statSync(file).size;
 const gc = (globalThis as { gc?: () => void }).gc;
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'cw-bench-ingest-'));
-const ctx = createContext({ DATABASE_PATH: path.join(dir, 'db.sqlite'), UPLOADS_DIR: path.join(dir, 'uploads'), LOG_LEVEL: 'silent', SEED_DEMO: 'never', LOGIN_RATE_LIMIT: '1000', UPLOAD_MAX_BYTES: String(512 * 1024 * 1024) });
+const ctx = createContext({ DATABASE_PATH: path.join(dir, 'db.sqlite'), UPLOADS_DIR: path.join(dir, 'uploads'), LOG_LEVEL: 'silent', SEED_DEMO: 'never', LOGIN_RATE_LIMIT: '1000', UPLOAD_MAX_BYTES: String(512 * 1024 * 1024), ...(process.env.BENCH_PARSE_AFTER_RECEIPT && { UPLOAD_PARSE_WHILE_RECEIVING: 'false' }) });
 await seedDemo(ctx);
 const app = createApp(ctx, { serveClient: false });
 const server = app.listen(0, '127.0.0.1');
@@ -29,7 +29,8 @@ const buildId = (ctx.db.$client.prepare("select id from builds where code = 'C-0
 // The upload is sent by curl in its own process, so the figure's memory is the server's alone.
 import { execFile } from 'node:child_process';
 function curlUpload(path: string, name: string, uploadId: string | null): Promise<{ status: number; body: string }> {
-  const args = ['-s', '-o', '-', '-w', '\n%{http_code}', '-H', `cookie: ${auth.cookie}`, '-H', `x-csrf-token: ${auth.csrf}`, '-F', 'kind=durability', ...(uploadId ? ['-F', `uploadId=${uploadId}`] : []), '-F', `file=@${path};filename=${name}`, `${base}/api/builds/${buildId}/curves`];
+  // BENCH_LINE_RATE (e.g. 100M bytes/s, a 1 Gb/s network): the upload sent no faster than a real link
+  const args = [...(process.env.BENCH_LINE_RATE ? ['--limit-rate', process.env.BENCH_LINE_RATE] : []), '-s', '-o', '-', '-w', '\n%{http_code}', '-H', `cookie: ${auth.cookie}`, '-H', `x-csrf-token: ${auth.csrf}`, '-F', 'kind=durability', ...(uploadId ? ['-F', `uploadId=${uploadId}`] : []), '-F', `file=@${path};filename=${name}`, `${base}/api/builds/${buildId}/curves`];
   return new Promise((resolve, reject) => execFile('curl', args, { maxBuffer: 1 << 24 }, (error, stdout) => {
     if (error) return reject(error);
     const cut = stdout.lastIndexOf('\n');

@@ -7,9 +7,9 @@ export const BENCH_DIR = path.dirname(fileURLToPath(import.meta.url));
 export const ROOT = path.resolve(BENCH_DIR, '..');
 
 /** Runs a bench script in its own Node process (so its memory and CPU are its own) and returns its last JSON line. */
-export function runChild<T>(script: string, args: string[] = [], options: { timeoutMs?: number } = {}): Promise<T> {
+export function runChild<T>(script: string, args: string[] = [], options: { timeoutMs?: number; env?: Record<string, string> } = {}): Promise<T> {
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--expose-gc', '--import', 'tsx', path.join(BENCH_DIR, script), ...args], { cwd: ROOT, stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, LOG_LEVEL: 'silent' } });
+    const child = spawn(process.execPath, ['--expose-gc', '--import', 'tsx', path.join(BENCH_DIR, script), ...args], { cwd: ROOT, stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, LOG_LEVEL: 'silent', ...options.env } });
     let out = '';
     child.stdout.on('data', (chunk: Buffer) => { out += chunk.toString(); });
     const timer = setTimeout(() => { child.kill('SIGKILL'); reject(new Error(`${script} took longer than ${options.timeoutMs} ms`)); }, options.timeoutMs ?? 180_000);
