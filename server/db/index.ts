@@ -5,6 +5,7 @@ import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { Worker } from 'node:worker_threads';
 import * as schema from './schema';
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
@@ -23,7 +24,31 @@ export function openDatabase(databasePath: string): Db {
   sqlite.pragma('synchronous = NORMAL');
   const db = drizzle(sqlite, { schema }) as Db;
   migrate(db, { migrationsFolder });
+  if (databasePath !== ':memory:') checkpointElsewhere(sqlite, databasePath);
   return db;
+}
+
+/** How often the checkpoint thread copies the write-ahead log into the database file, ms. */
+const CHECKPOINT_INTERVAL_MS = 2000;
+
+/**
+ * The WAL is checkpointed by a thread of its own (checkpoint-worker.mjs) instead of by whichever
+ * commit crosses SQLite's 1,000-page mark: that commit would copy up to 64 MB on the event loop.
+ * Closing the connection stops the thread, whose own last close leaves no WAL behind.
+ */
+function checkpointElsewhere(sqlite: Database.Database, databasePath: string): void {
+  const worker = new Worker(new URL('./checkpoint-worker.mjs', import.meta.url), { workerData: { path: databasePath, intervalMs: CHECKPOINT_INTERVAL_MS } });
+  worker.unref();
+  worker.on('error', () => {
+    // without the thread, SQLite's own checkpoints again (on the event loop, but never an unbounded WAL)
+    if (sqlite.open) sqlite.pragma('wal_autocheckpoint = 1000');
+  });
+  sqlite.pragma('wal_autocheckpoint = 0');
+  const close = sqlite.close.bind(sqlite);
+  sqlite.close = () => {
+    worker.postMessage('stop');
+    return close();
+  };
 }
 
 export { schema };
