@@ -296,6 +296,9 @@ export async function ingestUpload(
   options: UploadOptions,
 ) {
   const { db, env } = ctx;
+  // the raw file goes to the store while the log is measured (a rename, or an object upload)
+  let storing: { sha256: string; put: Promise<{ existed: boolean }> } | null = null;
+  let stored = false;
   try {
     let read;
     try {
@@ -418,6 +421,7 @@ export async function ingestUpload(
         // a log's durability fit runs in the worker pool (its columns are moved there and back)
         let fitted: Fitted | undefined;
         if (kind === 'durability' || kind === 'hold') {
+          storing = { sha256: read.sha256, put: ctx.storage.put(read.sha256, upload.tmpPath) };
           await yieldToEventLoop();
           // a log's onset search runs there too, with the project's rule (an upload has no curve options yet)
           const onset = kind === 'durability' ? { rule: onsetRuleOf(project.settings.onsetRule, undefined), startGiven: project.settings.onsetRule?.startHours !== undefined } : undefined;
@@ -438,7 +442,9 @@ export async function ingestUpload(
     const points = encodePoints(data);
     await yieldToEventLoop();
 
-    const { existed } = await ctx.storage.put(read.sha256, upload.tmpPath);
+    storing ??= { sha256: read.sha256, put: ctx.storage.put(read.sha256, upload.tmpPath) };
+    const { existed } = await storing.put;
+    stored = true;
 
     try {
       const curve = db.transaction((tx) => {
@@ -495,6 +501,14 @@ export async function ingestUpload(
       if (!existed && !db.select({ id: files.id }).from(files).where(eq(files.sha256, read.sha256)).get()) await ctx.storage.remove(read.sha256);
       throw error;
     }
+  } catch (error) {
+    // refused while the raw file was on its way to the store: nothing half-stored, the bytes go too
+    if (storing && !stored) {
+      const { sha256, put } = storing;
+      const outcome = await put.catch(() => ({ existed: true }));
+      if (!outcome.existed && !db.select({ id: files.id }).from(files).where(eq(files.sha256, sha256)).get()) await ctx.storage.remove(sha256);
+    }
+    throw error;
   } finally {
     fs.rmSync(upload.tmpPath, { force: true });
   }

@@ -224,6 +224,16 @@ describe('upload limits', () => {
     ctx.db.$client.close();
   });
 
+  it('refuses a log too short after its break-in with 422, and stores nothing (the raw file was on its way to the store meanwhile)', async () => {
+    const before = { curves: count('curves'), files: count('files'), disk: storedFiles() };
+    // 2 h of readings: fewer than the 3 h after break-in a short log needs (shared/curves/check-enough-data.ts)
+    const res = await h.as.researcher.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'short-after-break-in.csv', content: csvOf({ hours: 2, stepMinutes: 1, breakInHours: 0.5, seed: 53 }) }, { kind: 'durability' });
+    expect(res.status, JSON.stringify(res.body)).toBe(422);
+    expect(res.body.error.message).toMatch(/short-after-break-in\.csv.*after break-in/);
+    expect({ curves: count('curves'), files: count('files'), disk: storedFiles() }).toEqual(before);
+    expect(fs.readdirSync(path.join(h.ctx.env.uploadsDir, 'tmp'))).toEqual([]);
+  });
+
   it('refuses a file over UPLOAD_MAX_ROWS with 422 naming the limit, and stores nothing', async () => {
     const { ctx, agent, csrf } = await limitedApp({ UPLOAD_MAX_ROWS: '1000' });
     const before = { curves: count('curves'), files: count('files'), disk: storedFiles() };
