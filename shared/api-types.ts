@@ -39,6 +39,9 @@ export interface Project {
   buildCount?: number;
 }
 
+/** A build as a picker shows it (GET /api/projects/:id/builds?view=brief): a few dozen bytes, not a few hundred. */
+export type BuildBrief = Pick<Build, 'id' | 'code' | 'changeNote' | 'status' | 'labId' | 'parentId' | 'curveCount' | 'recordCurveIds'>;
+
 export interface Build {
   id: number;
   projectId: number;

@@ -8,7 +8,7 @@ import type { Db } from '../db';
 import { builds, curves, labs, lots, projects, users } from '../db/schema';
 import { dataVersion } from '../db/data-version';
 import { checkFactorValues, type buildCreateSchema, type buildUpdateSchema, type BuildListQuery, type RecordChoice } from '../../shared/schemas/build';
-import type { Build, RecordCurveIds } from '../../shared/api-types';
+import type { Build, BuildBrief, RecordCurveIds } from '../../shared/api-types';
 import type { CurveKind, CurveMetrics } from '../../shared/curves/types';
 import { metricsOfKind } from '../../shared/curves/metric-catalogue';
 import { buildPermissions, labForNewBuild } from '../../shared/auth/permissions';
@@ -176,19 +176,24 @@ export function getBuildItem(ctx: AppContext, buildId: number): BuildListItem {
  * kept until the database next changes (`dataVersion`: any write, by any code path).
  */
 const listCaches = new WeakMap<object, ReturnType<typeof answerCache>>();
+/** What a picker needs of a build (the list's `view=brief`). */
+function briefOf(build: Build): BuildBrief {
+  return { id: build.id, code: build.code, changeNote: build.changeNote, status: build.status, labId: build.labId, parentId: build.parentId, curveCount: build.curveCount, recordCurveIds: build.recordCurveIds };
+}
+
 export function buildListJson(ctx: AppContext, access: ProjectAccess, query: BuildListQuery): string {
   let cache = listCaches.get(ctx.db.$client);
   if (!cache) {
     cache = answerCache(64);
     listCaches.set(ctx.db.$client, cache);
   }
-  const key = `${access.projectId}|${dataVersion(ctx.db)}|${query.status ?? ''}|${query.limit ?? ''}|${query.offset ?? ''}`;
+  const key = `${access.projectId}|${dataVersion(ctx.db)}|${query.status ?? ''}|${query.limit ?? ''}|${query.offset ?? ''}|${query.view ?? 'full'}`;
   let body = cache.get(key);
   if (!body) {
     const list = listBuilds(ctx, access, query);
     // how many builds the whole list holds, so a client reading one page knows how many pages there are
     const total = query.limit === undefined && !query.offset ? list.length : ctx.db.select({ n: sql<number>`count(*)` }).from(builds).where(and(eq(builds.projectId, access.projectId), query.status ? eq(builds.status, query.status) : undefined)).get()!.n;
-    body = JSON.stringify({ builds: list, total });
+    body = JSON.stringify({ builds: query.view === 'brief' ? list.map(briefOf) : list, total });
     cache.set(key, body);
   }
   return body;

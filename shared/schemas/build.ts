@@ -44,6 +44,8 @@ export const buildListQuery = z.object({
   status: z.enum(BUILD_STATUSES).optional(),
   limit: z.coerce.number().int().min(1).max(100000).optional(),
   offset: z.coerce.number().int().min(0).optional(),
+  /** `brief`: only what a picker needs (BuildBrief: id, code, change note, status, lab, parent, curves), for a project of thousands of builds */
+  view: z.enum(['full', 'brief']).optional(),
 });
 export type BuildListQuery = z.infer<typeof buildListQuery>;
 

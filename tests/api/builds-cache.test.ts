@@ -90,4 +90,21 @@ describe('the list a page at a time', () => {
     const planned = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds?status=planned&limit=1`);
     expect(planned.body.total).toBe(whole.body.builds.filter((b: { status: string }) => b.status === 'planned').length);
   });
+
+  it('answers the brief view for pickers: the same builds with only what a picker shows, far fewer bytes', async () => {
+    const whole = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds`);
+    const brief = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds?view=brief`);
+    expect(brief.status).toBe(200);
+    expect(brief.body.total).toBe(whole.body.total);
+    expect(brief.body.builds.map((b: { id: number }) => b.id)).toEqual(whole.body.builds.map((b: { id: number }) => b.id));
+    for (const [i, b] of (brief.body.builds as Record<string, unknown>[]).entries()) {
+      expect(Object.keys(b).sort()).toEqual(['changeNote', 'code', 'curveCount', 'id', 'labId', 'parentId', 'recordCurveIds', 'status']);
+      const full = whole.body.builds[i];
+      expect(b).toEqual({ id: full.id, code: full.code, changeNote: full.changeNote, status: full.status, labId: full.labId, parentId: full.parentId, curveCount: full.curveCount, recordCurveIds: full.recordCurveIds });
+    }
+    expect(JSON.stringify(brief.body).length * 4).toBeLessThan(JSON.stringify(whole.body).length);
+    const bad = await h.as.viewer.get(`/api/projects/${ids.project('C')}/builds?view=everything`);
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body.error)).toMatch(/view/);
+  });
 });

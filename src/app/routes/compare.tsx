@@ -6,7 +6,7 @@ import { useMemo, useState } from 'react';
 import { useParams, useSearchParams } from 'react-router-dom';
 import { useQueries } from '@tanstack/react-query';
 import { useProject } from '@/features/projects/api/projects';
-import { useBuilds, buildQueryOptions } from '@/features/builds/api/builds';
+import { useBuildBriefs, buildQueryOptions } from '@/features/builds/api/builds';
 import { curveQueryOptions } from '@/features/curves/api/curves';
 import { PolarizationPlot, type PlotSeries } from '@/features/curves/components/polarization-plot';
 import { useLineage } from '@/features/lineage/api/get-lineage';
@@ -41,7 +41,7 @@ export default function ComparePage() {
   const projectId = Number(useParams().projectId);
   const [params, setParams] = useSearchParams();
   const project = useProject(projectId);
-  const builds = useBuilds(projectId);
+  const builds = useBuildBriefs(projectId);
   const lineage = useLineage(projectId, 'vAtRef');
   const benchmark = useBenchmark(projectId);
   const targets = useTargets(projectId);

@@ -4,7 +4,7 @@
 import { useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { useProject } from '@/features/projects/api/projects';
-import { useBuilds } from '@/features/builds/api/builds';
+import { useBuildBriefs } from '@/features/builds/api/builds';
 import { useGains } from '@/features/gains/api/get-gains';
 import { useLineage } from '@/features/lineage/api/get-lineage';
 import { WaterfallChart } from '@/features/gains/components/waterfall-chart';
@@ -41,7 +41,7 @@ export default function GainsPage() {
   const chain = chainParam ? chainParam.split(',').map(Number).filter((n) => Number.isInteger(n) && n > 0) : null;
   const project = useProject(projectId);
   const targets = useTargets(projectId);
-  const builds = useBuilds(projectId);
+  const builds = useBuildBriefs(projectId);
   const lineage = useLineage(projectId, response);
   const gains = useGains(projectId, response, chain);
   const benchmark = useBenchmark(projectId);

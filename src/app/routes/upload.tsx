@@ -2,7 +2,7 @@
 // and result; ambiguous files ask for their columns to be confirmed.
 import { Link, useParams } from 'react-router-dom';
 import { useProject } from '@/features/projects/api/projects';
-import { useBuilds } from '@/features/builds/api/builds';
+import { useBuildBriefs } from '@/features/builds/api/builds';
 import { DropZone, UploadRows, useUploadBatch } from '@/features/curves/components/upload-panel';
 import { PageHeader, Panel, Loading, ErrorNote } from '@/components/ui/panel';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -13,7 +13,7 @@ import { canUploadTo, canWrite } from '@/features/projects/components/permission
 export default function UploadPage() {
   const projectId = Number(useParams().projectId);
   const project = useProject(projectId);
-  const builds = useBuilds(projectId);
+  const builds = useBuildBriefs(projectId);
   const { data: me } = useMe();
   const batch = useUploadBatch(projectId);
   if (project.isLoading || builds.isLoading) return <Loading />;

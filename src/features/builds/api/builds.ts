@@ -1,11 +1,15 @@
 // Builds: the project's list, one build with lineage and curves, create and update.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import type { Build, BuildDetail, Lab } from '@shared/api-types';
+import type { Build, BuildBrief, BuildDetail, Lab } from '@shared/api-types';
 import type { BuildCreate } from '@shared/schemas/build';
 
 export const buildsQueryOptions = (projectId: number) => queryOptions({ queryKey: ['builds', projectId], queryFn: () => api<{ builds: Build[] }>(`/projects/${projectId}/builds`).then((r) => r.builds) });
 export const useBuilds = (projectId: number) => useQuery(buildsQueryOptions(projectId));
+
+/** Every build of the project as a picker shows it (code, change note, status, lab, curves): a tenth of the full list's bytes. */
+export const buildBriefsQueryOptions = (projectId: number) => queryOptions({ queryKey: ['builds', projectId, 'brief'], queryFn: () => api<{ builds: BuildBrief[] }>(`/projects/${projectId}/builds?view=brief`).then((r) => r.builds) });
+export const useBuildBriefs = (projectId: number) => useQuery(buildBriefsQueryOptions(projectId));
 
 /** Rows the builds table asks for at a time: a project of many builds is read one page at a time. */
 export const BUILDS_PAGE_SIZE = 100;
