@@ -91,11 +91,11 @@ export function referencePoint(project: typeof projects.$inferSelect): Reference
 }
 
 /**
- * Bumped whenever the way metrics are read off a curve changes (step grouping, windows, intervals):
+ * Bumped whenever the way metrics are read off a curve changes (step grouping, sweeps, windows, intervals):
  * curves measured by an older rule are measured again at start-up, so no stored number predates
  * the rules the README states.
  */
-export const METRICS_ALGORITHM = 3;
+export const METRICS_ALGORITHM = 4;
 
 /**
  * `fitted`: the log's durability fit when it was already made (an upload's runs in the worker pool,

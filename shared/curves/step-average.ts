@@ -103,6 +103,9 @@ const TRANSIENT_MIN_V = 0.002;
 const TRANSIENT_MIN_RELATIVE_J = 0.02;
 /** …and by more than this many standard errors (noise from successive differences). */
 const TRANSIENT_STANDARD_ERRORS = 4;
+/** A sweep moves to the next measured set point, or skips one (a dwell left out on the way); a longer jump ends it. */
+const MAX_SWEEP_MOVE = 2;
+
 /** A set point whose readings spread wider than this is not one set point (a continuous sweep). */
 const MAX_LEVEL_RELATIVE_WIDTH = 0.1;
 const MAX_LEVEL_WIDTH_J = 1e-3;
@@ -364,11 +367,13 @@ function plural(count: number, word: string): string {
  *   and 4 standard errors shows a transient: only its last half is averaged.
  * - Past the limiting current (current control): a dwell whose mean V < 0.05 V, or whose current is
  *   lower than the previous good dwell's while its voltage is lower too.
- * - Sweeps: runs of ≥ 3 dwells at set points moving one way (a jump is not a sweep). The order
+ * - Sweeps: runs of ≥ 3 dwells at set points moving one way, each move to the next measured set
+ *   point or over one (a longer jump is not a sweep). The order
  *   reads as sweeps when the longest sweep spans ≥ half the loaded set points and at most
  *   max(2, 10 %) dwells are in none; otherwise the steps are taken as a set sorted by current.
- *   With up and down sweeps both present each dwell is a step of its own (hysteresis kept);
- *   otherwise all dwells at one set point are averaged together.
+ *   With up and down sweeps both present — the sweeps of each direction together spanning ≥ half
+ *   the loaded set points — each dwell is a step of its own (hysteresis kept); otherwise all dwells
+ *   at one set point are averaged together (so a shuffled step order gives the sorted curve).
  * Reference: step-wise galvanostatic and potentiostatic polarization practice (common practice
  * in the trade); compensated sums after Neumaier (1974), ZAMM 54, 39–51; noise from successive
  * differences after von Neumann (1941), Ann. Math. Stat. 12, 367.
@@ -502,7 +507,10 @@ export function stepAverage(curve: CurveData, options: StepAverageOptions = {}):
   // sweeps: maximal runs of moves one way; a run of ≥ 3 entries is a sweep
   const runs: { direction: 'up' | 'down'; from: number; to: number }[] = [];
   for (let position = 1; position < good.length; position++) {
-    const direction = rank(good[position].level) > rank(good[position - 1].level) ? 'up' : 'down';
+    const move = rank(good[position].level) - rank(good[position - 1].level);
+    // a jump over more than one measured set point is no step of a sweep (a shuffled step order)
+    if (Math.abs(move) > MAX_SWEEP_MOVE) continue;
+    const direction = move > 0 ? 'up' : 'down';
     const current = runs[runs.length - 1];
     if (current !== undefined && current.direction === direction && current.to === position - 1) current.to = position;
     else runs.push({ direction, from: position - 1, to: position });
@@ -515,8 +523,15 @@ export function stepAverage(curve: CurveData, options: StepAverageOptions = {}):
   const goodLevels = new Set(good.map((entry) => entry.level)).size;
   const longest = sweepRuns.reduce((best, run) => Math.max(best, run.to - run.from + 1), 0);
   const readsAsSweeps = sweepRuns.length > 0 && longest >= 0.5 * goodLevels && strays <= Math.max(2, Math.ceil(0.1 * good.length));
-  const hasUp = sweepRuns.some((run) => run.direction === 'up');
-  const hasDown = sweepRuns.some((run) => run.direction === 'down');
+  // a direction was measured when its sweeps together span at least half the loaded set points: a
+  // short run one way inside a shuffled step order (a lab randomising its current steps) is no sweep
+  const spanned = (direction: 'up' | 'down') => {
+    const levels = new Set<number>();
+    for (const run of sweepRuns) if (run.direction === direction) for (let position = run.from; position <= run.to; position++) levels.add(good[position].level);
+    return levels.size;
+  };
+  const hasUp = spanned('up') >= 0.5 * goodLevels;
+  const hasDown = spanned('down') >= 0.5 * goodLevels;
   const keptApart = readsAsSweeps && hasUp && hasDown;
 
   // steps
