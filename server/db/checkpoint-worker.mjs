@@ -18,9 +18,12 @@ const timer = setInterval(checkpoint, workerData.intervalMs);
 parentPort.on('message', (message) => {
   if (message === 'checkpoint') checkpoint();
   if (message === 'stop') {
+    // closed before the serving connection, which then checkpoints and removes the WAL itself;
+    // the flag lets that close wait for this one (so nothing touches the files after it returns)
     clearInterval(timer);
-    checkpoint();
     db.close();
+    Atomics.store(workerData.closed, 0, 1);
+    Atomics.notify(workerData.closed, 0);
     parentPort.close();
   }
 });

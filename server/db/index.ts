@@ -34,10 +34,12 @@ const CHECKPOINT_INTERVAL_MS = 2000;
 /**
  * The WAL is checkpointed by a thread of its own (checkpoint-worker.mjs) instead of by whichever
  * commit crosses SQLite's 1,000-page mark: that commit would copy up to 64 MB on the event loop.
- * Closing the connection stops the thread, whose own last close leaves no WAL behind.
+ * Closing the connection closes the thread's connection first, then its own (the last, which
+ * checkpoints and removes the WAL).
  */
 function checkpointElsewhere(sqlite: Database.Database, databasePath: string): void {
-  const worker = new Worker(new URL('./checkpoint-worker.mjs', import.meta.url), { workerData: { path: databasePath, intervalMs: CHECKPOINT_INTERVAL_MS } });
+  const closed = new Int32Array(new SharedArrayBuffer(4));
+  const worker = new Worker(new URL('./checkpoint-worker.mjs', import.meta.url), { workerData: { path: databasePath, intervalMs: CHECKPOINT_INTERVAL_MS, closed } });
   worker.unref();
   worker.on('error', () => {
     // without the thread, SQLite's own checkpoints again (on the event loop, but never an unbounded WAL)
@@ -46,7 +48,10 @@ function checkpointElsewhere(sqlite: Database.Database, databasePath: string): v
   sqlite.pragma('wal_autocheckpoint = 0');
   const close = sqlite.close.bind(sqlite);
   sqlite.close = () => {
+    // the thread's connection first (waited for, at most 2 s), then this one: the last to close
+    // checkpoints and removes the WAL, and nothing writes the files once close has returned
     worker.postMessage('stop');
+    Atomics.wait(closed, 0, 0, 2000);
     return close();
   };
 }

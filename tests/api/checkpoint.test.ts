@@ -30,6 +30,9 @@ describe('WAL checkpoints off the event loop', () => {
     expect(after).toBeGreaterThanOrEqual(before + 8 * 1024 * 1024);
     sqlite.close();
     expect(sqlite.open).toBe(false);
+    // both connections are closed once close returns: the last one took the WAL with it
+    expect(fs.existsSync(`${file}-wal`)).toBe(false);
+    expect(fs.existsSync(`${file}-shm`)).toBe(false);
   });
 
   it('an in-memory database has no thread and keeps SQLite’s own checkpoints', () => {
