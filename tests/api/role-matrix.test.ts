@@ -323,7 +323,7 @@ describe('role × route matrix', () => {
   // the person may do; no scope mints tokens or ends browser sessions.
   const SCOPE_REQUESTS: { what: string; allowed: ('read' | 'upload' | 'full')[]; send: (token: string) => request.Test }[] = [
     { what: 'GET /api/projects/{id}', allowed: ['read', 'upload', 'full'], send: (t) => request(h.app).get(`/api/projects/${C()}`).set('Authorization', `Bearer ${t}`) },
-    { what: 'GET /api/files/{id}/raw', allowed: ['read', 'upload', 'full'], send: (t) => request(h.app).get(`/api/files/${(h.ctx.db.$client.prepare('select id from files limit 1').get() as { id: number }).id}/raw`).set('Authorization', `Bearer ${t}`) },
+    { what: 'GET /api/files/{id}/raw', allowed: ['read', 'upload', 'full'], send: (t) => request(h.app).get(`/api/files/${(h.ctx.db.$client.prepare('select id from files where project_id = ? order by id limit 1').get(ids.project('C')) as { id: number }).id}/raw`).set('Authorization', `Bearer ${t}`) },
     { what: 'POST /api/builds/{id}/curves', allowed: ['upload', 'full'], send: (t) => request(h.app).post(`/api/builds/${ids.build('C-014')}/curves`).set('Authorization', `Bearer ${t}`).attach('file', Buffer.from(CSV), 'scope.csv') },
     { what: 'POST /api/builds/{id}/curves/preview', allowed: ['upload', 'full'], send: (t) => request(h.app).post(`/api/builds/${ids.build('C-014')}/curves/preview`).set('Authorization', `Bearer ${t}`).attach('file', Buffer.from(CSV), 'scope.csv') },
     { what: 'POST /api/projects/{id}/builds', allowed: ['full'], send: (t) => request(h.app).post(`/api/projects/${C()}/builds`).set('Authorization', `Bearer ${t}`).send({ status: 'planned', factors: {} }) },
