@@ -9,6 +9,7 @@ import type { AppContext } from '../context';
 import type { ReadResult } from '../curves/read-upload';
 import { parsePool, type ParseStream } from '../uploads/parse-runner';
 import { AppError } from './errors';
+import { CurveFileError } from '../../shared/curves/types';
 import { checkedFileName, multipartProblem } from './multipart-errors';
 
 /** 52428800 → "50 MB", 1500 → "1.5 kB": the limit in the words of the message. */
@@ -24,7 +25,7 @@ const streamsOf = new WeakMap<Request, ParseStream>();
 
 /**
  * The table a worker read from the file's bytes as they arrived: null when the route does not
- * read while receiving, every worker was busy, or the file is a workbook (read it from disk).
+ * read while receiving, the file is a workbook, or the worker was lost (read it from disk then).
  */
 export function tableReadWhileReceived(req: Request): Promise<ReadResult | null> | null {
   return parsedWhileReceived.get(req) ?? null;
@@ -34,12 +35,11 @@ export function tableReadWhileReceived(req: Request): Promise<ReadResult | null>
  * Multer's disk storage with a tap: the bytes written to the tmp file also go, as they come, to a
  * parse worker (one pass over the network's bytes instead of a second one over the disk's).
  */
-function readingDiskStorage(tmpDir: string, start: (req: Request, fileName: string) => ParseStream | null): multer.StorageEngine {
+function readingDiskStorage(tmpDir: string, start: (req: Request, fileName: string) => ParseStream): multer.StorageEngine {
   const disk = multer.diskStorage({ destination: tmpDir });
   return {
     _handleFile(req, file, callback) {
       const stream = start(req, file.originalname);
-      if (!stream) return disk._handleFile(req, file, callback);
       streamsOf.set(req, stream);
       const tap = new Transform({
         transform(chunk: Buffer, _encoding, done) {
@@ -57,7 +57,11 @@ function readingDiskStorage(tmpDir: string, start: (req: Request, fileName: stri
           stream.abort();
           return callback(error);
         }
-        parsedWhileReceived.set(req, stream.end());
+        // a refusal of the file stands; a worker lost on the way (ended for another job) leaves the disk path
+        parsedWhileReceived.set(req, stream.end().catch((reason: unknown) => {
+          if (reason instanceof CurveFileError || reason instanceof AppError) throw reason;
+          return null;
+        }));
         callback(null, info);
       });
     },

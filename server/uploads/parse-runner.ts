@@ -81,8 +81,7 @@ export class ParsePool {
    * is busy (the caller then reads the file from disk once received, queued as usual). The clock
    * of the time limit runs from `end()`; the result is readUpload's for the same bytes.
    */
-  parseStream(options: { maxRows: number; sizeHintBytes?: number; fileName?: string }): ParseStream | null {
-    if (this.queue.length > 0 || (this.idle.length === 0 && this.all.size >= this.options.workers)) return null;
+  parseStream(options: { maxRows: number; sizeHintBytes?: number; fileName?: string }): ParseStream {
     const id = this.nextId++;
     const stream: NonNullable<Job['stream']> = { waiting: [], send: null, ended: false, onEnd: null, settled: false, abort: null, recycle: null };
     const send = (message: StreamMessage, transfer: ArrayBuffer[] = []) => {
@@ -92,15 +91,9 @@ export class ParsePool {
     };
     const result = new Promise<ReadResult | null>((resolve, reject) => {
       const job: Job = { request: { type: 'stream-start', id, maxRows: options.maxRows, sizeHintBytes: options.sizeHintBytes }, fileName: options.fileName ?? 'the file', resolve, reject, stream };
-      // dropped before a worker took it: out of the queue (run() replaces this once it runs)
-      stream.abort = () => {
-        const at = this.queue.indexOf(job);
-        if (at >= 0) this.queue.splice(at, 1);
-        stream.settled = true;
-        reject(new Error('the upload was dropped'));
-      };
-      this.queue.push(job);
-      this.dispatch();
+      // a stream shares a worker with whatever else it does: between pieces the thread waits on the
+      // network, and a slow partner's upload must not hold the only worker for minutes
+      this.run(this.workerForStream(), job, { shared: true });
     });
     // an aborted stream's refusal is nobody's business
     result.catch(() => {});
@@ -162,16 +155,29 @@ export class ParsePool {
     });
   }
 
+  /** A worker for a stream: a free one, else a new one while the pool has room, else the one with the fewest streams. */
+  private workerForStream(): Worker {
+    let worker = this.idle[this.idle.length - 1];
+    if (!worker && this.all.size < this.options.workers) {
+      worker = this.spawn();
+      this.idle.push(worker);
+    }
+    if (!worker) worker = [...this.all].sort((a, b) => (this.streamsOn.get(a) ?? 0) - (this.streamsOn.get(b) ?? 0))[0]!;
+    return worker;
+  }
+  private readonly streamsOn = new Map<Worker, number>();
+
   /** Threads running now (busy or idle), for tests and the health of the pool. */
   get size(): number {
     return this.all.size;
   }
 
-  /** Files being parsed right now. */
+  /** Files being parsed right now (streams being received included). */
   get busy(): number {
-    return this.running;
+    return this.running + this.streaming;
   }
   private running = 0;
+  private streaming = 0;
 
   async close(): Promise<void> {
     const workers = [...this.all];
@@ -223,27 +229,39 @@ export class ParsePool {
 
   private retire(worker: Worker): void {
     this.all.delete(worker);
+    this.streamsOn.delete(worker);
     const at = this.idle.indexOf(worker);
     if (at >= 0) this.idle.splice(at, 1);
     void worker.terminate();
   }
 
-  private run(worker: Worker, job: Job): void {
+  /** `shared`: the job does not take the worker out of the free ones (a stream, see parseStream). */
+  private run(worker: Worker, job: Job, { shared = false } = {}): void {
     let settled = false;
-    this.running++;
-    worker.ref();
+    if (shared) {
+      this.streaming++;
+      this.streamsOn.set(worker, (this.streamsOn.get(worker) ?? 0) + 1);
+    } else {
+      this.running++;
+      worker.ref();
+    }
     const finish = (outcome: { result?: unknown; error?: unknown }, keepWorker: boolean) => {
       if (settled) return;
       settled = true;
       if (job.stream) job.stream.settled = true;
-      this.running--;
+      if (shared) {
+        this.streaming--;
+        this.streamsOn.set(worker, (this.streamsOn.get(worker) ?? 1) - 1);
+      } else this.running--;
       clearTimeout(timer);
       worker.off('message', onMessage);
       worker.off('error', onError);
       worker.off('exit', onExit);
       if (keepWorker) {
-        worker.unref();
-        this.idle.push(worker);
+        if (!shared) {
+          worker.unref();
+          this.idle.push(worker);
+        }
       } else {
         this.retire(worker);
         // an ended worker could not remove its guarded copy of a workbook

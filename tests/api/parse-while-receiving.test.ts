@@ -1,7 +1,8 @@
 // A text upload read by a worker while its bytes arrive gives exactly what reading the received
 // file from disk gives: the same table (columns, line numbers, header, conditions), the same
-// SHA-256, the same refusal naming the same line; a workbook is left to the disk path; a dropped
-// stream leaves the worker free; and through HTTP the stored curve is the same either way.
+// SHA-256, the same refusal naming the same line; a workbook is left to the disk path; a stream
+// waiting for bytes shares its worker and a dropped one leaves it free; and through HTTP the
+// stored curve is the same either way.
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -46,7 +47,6 @@ async function fromDisk(name: string, bytes: Uint8Array) {
 /** The same bytes pushed in pieces of random sizes (1 byte to 200 kB, seeded), as a network gives them. */
 function whileReceived(name: string, bytes: Uint8Array, seed: number) {
   const stream = pool.parseStream({ maxRows: 2_000_000, sizeHintBytes: bytes.length + 300, fileName: name });
-  if (!stream) throw new Error('no worker free');
   const random = mulberry32(seed);
   for (let at = 0; at < bytes.length;) {
     const size = Math.max(1, Math.floor(random() ** 3 * 200_000));
@@ -98,12 +98,21 @@ describe('a text file read while it is received', () => {
     expect(await whileReceived('plain.xlsx', bytes, 6)).toBeNull();
   });
 
-  it('with the only worker busy there is no stream (the upload is read from disk later); a dropped stream frees the worker', async () => {
-    const first = pool.parseStream({ maxRows: 1000, fileName: 'first.csv' })!;
-    expect(first).not.toBeNull();
-    first.push(enc('Time (h),Voltage (V)\n0,0.6\n'));
-    expect(pool.parseStream({ maxRows: 1000, fileName: 'second.csv' })).toBeNull();
-    first.abort();
+  it('a stream waiting for bytes shares the only worker: a file from disk is read meanwhile; a dropped stream leaves it working', async () => {
+    const slow = pool.parseStream({ maxRows: 1000, fileName: 'slow.csv' });
+    slow.push(enc('Time (h),Voltage (V)\n0,0.6\n'));
+    // a partner's slow link: the stream is open, and another upload is read from disk beside it
+    const other = await fromDisk('beside.csv', enc(stationLog(2_000)));
+    expect(other.table.rowCount).toBe(2_000);
+    expect(pool.size).toBe(1);
+    const second = pool.parseStream({ maxRows: 1000, fileName: 'second.csv' });
+    second.push(enc('Time (h),Voltage (V)\n0,0.61\n1,0.6\n'));
+    slow.push(enc('1,0.59\n'));
+    expect((await second.end())!.table.rowCount).toBe(2);
+    expect((await slow.end())!.table.rowCount).toBe(2);
+    const dropped = pool.parseStream({ maxRows: 1000, fileName: 'dropped.csv' });
+    dropped.push(enc('Time (h),Voltage (V)\n0,0.6\n'));
+    dropped.abort();
     const next = await whileReceived('after.csv', enc(stationLog(100)), 7);
     expect(next!.table.rowCount).toBe(100);
   });
