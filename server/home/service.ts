@@ -2,7 +2,7 @@
 // lists (awaiting my verdict, my builds that need work).
 import { and, asc, desc, eq, inArray, isNotNull, ne, sql } from 'drizzle-orm';
 import type { AppContext, AuthUser } from '../context';
-import { builds, curves, files, projects, responseDefs, users } from '../db/schema';
+import { builds, curves, files, lots, projects, referenceCurves, responseDefs, users } from '../db/schema';
 import { getBuildItem } from '../builds/service';
 import { listProjects } from '../projects/service';
 import { awaitingReview, needsWork } from '../review/service';
@@ -57,9 +57,12 @@ export function homePage(ctx: AppContext, user: AuthUser) {
   const ids = myProjects.map((p) => p.id);
   const recentUploads = ids.length
     ? db
-        .select({ fileId: files.id, name: files.originalName, uploadedAt: files.uploadedAt, projectId: files.projectId, buildId: files.buildId, buildCode: builds.code, buildStatus: builds.status, uploadedBy: users.name })
+        // what each file belongs to: a build's curve, a catalyst lot's record (a certificate), or a reference curve
+        .select({ fileId: files.id, name: files.originalName, uploadedAt: files.uploadedAt, projectId: files.projectId, buildId: files.buildId, buildCode: builds.code, buildStatus: builds.status, uploadedBy: users.name, lotId: files.lotId, lotName: lots.name, referenceCurveId: referenceCurves.id })
         .from(files)
         .leftJoin(builds, eq(builds.id, files.buildId))
+        .leftJoin(lots, eq(lots.id, files.lotId))
+        .leftJoin(referenceCurves, eq(referenceCurves.fileId, files.id))
         .leftJoin(users, eq(users.id, files.uploadedBy))
         // a partner sees its own uploads (with their review status); others see the projects' latest
         .where(user.labKind === 'partner' ? and(inArray(files.projectId, ids), eq(files.uploadedBy, user.id)) : inArray(files.projectId, ids))

@@ -231,6 +231,18 @@ describe('home', () => {
     expect(project.best.vAtRef).toBeCloseTo(top.values.vAtRef!, 12);
     expect(home.body.recentUploads.length).toBeGreaterThan(0);
   });
+
+  it('says what each recent upload belongs to: a build, a catalyst lot (its certificate) or a reference curve', async () => {
+    const home = await h.as.pi.get('/api/home');
+    const uploads = home.body.recentUploads as { name: string; buildId: number | null; lotId: number | null; lotName: string | null; referenceCurveId: number | null }[];
+    // demo seed: the lot certificates and the anode project's reference curve are uploaded last
+    const certificate = uploads.find((u) => u.name === 'FNC-24-11-certificate-of-analysis.pdf')!;
+    expect(certificate).toMatchObject({ buildId: null, lotName: 'FNC-24-11', referenceCurveId: null });
+    const reference = uploads.find((u) => u.name === 'round-robin-rr7-fig4.csv')!;
+    expect(reference.buildId).toBeNull();
+    expect(reference.referenceCurveId).toEqual(expect.any(Number));
+    for (const u of uploads) expect([u.buildId, u.lotId, u.referenceCurveId].filter((x) => x != null).length).toBeLessThanOrEqual(1);
+  });
 });
 
 describe('start-up and the OpenAPI document', () => {

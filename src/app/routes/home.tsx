@@ -89,14 +89,18 @@ export default function Home() {
         ) : (
           <table className="w-full text-sm">
             <thead className="text-left text-xs text-ink-500">
-              <tr><th className="py-1 font-medium">File</th><th className="font-medium">Build</th><th className="font-medium">Review status</th><th className="font-medium">By</th><th className="font-medium">When</th></tr>
+              <tr><th className="py-1 font-medium">File</th><th className="font-medium">Build or record</th><th className="font-medium">Review status</th><th className="font-medium">By</th><th className="font-medium">When</th></tr>
             </thead>
             <tbody className="divide-y divide-line">
               {data.recentUploads.map((u) => (
                 <tr key={u.fileId}>
                   <td className="py-1.5 text-ink-900">{u.name}</td>
-                  <td>{u.buildId ? <Link className="text-copper-700 hover:underline" to={`/projects/${u.projectId}/builds/${u.buildId}`}>{u.buildCode}</Link> : '—'}</td>
-                  <td className="text-ink-700">{u.buildStatus ?? '—'}</td>
+                  <td>
+                    {u.buildId ? <Link className="text-copper-700 hover:underline" to={`/projects/${u.projectId}/builds/${u.buildId}`}>{u.buildCode}</Link>
+                      : u.lotId ? <Link className="text-copper-700 hover:underline" to={`/lots/${u.lotId}`}>lot {u.lotName}</Link>
+                        : u.referenceCurveId ? <Link className="text-copper-700 hover:underline" to={`/projects/${u.projectId}/benchmark`}>reference curve</Link> : '—'}
+                  </td>
+                  <td className="text-ink-700">{u.buildStatus ?? (u.lotId ? 'kept with the lot' : u.referenceCurveId ? 'benchmark' : '—')}</td>
                   <td className="text-ink-700">{u.uploadedBy}</td>
                   <td className="num text-ink-500">{formatDateTime(u.uploadedAt)}</td>
                 </tr>

@@ -10,7 +10,7 @@ export const useProjects = () => useQuery(projectsQueryOptions());
 
 export interface HomeData {
   projects: (Project & { best: { buildId: number; code: string; vAtRef: number; changeNote: string | null } | null; targets?: TargetView[] })[];
-  recentUploads: { fileId: number; name: string; uploadedAt: string; projectId: number; buildId: number | null; buildCode: string | null; buildStatus: string | null; uploadedBy: string | null }[];
+  recentUploads: { fileId: number; name: string; uploadedAt: string; projectId: number; buildId: number | null; buildCode: string | null; buildStatus: string | null; uploadedBy: string | null; lotId?: number | null; lotName?: string | null; referenceCurveId?: number | null }[];
   waitingForData?: { buildId: number; code: string; projectId: number; projectName: string; status: string; plannedOn: string | null; changeNote: string | null; needs: string[] }[];
   awaitingReview?: { buildId: number; code: string; projectId: number; projectName: string; changeNote: string | null; status: string; testedOn: string | null; waitingDays: number | null; vAtRef: number | null; parentCode: string | null; changeFromParent: number | null }[];
   needsWork?: { buildId: number; code: string; projectId: number; projectName: string; comment: string | null }[];
