@@ -302,7 +302,7 @@ export async function ingestUpload(
   try {
     let read;
     try {
-      // a text table was read while it arrived; a workbook (or a file no worker was free for) is read from disk
+      // a text table was read while it arrived; a workbook (or one whose worker was lost) is read from disk
       const received = await upload.tableRead;
       // read while it arrived: every byte is parsed by now
       if (received) options.progress?.parsed(upload.size);

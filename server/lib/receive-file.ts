@@ -32,6 +32,16 @@ export function tableReadWhileReceived(req: Request): Promise<ReadResult | null>
 }
 
 /**
+ * The request's length bounds the file's size, so the parser sizes its columns once from it — but
+ * never from more than the upload limit: the header is the client's word, the limit is ours.
+ * @example sizeHintOf('1048576', 52428800) // 1048576; sizeHintOf('99999999999', 52428800) // 52428800
+ */
+export function sizeHintOf(contentLength: string | undefined, limitBytes: number): number | undefined {
+  const length = Number(contentLength);
+  return Number.isFinite(length) && length > 0 ? Math.min(length, limitBytes) : undefined;
+}
+
+/**
  * Multer's disk storage with a tap: the bytes written to the tmp file also go, as they come, to a
  * parse worker (one pass over the network's bytes instead of a second one over the disk's).
  */
@@ -85,9 +95,8 @@ export function receiveFile(ctx: AppContext, options: { parseText?: boolean } = 
     ? multer({
       limits,
       storage: readingDiskStorage(tmpDir, (req, fileName) => {
-        // the request's length bounds the file's size: the columns are sized once from it
-        const length = Number(req.headers['content-length']);
-        return parsePool(env).parseStream({ maxRows: env.UPLOAD_MAX_ROWS, sizeHintBytes: Number.isFinite(length) && length > 0 ? length : undefined, fileName });
+        const sizeHintBytes = sizeHintOf(req.headers['content-length'], env.UPLOAD_MAX_BYTES);
+        return parsePool(env).parseStream({ maxRows: env.UPLOAD_MAX_ROWS, sizeHintBytes, fileName });
       }),
     })
     : multer({ dest: tmpDir, limits });

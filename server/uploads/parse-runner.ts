@@ -77,9 +77,9 @@ export class ParsePool {
   }
 
   /**
-   * A text file parsed while it is received, on a worker that is free now; null when every worker
-   * is busy (the caller then reads the file from disk once received, queued as usual). The clock
-   * of the time limit runs from `end()`; the result is readUpload's for the same bytes.
+   * A text file parsed while it is received, on a worker it shares with other jobs (a free one if
+   * there is one). The clock of the time limit runs from `end()`; the result is readUpload's for
+   * the same bytes, or null for a workbook (read it from disk once received).
    */
   parseStream(options: { maxRows: number; sizeHintBytes?: number; fileName?: string }): ParseStream {
     const id = this.nextId++;

@@ -11,6 +11,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { ParsePool, parsePool, workbookLimits } from '../../server/uploads/parse-runner';
 import { createApp } from '../../server/app';
+import { sizeHintOf } from '../../server/lib/receive-file';
 import { readEnv } from '../../server/env';
 import { mulberry32 } from '../../shared/stats/random';
 import { createHarness, demoIds, type Harness } from './harness';
@@ -115,6 +116,16 @@ describe('a text file read while it is received', () => {
     dropped.abort();
     const next = await whileReceived('after.csv', enc(stationLog(100)), 7);
     expect(next!.table.rowCount).toBe(100);
+  });
+});
+
+describe('the columns sized from the request', () => {
+  it('from its length, never beyond the upload limit, and not at all without a length', () => {
+    expect(sizeHintOf('1048576', 52_428_800)).toBe(1_048_576);
+    expect(sizeHintOf('99999999999', 52_428_800)).toBe(52_428_800); // a client claiming 100 GB reserves no more than the limit allows
+    expect(sizeHintOf(undefined, 52_428_800)).toBeUndefined();
+    expect(sizeHintOf('nonsense', 52_428_800)).toBeUndefined();
+    expect(sizeHintOf('0', 52_428_800)).toBeUndefined();
   });
 });
 
