@@ -1,7 +1,7 @@
 // Edit a build: the same form, filled with what is stored.
 import { Navigate, useNavigate, useParams } from 'react-router-dom';
 import { useFactors, useProject, useResponses } from '@/features/projects/api/projects';
-import { useBuild, useBuilds, useLabs, useUpdateBuild } from '@/features/builds/api/builds';
+import { useBuild, useBuildBriefs, useLabs, useUpdateBuild } from '@/features/builds/api/builds';
 import { useLots } from '@/features/lots/api/lots';
 import { BuildForm, buildToForm, cleanBuildInput } from '@/features/builds/components/build-form';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
@@ -15,7 +15,7 @@ export default function BuildEdit() {
   const project = useProject(projectId);
   const factors = useFactors(projectId);
   const responses = useResponses(projectId);
-  const builds = useBuilds(projectId);
+  const builds = useBuildBriefs(projectId);
   const build = useBuild(buildId);
   const labs = useLabs();
   const lots = useLots(projectId);

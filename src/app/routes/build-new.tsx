@@ -1,7 +1,8 @@
 // New build: the form, starting from a parent's recipe when one is chosen.
+import { useQuery } from '@tanstack/react-query';
 import { useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { useFactors, useProject, useResponses } from '@/features/projects/api/projects';
-import { useBuilds, useCreateBuild, useLabs } from '@/features/builds/api/builds';
+import { buildQueryOptions, useBuildBriefs, useCreateBuild, useLabs } from '@/features/builds/api/builds';
 import { useLots } from '@/features/lots/api/lots';
 import { BuildForm, cleanBuildInput } from '@/features/builds/components/build-form';
 import { PageHeader, Loading, ErrorNote } from '@/components/ui/panel';
@@ -15,17 +16,20 @@ export default function BuildNew() {
   const project = useProject(projectId);
   const factors = useFactors(projectId);
   const responses = useResponses(projectId);
-  const builds = useBuilds(projectId);
+  const builds = useBuildBriefs(projectId);
   const labs = useLabs();
   const lots = useLots(projectId);
   const { data: me } = useMe();
   const create = useCreateBuild(projectId);
-  if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading || lots.isLoading) return <Loading />;
+  // ?parent=: the new build starts from that build's recipe, read on its own
+  const parentId = params.get('parent') ? Number(params.get('parent')) : null;
+  const parentDetail = useQuery({ ...buildQueryOptions(parentId ?? 0), enabled: parentId != null });
+  if (project.isLoading || factors.isLoading || responses.isLoading || builds.isLoading || labs.isLoading || lots.isLoading || (parentId != null && parentDetail.isLoading)) return <Loading />;
   const error = project.error ?? factors.error ?? responses.error ?? builds.error ?? labs.error;
   if (error) return <ErrorNote error={error} />;
   const partnerLab = lockedLab(project.data?.myRole ?? null, me?.user.labId);
-  const parentId = params.get('parent') ? Number(params.get('parent')) : null;
-  const parent = builds.data!.find((b) => b.id === parentId);
+  const detail = parentDetail.data?.build;
+  const parent = detail && detail.projectId === projectId ? detail : undefined;
 
   return (
     <div className="max-w-5xl">

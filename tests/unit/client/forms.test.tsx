@@ -83,6 +83,18 @@ describe('build form (new build page)', () => {
     // empty hand-entered responses are left out, not sent as 0 or NaN
     expect(body.responses).toEqual({});
   });
+
+  it('a chosen parent fills the form with its recipe, read on its own; a value typed before it arrived is kept', async () => {
+    await open();
+    const field = (key: string) => screen.getAllByLabelText(`${factor(key).label} (${factor(key).unit})`)[0] as HTMLInputElement;
+    await retype(field('binder'), '33');
+    // the parent picker lists the brief builds; C-002's recipe comes from its own recorded answer (/builds/2)
+    await userEvent.selectOptions(screen.getByLabelText('Parent build'), '2');
+    await waitFor(() => expect(field('activationTemp').value).toBe('320'));
+    expect(field('activationTime').value).toBe('1');
+    expect(field('binder').value).toBe('33'); // typed by the user: not overwritten by the parent's 20
+    expect((screen.getByLabelText('Catalyst loading (mg/cm²)') as HTMLInputElement).value).toBe('3');
+  });
 });
 
 describe('design form', () => {

@@ -3,7 +3,7 @@
 // the safety caution, and hand-entered responses. Each reads the form through its context.
 import { isFlammableFuel } from '@shared/builds/flammable-fuel';
 import { useFormContext, type FieldErrors } from 'react-hook-form';
-import type { Build, FactorDef, ResponseDef, Lab, LotView } from '@shared/api-types';
+import type { BuildBrief, FactorDef, ResponseDef, Lab, LotView } from '@shared/api-types';
 import { formatNumber } from '@/lib/format';
 import { BUILD_STATUSES } from '@shared/schemas/build';
 import { Field, Input, Select, Textarea } from '@/components/ui/field';
@@ -26,7 +26,7 @@ function useBuildForm() {
 const withUnit = (label: string, unit?: string | null) => `${label}${unit ? ` (${unit})` : ''}`;
 
 /** Code, parent, replicate and what changed from the parent. */
-export function LineageSection({ builds }: { builds: Build[] }) {
+export function LineageSection({ builds }: { builds: BuildBrief[] }) {
   const { register, error } = useBuildForm();
   return (
     <Panel title="Identity and lineage">
