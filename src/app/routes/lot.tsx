@@ -11,7 +11,8 @@ import { useConfirm } from '@/components/ui/confirm-dialog';
 import { PageHeader, Panel, Loading, ErrorNote, EmptyState } from '@/components/ui/panel';
 import { Field, Select } from '@/components/ui/field';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { formatDate, formatNumber, formatSignificant, METRICS, responseDisplay } from '@/lib/format';
+import { formatDate, formatNumber, formatSignificant, responseDisplay } from '@/lib/format';
+import { ResponseOptions } from '@/components/ui/response-options';
 import { formatDifference } from '@/lib/benchmark-difference';
 import type { BuildStatus } from '@shared/api-types';
 
@@ -103,8 +104,7 @@ export default function LotPage() {
               <Field label="Against lot">{(p) => <Select {...p} value={chosen ?? ''} onChange={(e) => setAgainst(Number(e.target.value))}>{others.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}</Select>}</Field>
               <Field label="Response">{(p) => (
                 <Select {...p} value={response} onChange={(e) => setResponse(e.target.value)}>
-                  <optgroup label="From curves">{Object.values(METRICS).map((m) => <option key={m.key} value={m.key}>{m.label}{m.unit ? ` (${m.unit})` : ''}</option>)}</optgroup>
-                  {(responses.data ?? []).length > 0 && <optgroup label="Entered by hand">{responses.data!.map((r) => <option key={r.key} value={r.key}>{r.label}{r.unit ? ` (${r.unit})` : ''}</option>)}</optgroup>}
+                  <ResponseOptions responses={responses.data ?? []} />
                 </Select>
               )}</Field>
             </div>

@@ -6,7 +6,7 @@ import { useForm } from 'react-hook-form';
 import type { FactorDef, ResponseDef } from '@shared/api-types';
 import { Field, Select } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
-import { METRICS } from '@/lib/format';
+import { ResponseOptions } from '@/components/ui/response-options';
 import type { SurfaceRequest } from '../api/surface';
 import { fitResolver, initialFitValues, pickedFactors, termChoices, type FitFormValues } from './fit-values';
 
@@ -29,14 +29,7 @@ export function FitForm({ factors, responses, initial, busy, onFit }: { factors:
       <Field label="Response" error={e.response?.message}>
         {(p) => (
           <Select {...p} {...register('response')}>
-            <optgroup label="From curves">
-              {Object.values(METRICS).map((m) => <option key={m.key} value={m.key}>{m.label} ({m.unit})</option>)}
-            </optgroup>
-            {responses.length > 0 && (
-              <optgroup label="Entered by hand">
-                {responses.map((r) => <option key={r.key} value={r.key}>{r.label}{r.unit ? ` (${r.unit})` : ''}</option>)}
-              </optgroup>
-            )}
+            <ResponseOptions responses={responses} />
           </Select>
         )}
       </Field>
