@@ -12,6 +12,7 @@ import { CurveFileError } from '../../shared/curves/types';
 import type { CurveData, MetricsResult } from '../../shared/curves/types';
 import { applyMapping, checkEnoughData, detectMapping, importNotes, polarizationMetrics } from '../../shared/curves';
 import { encodePoints, decodePoints } from '../curves/points-codec';
+import { readPoints } from '../curves/point-store';
 import { metricsOfKind, nullMetrics } from '../../shared/curves/metric-catalogue';
 import { asUnprocessable, mappingNeeded, placeWholeFileError, referencePoint, refuseEmptyMetrics } from '../curves/service';
 import { getBuildItem } from '../builds/service';
@@ -210,7 +211,7 @@ export function getBenchmark(ctx: AppContext, access: Pick<ProjectAccess, 'proje
   if (row.buildId != null) {
     const build = getBuildItem(ctx, row.buildId);
     const curveId = build.recordCurveIds.polarization ?? null;
-    const curve = curveId == null ? undefined : ctx.db.select({ points: curves.points }).from(curves).where(eq(curves.id, curveId)).get();
+    const curve = curveId == null ? undefined : ctx.db.select({ id: curves.id, points: curves.points }).from(curves).where(eq(curves.id, curveId)).get();
     return {
       ...common,
       kind: 'build',
@@ -223,7 +224,7 @@ export function getBenchmark(ctx: AppContext, access: Pick<ProjectAccess, 'proje
       sourceDate: build.testedOn ?? build.builtOn ?? null,
       conditions: build.testConditions,
       values: build.values,
-      points: curve ? pointsOf(decodePoints(curve.points, 'polarization')) : null,
+      points: curve ? pointsOf(readPoints(ctx.db, curve, 'polarization')) : null,
     };
   }
   const ref = loadReference(ctx, row.projectId, row.referenceCurveId!);

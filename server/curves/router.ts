@@ -44,7 +44,7 @@ export const curvesFeature = defineFeature('curves', [
   route({
     method: 'get', path: '/api/curves/{id}', tag: 'curves', permission: { action: 'read', on: 'curve' }, query: pointsQuery,
     summary: 'Curve points and metrics (long logs downsampled: maxPoints, fromHours, toHours)',
-    handle: ({ curve, query }) => ({ curve: curves.curveView(curve), points: curves.curvePoints(curve, query) }),
+    handle: ({ ctx, curve, query }) => ({ curve: curves.curveView(curve), points: curves.curvePoints(ctx, curve, query) }),
   }),
   route({
     method: 'patch', path: '/api/curves/{id}', tag: 'curves', permission: { action: 'editBuild', on: 'curve' }, body: curvePatchSchema,

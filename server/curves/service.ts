@@ -14,7 +14,8 @@ import { durabilityMetrics, downsampleForPlot, upperBound } from '../../shared/d
 import { median } from '../../shared/stats/median';
 import { CurveFileError } from '../../shared/curves/types';
 import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, CurveMetrics, HfrUnit, ImpedanceMapping, MetricsResult, ReferencePoint, VoltageUnit } from '../../shared/curves/types';
-import { encodePoints, decodePoints } from './points-codec';
+import { packPoints } from './points-codec';
+import { readPoints, replacePoints, writePointPieces } from './point-store';
 import { metricEntry, metricsOfKind, nullMetrics } from '../../shared/curves/metric-catalogue';
 import { durabilityInPool, parseUpload } from '../uploads/parse-runner';
 import type { ReadResult } from './read-upload';
@@ -439,7 +440,8 @@ export async function ingestUpload(
     }
     options.progress?.phase('storing', null);
     await yieldToEventLoop();
-    const points = encodePoints(data);
+    // a long log's points are stored in pieces that are views of its columns: nothing is copied
+    const { points, pieces } = packPoints(data);
     await yieldToEventLoop();
 
     storing ??= { sha256: read.sha256, put: ctx.storage.put(read.sha256, upload.tmpPath) };
@@ -484,6 +486,7 @@ export async function ingestUpload(
           // everything but the points: reading the blob straight back would double a big log's memory
           .returning(CURVE_COLUMNS_WITHOUT_POINTS)
           .get();
+        writePointPieces(db, row.id, pieces);
         // a build with its first curve has been tested
         const status = nextStatus(build.status, { kind: 'upload' });
         if (status.ok && status.changed) {
@@ -636,8 +639,8 @@ export function loadCurve(ctx: AppContext, curveId: number): CurveRow {
 }
 
 /** Points for plotting: polarization curves whole; long logs downsampled to maxPoints over [from, to]. */
-export function curvePoints(row: CurveRow, options: { maxPoints?: number; fromHours?: number; toHours?: number }) {
-  const data = decodePoints(row.points, row.kind);
+export function curvePoints(ctx: AppContext, row: CurveRow, options: { maxPoints?: number; fromHours?: number; toHours?: number }) {
+  const data = readPoints(ctx.db, row, row.kind);
   if (row.kind !== 'polarization' && data.tHours) {
     const max = options.maxPoints ?? 2000;
     // one bound given: the other is the log's own end, so the window is always finite
@@ -677,7 +680,7 @@ function remeasure(ctx: AppContext, rows: CurveRow[]): number {
       if (!build || !project) continue;
       let result: MetricsResult;
       try {
-        result = computeMetrics(decodePoints(row.points, row.kind), referencePoint(project), build, row.options as DurabilityOptions | null);
+        result = computeMetrics(readPoints(db, row, row.kind), referencePoint(project), build, row.options as DurabilityOptions | null);
       } catch (error) {
         if (error instanceof RangeError) continue; // stored curves were measurable once; keep what they have
         throw error;
@@ -778,7 +781,7 @@ export function updateCurveOptions(ctx: AppContext, access: ProjectAccess, row: 
   }
   const result = (() => {
     try {
-      return computeMetrics(decodePoints(row.points, row.kind), referencePoint(project), build, merged);
+      return computeMetrics(readPoints(db, row, row.kind), referencePoint(project), build, merged);
     } catch (error) {
       if (error instanceof RangeError) throw new AppError(422, 'cannot-measure', error.message.replace(/^\w+: /, ''));
       throw error;
@@ -848,11 +851,12 @@ export function chooseCondition(ctx: AppContext, access: ProjectAccess, row: Cur
 
   // an area other than the one the curve's totals were converted with: re-scale and re-measure
   let curveChanges: Partial<CurveRow> = {};
+  let remeasured: CurveData | null = null;
   const usedArea = typeof summary.areaUsedCm2 === 'number' ? summary.areaUsedCm2 : null;
   const notes = [...((summary.importNotes as string[] | undefined) ?? [])];
   if (field === 'areaCm2' && usedArea !== null && Math.abs(usedArea - Number(target)) > 1e-9 * Number(target)) {
     const newArea = Number(target);
-    const data = decodePoints(row.points, row.kind);
+    const data = readPoints(db, row, row.kind);
     const mapping = row.mapping;
     if (mapping?.current && (mapping.current.unit === 'A' || mapping.current.unit === 'mA')) for (let i = 0; i < data.j.length; i++) data.j[i] *= usedArea / newArea;
     if (mapping?.hfr && data.hfr && (mapping.hfr.unit === 'ohm' || mapping.hfr.unit === 'mohm')) for (let i = 0; i < data.hfr.length; i++) data.hfr[i] *= newArea / usedArea;
@@ -867,8 +871,8 @@ export function chooseCondition(ctx: AppContext, access: ProjectAccess, row: Cur
     }
     notes.push(`active area ${newArea} cm² chosen instead of ${usedArea} cm²: current density and HFR re-scaled and the curve measured again`);
     Object.assign(summary, result.summary, { areaUsedCm2: newArea });
+    remeasured = data;
     curveChanges = {
-      points: encodePoints(data),
       metrics: result.metrics,
       metricNotes: result.metricNotes as Record<string, string>,
       method: result.method as never,
@@ -881,7 +885,9 @@ export function chooseCondition(ctx: AppContext, access: ProjectAccess, row: Cur
 
   const updated = db.transaction((tx) => {
     if (Object.keys(buildChanges).length > 0) tx.update(builds).set({ ...buildChanges, updatedAt: new Date().toISOString() }).where(eq(builds.id, build.id)).run();
-    return tx.update(curves).set({ ...curveChanges, summary }).where(eq(curves.id, row.id)).returning(CURVE_COLUMNS_WITHOUT_POINTS).get();
+    // the re-scaled points replace the stored ones (pieces of a long log too), in the same transaction
+    const points = remeasured ? replacePoints(db, row.id, remeasured) : undefined;
+    return tx.update(curves).set({ ...curveChanges, ...(points && { points }), summary }).where(eq(curves.id, row.id)).returning(CURVE_COLUMNS_WITHOUT_POINTS).get();
   });
   audit(db, {
     userId: access.user.id,

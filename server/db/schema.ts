@@ -1,5 +1,5 @@
 // Drizzle schema: every table Cellwright stores. camelCase keys map to snake_case columns.
-import { sqliteTable, integer, text, real, blob, uniqueIndex, index, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, integer, text, real, blob, uniqueIndex, index, primaryKey, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { sql } from 'drizzle-orm';
 import type { ProjectSettings, TestConditions } from '../../shared/schemas/project';
 import type { ColumnMapping, FileConditions, CurveMetrics, MetricMethod } from '../../shared/curves/types';
@@ -242,6 +242,18 @@ export const curves = sqliteTable('curves', {
   // at most one curve of record per build and kind
   uniqueIndex('curves_record_idx').on(t.buildId, t.kind).where(sql`${t.isRecord} = 1`),
 ]);
+
+/**
+ * The points of a long curve (a log of a million rows), in pieces of about 1 MB: `curves.points`
+ * then holds only their layout (see server/curves/points-codec.ts). Written and read a piece at a
+ * time, a 32 MB log never sits in memory twice, and SQLite writes small rows faster than one
+ * chain of overflow pages.
+ */
+export const curvePointChunks = sqliteTable('curve_point_chunks', {
+  curveId: integer('curve_id').notNull().references(() => curves.id, { onDelete: 'cascade' }),
+  seq: integer('seq').notNull(),
+  bytes: blob('bytes', { mode: 'buffer' }).notNull(),
+}, (t) => [primaryKey({ columns: [t.curveId, t.seq] })]);
 
 /**
  * A published or otherwise outside polarization curve that belongs to no build, with its

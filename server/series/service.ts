@@ -8,7 +8,7 @@ import { curves } from '../db/schema';
 import { AppError } from '../lib/errors';
 import { listBuilds } from '../builds/service';
 import { listFactors } from '../projects/service';
-import { decodePoints } from '../curves/points-codec';
+import { readPoints } from '../curves/point-store';
 import { analyseSeries, pickSeries } from '../../shared/series';
 import type { SeriesCandidate, SeriesMember } from '../../shared/series';
 import { STANDARD_ATMOSPHERE_KPA } from '../../shared/curves';
@@ -63,7 +63,7 @@ export function analyseProjectSeries(ctx: AppContext, access: ProjectAccess, bod
   // back-pressure is recorded gauge: a reaction order needs the absolute pressure
   const valueOf = (value: number) => (body.variable === 'pressure' ? value + STANDARD_ATMOSPHERE_KPA : value);
   const members: SeriesMember[] = selection.values.map(({ buildId, value }) => {
-    const data = decodePoints(curveOf.get(buildId)!.points, 'polarization');
+    const data = readPoints(ctx.db, curveOf.get(buildId)!, 'polarization');
     const crossover = byId.get(buildId)!.testConditions?.h2CrossoverMAcm2;
     return { buildId, value: valueOf(value), curve: data, ...(crossover ? { h2CrossoverAcm2: crossover / 1000 } : {}) };
   });

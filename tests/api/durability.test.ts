@@ -152,6 +152,27 @@ describe('plot points', () => {
   });
 });
 
+describe('a long log in storage', () => {
+  it('is kept in pieces of about 1 MB, read back exactly as the file wrote it, and its pieces go with it', async () => {
+    // 3,000 h at 1-min steps: 180,001 rows, three columns of 1,440,008 bytes → 4.3 MB, over the 4 MiB kept in one blob
+    const csv = csvOf({ hours: 3000, stepMinutes: 1, seed: 61 });
+    const curve = await uploadLog(csv);
+    expect(curve.pointCount).toBe(180001); // derived by hand: 3,000 h × 60 rows/h + 1
+    const pieces = () => (h.ctx.db.$client.prepare('select count(*) as n from curve_point_chunks where curve_id = ?').get(curve.id) as { n: number }).n;
+    expect(pieces()).toBe(6); // derived by hand: each column 1,440,008 bytes = one 1 MiB piece + the rest; 3 columns
+    const head = h.ctx.db.$client.prepare('select length(points) as n from curves where id = ?').get(curve.id) as { n: number };
+    expect(head.n).toBe(16);
+    // a zoom of one hour is every row, the numbers the file holds (Float64 read from its text)
+    const zoom = await h.as.viewer.get(`/api/curves/${curve.id}?maxPoints=500&fromHours=2999&toHours=3000`);
+    expect(zoom.status).toBe(200);
+    const rows = csv.trim().split('\n').slice(-61).map((line) => line.split(',').map(Number));
+    expect(zoom.body.points.tHours).toEqual(rows.map((r) => r[0]));
+    expect(zoom.body.points.v).toEqual(rows.map((r) => r[2]));
+    expect((await h.as.pi.delete(`/api/curves/${curve.id}`)).status).toBe(200);
+    expect(pieces()).toBe(0);
+  });
+});
+
 describe('processing progress', () => {
   it('reports done with the curve id to the sender, and nothing to anyone else', async () => {
     const uploadId = 'test-progress-0001';
