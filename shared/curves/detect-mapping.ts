@@ -39,35 +39,28 @@ interface ColumnStats {
   max: number;
   maxAbs: number;
   median: number;
-  mean: number;
-  sd: number;
 }
 
 const MEDIAN_SAMPLE = 10_001;
 
-// Min, max, mean and SD in one pass (Welford), median from an evenly strided sample: the
-// detection only needs magnitudes, and this stays O(n) on a 1,000,000-row log.
+// Min and max in one pass, median from an evenly strided sample: the detection only needs
+// magnitudes, and this stays O(n) on a 1,000,000-row log. Blank cells (NaN) are passed over.
 function columnStats(values: Float64Array): ColumnStats {
   let min = Infinity;
   let max = -Infinity;
-  let mean = 0;
-  let sumSquares = 0;
   for (let index = 0; index < values.length; index++) {
     const value = values[index];
     if (value < min) min = value;
     if (value > max) max = value;
-    const delta = value - mean;
-    mean += delta / (index + 1);
-    sumSquares += delta * (value - mean);
   }
   const stride = Math.max(1, Math.floor(values.length / MEDIAN_SAMPLE));
-  const sample: number[] = [];
-  for (let index = 0; index < values.length; index += stride) sample.push(values[index]);
-  sample.sort((a, b) => a - b);
+  const sample = new Float64Array(Math.ceil(values.length / stride));
+  for (let index = 0, at = 0; index < values.length; index += stride) sample[at++] = values[index];
+  // a typed array sorts numerically, blank cells (NaN) last
+  sample.sort();
   const middle = sample.length >> 1;
   const median = sample.length % 2 === 1 ? sample[middle] : (sample[middle - 1] + sample[middle]) / 2;
-  const sd = values.length > 1 ? Math.sqrt(sumSquares / (values.length - 1)) : 0;
-  return { min, max, maxAbs: Math.max(Math.abs(min), Math.abs(max)), median, mean, sd };
+  return { min, max, maxAbs: Math.max(Math.abs(min), Math.abs(max)), median };
 }
 
 function formatRange(stats: ColumnStats, unit?: string | null): string {

@@ -76,16 +76,31 @@ function extremes(values: ArrayLike<number>): Extremes {
 }
 
 // Median of |values| over finite, non-zero readings, from an evenly strided sample (long logs).
+// The row named is the one a stable sort of the sample puts in the middle: among equal values, in row order.
 function medianMagnitude(values: ArrayLike<number>): { median: number; row: number } | null {
   const stride = Math.max(1, Math.floor(values.length / 10_001));
-  const sample: { value: number; row: number }[] = [];
+  const magnitudes = new Float64Array(Math.ceil(values.length / stride));
+  const rows = new Int32Array(magnitudes.length);
+  let count = 0;
   for (let row = 0; row < values.length; row += stride) {
     const value = Math.abs(values[row]);
-    if (value === value && value > 0) sample.push({ value, row });
+    if (value === value && value > 0) {
+      magnitudes[count] = value;
+      rows[count++] = row;
+    }
   }
-  if (sample.length === 0) return null;
-  sample.sort((a, b) => a.value - b.value);
-  return { median: sample[sample.length >> 1].value, row: sample[sample.length >> 1].row };
+  if (count === 0) return null;
+  const sorted = magnitudes.slice(0, count).sort();
+  const middle = count >> 1;
+  const median = sorted[middle];
+  // the middle is the k-th sampled value equal to the median, k = its place among them
+  let equalBefore = middle;
+  while (equalBefore > 0 && sorted[equalBefore - 1] === median) equalBefore--;
+  let k = middle - equalBefore;
+  for (let s = 0; s < count; s++) {
+    if (magnitudes[s] === median && k-- === 0) return { median, row: rows[s] };
+  }
+  return { median, row: rows[0] };
 }
 
 /**

@@ -471,7 +471,8 @@ export function durabilityMetrics(curve: CurveData, options: DurabilityOptions =
   const empty = (reason: string, breakInRule: string) => noRate(rowsIn.t, options, checked, notes, reason, breakInRule);
   if (n < 3) return empty(`degradation rate not computed: ${n} usable rows, at least 3 needed`, options.breakInHours !== undefined ? BREAK_IN_RULE_USER : '');
 
-  const interruptions = detectInterruptions(rowsIn.t, v, j, options.interruptions);
+  // every row left is finite (dropNonFiniteRows), so the detection need not check them again
+  const interruptions = detectInterruptions(rowsIn.t, v, j, { ...options.interruptions, valuesChecked: true });
   const t = continueClock(rowsIn.t, interruptions, notes);
   const hoursRun = t[n - 1] - t[0];
   const rows = rowsToFit(t, v, interruptions, notes);

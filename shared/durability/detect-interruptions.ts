@@ -1,6 +1,6 @@
 // Finds where a durability log was interrupted — logging gaps, current set-point changes and
 // restarts — so the degradation fit can split the run instead of drawing a line through a step.
-import { median } from '../stats/median';
+import { median, medianForwardStep } from '../stats/median';
 import { robustSd } from '../stats/robust-sd';
 
 export type InterruptionKind = 'gap' | 'current-change' | 'restart';
@@ -40,6 +40,8 @@ export interface InterruptionOptions {
   minCurrentHours?: number;
   /** floor of the local voltage noise, V (station resolution); default 1e-5 */
   minNoiseV?: number;
+  /** the caller has already checked that every value is finite (durabilityMetrics drops the rows that are not); default false */
+  valuesChecked?: boolean;
 }
 
 const fmt = (value: number, digits: number): string => value.toFixed(digits);
@@ -95,7 +97,8 @@ function hourToHourNoise(t: ArrayLike<number>, v: ArrayLike<number>, blockHours:
  * current change = a run of rows lasting ≥ 0.25 h whose current density departs from the log's median
  * by more than max(5 % of the median, 2 mA/cm²).
  * Reference: none single — common practice in reading test-station logs; robust SD per Rousseeuw & Croux (1993).
- * Cost: O(n) expected time; O(n) scratch memory for the medians.
+ * Cost: O(n) expected time; scratch memory of an eighth of n at most for the medians (more only when
+ * a sample misses the middle).
  * @throws RangeError when the arrays differ in length or hold non-finite values, or an option is out of range.
  * @example detectInterruptions(curve.tHours, curve.v, curve.j) // [{ kind: 'gap', startHours: 300, endHours: 306, ... }]
  */
@@ -137,7 +140,7 @@ export function detectInterruptions(
   for (const [name, value] of nonNegative) {
     if (!(Number.isFinite(value) && value >= 0)) throw new RangeError(`detectInterruptions: ${name} must be a number ≥ 0, got ${value}`);
   }
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < (options.valuesChecked ? 0 : n); i++) {
     if (!Number.isFinite(tHours[i]) || !Number.isFinite(v[i]) || !Number.isFinite(j[i])) {
       throw new RangeError(`detectInterruptions: values must be finite numbers, got row ${i}: t = ${tHours[i]}, V = ${v[i]}, j = ${j[i]}`);
     }
@@ -147,13 +150,8 @@ export function detectInterruptions(
   const found: Interruption[] = [];
 
   // Typical logging interval, from the forward steps only (a time reset is not a step).
-  const steps = new Float64Array(n - 1);
-  let stepCount = 0;
-  for (let i = 1; i < n; i++) {
-    const dt = tHours[i] - tHours[i - 1];
-    if (dt > 0) steps[stepCount++] = dt;
-  }
-  const medianStep = stepCount > 0 ? median(steps, 0, stepCount) : 0;
+  const forwardMedian = medianForwardStep(tHours);
+  const medianStep = Number.isNaN(forwardMedian) ? 0 : forwardMedian;
   const gapThreshold = Math.max(gapFactor * medianStep, minGapHours);
   const localRows = Math.max(5, medianStep > 0 ? Math.round(localHours / medianStep) : 5);
   let levelNoise: number | null = null;

@@ -38,41 +38,27 @@ function bySelection(values: ArrayLike<number>, from: number, to: number, low: n
   return [below, scratch[high]];
 }
 
-/**
- * The same two ranks from one counting pass: a sorted, evenly spaced sample gives bounds lo ≤ hi
- * around the middle; the pass counts the values below lo, equal to lo, equal to hi and above hi,
- * and keeps only those strictly between. The ranks are exact whenever they fall at lo, at hi or
- * among the kept values; otherwise (or when too many are kept) null, and the caller selects.
- */
-function byBracket(values: ArrayLike<number>, from: number, to: number, low: number, high: number): [number, number] | null {
-  const count = to - from;
-  const sample = new Float64Array(SAMPLE);
-  for (let s = 0; s < SAMPLE; s++) sample[s] = values[from + Math.floor(((s + 0.5) * count) / SAMPLE)];
-  for (let s = 0; s < SAMPLE; s++) if (!Number.isFinite(sample[s])) return null;
+/** Bounds lo ≤ hi around rank `high` of `count` values, from a sample of them (sorted here). */
+function bracketBounds(sample: Float64Array, count: number, high: number): { lo: number; hi: number } {
   sample.sort();
-  const at = (high / count) * SAMPLE;
-  const lo = sample[Math.max(0, Math.floor(at) - MARGIN)];
-  const hi = sample[Math.min(SAMPLE - 1, Math.ceil(at) + MARGIN)];
-  // about 2·MARGIN/SAMPLE ≈ 7 % of the values fall between the bounds; room for 12.5 %
-  const room = Math.max(BRACKET_FROM, count >> 3);
-  const kept = new Float64Array(room);
-  let below = 0;
-  let atLo = 0;
-  let between = 0;
-  let atHi = 0;
-  for (let i = from; i < to; i++) {
-    const value = values[i];
-    // lo and hi are finite, so only the two outer branches can meet a non-finite value
-    if (value < lo) {
-      if (value === -Infinity) throw notFinite(value, i);
-      below++;
-    } else if (value === lo) atLo++;
-    else if (value < hi) {
-      if (between === room) return null;
-      kept[between++] = value;
-    } else if (value === hi) atHi++;
-    else if (!(value < Infinity)) throw notFinite(value, i);
-  }
+  const at = (high / count) * sample.length;
+  const margin = Math.round((MARGIN * sample.length) / SAMPLE);
+  return { lo: sample[Math.max(0, Math.floor(at) - margin)], hi: sample[Math.min(sample.length - 1, Math.ceil(at) + margin)] };
+}
+
+/** What one counting pass found about bounds lo and hi: counts below, at and above, and the values between. */
+interface BracketCount {
+  lo: number;
+  hi: number;
+  below: number;
+  atLo: number;
+  between: number;
+  atHi: number;
+  kept: Float64Array;
+}
+
+/** The values of ranks `low` and `high` from a counting pass, or null when they are not among what it kept. */
+function pickFromBracket({ lo, hi, below, atLo, between, atHi, kept }: BracketCount, low: number, high: number): [number, number] | null {
   const pick = (rank: number): number | 'kept' | null => {
     if (rank < below) return null;
     if (rank < below + atLo) return lo;
@@ -101,6 +87,106 @@ function byBracket(values: ArrayLike<number>, from: number, to: number, low: num
     return [lower, b];
   }
   return [a, b];
+}
+
+/**
+ * The same two ranks from one counting pass: a sorted, evenly spaced sample gives bounds lo ≤ hi
+ * around the middle; the pass counts the values below lo, equal to lo, equal to hi and above hi,
+ * and keeps only those strictly between. The ranks are exact whenever they fall at lo, at hi or
+ * among the kept values; otherwise (or when too many are kept) null, and the caller selects.
+ */
+function byBracket(values: ArrayLike<number>, from: number, to: number, low: number, high: number): [number, number] | null {
+  const count = to - from;
+  const sample = new Float64Array(SAMPLE);
+  for (let s = 0; s < SAMPLE; s++) sample[s] = values[from + Math.floor(((s + 0.5) * count) / SAMPLE)];
+  for (let s = 0; s < SAMPLE; s++) if (!Number.isFinite(sample[s])) return null;
+  const { lo, hi } = bracketBounds(sample, count, high);
+  // about 2·MARGIN/SAMPLE ≈ 7 % of the values fall between the bounds; room for 12.5 %
+  const room = Math.max(BRACKET_FROM, count >> 3);
+  const kept = new Float64Array(room + 1);
+  let below = 0;
+  let atLo = 0;
+  let between = 0;
+  let atHi = 0;
+  for (let i = from; i < to; i++) {
+    const value = values[i];
+    // value − value is 0 for a finite number, NaN otherwise (a test that is never taken in a clean log)
+    if (value - value !== 0) throw notFinite(value, i);
+    // counted without branching on the value (a log's values fall either side of the bounds at random)
+    below += +(value < lo);
+    atLo += +(value === lo);
+    atHi += +(value === hi);
+    kept[between] = value;
+    between += +(value > lo) & +(value < hi);
+    if (between > room) return null;
+  }
+  return pickFromBracket({ lo, hi, below, atLo, between, atHi, kept }, low, high);
+}
+
+/**
+ * Median of the forward steps of a time column (t[i] − t[i−1] for each i with t[i] > t[i−1]) without
+ * a copy of them: the same sampled bracket and counting pass as median, the steps worked out as it
+ * goes; a copy and selection only when the sample misses the middle. NaN when no step goes forward.
+ * Cost: O(n) expected time, two passes over t and a buffer of an eighth of it at most.
+ * @throws RangeError when t holds a non-finite value.
+ * @example medianForwardStep([0, 1, 3, 3, 4]) // 1 (forward steps 1, 2, 1)
+ */
+export function medianForwardStep(t: ArrayLike<number>): number {
+  const n = t.length;
+  let count = 0;
+  for (let i = 1; i < n; i++) {
+    const value = t[i];
+    if (value - value !== 0) throw notFinite(value, i);
+    count += +(value > t[i - 1]);
+  }
+  if (n > 0 && t[0] - t[0] !== 0) throw notFinite(t[0], 0);
+  if (count === 0) return NaN;
+  const middle = count >> 1;
+  const low = count % 2 === 1 ? middle : middle - 1;
+  const high = middle;
+  let found: [number, number] | null = null;
+  if (count >= BRACKET_FROM) {
+    const sample = new Float64Array(SAMPLE);
+    let taken = 0;
+    for (let s = 0; s < SAMPLE; s++) {
+      const i = 1 + Math.floor(((s + 0.5) * (n - 1)) / SAMPLE);
+      const step = t[i] - t[i - 1];
+      if (step > 0) sample[taken++] = step;
+    }
+    if (taken >= SAMPLE / 2) {
+      const { lo, hi } = bracketBounds(sample.subarray(0, taken), count, high);
+      const room = Math.max(BRACKET_FROM, count >> 3);
+      const kept = new Float64Array(room + 1);
+      let below = 0;
+      let atLo = 0;
+      let between = 0;
+      let atHi = 0;
+      let previous = t[0];
+      let full = false;
+      for (let i = 1; i < n; i++) {
+        const value = t[i];
+        const step = value - previous;
+        previous = value;
+        if (!(step > 0)) continue;
+        below += +(step < lo);
+        atLo += +(step === lo);
+        atHi += +(step === hi);
+        kept[between] = step;
+        between += +(step > lo) & +(step < hi);
+        if (between > room) {
+          full = true;
+          break;
+        }
+      }
+      if (!full) found = pickFromBracket({ lo, hi, below, atLo, between, atHi, kept }, low, high);
+    }
+  }
+  if (!found) {
+    const steps = new Float64Array(count);
+    for (let i = 1, k = 0; i < n; i++) if (t[i] > t[i - 1]) steps[k++] = t[i] - t[i - 1];
+    found = bySelection(steps, 0, count, low, high);
+  }
+  return count % 2 === 1 ? found[1] : (found[0] + found[1]) / 2;
 }
 
 function middleRanks(values: ArrayLike<number>, from: number, to: number, low: number, high: number): [number, number] {

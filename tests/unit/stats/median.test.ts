@@ -4,7 +4,7 @@
 // and reversed runs, sub-slices, and the refusal of a non-finite value naming its index.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { kthSmallest, median } from '../../../shared/stats/median';
+import { kthSmallest, median, medianForwardStep } from '../../../shared/stats/median';
 
 /** The definition: sort a copy; odd count → the middle, even → the mean of the two middle values. */
 function sortedMedian(values: ArrayLike<number>, from: number, to: number): number {
@@ -68,5 +68,42 @@ describe('kthSmallest', () => {
   it('refuses a rank outside the slice', () => {
     expect(() => kthSmallest([1, 2, 3], 3)).toThrow(RangeError);
     expect(kthSmallest([5, 1, 4, 2], 2)).toBe(4); // sorted 1, 2, 4, 5
+  });
+});
+
+describe('medianForwardStep', () => {
+  /** The definition: the forward steps written out, then their sorted middle. */
+  const byDefinition = (t: ArrayLike<number>) => {
+    const steps: number[] = [];
+    for (let i = 1; i < t.length; i++) if (t[i] > t[i - 1]) steps.push(t[i] - t[i - 1]);
+    return steps.length ? sortedMedian(steps, 0, steps.length) : NaN;
+  };
+  // a station clock: a fixed step written to 4 decimals (steps of 0.0041 / 0.0042 h), some rows
+  // repeated, some missing, a reset to 0 (a second run appended)
+  const clock = fc.array(fc.oneof({ weight: 20, arbitrary: fc.constant(1) }, fc.constant(0), fc.integer({ min: 2, max: 40 }), fc.constant(-1)), { minLength: 1, maxLength: 40000 }).map((moves) => {
+    const t = new Float64Array(moves.length);
+    let minutes = 0;
+    moves.forEach((move, i) => {
+      minutes = move < 0 ? 0 : minutes + move * 0.25;
+      t[i] = Number((minutes / 60).toFixed(4));
+    });
+    return t;
+  });
+
+  it('is the sorted middle of the forward steps, short and long, ties and resets included', () => {
+    fc.assert(fc.property(clock, (t) => {
+      expect(medianForwardStep(t)).toBe(byDefinition(t));
+    }), { numRuns: 120, seed: 19 });
+    fc.assert(fc.property(fc.array(finite, { minLength: 1, maxLength: 30000 }), (values) => {
+      expect(medianForwardStep(values)).toBe(byDefinition(values));
+    }), { numRuns: 60, seed: 20 });
+  });
+
+  it('is NaN when no step goes forward, and refuses a non-finite time naming its index', () => {
+    expect(medianForwardStep([3, 3, 2, 1])).toBeNaN();
+    expect(medianForwardStep([0, 1, 3, 3, 4])).toBe(1); // forward steps 1, 2, 1 by hand
+    const t = Float64Array.from({ length: 30_000 }, (_, i) => i / 240);
+    t[20_000] = NaN;
+    expect(() => medianForwardStep(t)).toThrow('median: values must be finite numbers, got NaN at index 20000');
   });
 });
