@@ -17,7 +17,7 @@ import type { ColumnMapping, CurrentUnit, CurveData, CurveKind, CurveMetrics, Hf
 import { packPoints } from './points-codec';
 import { readPoints, replacePoints, writePointPieces } from './point-store';
 import { metricEntry, metricsOfKind, nullMetrics } from '../../shared/curves/metric-catalogue';
-import { durabilityInPool, parseUpload } from '../uploads/parse-runner';
+import { mapAndMeasureInPool, parseUpload } from '../uploads/parse-runner';
 import type { ReadResult } from './read-upload';
 import { audit } from '../lib/audit';
 import { AppError, forbidden, notFound } from '../lib/errors';
@@ -405,11 +405,28 @@ export async function ingestUpload(
 
       options.progress?.phase('measuring', null);
       await yieldToEventLoop();
-      try {
-        data = applyMapping(table, mapping, { kind, areaCm2, reuseColumns: true });
-        checkEnoughData(data);
-      } catch (error) {
-        throw asUnprocessable(placeWholeFileError(error, table, mapping!), upload.originalName);
+      let fitted: Fitted | undefined;
+      if (kind === 'durability' || kind === 'hold') {
+        // a log is mapped and measured in the worker pool (its columns are moved there and back):
+        // none of the passes over its million rows holds the event loop
+        storing = { sha256: read.sha256, put: ctx.storage.put(read.sha256, upload.tmpPath) };
+        // a log's onset search runs there too, with the project's rule (an upload has no curve options yet)
+        const onset = kind === 'durability' ? { rule: onsetRuleOf(project.settings.onsetRule, undefined), startGiven: project.settings.onsetRule?.startHours !== undefined } : undefined;
+        try {
+          const moved = await mapAndMeasureInPool(env, table, mapping, { kind, areaCm2 }, {}, onset);
+          data = moved.curve as typeof data;
+          fitted = { ...moved.metrics, ...(moved.onset && { onset: moved.onset }) };
+        } catch (error) {
+          if (error instanceof RangeError && (error as { stage?: string }).stage === 'fit') throw new AppError(422, 'cannot-measure', `${upload.originalName}: ${error.message.replace(/^\w+: /, '')}; nothing was stored.`, { file: upload.originalName });
+          throw asUnprocessable(placeWholeFileError(error, table, mapping!), upload.originalName);
+        }
+      } else {
+        try {
+          data = applyMapping(table, mapping, { kind, areaCm2, reuseColumns: true });
+          checkEnoughData(data);
+        } catch (error) {
+          throw asUnprocessable(placeWholeFileError(error, table, mapping!), upload.originalName);
+        }
       }
       notes = importNotes(table, (data as ReturnType<typeof applyMapping>).notes);
       if (mappingSource.startsWith('profile')) notes.unshift(`columns and units from the import ${mappingSource.replace(/^profile /, 'profile "')}"`);
@@ -419,17 +436,6 @@ export async function ingestUpload(
       // The mapped columns now live in `data` (converted in place); let the rest go before measuring.
       table.columns.fill(null);
       try {
-        // a log's durability fit runs in the worker pool (its columns are moved there and back)
-        let fitted: Fitted | undefined;
-        if (kind === 'durability' || kind === 'hold') {
-          storing = { sha256: read.sha256, put: ctx.storage.put(read.sha256, upload.tmpPath) };
-          await yieldToEventLoop();
-          // a log's onset search runs there too, with the project's rule (an upload has no curve options yet)
-          const onset = kind === 'durability' ? { rule: onsetRuleOf(project.settings.onsetRule, undefined), startGiven: project.settings.onsetRule?.startHours !== undefined } : undefined;
-          const moved = await durabilityInPool(env, data, {}, onset);
-          data = moved.curve as typeof data;
-          fitted = { ...moved.metrics, ...(moved.onset && { onset: moved.onset }) };
-        }
         result = computeMetrics(data, referencePoint(project), build, null, fitted);
         if (kind === 'durability') checkHoursAfterBreakIn(data, result.metrics.breakInHours ?? null);
       } catch (error) {

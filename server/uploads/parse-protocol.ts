@@ -1,7 +1,8 @@
 // Messages between the upload parse pool (main thread) and its worker threads.
 import type { ReadResult } from '../curves/read-upload';
 import type { WorkbookLimits } from './workbook-guard';
-import type { CurveData } from '../../shared/curves/types';
+import type { ColumnMapping, CurveData } from '../../shared/curves/types';
+import type { AppliedCurve, ParsedTable } from '../../shared/curves';
 import type { DurabilityMetrics, DurabilityOptions, OnsetRule } from '../../shared/durability';
 import type { OnsetOutcome } from '../curves/kind-metrics';
 
@@ -14,13 +15,19 @@ export interface ParseRequest {
   limits: WorkbookLimits;
 }
 
-/** The durability fit of a mapped curve, run beside the parse so a long log does not hold the event loop. */
-export interface DurabilityRequest {
-  type: 'durability';
+/**
+ * A parsed log mapped to a curve (applyMapping, checkEnoughData) and then measured (durabilityMetrics,
+ * and the onset search with `onset`, its start the fit's break-in unless `startGiven`), in one job: the table's columns move to the worker and come back as the
+ * curve's, and the event loop holds none of the passes over a million rows.
+ */
+export interface MapAndMeasureRequest {
+  type: 'map-durability';
   id: number;
-  curve: CurveData;
+  table: ParsedTable;
+  mapping: ColumnMapping;
+  kind: 'durability' | 'hold';
+  areaCm2: number | null;
   options: DurabilityOptions;
-  /** also search the log for the onset of rapid failure with this rule (its start is the fit's break-in unless `startGiven`) */
   onset?: { rule: OnsetRule; startGiven: boolean };
 }
 
@@ -38,7 +45,7 @@ export interface StreamStart {
 }
 export type StreamMessage = StreamStart | { type: 'stream-chunk'; id: number; bytes: Uint8Array } | { type: 'stream-end'; id: number } | { type: 'stream-abort'; id: number };
 
-export type WorkerRequest = ParseRequest | DurabilityRequest | StreamMessage;
+export type WorkerRequest = ParseRequest | MapAndMeasureRequest | StreamMessage;
 
 export type SerializedError =
   | { kind: 'curve'; code: string; message: string; line: number | null; column: number | string | null }
@@ -53,7 +60,9 @@ export type ParseReply =
   | { id: number; type: 'not-text' }
   /** a received piece read and done with, moved back to be filled again (a stream's memory stays a few pieces) */
   | { id: number; type: 'stream-piece'; bytes: Uint8Array }
-  | { id: number; type: 'durability'; curve: CurveData; metrics: DurabilityMetrics; onset?: OnsetOutcome }
+  | { id: number; type: 'map-durability'; curve: AppliedCurve; metrics: DurabilityMetrics; onset?: OnsetOutcome }
+  /** a map-and-measure job refused: at which stage, and the table's line numbers back */
+  | { id: number; type: 'map-error'; stage: 'map' | 'fit'; error: SerializedError; dataLines: Int32Array }
   | { id: number; type: 'error'; error: SerializedError };
 
 /** The buffers of a parsed table's columns and line numbers, to move the table between threads. */

@@ -12,10 +12,11 @@ import { AppError } from '../lib/errors';
 import type { ReadOptions, ReadResult } from '../curves/read-upload';
 import type { WorkbookLimits } from './workbook-guard';
 import { guardedCopyPath } from './guarded-read';
-import type { CurveData } from '../../shared/curves/types';
+import type { ColumnMapping } from '../../shared/curves/types';
+import type { AppliedCurve, ParsedTable } from '../../shared/curves';
 import type { DurabilityMetrics, DurabilityOptions, OnsetRule } from '../../shared/durability';
 import type { OnsetOutcome } from '../curves/kind-metrics';
-import { curveBuffers, type ParseReply, type SerializedError, type StreamMessage, type WorkerRequest } from './parse-protocol';
+import { tableBuffers, type ParseReply, type SerializedError, type StreamMessage, type WorkerRequest } from './parse-protocol';
 
 export interface ParsePoolOptions {
   workers: number;
@@ -29,6 +30,8 @@ interface Job {
   onBytes?: (bytes: number) => void;
   resolve: (result: never) => void;
   reject: (error: unknown) => void;
+  /** a table moved to the worker to be mapped: its line numbers come back to it */
+  table?: ParsedTable;
   /** a file read while it is received: its messages wait here until the worker has the job */
   stream?: { waiting: { message: StreamMessage; transfer: ArrayBuffer[] }[]; send: ((message: StreamMessage, transfer: ArrayBuffer[]) => void) | null; ended: boolean; onEnd: (() => void) | null; settled: boolean; abort: (() => void) | null; recycle: ((bytes: Uint8Array) => void) | null };
 }
@@ -100,7 +103,8 @@ export class ParsePool {
     // pieces the worker has read come back to be filled again
     const spare: Uint8Array[] = [];
     stream.recycle = (bytes) => {
-      if (bytes.length === STREAM_PIECE_BYTES) spare.push(bytes);
+      // once every byte is sent, a piece given back is let go (the request may live on for seconds)
+      if (bytes.length === STREAM_PIECE_BYTES && !stream.ended) spare.push(bytes);
     };
     let piece: Uint8Array = new Uint8Array(STREAM_PIECE_BYTES);
     let filled = 0;
@@ -129,6 +133,9 @@ export class ParsePool {
         if (!stream.ended) {
           flush();
           stream.ended = true;
+          // the pieces kept for refilling are not needed any more
+          spare.length = 0;
+          piece = new Uint8Array(0);
           send({ type: 'stream-end', id });
           stream.onEnd?.();
         }
@@ -144,13 +151,14 @@ export class ParsePool {
   }
 
   /**
-   * durabilityMetrics of a mapped curve in a worker thread. The curve's columns are moved to the
-   * thread and back (not copied): use the returned curve, the one given is emptied meanwhile.
-   * @throws RangeError as durabilityMetrics does
+   * applyMapping and checkEnoughData of a parsed log, then its durability fit (and onset search)
+   * as `durability` does, in one worker job: the table's columns are moved there and come back as
+   * the curve's (the table keeps only what is not a column). A refusal says its stage: `map`
+   * (the mapping or the data) or `fit` (the measuring).
    */
-  durability(curve: CurveData, options: DurabilityOptions, onset?: { rule: OnsetRule; startGiven: boolean }): Promise<{ curve: CurveData; metrics: DurabilityMetrics; onset?: OnsetOutcome }> {
+  mapAndMeasure(table: ParsedTable, mapping: ColumnMapping, curve: { kind: 'durability' | 'hold'; areaCm2: number | null }, options: DurabilityOptions, onset?: { rule: OnsetRule; startGiven: boolean }): Promise<{ curve: AppliedCurve; metrics: DurabilityMetrics; onset?: OnsetOutcome }> {
     return new Promise((resolve, reject) => {
-      this.queue.push({ request: { type: 'durability', id: this.nextId++, curve, options, onset }, fileName: 'the curve', resolve, reject });
+      this.queue.push({ request: { type: 'map-durability', id: this.nextId++, table, mapping, kind: curve.kind, areaCm2: curve.areaCm2, options, onset }, fileName: 'the curve', resolve, reject, table });
       this.dispatch();
     });
   }
@@ -277,7 +285,13 @@ export class ParsePool {
       else if (reply.type === 'stream-piece') job.stream?.recycle?.(reply.bytes);
       else if (reply.type === 'done') finish({ result: reply.result }, true);
       else if (reply.type === 'not-text') finish({ result: null }, true);
-      else if (reply.type === 'durability') finish({ result: { curve: reply.curve, metrics: reply.metrics, onset: reply.onset } }, true);
+      else if (reply.type === 'map-durability') {
+        if (job.table) job.table.dataLines = reply.curve.dataLines;
+        finish({ result: { curve: reply.curve, metrics: reply.metrics, onset: reply.onset } }, true);
+      } else if (reply.type === 'map-error') {
+        if (job.table) job.table.dataLines = reply.dataLines;
+        finish({ error: Object.assign(rebuild(reply.error, job.fileName), { stage: reply.stage }) }, true);
+      }
       else finish({ error: rebuild(reply.error, job.fileName) }, true);
     };
     const onError = (error: Error & { code?: string }) => {
@@ -315,7 +329,7 @@ export class ParsePool {
         }
         // the clock runs from when the loaded worker gets the file
         startClock();
-        if (request.type === 'durability') worker.postMessage(request, curveBuffers(request.curve));
+        if (request.type === 'map-durability') worker.postMessage(request, tableBuffers({ table: request.table } as ReadResult));
         else worker.postMessage(request);
       },
       (error: unknown) => finish({ error }, false),
@@ -349,12 +363,12 @@ export function workbookLimits(env: Env): WorkbookLimits {
   };
 }
 
-/** readUpload's work, in the pool: same options, same result, or the same errors. */
-/** durabilityMetrics (and, given a rule, the onset search) in the pool (see ParsePool.durability). */
-export function durabilityInPool(env: Env, curve: CurveData, options: DurabilityOptions, onset?: { rule: OnsetRule; startGiven: boolean }) {
-  return parsePool(env).durability(curve, options, onset);
+/** ParsePool.mapAndMeasure in the process's pool. */
+export function mapAndMeasureInPool(env: Env, ...args: Parameters<ParsePool['mapAndMeasure']>) {
+  return parsePool(env).mapAndMeasure(...args);
 }
 
+/** readUpload's work, in the pool: same options, same result, or the same errors. */
 export function parseUpload(env: Env, path: string, options: ReadOptions, fileName?: string): Promise<ReadResult> {
   return parsePool(env).parse(path, options, workbookLimits(env), fileName);
 }

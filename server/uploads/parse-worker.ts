@@ -8,7 +8,10 @@ import { readUploadGuarded } from './guarded-read';
 import { durabilityMetrics } from '../../shared/durability';
 import { onsetMetric } from '../curves/kind-metrics';
 import { createTextReader, type TextReader } from '../curves/read-upload';
-import { sniffBytes } from '../../shared/curves';
+import { applyMapping, checkEnoughData, sniffBytes } from '../../shared/curves';
+import type { AppliedCurve } from '../../shared/curves';
+import type { CurveData } from '../../shared/curves/types';
+import type { MapAndMeasureRequest } from './parse-protocol';
 import { curveBuffers, tableBuffers, type StreamMessage, type WorkerRequest, type ParseReply, type SerializedError } from './parse-protocol';
 
 function serialize(error: unknown): SerializedError {
@@ -108,6 +111,18 @@ function onStream(message: StreamMessage) {
     fail(message.id, error);
   }
 }
+/** The durability fit, then the onset search with the fit's break-in as its start unless the rule says where. */
+function measure(curve: CurveData, options: MapAndMeasureRequest['options'], onsetOf: MapAndMeasureRequest['onset']) {
+  const metrics = durabilityMetrics(curve, options);
+  let onset;
+  if (onsetOf) {
+    const rule = { ...onsetOf.rule };
+    if (!onsetOf.startGiven && metrics.breakInHours != null) rule.startHours = metrics.breakInHours;
+    onset = onsetMetric(curve, rule);
+  }
+  return { metrics, onset };
+}
+
 // the imports above are loaded: the pool starts a job's clock only from here
 port.postMessage({ id: 0, type: 'ready' } satisfies ParseReply);
 port.on('message', async (request: WorkerRequest) => {
@@ -115,20 +130,23 @@ port.on('message', async (request: WorkerRequest) => {
     onStream(request);
     return;
   }
-  if (request.type === 'durability') {
+  if (request.type === 'map-durability') {
+    const { table } = request;
+    let curve: AppliedCurve;
     try {
-      const metrics = durabilityMetrics(request.curve, request.options);
-      // the onset search after the fit, here too: it starts at the fit's break-in unless the rule says where
-      let onset;
-      if (request.onset) {
-        const rule = { ...request.onset.rule };
-        if (!request.onset.startGiven && metrics.breakInHours != null) rule.startHours = metrics.breakInHours;
-        onset = onsetMetric(request.curve, rule);
-      }
-      // the columns go back as they came, moved rather than copied
-      port.postMessage({ id: request.id, type: 'durability', curve: request.curve, metrics, onset } satisfies ParseReply, curveBuffers(request.curve));
+      curve = applyMapping(table, request.mapping, { kind: request.kind, areaCm2: request.areaCm2, reuseColumns: true });
+      checkEnoughData(curve);
     } catch (error) {
-      port.postMessage({ id: request.id, type: 'error', error: serialize(error) } satisfies ParseReply);
+      port.postMessage({ id: request.id, type: 'map-error', stage: 'map', error: serialize(error), dataLines: table.dataLines } satisfies ParseReply, [table.dataLines.buffer as ArrayBuffer]);
+      return;
+    }
+    // the mapped columns live in the curve now (converted in place); the others go
+    table.columns.fill(null);
+    try {
+      const { metrics, onset } = measure(curve, request.options, request.onset);
+      port.postMessage({ id: request.id, type: 'map-durability', curve, metrics, onset } satisfies ParseReply, [...new Set([...curveBuffers(curve), curve.dataLines.buffer as ArrayBuffer])]);
+    } catch (error) {
+      port.postMessage({ id: request.id, type: 'map-error', stage: 'fit', error: serialize(error), dataLines: curve.dataLines } satisfies ParseReply, [curve.dataLines.buffer as ArrayBuffer]);
     }
     return;
   }

@@ -152,6 +152,22 @@ describe('plot points', () => {
   });
 });
 
+describe('a log refused while it is mapped (in the worker pool)', () => {
+  it('names the line and column of an impossible value, and the lines of a log too short to measure; nothing is stored', async () => {
+    const before = count('curves');
+    const lines = csvOf({ seed: 71 }).trim().split('\n');
+    lines[1234] = lines[1234]!.replace(/,[^,]*$/, ',7.5'); // 7.5 V: no cell reaches it
+    const bad = await h.as.researcher.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'bad-volt.csv', content: lines.join('\n') + '\n' }, { kind: 'durability' });
+    expect(bad.status).toBe(422);
+    expect(bad.body.error.message).toContain('line 1235, column "Voltage (V)"'); // row 1234 below the header is the file's line 1235
+    const short = await h.as.researcher.upload(`/api/builds/${ids.build('C-014')}/curves`, { name: 'short.csv', content: `${lines[0]}\n${lines[1]}\n${lines[2]}\n` }, { kind: 'durability' });
+    expect(short.status).toBe(422);
+    // the lines come from the table's line numbers, which went to the worker with its columns and came back
+    expect(short.body.error.message).toMatch(/^short\.csv: lines 2–3, column "Time \(h\)": a durability log needs at least 20 readings/);
+    expect(count('curves')).toBe(before);
+  });
+});
+
 describe('a long log in storage', () => {
   it('is kept in pieces of about 1 MB, read back exactly as the file wrote it, and its pieces go with it', async () => {
     // 3,000 h at 1-min steps: 180,001 rows, three columns of 1,440,008 bytes → 4.3 MB, over the 4 MiB kept in one blob
