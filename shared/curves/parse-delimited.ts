@@ -124,9 +124,11 @@ let cellEnd = 0;
  * Precondition: a byte that cannot be part of a number (a line feed) follows somewhere after
  * `index` inside `bytes`, so the reading stops there without a bounds check on every byte.
  * Reference: W. D. Clinger, "How to read floating point numbers accurately", PLDI 1990.
- * @returns NaN when no such number starts at `index` (or it is not finite)
+ * The value is written to out[at] rather than returned: a double returned from a call that is not
+ * inlined is boxed on the heap, and a million-row log would make four million such boxes.
+ * @returns false when no such number starts at `index` (or it is not finite); out[at] is then unchanged
  */
-function readPlainCell(bytes: Uint8Array, index: number, markCode: number): number {
+function readPlainCell(bytes: Uint8Array, index: number, markCode: number, out: Float64Array, at: number): boolean {
   const cellStart = index;
   let negative = false;
   let code = bytes[index];
@@ -156,7 +158,7 @@ function readPlainCell(bytes: Uint8Array, index: number, markCode: number): numb
       code = bytes[index];
     }
   }
-  if (digits === 0) return NaN;
+  if (digits === 0) return false;
   let exponent = 0;
   if (code === 101 || code === 69) {
     index++;
@@ -174,7 +176,7 @@ function readPlainCell(bytes: Uint8Array, index: number, markCode: number): numb
       index++;
       code = bytes[index];
     }
-    if (exponentDigits === 0 || exponentDigits > 4) return NaN;
+    if (exponentDigits === 0 || exponentDigits > 4) return false;
     if (exponentNegative) exponent = -exponent;
   }
   cellEnd = index;
@@ -187,9 +189,10 @@ function readPlainCell(bytes: Uint8Array, index: number, markCode: number): numb
     let cellText = asciiText(bytes, negative || bytes[cellStart] === 43 ? cellStart + 1 : cellStart, index);
     if (markCode !== 46) cellText = cellText.replace(String.fromCharCode(markCode), '.');
     value = Number(cellText);
-    if (value - value !== 0) return NaN;
+    if (value - value !== 0) return false;
   }
-  return negative ? -value : value;
+  out[at] = negative ? -value : value;
+  return true;
 }
 
 /**
@@ -202,10 +205,8 @@ function readPlainCell(bytes: Uint8Array, index: number, markCode: number): numb
 function readPlainBytes(bytes: Uint8Array, start: number, end: number, delimiterCode: number, markCode: number, cells: number, out: Float64Array): boolean {
   let index = start;
   for (let cell = 0; cell < cells; cell++) {
-    const value = readPlainCell(bytes, index, markCode);
-    if (value !== value) return false;
+    if (!readPlainCell(bytes, index, markCode, out, cell)) return false;
     if (cell === cells - 1 ? cellEnd !== end : cellEnd >= end || bytes[cellEnd] !== delimiterCode) return false;
-    out[cell] = value;
     index = cellEnd + 1;
   }
   return true;
@@ -1209,15 +1210,14 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     rows: while (row < rowLimit && start <= lastLineFeed) {
       let index = start;
       for (let cell = 0; cell < cells; cell++) {
-        const value = readPlainCell(bytes, index, markCode);
-        if (value !== value) break rows;
+        // the value goes straight to its column's row: one past the rows counted until the line is whole
+        if (!readPlainCell(bytes, index, markCode, columns[cell], row)) break rows;
         const next = bytes[cellEnd];
         if (cell < cells - 1) {
           if (next !== delimiterCode) break rows;
         } else if (next !== 10 && !(next === 13 && bytes[cellEnd + 1] === 10)) {
           break rows;
         }
-        columns[cell][row] = value;
         index = cellEnd + 1;
       }
       if (index - start > MAX_LINE_CHARS) break;
