@@ -3,6 +3,7 @@
 // the requests of everyone else (health checks, lists, curve reads). A worker that runs out of
 // time or memory is ended and replaced; the upload gets a 422 naming the limit.
 import fs from 'node:fs';
+import { createHash } from 'node:crypto';
 import os from 'node:os';
 import { Worker } from 'node:worker_threads';
 import type { Env } from '../env';
@@ -92,6 +93,8 @@ export class ParsePool {
       if (stream.send) stream.send(message, transfer);
       else stream.waiting.push({ message, transfer });
     };
+    // the bytes are hashed here as they are pushed: the worker's thread has the parse to do
+    const hash = createHash('sha256');
     const result = new Promise<ReadResult | null>((resolve, reject) => {
       const job: Job = { request: { type: 'stream-start', id, maxRows: options.maxRows, sizeHintBytes: options.sizeHintBytes }, fileName: options.fileName ?? 'the file', resolve, reject, stream };
       // a stream shares a worker with whatever else it does: between pieces the thread waits on the
@@ -120,6 +123,7 @@ export class ParsePool {
     return {
       push(bytes) {
         if (stream.settled || stream.ended) return;
+        hash.update(bytes);
         let at = 0;
         while (at < bytes.length) {
           const take = Math.min(bytes.length - at, piece.length - filled);
@@ -139,7 +143,7 @@ export class ParsePool {
           send({ type: 'stream-end', id });
           stream.onEnd?.();
         }
-        return result;
+        return result.then((read) => read && { ...read, sha256: hash.copy().digest('hex') });
       },
       abort: () => {
         if (stream.settled) return;

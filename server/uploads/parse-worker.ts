@@ -63,7 +63,8 @@ function startReading(id: number, state: Streamed): boolean {
     return false;
   }
   try {
-    state.reader = createTextReader(head, { maxRows: state.maxRows, sizeHintBytes: state.sizeHintBytes });
+    // the receiving thread hashes the bytes as they arrive (it waits on the network, this thread parses)
+    state.reader = createTextReader(head, { maxRows: state.maxRows, sizeHintBytes: state.sizeHintBytes, hash: false });
     state.reader.push(all);
     return true;
   } catch (error) {

@@ -139,24 +139,22 @@ function readPlainCell(bytes: Uint8Array, index: number, markCode: number, out: 
   }
   const digitsStart = index;
   let mantissa = 0;
-  let digits = 0;
-  let scale = 0;
+  // digits and scale follow from where the digit runs start and end (nothing counted per digit)
   while (code >= 48 && code <= 57) {
     mantissa = mantissa * 10 + (code - 48);
-    digits++;
-    index++;
-    code = bytes[index];
+    code = bytes[++index];
   }
+  let digits = index - digitsStart;
+  let scale = 0;
   if (code === markCode) {
-    index++;
+    const fractionStart = ++index;
     code = bytes[index];
     while (code >= 48 && code <= 57) {
       mantissa = mantissa * 10 + (code - 48);
-      digits++;
-      scale--;
-      index++;
-      code = bytes[index];
+      code = bytes[++index];
     }
+    scale = fractionStart - index;
+    digits -= scale;
   }
   if (digits === 0) return false;
   let exponent = 0;
