@@ -219,6 +219,9 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
 
   // ---- unit slips, judged on the file's own values before anything is converted
   const slips = findUnitSlips(table, mapping, kind, judgingArea);
+  // the summaries below describe the columns as read, which may now be converted in place
+  const currentSummary = mapping.current === undefined ? null : (table.columnSummaries?.[mapping.current.column] ?? null);
+  if (options.reuseColumns === true) delete table.columnSummaries;
   if (slips.length > 0) {
     const slip = slips[0];
     const entry = mapping[slip.role] as { column: number };
@@ -268,9 +271,10 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
   if (currentValues !== null && mapping.current !== undefined) {
     const currentUnit = mapping.current.unit;
     const currentName = table.header[mapping.current.column];
-    let low = Infinity;
-    let high = -Infinity;
-    for (let row = 0; row < rowCount; row++) {
+    // the file's range of the column (from the parser's summary when it has one)
+    let low = currentSummary ? currentSummary.min : Infinity;
+    let high = currentSummary ? currentSummary.max : -Infinity;
+    for (let row = 0; row < (currentSummary ? 0 : rowCount); row++) {
       const value = currentValues[row];
       if (value < low) low = value;
       if (value > high) high = value;

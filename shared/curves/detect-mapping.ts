@@ -1,6 +1,6 @@
 // Guesses which column holds current, voltage, HFR, time and temperature, and in which unit,
 // so the upload page can show a preview with the guess filled in for the user to confirm.
-import type { ColumnMapping, CurrentUnit, CurveKind, HfrUnit, ParsedTable, TemperatureUnit, TimeUnit, VoltageUnit } from './types';
+import type { ColumnMapping, ColumnSummary, CurrentUnit, CurveKind, HfrUnit, ParsedTable, TemperatureUnit, TimeUnit, VoltageUnit } from './types';
 import { recogniseHeaderUnit } from '../units/recognise-header-unit';
 import type { HeaderQuantity, HeaderUnitMatch } from '../units/recognise-header-unit';
 import { currentSlip, hfrSlip, PLAUSIBLE, unitLabel, voltageSlip } from './unit-plausibility';
@@ -43,12 +43,12 @@ interface ColumnStats {
 
 const MEDIAN_SAMPLE = 10_001;
 
-// Min and max in one pass, median from an evenly strided sample: the detection only needs
+// Min and max in one pass (or from the parser's summary), median from an evenly strided sample: the detection only needs
 // magnitudes, and this stays O(n) on a 1,000,000-row log. Blank cells (NaN) are passed over.
-function columnStats(values: Float64Array): ColumnStats {
-  let min = Infinity;
-  let max = -Infinity;
-  for (let index = 0; index < values.length; index++) {
+function columnStats(values: Float64Array, summary?: ColumnSummary | null): ColumnStats {
+  let min = summary ? summary.min : Infinity;
+  let max = summary ? summary.max : -Infinity;
+  for (let index = 0; index < (summary ? 0 : values.length); index++) {
     const value = values[index];
     if (value < min) min = value;
     if (value > max) max = value;
@@ -104,7 +104,7 @@ function readColumns(table: ParsedTable, areaCm2: number | null): Detection {
     const columnKind = table.columnKinds[index];
     const match = recogniseHeaderUnit(table.header[index]);
     matches.push(values === null ? null : match);
-    stats.push(values === null || values.length === 0 ? null : columnStats(values));
+    stats.push(values === null || values.length === 0 ? null : columnStats(values, table.columnSummaries?.[index]));
     let quantity: HeaderQuantity | null = values === null ? null : match.quantity;
     let unit: string | null = values === null ? null : match.unit;
     let unitSource: ColumnReading['unitSource'] = unit === null ? null : 'header';
@@ -503,17 +503,19 @@ export function detectMapping(table: ParsedTable, kind?: CurveKind, options: Det
 export function findUnitSlips(table: ParsedTable, mapping: ColumnMapping, kind: CurveKind, areaCm2: number | null): (UnitSlip & { role: keyof ColumnMapping })[] {
   const slips: (UnitSlip & { role: keyof ColumnMapping })[] = [];
   const values = (column: number): Float64Array | null => table.columns[column] ?? null;
+  // the parser's summaries spare a pass over each column (while the columns are as read)
+  const summary = (column: number) => table.columnSummaries?.[column] ?? null;
   for (const role of ['voltage', 'voltageIrFree'] as const) {
     const entry = mapping[role];
     const column = entry === undefined ? null : values(entry.column);
     if (entry === undefined || column === null) continue;
-    const slip = voltageSlip(column, entry.unit);
+    const slip = voltageSlip(column, entry.unit, summary(entry.column));
     if (slip !== null) slips.push({ ...slip, role });
   }
   if (mapping.current !== undefined) {
     const column = values(mapping.current.column);
     if (column !== null) {
-      const slip = currentSlip(column, mapping.current.unit, areaCm2, kind);
+      const slip = currentSlip(column, mapping.current.unit, areaCm2, kind, summary(mapping.current.column));
       if (slip !== null) slips.push({ ...slip, role: 'current' });
     }
   }

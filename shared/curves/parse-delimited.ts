@@ -2,7 +2,7 @@
 // metadata lines, the header and the numeric rows, and keeps numbers in growable Float64Arrays
 // (no object per row) so a 1,000,000-row durability log parses in a few seconds.
 import { CurveFileError } from './types';
-import type { ColumnKind, Delimiter, FileConditions, ParsedTable } from './types';
+import type { ColumnKind, ColumnSummary, Delimiter, FileConditions, ParsedTable } from './types';
 import { mergeConditions, readConditions } from './read-conditions';
 import { parseDuration, parseTimestamp } from '../units/parse-timestamp';
 import { lookUpUnit, recogniseHeaderUnit } from '../units/recognise-header-unit';
@@ -422,6 +422,32 @@ function isWordCell(cell: string): boolean {
 function shortCell(cell: string): string {
   const trimmed = cell.trim();
   return trimmed.length > MESSAGE_CELL_MAX ? `${trimmed.slice(0, MESSAGE_CELL_MAX)}…` : trimmed;
+}
+
+/**
+ * Brings a column's summary up to date over rows [from, to): done after each piece the parser is
+ * given, while those rows are still in the cache, so that no later pass over a million rows is
+ * needed for them (detection, unit checks).
+ */
+function summarizeRows(values: Float64Array, from: number, to: number, summary: ColumnSummary): void {
+  let { min, max, maxAbs, maxAbsRow, finite } = summary;
+  for (let row = from; row < to; row++) {
+    const value = values[row];
+    if (value !== value) continue;
+    finite++;
+    if (value < min) min = value;
+    if (value > max) max = value;
+    const magnitude = Math.abs(value);
+    if (magnitude > maxAbs || maxAbsRow < 0) {
+      maxAbs = magnitude;
+      maxAbsRow = row;
+    }
+  }
+  summary.min = min;
+  summary.max = max;
+  summary.maxAbs = maxAbs;
+  summary.maxAbsRow = maxAbsRow;
+  summary.finite = finite;
 }
 
 class GrowableFloat64 {
@@ -1236,8 +1262,10 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     const columns: (Float64Array | null)[] = header.map(() => null);
     const missingCells: NonNullable<ParsedTable['missingCells']> = header.map(() => null);
     const groupedCells: number[] = header.map(() => 0);
+    const columnSummaries: (ColumnSummary | null)[] = header.map(() => null);
     for (let index = 0; index < storedColumns.length; index++) {
       columns[storedColumns[index]] = growable[index].toArray();
+      columnSummaries[storedColumns[index]] = summaries[index] ? { ...summaries[index] } : null;
       missingCells[storedColumns[index]] = missing[index];
       groupedCells[storedColumns[index]] = grouped[index];
     }
@@ -1269,6 +1297,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
       skippedLines: skipped.count > 0 ? skipped : null,
       groupedCells,
       decimalMarkAmbiguous,
+      columnSummaries,
     };
   }
 
@@ -1283,12 +1312,24 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
     }
   }
 
+  // the stored columns' summaries, up to date over the first `summarized` rows
+  let summaries: ColumnSummary[] = [];
+  let summarized = 0;
+  function summarize(): void {
+    if (rowCount === summarized) return;
+    if (summaries.length !== growable.length) summaries = growable.map(() => ({ min: Infinity, max: -Infinity, maxAbs: 0, maxAbsRow: -1, finite: 0 }));
+    for (let index = 0; index < growable.length; index++) summarizeRows(growable[index].data, summarized, rowCount, summaries[index]);
+    summarized = rowCount;
+  }
+
   return {
     push(chunk: string): void {
       guarded(() => feed(String(chunk)));
+      summarize();
     },
     pushBytes(bytes: Uint8Array, decode: (bytes: Uint8Array) => string): void {
       guarded(() => feedBytes(bytes, decode));
+      summarize();
     },
     finish(): ParsedTable {
       return guarded(() => {
@@ -1302,6 +1343,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
         if (rowCount === 0) {
           throw new CurveFileError('header-only', `line ${headerLine}: a header but no data rows under it`, { line: headerLine });
         }
+        summarize();
         return assembleTable();
       });
     },

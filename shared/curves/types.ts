@@ -198,4 +198,21 @@ export interface ParsedTable {
   groupedCells?: number[];
   /** the decimal mark was decided on cells that could also be thousands separators ("1,500") */
   decimalMarkAmbiguous?: boolean;
+  /**
+   * per header column (as `columns`): the extremes of its values as read, worked out piece by piece
+   * while the rows came in (null for ignored columns). Absent for a table built otherwise, and
+   * dropped once a mapping converts the columns in place.
+   */
+  columnSummaries?: (ColumnSummary | null)[];
+}
+
+/** The extremes of a column's values, blank cells (NaN) passed over. */
+export interface ColumnSummary {
+  min: number;
+  max: number;
+  /** the largest |value|, and the first row that has it (−1 when every value is blank) */
+  maxAbs: number;
+  maxAbsRow: number;
+  /** values that are not blank */
+  finite: number;
 }

@@ -1,7 +1,7 @@
 // Unit slips: a column whose values cannot be what its unit says — volts under a mV header,
 // mV under a V header, a total current that gives more current density than any cell carries,
 // an HFR no cell shows — and the unit that would make them plausible.
-import type { CurrentUnit, CurveKind, HfrUnit, VoltageUnit } from './types';
+import type { ColumnSummary, CurrentUnit, CurveKind, HfrUnit, VoltageUnit } from './types';
 
 /**
  * Magnitudes of single PEM cells (common practice in the trade): cell voltage up to ~1.3 V
@@ -58,7 +58,9 @@ interface Extremes {
   finite: number;
 }
 
-function extremes(values: ArrayLike<number>): Extremes {
+/** The largest |value| (and its first row) and the count of values that are not blank; from the parser's summary when given. */
+function extremes(values: ArrayLike<number>, summary?: ColumnSummary | null): Extremes {
+  if (summary) return { maxAbs: summary.maxAbs, maxRow: summary.maxAbsRow, finite: summary.finite };
   let maxAbs = 0;
   let maxRow = -1;
   let finite = 0;
@@ -108,8 +110,8 @@ function medianMagnitude(values: ArrayLike<number>): { median: number; row: numb
  * or mV under a V header (median |value| above 2 V and the largest ≤ 2000). Cost: O(n).
  * @example voltageSlip(Float64Array.of(0.98, 0.7), 'mV')?.proposed // 'V'
  */
-export function voltageSlip(values: ArrayLike<number>, unit: VoltageUnit): UnitSlip | null {
-  const { maxAbs, maxRow, finite } = extremes(values);
+export function voltageSlip(values: ArrayLike<number>, unit: VoltageUnit, summary?: ColumnSummary | null): UnitSlip | null {
+  const { maxAbs, maxRow, finite } = extremes(values, summary);
   if (finite === 0 || maxAbs === 0) return null;
   if (unit === 'mV' && maxAbs <= PLAUSIBLE.maxCellVoltageV) {
     return {
@@ -150,10 +152,10 @@ const SMALLER_CURRENT: Readonly<Partial<Record<CurrentUnit, CurrentUnit>>> = { A
  * median current. Totals need the area; without it nothing is judged. Cost: O(n).
  * @example currentSlip(Float64Array.of(0, 500, 1000), 'A', 25, 'polarization')?.proposed // 'mA'
  */
-export function currentSlip(values: ArrayLike<number>, unit: CurrentUnit, areaCm2: number | null, kind: CurveKind): UnitSlip | null {
+export function currentSlip(values: ArrayLike<number>, unit: CurrentUnit, areaCm2: number | null, kind: CurveKind, summary?: ColumnSummary | null): UnitSlip | null {
   const factor = densityFactor(unit, areaCm2);
   if (factor === null || kind === 'hold') return null;
-  const { maxAbs, maxRow, finite } = extremes(values);
+  const { maxAbs, maxRow, finite } = extremes(values, summary);
   if (finite === 0) return null;
   const total = unit === 'A' || unit === 'mA';
   const onArea = total ? ` on ${shown(areaCm2 as number)} cm²` : '';

@@ -1,0 +1,62 @@
+// The parser's column summaries (extremes worked out piece by piece while rows come in) equal a
+// scan of the finished columns, whatever the pieces; detection and the unit checks give the same
+// answers with them as without (they only spare the passes).
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { createDelimitedParser, detectMapping, applyMapping } from '../../../shared/curves';
+import type { ParsedTable } from '../../../shared/curves';
+
+/** The definition: one scan of the column, blank cells (NaN) passed over, the first row of the largest |value|. */
+function scan(values: Float64Array) {
+  let min = Infinity, max = -Infinity, maxAbs = 0, maxAbsRow = -1, finite = 0;
+  values.forEach((value, row) => {
+    if (Number.isNaN(value)) return;
+    finite++;
+    min = Math.min(min, value);
+    max = Math.max(max, value);
+    if (Math.abs(value) > maxAbs || maxAbsRow < 0) [maxAbs, maxAbsRow] = [Math.abs(value), row];
+  });
+  return { min, max, maxAbs, maxAbsRow, finite };
+}
+
+// invented log rows: time, current (sometimes blank), voltage (sometimes negative, ties at the largest magnitude)
+const row = fc.tuple(fc.integer({ min: 0, max: 9 }), fc.integer({ min: -300, max: 300 }), fc.boolean());
+const logText = (rows: [number, number, boolean][]) =>
+  'Time (h),Current density (A/cm2),Voltage (V)\n' + rows.map(([t, v, blank], i) => `${(i * 0.01 + t * 1e-4).toFixed(4)},${blank ? '' : '0.2'},${(v / 1000).toFixed(3)}`).join('\n') + '\n';
+
+function parseInPieces(text: string, cuts: number[]): ParsedTable {
+  const parser = createDelimitedParser({ maxRows: 100_000 });
+  const bytes = new TextEncoder().encode(text);
+  const decoder = new TextDecoder();
+  let at = 0;
+  for (const cut of [...cuts.map((c) => Math.floor(c * bytes.length)).sort((a, b) => a - b), bytes.length]) {
+    if (cut > at) parser.pushBytes(bytes.subarray(at, cut), (b) => decoder.decode(b, { stream: true }));
+    at = Math.max(at, cut);
+  }
+  parser.push(decoder.decode());
+  return parser.finish();
+}
+
+describe('column summaries', () => {
+  it('equal one scan of the finished columns, whatever the pieces', () => {
+    fc.assert(fc.property(fc.array(row, { minLength: 1, maxLength: 400 }), fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { maxLength: 6 }), (rows, cuts) => {
+      const table = parseInPieces(logText(rows), cuts);
+      table.columns.forEach((column, index) => {
+        expect(table.columnSummaries![index]).toEqual(column ? scan(column) : null);
+      });
+    }), { numRuns: 200, seed: 31 });
+  });
+
+  it('leave detection and mapping as they are without them, and are dropped once a mapping converts the columns', () => {
+    const rows: [number, number, boolean][] = Array.from({ length: 300 }, (_, i) => [i % 10, 600 - i, false]);
+    const text = logText(rows);
+    const withSummaries = parseInPieces(text, [0.3, 0.6]);
+    const without = parseInPieces(text, []);
+    delete without.columnSummaries;
+    const a = detectMapping(withSummaries, 'durability', { areaCm2: 25 });
+    expect(a).toEqual(detectMapping(without, 'durability', { areaCm2: 25 }));
+    const curve = applyMapping(withSummaries, a.mapping!, { kind: 'durability', areaCm2: 25, reuseColumns: true });
+    expect(withSummaries.columnSummaries).toBeUndefined();
+    expect(curve.v[0]).toBeCloseTo(0.6, 12); // 600 mV written as 0.600 V in the invented log
+  });
+});
