@@ -4,7 +4,7 @@ import type { Request, Response, NextFunction } from 'express';
 import multer from 'multer';
 import fs from 'node:fs';
 import path from 'node:path';
-import { Transform, pipeline } from 'node:stream';
+import { randomBytes } from 'node:crypto';
 import type { AppContext } from '../context';
 import type { ReadResult } from '../curves/read-upload';
 import { parsePool, type ParseStream } from '../uploads/parse-runner';
@@ -42,42 +42,79 @@ export function sizeHintOf(contentLength: string | undefined, limitBytes: number
 }
 
 /**
- * Multer's disk storage with a tap: the bytes written to the tmp file also go, as they come, to a
- * parse worker (one pass over the network's bytes instead of a second one over the disk's).
+ * A multer storage engine that writes the file to the tmp folder and, as the bytes come, gives them
+ * to a parse worker (one pass over the network's bytes instead of a second one over the disk's).
+ * The bytes are gathered into pieces of 1 MB: each is written with one call, then moved to the
+ * worker — 33 writes for a 33 MB log instead of one per network chunk on the event loop.
  */
-function readingDiskStorage(tmpDir: string, start: (req: Request, fileName: string) => ParseStream): multer.StorageEngine {
-  const disk = multer.diskStorage({ destination: tmpDir });
+function readingDiskStorage(tmpDir: string, start: (req: Request, fileName: string, onPiece: (bytes: Uint8Array) => void) => ParseStream): multer.StorageEngine {
   return {
     _handleFile(req, file, callback) {
-      const stream = start(req, file.originalname);
-      streamsOf.set(req, stream);
-      const tap = new Transform({
-        transform(chunk: Buffer, _encoding, done) {
-          stream.push(chunk);
-          done(null, chunk);
-        },
-      });
-      // a body cut off (client gone, limit) ends the tap with an error too, so the disk storage
-      // removes its partial file and the worker drops its stream
-      pipeline(file.stream, tap, () => {});
-      // the same file object multer tracks (the disk storage writes its path there), reading the tap
-      Object.defineProperty(file, 'stream', { value: tap, configurable: true, enumerable: false });
-      disk._handleFile(req, file, (error, info) => {
+      const filename = randomBytes(16).toString('hex');
+      const filePath = path.join(tmpDir, filename);
+      let fd: number;
+      try {
+        fd = fs.openSync(filePath, 'w');
+      } catch (error) {
+        return callback(error as Error);
+      }
+      let size = 0;
+      let done = false;
+      const finish = (error: Error | null) => {
+        if (done) return;
+        done = true;
+        file.stream.removeListener('data', onData);
+        try {
+          fs.closeSync(fd);
+        } catch {
+          // closed already
+        }
         if (error) {
           stream.abort();
+          fs.rmSync(filePath, { force: true });
           return callback(error);
         }
+        callback(null, { destination: tmpDir, filename, path: filePath, size });
+      };
+      const stream = start(req, file.originalname, (bytes) => {
+        let at = 0;
+        while (at < bytes.length) at += fs.writeSync(fd, bytes, at, bytes.length - at);
+      });
+      streamsOf.set(req, stream);
+      const onData = (chunk: Buffer) => {
+        size += chunk.length;
+        try {
+          stream.push(chunk);
+        } catch (error) {
+          // the disk refused the bytes (full, gone): the upload ends here
+          finish(error as Error);
+        }
+      };
+      file.stream.on('data', onData);
+      file.stream.once('error', (error: Error) => finish(error));
+      file.stream.once('end', () => {
+        if (done) return;
+        let tableRead: Promise<ReadResult | null>;
+        try {
+          // the last piece is written (and sent) here
+          tableRead = stream.end();
+        } catch (error) {
+          return finish(error as Error);
+        }
         // a refusal of the file stands; a worker lost on the way (ended for another job) leaves the disk path
-        parsedWhileReceived.set(req, stream.end().catch((reason: unknown) => {
+        const read = tableRead.catch((reason: unknown) => {
           if (reason instanceof CurveFileError || reason instanceof AppError) throw reason;
           return null;
-        }));
-        callback(null, info);
+        });
+        // a request refused before its handler (a limit) never asks for the table: no unhandled refusal then
+        read.catch(() => {});
+        parsedWhileReceived.set(req, read);
+        finish(null);
       });
     },
     _removeFile(req, file, callback) {
       streamsOf.get(req)?.abort();
-      disk._removeFile(req, file, callback);
+      fs.rm(file.path, { force: true }, () => callback(null));
     },
   };
 }
@@ -94,9 +131,9 @@ export function receiveFile(ctx: AppContext, options: { parseText?: boolean } = 
   const upload = options.parseText && env.UPLOAD_PARSE_WHILE_RECEIVING
     ? multer({
       limits,
-      storage: readingDiskStorage(tmpDir, (req, fileName) => {
+      storage: readingDiskStorage(tmpDir, (req, fileName, onPiece) => {
         const sizeHintBytes = sizeHintOf(req.headers['content-length'], env.UPLOAD_MAX_BYTES);
-        return parsePool(env).parseStream({ maxRows: env.UPLOAD_MAX_ROWS, sizeHintBytes, fileName });
+        return parsePool(env).parseStream({ maxRows: env.UPLOAD_MAX_ROWS, sizeHintBytes, fileName, onPiece });
       }),
     })
     : multer({ dest: tmpDir, limits });

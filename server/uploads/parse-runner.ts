@@ -39,7 +39,7 @@ interface Job {
 
 /** A text file read by a worker while the upload is received (ParsePool.parseStream). */
 export interface ParseStream {
-  /** the next bytes received (copied: the caller may reuse its buffer) */
+  /** the next bytes received (copied: the caller may reuse its buffer; given to `onPiece` in 1 MB pieces) */
   push(bytes: Uint8Array): void;
   /** every byte was pushed: the table, or null when the file is a workbook (read it from disk once received) */
   end(): Promise<ReadResult | null>;
@@ -85,7 +85,7 @@ export class ParsePool {
    * there is one). The clock of the time limit runs from `end()`; the result is readUpload's for
    * the same bytes, or null for a workbook (read it from disk once received).
    */
-  parseStream(options: { maxRows: number; sizeHintBytes?: number; fileName?: string }): ParseStream {
+  parseStream(options: { maxRows: number; sizeHintBytes?: number; fileName?: string; onPiece?: (bytes: Uint8Array) => void }): ParseStream {
     const id = this.nextId++;
     const stream: NonNullable<Job['stream']> = { waiting: [], send: null, ended: false, onEnd: null, settled: false, abort: null, recycle: null };
     const send = (message: StreamMessage, transfer: ArrayBuffer[] = []) => {
@@ -113,6 +113,12 @@ export class ParsePool {
     let filled = 0;
     const flush = () => {
       if (filled === 0) return;
+      // `onPiece` (the file on disk) sees every byte in order, in pieces of 1 MB, even once the worker is done with the stream
+      options.onPiece?.(piece.subarray(0, filled));
+      if (stream.settled) {
+        filled = 0;
+        return;
+      }
       // a whole piece is moved (a fresh or given-back one takes its place); a last, partial one is copied
       const whole = filled === piece.length;
       const bytes = whole ? piece : piece.slice(0, filled);
@@ -122,8 +128,8 @@ export class ParsePool {
     };
     return {
       push(bytes) {
-        if (stream.settled || stream.ended) return;
-        hash.update(bytes);
+        if (stream.ended || (stream.settled && !options.onPiece)) return;
+        if (!stream.settled) hash.update(bytes);
         let at = 0;
         while (at < bytes.length) {
           const take = Math.min(bytes.length - at, piece.length - filled);
