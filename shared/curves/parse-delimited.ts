@@ -430,24 +430,22 @@ function shortCell(cell: string): string {
  * needed for them (detection, unit checks).
  */
 function summarizeRows(values: Float64Array, from: number, to: number, summary: ColumnSummary): void {
-  let { min, max, maxAbs, maxAbsRow, finite } = summary;
+  let min = summary.min;
+  let max = summary.max;
+  let blank = 0;
   for (let row = from; row < to; row++) {
     const value = values[row];
-    if (value !== value) continue;
-    finite++;
+    if (value !== value) {
+      blank++;
+      continue;
+    }
     if (value < min) min = value;
     if (value > max) max = value;
-    const magnitude = Math.abs(value);
-    if (magnitude > maxAbs || maxAbsRow < 0) {
-      maxAbs = magnitude;
-      maxAbsRow = row;
-    }
   }
   summary.min = min;
   summary.max = max;
-  summary.maxAbs = maxAbs;
-  summary.maxAbsRow = maxAbsRow;
-  summary.finite = finite;
+  summary.maxAbs = min <= max ? Math.max(-min, max) : 0;
+  summary.finite += to - from - blank;
 }
 
 class GrowableFloat64 {
@@ -1317,7 +1315,7 @@ export function createDelimitedParser(options: DelimitedParserOptions = {}): Del
   let summarized = 0;
   function summarize(): void {
     if (rowCount === summarized) return;
-    if (summaries.length !== growable.length) summaries = growable.map(() => ({ min: Infinity, max: -Infinity, maxAbs: 0, maxAbsRow: -1, finite: 0 }));
+    if (summaries.length !== growable.length) summaries = growable.map(() => ({ min: Infinity, max: -Infinity, maxAbs: 0, finite: 0 }));
     for (let index = 0; index < growable.length; index++) summarizeRows(growable[index].data, summarized, rowCount, summaries[index]);
     summarized = rowCount;
   }

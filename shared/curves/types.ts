@@ -210,9 +210,8 @@ export interface ParsedTable {
 export interface ColumnSummary {
   min: number;
   max: number;
-  /** the largest |value|, and the first row that has it (−1 when every value is blank) */
+  /** the largest |value| (0 when every value is blank) */
   maxAbs: number;
-  maxAbsRow: number;
   /** values that are not blank */
   finite: number;
 }

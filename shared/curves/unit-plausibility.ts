@@ -54,13 +54,20 @@ function shown(value: number): string {
 
 interface Extremes {
   maxAbs: number;
-  maxRow: number;
+  /** the first row with the largest |value| (looked for only when a slip is told) */
+  maxRow: () => number;
   finite: number;
+}
+
+/** The first row whose |value| is `magnitude` (−1 when none is). */
+function firstRowOf(values: ArrayLike<number>, magnitude: number): number {
+  for (let row = 0; row < values.length; row++) if (Math.abs(values[row]) === magnitude) return row;
+  return -1;
 }
 
 /** The largest |value| (and its first row) and the count of values that are not blank; from the parser's summary when given. */
 function extremes(values: ArrayLike<number>, summary?: ColumnSummary | null): Extremes {
-  if (summary) return { maxAbs: summary.maxAbs, maxRow: summary.maxAbsRow, finite: summary.finite };
+  if (summary) return { maxAbs: summary.maxAbs, maxRow: () => firstRowOf(values, summary.maxAbs), finite: summary.finite };
   let maxAbs = 0;
   let maxRow = -1;
   let finite = 0;
@@ -74,7 +81,7 @@ function extremes(values: ArrayLike<number>, summary?: ColumnSummary | null): Ex
       maxRow = row;
     }
   }
-  return { maxAbs, maxRow, finite };
+  return { maxAbs, maxRow: () => maxRow, finite };
 }
 
 // Median of |values| over finite, non-zero readings, from an evenly strided sample (long logs).
@@ -116,17 +123,18 @@ export function voltageSlip(values: ArrayLike<number>, unit: VoltageUnit, summar
   if (unit === 'mV' && maxAbs <= PLAUSIBLE.maxCellVoltageV) {
     return {
       quantity: 'voltage',
-      row: maxRow,
+      row: maxRow(),
       stated: 'mV',
       proposed: 'V',
       message: `the highest value is ${shown(maxAbs)} mV; a cell voltage in mV runs to hundreds (an open circuit is ~950 mV), so these are volts: choose V as the unit`,
     };
   }
-  const middle = medianMagnitude(values);
+  // the median cannot be above 2 V when no value is
+  const middle = unit === 'V' && maxAbs > PLAUSIBLE.maxCellVoltageV ? medianMagnitude(values) : null;
   if (unit === 'V' && middle !== null && middle.median > PLAUSIBLE.maxCellVoltageV && maxAbs <= 1000 * PLAUSIBLE.maxCellVoltageV) {
     return {
       quantity: 'voltage',
-      row: maxRow,
+      row: maxRow(),
       stated: 'V',
       proposed: 'mV',
       message: `values up to ${shown(maxAbs)} V are not cell voltages (no cell holds more than ~1.3 V); they read as millivolts: choose mV as the unit`,
@@ -165,9 +173,9 @@ export function currentSlip(values: ArrayLike<number>, unit: CurrentUnit, areaCm
     const fits = smaller !== null && peak / 1000 <= PLAUSIBLE.maxCurrentDensity;
     const what = `${shown(maxAbs)} ${unitLabel(unit)}${onArea} is ${shown(peak)} A/cm², more than any cell carries (≤ ~${PLAUSIBLE.maxCurrentDensity} A/cm²)`;
     const fix = fits ? `; is the unit ${unitLabel(smaller)}? (→ ${shown(peak / 1000)} A/cm²)` : total ? '; is the active area right?' : '; is this the current column?';
-    return { quantity: 'current', row: maxRow, stated: unit, proposed: fits ? smaller : null, message: what + fix };
+    return { quantity: 'current', row: maxRow(), stated: unit, proposed: fits ? smaller : null, message: what + fix };
   }
-  const level = kind === 'durability' ? medianMagnitude(values) : { median: maxAbs, row: maxRow };
+  const level = kind === 'durability' ? medianMagnitude(values) : { median: maxAbs, get row() { return maxRow(); } };
   if (level === null || level.median === 0) return null;
   const typical = level.median * factor;
   if (typical < PLAUSIBLE.minPolarizationPeak) {

@@ -6,17 +6,17 @@ import { describe, expect, it } from 'vitest';
 import { createDelimitedParser, detectMapping, applyMapping } from '../../../shared/curves';
 import type { ParsedTable } from '../../../shared/curves';
 
-/** The definition: one scan of the column, blank cells (NaN) passed over, the first row of the largest |value|. */
+/** The definition: one scan of the column, blank cells (NaN) passed over, the largest |value|. */
 function scan(values: Float64Array) {
   let min = Infinity, max = -Infinity, maxAbs = 0, maxAbsRow = -1, finite = 0;
-  values.forEach((value, row) => {
+  values.forEach((value) => {
     if (Number.isNaN(value)) return;
     finite++;
     min = Math.min(min, value);
     max = Math.max(max, value);
-    if (Math.abs(value) > maxAbs || maxAbsRow < 0) [maxAbs, maxAbsRow] = [Math.abs(value), row];
+    maxAbs = Math.max(maxAbs, Math.abs(value));
   });
-  return { min, max, maxAbs, maxAbsRow, finite };
+  return { min, max, maxAbs, finite };
 }
 
 // invented log rows: time, current (sometimes blank), voltage (sometimes negative, ties at the largest magnitude)
