@@ -6,6 +6,7 @@ import { CurveFileError } from '../../shared/curves/types';
 import { AppError } from '../lib/errors';
 import { readUploadGuarded } from './guarded-read';
 import { durabilityMetrics } from '../../shared/durability';
+import { withSelectionMemo } from '../../shared/stats/median';
 import { onsetMetric } from '../curves/kind-metrics';
 import { createTextReader, type TextReader } from '../curves/read-upload';
 import { applyMapping, checkEnoughData, sniffBytes } from '../../shared/curves';
@@ -114,14 +115,17 @@ function onStream(message: StreamMessage) {
 }
 /** The durability fit, then the onset search with the fit's break-in as its start unless the rule says where. */
 function measure(curve: CurveData, options: MapAndMeasureRequest['options'], onsetOf: MapAndMeasureRequest['onset']) {
-  const metrics = durabilityMetrics(curve, options);
-  let onset;
-  if (onsetOf) {
-    const rule = { ...onsetOf.rule };
-    if (!onsetOf.startGiven && metrics.breakInHours != null) rule.startHours = metrics.breakInHours;
-    onset = onsetMetric(curve, rule);
-  }
-  return { metrics, onset };
+  // the fit's median current and the onset's held current are one selection over the same column
+  return withSelectionMemo(() => {
+    const metrics = durabilityMetrics(curve, options);
+    let onset;
+    if (onsetOf) {
+      const rule = { ...onsetOf.rule };
+      if (!onsetOf.startGiven && metrics.breakInHours != null) rule.startHours = metrics.breakInHours;
+      onset = onsetMetric(curve, rule);
+    }
+    return { metrics, onset };
+  });
 }
 
 // the imports above are loaded: the pool starts a job's clock only from here

@@ -30,16 +30,16 @@ export interface TrendSeries {
 }
 
 /** Running sums are kept every this many rows; a range's ends are summed from the rows themselves. */
-const SUM_STRIDE = 64;
+const SUM_STRIDE = 16;
 
 /**
  * Checks t and v once (finite, time not decreasing) and keeps their running sums, so that every
  * later fitTrend over a range of them (break-in windows, halves, segments) reads a block's sum as a
- * difference of two running sums. Sums are about the first point; each group of 64 rows is summed
+ * difference of two running sums. Sums are about the first point; each group of 16 rows is summed
  * directly and the groups are added with Kahan's compensation, so a block mean is within a few units
  * in the last place of the running sum (≈ 1e-9 h and 1e-12 V for a 5,000 h, 10⁶-row log) of the
  * direct sum — far below any slope it feeds.
- * Cost: O(n) time, 2(n / 64 + 2) doubles.
+ * Cost: O(n) time, 2(n / 16 + 2) doubles.
  * @throws RangeError as fitTrend does (mismatched lengths, non-finite values, decreasing time).
  */
 export function prepareTrendSeries(t: ArrayLike<number>, v: ArrayLike<number>): TrendSeries {

@@ -127,25 +127,17 @@ function byBracket(values: ArrayLike<number>, from: number, to: number, low: num
  * Median of the forward steps of a time column (t[i] − t[i−1] for each i with t[i] > t[i−1]) without
  * a copy of them: the same sampled bracket and counting pass as median, the steps worked out as it
  * goes; a copy and selection only when the sample misses the middle. NaN when no step goes forward.
- * Cost: O(n) expected time, two passes over t and a buffer of an eighth of it at most.
+ * Cost: O(n) expected time, one pass over t (and a sample) and a buffer of an eighth of it at most.
  * @throws RangeError when t holds a non-finite value.
  * @example medianForwardStep([0, 1, 3, 3, 4]) // 1 (forward steps 1, 2, 1)
  */
 export function medianForwardStep(t: ArrayLike<number>): number {
   const n = t.length;
-  let count = 0;
-  for (let i = 1; i < n; i++) {
-    const value = t[i];
-    if (value - value !== 0) throw notFinite(value, i);
-    count += +(value > t[i - 1]);
-  }
   if (n > 0 && t[0] - t[0] !== 0) throw notFinite(t[0], 0);
-  if (count === 0) return NaN;
-  const middle = count >> 1;
-  const low = count % 2 === 1 ? middle : middle - 1;
-  const high = middle;
   let found: [number, number] | null = null;
-  if (count >= BRACKET_FROM) {
+  let count = 0;
+  if (n > BRACKET_FROM) {
+    // bounds about the middle of a sample of the steps (the median's rank is half the count, whatever it is)
     const sample = new Float64Array(SAMPLE);
     let taken = 0;
     for (let s = 0; s < SAMPLE; s++) {
@@ -153,48 +145,84 @@ export function medianForwardStep(t: ArrayLike<number>): number {
       const step = t[i] - t[i - 1];
       if (step > 0) sample[taken++] = step;
     }
-    if (taken >= SAMPLE / 2) {
-      const { lo, hi } = bracketBounds(sample.subarray(0, taken), count, high);
-      const room = Math.max(BRACKET_FROM, count >> 3);
-      const kept = new Float64Array(room + 1);
-      let below = 0;
-      let atLo = 0;
-      let between = 0;
-      let atHi = 0;
-      let previous = t[0];
-      let full = false;
-      for (let i = 1; i < n; i++) {
-        const value = t[i];
-        const step = value - previous;
-        previous = value;
-        if (!(step > 0)) continue;
-        below += +(step < lo);
-        atLo += +(step === lo);
-        atHi += +(step === hi);
-        kept[between] = step;
-        between += +(step > lo) & +(step < hi);
-        if (between > room) {
-          full = true;
-          break;
-        }
-      }
-      if (!full) found = pickFromBracket({ lo, hi, below, atLo, between, atHi, kept }, low, high);
+    const { lo, hi } = bracketBounds(sample.subarray(0, Math.max(1, taken)), 2, 1);
+    // one pass: the check, the count of forward steps and the bracket together
+    const room = Math.max(BRACKET_FROM, n >> 3);
+    const kept = new Float64Array(room + 1);
+    let below = 0;
+    let atLo = 0;
+    let between = 0;
+    let atHi = 0;
+    let previous = t[0];
+    for (let i = 1; i < n; i++) {
+      const value = t[i];
+      if (value - value !== 0) throw notFinite(value, i);
+      const step = value - previous;
+      previous = value;
+      if (!(step > 0)) continue;
+      count++;
+      below += +(step < lo);
+      atLo += +(step === lo);
+      atHi += +(step === hi);
+      kept[between] = step;
+      between += +(step > lo) & +(step < hi);
+      // too many between the bounds: the count goes on, the selection below takes over
+      if (between > room) between = room;
     }
+    if (count === 0) return NaN;
+    const middle = count >> 1;
+    if (taken >= SAMPLE / 2 && between < room) found = pickFromBracket({ lo, hi, below, atLo, between, atHi, kept }, count % 2 === 1 ? middle : middle - 1, middle);
+  } else {
+    for (let i = 1; i < n; i++) {
+      const value = t[i];
+      if (value - value !== 0) throw notFinite(value, i);
+      count += +(value > t[i - 1]);
+    }
+    if (count === 0) return NaN;
   }
+  const middle = count >> 1;
+  const low = count % 2 === 1 ? middle : middle - 1;
   if (!found) {
     const steps = new Float64Array(count);
     for (let i = 1, k = 0; i < n; i++) if (t[i] > t[i - 1]) steps[k++] = t[i] - t[i - 1];
-    found = bySelection(steps, 0, count, low, high);
+    found = bySelection(steps, 0, count, low, middle);
   }
   return count % 2 === 1 ? found[1] : (found[0] + found[1]) / 2;
 }
 
-function middleRanks(values: ArrayLike<number>, from: number, to: number, low: number, high: number): [number, number] {
-  if (to - from >= BRACKET_FROM) {
-    const found = byBracket(values, from, to, low, high);
-    if (found) return found;
+/** Ranks already selected within withSelectionMemo: by array, then slice, then rank. */
+let memo: WeakMap<object, Map<string, number>> | null = null;
+
+/**
+ * Runs `measure` with the ranks it selects from long slices remembered, so that a second median or
+ * kthSmallest of the same slice (the durability fit's median current and the onset search's held
+ * current are the same selection) is read back instead of selected again. The arrays must not be
+ * changed inside `measure`; the memory goes when it returns.
+ */
+export function withSelectionMemo<T>(measure: () => T): T {
+  const outer = memo;
+  memo = new WeakMap();
+  try {
+    return measure();
+  } finally {
+    memo = outer;
   }
-  return bySelection(values, from, to, low, high);
+}
+
+function middleRanks(values: ArrayLike<number>, from: number, to: number, low: number, high: number): [number, number] {
+  if (to - from < BRACKET_FROM) return bySelection(values, from, to, low, high);
+  let known: Map<string, number> | undefined;
+  if (memo && typeof values === 'object') {
+    known = memo.get(values);
+    if (!known) memo.set(values, (known = new Map()));
+    const a = known.get(`${from}:${to}:${low}`);
+    const b = known.get(`${from}:${to}:${high}`);
+    if (a !== undefined && b !== undefined) return [a, b];
+  }
+  const found = byBracket(values, from, to, low, high) ?? bySelection(values, from, to, low, high);
+  known?.set(`${from}:${to}:${low}`, found[0]);
+  known?.set(`${from}:${to}:${high}`, found[1]);
+  return found;
 }
 
 /**

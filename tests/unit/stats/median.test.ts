@@ -4,7 +4,7 @@
 // and reversed runs, sub-slices, and the refusal of a non-finite value naming its index.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { kthSmallest, median, medianForwardStep } from '../../../shared/stats/median';
+import { kthSmallest, median, medianForwardStep, withSelectionMemo } from '../../../shared/stats/median';
 
 /** The definition: sort a copy; odd count → the middle, even → the mean of the two middle values. */
 function sortedMedian(values: ArrayLike<number>, from: number, to: number): number {
@@ -105,5 +105,18 @@ describe('medianForwardStep', () => {
     const t = Float64Array.from({ length: 30_000 }, (_, i) => i / 240);
     t[20_000] = NaN;
     expect(() => medianForwardStep(t)).toThrow('median: values must be finite numbers, got NaN at index 20000');
+  });
+});
+
+describe('withSelectionMemo', () => {
+  it('reads a slice\'s selected ranks back inside it, and forgets them when it returns', () => {
+    const values = Float64Array.from({ length: 40_000 }, (_, i) => (i * 7919) % 40_000); // a permutation of 0…39,999
+    const inside = withSelectionMemo(() => {
+      const m = median(values); // ranks 19,999 and 20,000 → (19,999 + 20,000) / 2 by hand
+      values[0] = 1e9; // a change inside is not seen: the memo holds the ranks as first selected
+      return [m, kthSmallest(values, 20_000), kthSmallest(values, 39_999)];
+    });
+    expect(inside).toEqual([19_999.5, 20_000, 1e9]); // the largest was not selected before, so it is read afresh
+    expect(kthSmallest(values, 20_000)).toBe(20_001); // outside: 0 became 1e9, so every rank moved up by one
   });
 });
