@@ -220,8 +220,16 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
   // ---- unit slips, judged on the file's own values before anything is converted
   const slips = findUnitSlips(table, mapping, kind, judgingArea);
   // the summaries below describe the columns as read, which may now be converted in place
-  const currentSummary = mapping.current === undefined ? null : (table.columnSummaries?.[mapping.current.column] ?? null);
+  const summaryOf = (entry: { column: number } | undefined) => (entry === undefined ? null : (table.columnSummaries?.[entry.column] ?? null));
+  const currentSummary = summaryOf(mapping.current);
+  const voltageSummary = summaryOf(mapping.voltage);
+  const temperatureSummary = summaryOf(mapping.temperature);
   if (options.reuseColumns === true) delete table.columnSummaries;
+  /**
+   * A column converted in place by a factor of 1 whose summary shows every value passes the checks
+   * is left as it is: the pass would write each value back unchanged.
+   */
+  const unchangedInPlace = (values: Float64Array, target: Float64Array, passes: boolean) => target === values && passes && rowCount === values.length;
   if (slips.length > 0) {
     const slip = slips[0];
     const entry = mapping[slip.role] as { column: number };
@@ -235,6 +243,9 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const voltageScale = voltageFactor(voltageUnit);
     const target = output(values, entry.column);
     const voltageName = table.header[entry.column];
+    // volts as read, none blank, none beyond a cell's: nothing to convert or refuse
+    const summary = entry === mapping.voltage ? voltageSummary : null;
+    if (voltageScale === 1 && summary && unchangedInPlace(values, target, summary.finite === rowCount && summary.maxAbs <= MAX_CELL_VOLTAGE_V)) return target;
     for (let row = 0; row < rowCount; row++) {
       const raw = values[row];
       if (raw !== raw && allowMissing) {
@@ -291,7 +302,9 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const scale = sign * currentDensityFactor(currentUnit, areaCm2);
     const total = currentUnit === 'A' || currentUnit === 'mA';
     j = output(currentValues, mapping.current.column);
-    for (let row = 0; row < rowCount; row++) {
+    // A/cm² as read, every value above 0 (no −0 to make +0) and within a cell's: nothing to convert or refuse
+    const asRead = scale === 1 && currentSummary !== null && currentSummary.finite === rowCount && currentSummary.min > 0 && currentSummary.max <= MAX_CURRENT_DENSITY;
+    for (let row = 0; row < (asRead && unchangedInPlace(currentValues, j, true) ? 0 : rowCount); row++) {
       const raw = currentValues[row];
       // 0 × −1 is −0: add 0 to keep open circuit a plain zero
       const density = raw * scale + 0;
@@ -437,7 +450,9 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const shift = temperatureUnit === 'K' ? -ZERO_CELSIUS_K : 0;
     const blanks = table.missingCells?.[mapping.temperature.column];
     if (blanks) notes.push(`temperature "${temperatureName}" blank or not a number on ${blanks.count} row${blanks.count === 1 ? '' : 's'} (first line ${blanks.firstLine}): read as missing`);
-    for (let row = 0; row < rowCount; row++) {
+    // °C as read, every value above 0 (no −0 to make +0): nothing to convert or refuse (blanks stay NaN)
+    const asRead = shift === 0 && temperatureSummary !== null && temperatureSummary.min > 0 && unchangedInPlace(temperatureValues, temperatureC, true);
+    for (let row = 0; row < (asRead ? 0 : rowCount); row++) {
       const celsius = temperatureValues[row] + shift;
       if (celsius !== celsius) {
         temperatureC[row] = Number.NaN;

@@ -51,7 +51,8 @@ export function checkEnoughData(curve: CurveData): void {
   if (curve.kind === 'durability') {
     const t = curve.tHours;
     let finite = 0;
-    for (let row = 0; row < curve.v.length; row++) if (curve.v[row] === curve.v[row] && (t === undefined || t[row] === t[row])) finite++;
+    // enough is enough: the count stops once it reaches the least a log needs
+    for (let row = 0; row < curve.v.length && finite < MIN_DURABILITY_POINTS; row++) if (curve.v[row] === curve.v[row] && (t === undefined || t[row] === t[row])) finite++;
     if (finite < MIN_DURABILITY_POINTS) {
       throw new CurveFileError(
         'too-few-points',

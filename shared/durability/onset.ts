@@ -113,9 +113,16 @@ function checkReadings(t: ArrayLike<number>, v: ArrayLike<number>): void {
 /** The held current: the middle of the finite readings (the upper one of an even count), by selection. */
 function heldCurrent(j: ArrayLike<number>): number {
   const n = j.length;
+  // the usual log has no blank current: the selection checks that as it goes (and may know the rank already)
+  if (n > 0) {
+    try {
+      return kthSmallest(j, n >> 1);
+    } catch (error) {
+      if (!(error instanceof RangeError)) throw error;
+    }
+  }
   let m = 0;
   for (let i = 0; i < n; i++) if (Number.isFinite(j[i])) m++;
-  if (m === n) return kthSmallest(j, n >> 1);
   if (m === 0) return NaN;
   const finite = new Float64Array(m);
   for (let i = 0, k = 0; i < n; i++) if (Number.isFinite(j[i])) finite[k++] = j[i];

@@ -59,4 +59,27 @@ describe('column summaries', () => {
     expect(withSummaries.columnSummaries).toBeUndefined();
     expect(curve.v[0]).toBeCloseTo(0.6, 12); // 600 mV written as 0.600 V in the invented log
   });
+
+  it('leave every mapped value as the full conversion gives it, refusals included (−0, blanks and values out of range among them)', () => {
+    // invented rows: time, current (A/cm², sometimes −0 or beyond a cell), voltage (V, sometimes beyond 2 V), temperature (°C, sometimes −0 or blank)
+    const cell = fc.tuple(
+      fc.oneof({ weight: 30, arbitrary: fc.integer({ min: 1, max: 900 }).map((k) => (k / 1000).toFixed(3)) }, fc.constant('-0'), fc.constant('7.5')),
+      fc.oneof({ weight: 30, arbitrary: fc.integer({ min: 300, max: 1000 }).map((k) => (k / 1000).toFixed(3)) }, fc.constant('2.5')),
+      fc.oneof({ weight: 30, arbitrary: fc.integer({ min: 1500, max: 1700 }).map((k) => (k / 10).toFixed(1)) }, fc.constant('-0.0'), fc.constant('')),
+    );
+    const outcome = (table: ParsedTable) => {
+      try {
+        const curve = applyMapping(table, { time: { column: 0, unit: 'h' }, current: { column: 1, unit: 'A/cm2' }, voltage: { column: 2, unit: 'V' }, temperature: { column: 3, unit: 'C' } }, { kind: 'durability', reuseColumns: true });
+        return [curve.j, curve.v, curve.temperatureC!].map((column) => Array.from(column, (x) => (Object.is(x, -0) ? '-0' : x)));
+      } catch (error) {
+        return (error as Error).message;
+      }
+    };
+    fc.assert(fc.property(fc.array(cell, { minLength: 25, maxLength: 200 }), (rows) => {
+      const text = 'Time (h),Current density (A/cm2),Voltage (V),Temperature (C)\n' + rows.map(([j, v, temp], i) => `${(i / 60).toFixed(4)},${j},${v},${temp}`).join('\n') + '\n';
+      const without = parseInPieces(text, []);
+      delete without.columnSummaries;
+      expect(outcome(parseInPieces(text, [0.5]))).toEqual(outcome(without));
+    }), { numRuns: 150, seed: 32 });
+  });
 });
