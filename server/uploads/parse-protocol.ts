@@ -16,9 +16,10 @@ export interface ParseRequest {
 }
 
 /**
- * A parsed log mapped to a curve (applyMapping, checkEnoughData) and then measured (durabilityMetrics,
- * and the onset search with `onset`, its start the fit's break-in unless `startGiven`), in one job: the table's columns move to the worker and come back as the
- * curve's, and the event loop holds none of the passes over a million rows.
+ * A parsed log mapped to a curve (applyMapping, checkEnoughData) and then measured
+ * (durabilityMetrics, and with `onset` the onset search, its start the fit's break-in unless
+ * `startGiven`), in one job: the table's columns move to the worker and come back as the curve's,
+ * and the event loop holds none of the passes over a million rows.
  */
 export interface MapAndMeasureRequest {
   type: 'map-durability';

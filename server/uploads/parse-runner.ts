@@ -161,8 +161,8 @@ export class ParsePool {
   }
 
   /**
-   * applyMapping and checkEnoughData of a parsed log, then its durability fit (and onset search)
-   * as `durability` does, in one worker job: the table's columns are moved there and come back as
+   * applyMapping and checkEnoughData of a parsed log, then its durability fit (durabilityMetrics)
+   * and, given a rule, the onset search from the fit's break-in, in one worker job: the table's columns are moved there and come back as
    * the curve's (the table keeps only what is not a column). A refusal says its stage: `map`
    * (the mapping or the data) or `fit` (the measuring).
    */

@@ -1,6 +1,7 @@
-// The upload parse worker: reads one uploaded file at a time (guarded workbook or delimited
-// text) off the main event loop, under the memory limit the pool gave the thread, and sends the
-// parsed table back with its column buffers transferred, not copied.
+// The upload parse worker: reads uploaded files (guarded workbook, delimited text from disk or as it
+// is received) off the main event loop, under the memory limit the pool gave the thread, and sends
+// the parsed table back with its column buffers transferred, not copied; a log's table comes back
+// here to be mapped and measured (map-durability) in one job.
 import { parentPort } from 'node:worker_threads';
 import { CurveFileError } from '../../shared/curves/types';
 import { AppError } from '../lib/errors';
