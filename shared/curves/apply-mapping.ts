@@ -229,7 +229,7 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
    * A column converted in place by a factor of 1 whose summary shows every value passes the checks
    * is left as it is: the pass would write each value back unchanged.
    */
-  const unchangedInPlace = (values: Float64Array, target: Float64Array, passes: boolean) => target === values && passes && rowCount === values.length;
+  const unchangedInPlace = (values: Float64Array, target: Float64Array, passes: boolean) => target === values && passes;
   if (slips.length > 0) {
     const slip = slips[0];
     const entry = mapping[slip.role] as { column: number };
@@ -303,8 +303,8 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const total = currentUnit === 'A' || currentUnit === 'mA';
     j = output(currentValues, mapping.current.column);
     // A/cm² as read, every value above 0 (no −0 to make +0) and within a cell's: nothing to convert or refuse
-    const asRead = scale === 1 && currentSummary !== null && currentSummary.finite === rowCount && currentSummary.min > 0 && currentSummary.max <= MAX_CURRENT_DENSITY;
-    for (let row = 0; row < (asRead && unchangedInPlace(currentValues, j, true) ? 0 : rowCount); row++) {
+    const asRead = scale === 1 && currentSummary !== null && unchangedInPlace(currentValues, j, currentSummary.finite === rowCount && currentSummary.min > 0 && currentSummary.max <= MAX_CURRENT_DENSITY);
+    for (let row = 0; row < (asRead ? 0 : rowCount); row++) {
       const raw = currentValues[row];
       // 0 × −1 is −0: add 0 to keep open circuit a plain zero
       const density = raw * scale + 0;
@@ -451,7 +451,7 @@ export function applyMapping(table: ParsedTable, mapping: ColumnMapping, options
     const blanks = table.missingCells?.[mapping.temperature.column];
     if (blanks) notes.push(`temperature "${temperatureName}" blank or not a number on ${blanks.count} row${blanks.count === 1 ? '' : 's'} (first line ${blanks.firstLine}): read as missing`);
     // °C as read, every value above 0 (no −0 to make +0): nothing to convert or refuse (blanks stay NaN)
-    const asRead = shift === 0 && temperatureSummary !== null && temperatureSummary.min > 0 && unchangedInPlace(temperatureValues, temperatureC, true);
+    const asRead = shift === 0 && temperatureSummary !== null && unchangedInPlace(temperatureValues, temperatureC, temperatureSummary.min > 0);
     for (let row = 0; row < (asRead ? 0 : rowCount); row++) {
       const celsius = temperatureValues[row] + shift;
       if (celsius !== celsius) {
